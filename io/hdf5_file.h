@@ -1,0 +1,66 @@
+/// \file hdf5_file.h
+/// \brief A small RAII wrapper over the HDF5 C API: files, groups (made on demand from
+/// paths), whole datasets, frame-by-frame datasets, and string/number attributes.
+#pragma once
+#include <hdf5.h>
+
+#include <string>
+#include <vector>
+
+namespace ty::h5 {
+
+/// Owns one HDF5 identifier and closes it with the matching H5*close.
+class Handle {
+ public:
+  Handle() = default;
+  Handle(hid_t id, herr_t (*close)(hid_t)) : id_(id), close_(close) {}
+  Handle(const Handle&) = delete;
+  Handle& operator=(const Handle&) = delete;
+  Handle(Handle&& o) noexcept : id_(o.id_), close_(o.close_) { o.id_ = -1; }
+  Handle& operator=(Handle&& o) noexcept;
+  ~Handle();
+  hid_t id() const { return id_; }
+  explicit operator bool() const { return id_ >= 0; }
+
+ private:
+  hid_t id_ = -1;
+  herr_t (*close_)(hid_t) = nullptr;
+};
+
+class File {
+ public:
+  static File create(const std::string& path);  ///< truncates
+  static File open(const std::string& path);    ///< read-only
+  hid_t id() const { return h_.id(); }
+
+  /// Writes a whole dataset of the given shape (row-major), making parent groups.
+  void write(const std::string& path, const std::vector<hsize_t>& shape, const double* data,
+             const std::string& units);
+  void write(const std::string& path, const std::vector<hsize_t>& shape, const float* data,
+             const std::string& units);
+  void write(const std::string& path, const std::vector<hsize_t>& shape, const int* data, const std::string& units);
+  /// A dataset [frames][ny][nx] written one frame at a time, chunked per frame.
+  void create_frames(const std::string& path, hsize_t frames, hsize_t ny, hsize_t nx, bool single,
+                     const std::string& units);
+  void write_frame(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const float* data);
+  void write_frame(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const double* data);
+
+  void attribute(const std::string& object, const std::string& name, const std::string& value);
+  void attribute(const std::string& object, const std::string& name, double value);
+
+  /// Reading back (tests and measurements).
+  std::vector<double> read(const std::string& path, std::vector<hsize_t>* shape = nullptr) const;
+  std::string read_attribute(const std::string& object, const std::string& name) const;
+  bool exists(const std::string& path) const;
+
+ private:
+  Handle h_;
+  void make_groups(const std::string& path);
+  template <class T>
+  void write_any(const std::string& path, const std::vector<hsize_t>& shape, const T* data, hid_t type,
+                 const std::string& units);
+  template <class T>
+  void frame_any(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const T* data, hid_t type);
+};
+
+}  // namespace ty::h5

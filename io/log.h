@@ -1,0 +1,21 @@
+/// \file log.h
+/// \brief The run's messages: printed on the terminal (stderr) and kept in log.txt.
+#pragma once
+#include <fstream>
+#include <string>
+
+namespace ty {
+
+class Log {
+ public:
+  void open(const std::string& path) { file_.open(path, std::ios::trunc); }
+  void quiet(bool q) { quiet_ = q; }
+  void info(const std::string& line);
+  void warn(const std::string& line) { info("warning: " + line); }
+
+ private:
+  std::ofstream file_;
+  bool quiet_ = false;
+};
+
+}  // namespace ty

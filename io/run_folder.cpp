@@ -1,0 +1,138 @@
+/// \file run_folder.cpp
+/// \brief Writing a run folder; XDMF 3 for the snapshot time series (xdmf.org format
+/// description: 2DRectMesh topology, VXVY geometry, HyperSlab data items into HDF5).
+#include "io/run_folder.h"
+
+#include <fmt/format.h>
+
+#include <filesystem>
+#include <fstream>
+
+#include "io/scene_writer.h"
+
+namespace ty {
+
+namespace fs = std::filesystem;
+
+namespace {
+const char* kPartial = "fields.h5.partial";
+}
+
+RunFolder::RunFolder(const std::string& dir, const Scene& scene) : dir_(dir), scene_(scene) {
+  std::error_code ec;
+  fs::create_directories(dir_, ec);
+  if (!fs::is_directory(dir_)) throw std::runtime_error(fmt::format("cannot make the run folder '{}'", dir_));
+  for (auto f : {"fields.h5", "fields.xmf", "summary.json", kPartial}) fs::remove(path(f), ec);
+  std::ofstream(path("scene.yaml")) << "# resolved by terayee: every default filled in, every value in SI\n"
+                                    << resolved_scene_yaml(scene);
+}
+
+RunFolder::~RunFolder() {
+  if (!done_) abandon();
+}
+
+void RunFolder::begin(const YeeGrid& g, const SnapshotPlan& plan, bool single, const std::vector<int>& medium_map,
+                      int map_nx, int map_ny) {
+  h5_ = std::make_unique<h5::File>(h5::File::create(path(kPartial)));
+  plan_ = plan;
+  single_ = single;
+  h5::File& f = *h5_;
+  const double cell[2] = {g.dx, g.dy};
+  f.write("/grid/cell", {2}, cell, "m");
+  f.write("/grid/medium", {static_cast<hsize_t>(map_ny), static_cast<hsize_t>(map_nx)}, medium_map.data(), "");
+  f.attribute("/grid/medium", "meaning", "index into the scene's media, -1 = vacuum; row 0 is the lowest y");
+  std::vector<double> cx(map_nx), cy(map_ny);
+  for (int i = 0; i < map_nx; ++i) cx[i] = (i + 0.5) * g.dx - scene_.origin_shift.x;
+  for (int j = 0; j < map_ny; ++j) cy[j] = (j + 0.5) * g.dy - scene_.origin_shift.y;
+  f.write("/grid/medium-x", {cx.size()}, cx.data(), "m");
+  f.write("/grid/medium-y", {cy.size()}, cy.data(), "m");
+  std::string names;
+  for (const auto& m : scene_.media) names += (names.empty() ? "" : ",") + m.name;
+  f.attribute("/grid/medium", "media", names);
+  f.attribute("/grid", "time-step", g.dt);
+  f.attribute("/", "title", scene_.title);
+  f.attribute("/", "terayee-version", TERAYEE_VERSION);
+  if (!plan.steps.empty()) {
+    f.write("/snapshots/time", {plan.times.size()}, plan.times.data(), "s");
+    for (const auto& sf : plan.fields) {
+      f.write("/grid/" + sf.name + "/x", {sf.x.size()}, sf.x.data(), "m");
+      f.write("/grid/" + sf.name + "/y", {sf.y.size()}, sf.y.data(), "m");
+      const std::string ds = "/snapshots/" + sf.name;
+      f.create_frames(ds, plan.steps.size(), sf.nj, sf.ni, single, sf.units);
+      f.attribute(ds, "time-offset", sf.time_offset);
+      f.attribute(ds, "layout", "[frame][y][x]; row 0 is the lowest y");
+    }
+  }
+}
+
+void RunFolder::frame(std::size_t k, double, std::size_t field, const float* data) {
+  const auto& sf = plan_.fields[field];
+  h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
+}
+
+void RunFolder::frame(std::size_t k, double, std::size_t field, const double* data) {
+  const auto& sf = plan_.fields[field];
+  h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
+}
+
+void RunFolder::finish(const std::vector<ProbeRecorder>& probes, double dt, const nlohmann::json& summary) {
+  h5::File& f = *h5_;
+  for (const auto& p : probes) {
+    std::vector<double> t(p.count);
+    for (long k = 0; k < p.count; ++k) t[k] = (k + 1) * dt;
+    const std::string base = "/probes/" + p.name;
+    f.write(base + "/time", {t.size()}, t.data(), "s");
+    for (const auto& name : p.fields) {
+      const auto v = p.series(name);
+      f.write(base + "/" + name, {v.size()}, v.data(), field_units(name));
+    }
+    const double at[2] = {p.at.x - scene_.origin_shift.x, p.at.y - scene_.origin_shift.y};
+    f.write(base + "/at", {2}, at, "m");
+  }
+  h5_.reset();  // closes the file
+  fs::rename(path(kPartial), path("fields.h5"));
+  write_xdmf();
+  std::ofstream(path("summary.json")) << summary.dump(2) << "\n";
+  done_ = true;
+}
+
+void RunFolder::abandon() {
+  h5_.reset();
+  std::error_code ec;
+  fs::remove(path(kPartial), ec);
+  done_ = true;
+}
+
+void RunFolder::write_xdmf() const {
+  std::ofstream x(path("fields.xmf"));
+  x << "<?xml version=\"1.0\" ?>\n<Xdmf Version=\"3.0\">\n<Domain>\n";
+  const int prec = single_ ? 4 : 8;
+  for (const auto& sf : plan_.fields) {
+    x << fmt::format("<Grid Name=\"{}\" GridType=\"Collection\" CollectionType=\"Temporal\">\n", sf.name);
+    for (size_t k = 0; k < plan_.times.size(); ++k) {
+      x << fmt::format("  <Grid Name=\"{}-{}\" GridType=\"Uniform\">\n", sf.name, k);
+      x << fmt::format("    <Time Value=\"{:.9g}\"/>\n", plan_.times[k] + sf.time_offset);
+      x << fmt::format("    <Topology TopologyType=\"2DRectMesh\" Dimensions=\"{} {}\"/>\n", sf.nj, sf.ni);
+      x << "    <Geometry GeometryType=\"VXVY\">\n";
+      x << fmt::format(
+          "      <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" Format=\"HDF\">fields.h5:/grid/{}/x</DataItem>\n",
+          sf.ni, sf.name);
+      x << fmt::format(
+          "      <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" Format=\"HDF\">fields.h5:/grid/{}/y</DataItem>\n",
+          sf.nj, sf.name);
+      x << "    </Geometry>\n";
+      x << fmt::format("    <Attribute Name=\"{} ({})\" AttributeType=\"Scalar\" Center=\"Node\">\n", sf.name, sf.units);
+      x << fmt::format("      <DataItem ItemType=\"HyperSlab\" Dimensions=\"{} {}\" Type=\"HyperSlab\">\n", sf.nj, sf.ni);
+      x << fmt::format("        <DataItem Dimensions=\"3 3\" Format=\"XML\">{} 0 0 1 1 1 1 {} {}</DataItem>\n", k, sf.nj,
+                       sf.ni);
+      x << fmt::format(
+          "        <DataItem Dimensions=\"{} {} {}\" NumberType=\"Float\" Precision=\"{}\" Format=\"HDF\">fields.h5:/snapshots/{}</DataItem>\n",
+          plan_.times.size(), sf.nj, sf.ni, prec, sf.name);
+      x << "      </DataItem>\n    </Attribute>\n  </Grid>\n";
+    }
+    x << "</Grid>\n";
+  }
+  x << "</Domain>\n</Xdmf>\n";
+}
+
+}  // namespace ty

@@ -1,0 +1,73 @@
+/// \file scene.cpp
+/// \brief Names of the scene's enumerations and the point-in-shape tests of bodies.
+#include "io/scene.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace ty {
+
+const char* component_name(Component c) {
+  static const char* names[] = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz"};
+  return names[static_cast<int>(c)];
+}
+
+const char* boundary_name(Boundary b) {
+  switch (b) {
+    case Boundary::absorbing: return "absorbing";
+    case Boundary::periodic: return "periodic";
+    case Boundary::electric_wall: return "electric-wall";
+    case Boundary::magnetic_wall: return "magnetic-wall";
+  }
+  return "?";
+}
+
+bool Shape::contains(Vec2 p) const {
+  switch (kind) {
+    case Kind::rectangle: {
+      const double dx = p.x - centre.x, dy = p.y - centre.y;
+      const double c = std::cos(rotate), s = std::sin(rotate);
+      const double u = c * dx + s * dy, v = -s * dx + c * dy;  // into the rectangle's own frame
+      return std::abs(u) <= 0.5 * size.x && std::abs(v) <= 0.5 * size.y;
+    }
+    case Kind::circle: {
+      const double dx = p.x - centre.x, dy = p.y - centre.y;
+      return dx * dx + dy * dy <= radius * radius;
+    }
+    case Kind::polygon: {  // even-odd crossing rule
+      bool inside = false;
+      const size_t n = vertices.size();
+      for (size_t a = 0, b = n - 1; a < n; b = a++) {
+        const Vec2 &pa = vertices[a], &pb = vertices[b];
+        if ((pa.y > p.y) != (pb.y > p.y) && p.x < (pb.x - pa.x) * (p.y - pa.y) / (pb.y - pa.y) + pa.x) inside = !inside;
+      }
+      return inside;
+    }
+  }
+  return false;
+}
+
+void Shape::bounds(Vec2& lo, Vec2& hi) const {
+  switch (kind) {
+    case Kind::rectangle: {
+      const double c = std::abs(std::cos(rotate)), s = std::abs(std::sin(rotate));
+      const double hx = 0.5 * (c * size.x + s * size.y), hy = 0.5 * (s * size.x + c * size.y);
+      lo = {centre.x - hx, centre.y - hy};
+      hi = {centre.x + hx, centre.y + hy};
+      return;
+    }
+    case Kind::circle:
+      lo = {centre.x - radius, centre.y - radius};
+      hi = {centre.x + radius, centre.y + radius};
+      return;
+    case Kind::polygon:
+      lo = hi = vertices.empty() ? Vec2{} : vertices[0];
+      for (const auto& v : vertices) {
+        lo = {std::min(lo.x, v.x), std::min(lo.y, v.y)};
+        hi = {std::max(hi.x, v.x), std::max(hi.y, v.y)};
+      }
+      return;
+  }
+}
+
+}  // namespace ty

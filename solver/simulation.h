@@ -1,0 +1,135 @@
+/// \file simulation.h
+/// \brief A simulation built from a Scene: the Yee grid with its fields, the media as
+/// run-length coefficient rows, the convolutional PML strips, the sources as lists of
+/// per-row injections, the recorders, and the time step that advances them all.
+///
+/// One step (leapfrog, Yee 1966), row by row in a single pass over memory: for row j,
+/// H(j) from E(j), E(j+1) (plus the PML correction and the row's magnetic injections),
+/// then E(j) from H(j), H(j-1) (plus PML and electric injections). A thread owns a block
+/// of rows and does the H of its last row first, so no row reads a neighbour's new E.
+/// Every value is computed the same way whatever the thread count: results are
+/// bit-for-bit identical for any number of threads.
+#pragma once
+#include <array>
+#include <complex>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "io/scene.h"
+#include "solver/aligned.h"
+#include "solver/cpml.h"
+#include "solver/recorders.h"
+#include "solver/waveform.h"
+#include "solver/yee_grid.h"
+
+namespace ty {
+
+template <class R>
+class Simulation {
+ public:
+  /// threads = 0: the scene's setting (or all cores when that is auto).
+  explicit Simulation(const Scene& scene, int threads = 0);
+
+  const YeeGrid& grid() const { return g_; }
+  const Scene& scene() const { return scene_; }
+  int threads() const { return threads_; }
+  long total_steps() const { return total_steps_; }
+  long steps_done() const { return n_; }
+  double time() const { return n_ * g_.dt; }  ///< time of E now
+
+  /// One time step with sources, without recorders.
+  void step();
+  /// One time step, then the recorders.
+  void advance();
+
+  R* field(Component c) { return f_[static_cast<int>(c)].data(); }
+  const R* field(Component c) const { return f_[static_cast<int>(c)].data(); }
+  R& at(Component c, int i, int j) { return f_[static_cast<int>(c)][g_.at(i, j)]; }
+
+  /// Electromagnetic energy per unit length in z, J/m (E at n, H at n-1/2).
+  double field_energy() const;
+  /// The first node holding a NaN or infinity, if any (row-major, E before H).
+  bool find_nonfinite(int& i, int& j, Component& c) const;
+
+  std::vector<ProbeRecorder>& probes() { return probes_; }
+  const SnapshotPlan& snapshot_plan() const { return snap_; }
+  void set_snapshot_sink(SnapshotSink* sink) { sink_ = sink; }
+  /// Medium index of each cell of the extent ([row][column], -1 = vacuum).
+  const std::vector<int>& medium_map() const { return medium_map_; }
+  int map_nx() const { return map_nx_; }
+  int map_ny() const { return map_ny_; }
+  /// Bytes held by fields, coefficients, absorbers and recorders.
+  std::size_t memory_bytes() const { return bytes_; }
+  /// Periodic walls, 1 if the number of cells-per-wavelength etc. Messages for the log.
+  const std::vector<std::string>& notes() const { return notes_; }
+
+ private:
+  struct Run {
+    int i0, i1;
+    R ca, kx, ky;
+  };
+  struct Injection {
+    long index;
+    int comp;
+    int row;
+    int slot;  // value slot
+  };
+  struct Emitter {  // value of one injection: Re[A g_s(t - tau)], or coef * signal for points
+    std::complex<double> A;
+    double tau;
+    int signal;
+    bool h_phase;
+  };
+
+  Scene scene_;
+  YeeGrid g_;
+  int threads_ = 1;
+  long total_steps_ = 0;
+  long n_ = 0;
+  R sx_, sy_;  // c dt / dx, c dt / dy
+  std::array<AlignedArray<R>, 6> f_;
+  // media: runs per (row, E component), flat; row_runs_[3 j + c] .. [3 j + c + 1]
+  std::vector<Run> runs_;
+  std::vector<int> row_runs_;
+  std::vector<char> simple_row_;  // vacuum-like row: one run per component, ca = 1, equal k
+  // PML
+  CpmlAxis px_, py_;
+  std::vector<R> pbx_[2], pax_[2], pkx_[2], pby_[2], pay_[2], pky_[2];
+  AlignedArray<R> psi_hyx_, psi_hzx_, psi_eyx_, psi_ezx_, cb_eyx_, cb_ezx_;  // [row][column of px_]
+  AlignedArray<R> psi_hxy_, psi_hzy_, psi_exy_, psi_ezy_, cb_exy_, cb_ezy_;  // [row of py_][column]
+  std::vector<int> pml_row_of_;  // row -> index into py_.lines, or -1
+  // sources
+  std::vector<Signal> signals_;
+  std::vector<Emitter> emitters_;
+  std::vector<double> emitter_value_;
+  std::vector<Injection> inj_h_, inj_e_;
+  std::vector<int> inj_h_row_, inj_e_row_;  // offsets per row, size ny+1
+  // walls
+  bool periodic_x_ = false, periodic_y_ = false, magnetic_x_ = false, magnetic_y_ = false;
+  // recorders
+  std::vector<ProbeRecorder> probes_;
+  SnapshotPlan snap_;
+  std::size_t next_frame_ = 0;
+  SnapshotSink* sink_ = nullptr;
+  std::vector<R> frame_buf_;
+  std::vector<int> medium_map_;
+  int map_nx_ = 0, map_ny_ = 0;
+  std::size_t bytes_ = 0;
+  std::vector<std::string> notes_;
+
+  void build_media(std::vector<double> (&cb)[3]);
+  void build_pml(const std::vector<double> (&cb)[3]);
+  void build_sources(const std::vector<double> (&cb)[3]);
+  void build_recorders();
+  void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);
+  void compute_emitters();
+  void h_row(int j);
+  void e_row(int j);
+  void record();
+};
+
+extern template class Simulation<float>;
+extern template class Simulation<double>;
+
+}  // namespace ty

@@ -1,0 +1,25 @@
+/// \file commands.h
+/// \brief The subcommands of the terayee program.
+#pragma once
+#include <string>
+#include <vector>
+
+namespace ty {
+
+struct RunOptions {
+  std::string scene;
+  std::string out;
+  int threads = 0;
+  std::vector<std::string> sets;
+  bool quiet = false;
+};
+
+int run_command(const RunOptions& o);
+int check_command(const std::string& scene, const std::vector<std::string>& sets);
+int bench_command(int size, int threads, const std::string& precision, double seconds);
+
+/// Cell-updates per second of a square vacuum grid with periodic sides (used by bench
+/// and by check's run-time estimate).
+double measure_vacuum_rate(int size, int threads, bool single, double seconds, int samples);
+
+}  // namespace ty

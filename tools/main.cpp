@@ -1,0 +1,58 @@
+/// \file main.cpp
+/// \brief The terayee command line: run, check, bench. Exit status 0 success,
+/// 1 run-time failure, 2 bad input or usage.
+#include <CLI/CLI.hpp>
+#include <fmt/format.h>
+
+#include <iostream>
+
+#include "io/diagnostics.h"
+#include "tools/commands.h"
+
+int main(int argc, char** argv) {
+  CLI::App app{"terayee: 2D FDTD simulation of terahertz waves in dielectric and magnetically ordered media"};
+  app.set_version_flag("--version", std::string("terayee ") + TERAYEE_VERSION);
+  app.require_subcommand(1);
+
+  ty::RunOptions run;
+  auto* r = app.add_subcommand("run", "Run a scene and write its run folder");
+  r->add_option("scene", run.scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
+  r->add_option("-o,--out", run.out, "Run folder to write")->required();
+  r->add_option("--threads", run.threads, "OpenMP threads (overrides time.threads)")->check(CLI::PositiveNumber);
+  r->add_option("--set", run.sets, "Override a scene value: key.path=value (repeatable)");
+  r->add_flag("--quiet", run.quiet, "No progress line or log on the terminal");
+
+  std::string check_scene;
+  std::vector<std::string> check_sets;
+  auto* c = app.add_subcommand("check", "Validate a scene and print what a run would cost");
+  c->add_option("scene", check_scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
+  c->add_option("--set", check_sets, "Override a scene value: key.path=value (repeatable)");
+
+  int size = 1024, threads = 0;
+  double seconds = 0.5;
+  std::string precision = "double";
+  auto* b = app.add_subcommand("bench", "Measure cell-updates per second");
+  b->add_option("--size", size, "Cells per side of the square grid")->check(CLI::Range(16, 16384));
+  b->add_option("--threads", threads, "OpenMP threads (default: all)")->check(CLI::PositiveNumber);
+  b->add_option("--precision", precision, "double or single")->check(CLI::IsMember({"double", "single"}));
+  b->add_option("--seconds", seconds, "Length of one timed sample")->check(CLI::Range(0.05, 60.0));
+
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    const int code = app.exit(e);
+    return code == 0 ? 0 : 2;
+  }
+  try {
+    if (*r) return ty::run_command(run);
+    if (*c) return ty::check_command(check_scene, check_sets);
+    if (*b) return ty::bench_command(size, threads, precision, seconds);
+  } catch (const ty::BadInput& e) {
+    std::cerr << e.what() << "\n";
+    return 2;
+  } catch (const std::exception& e) {
+    std::cerr << "terayee: error: " << e.what() << "\n";
+    return 1;
+  }
+  return 2;
+}

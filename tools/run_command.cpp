@@ -1,0 +1,130 @@
+/// \file run_command.cpp
+/// \brief `terayee run SCENE -o RUN`: reads and checks the scene, steps the simulation
+/// with a progress line, and writes the run folder. Ctrl-C stops the run cleanly
+/// (nothing is left that looks like a result).
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+#include <unistd.h>
+
+#include <chrono>
+#include <cmath>
+#include <csignal>
+#include <iostream>
+
+#include "io/log.h"
+#include "io/run_folder.h"
+#include "io/scene_reader.h"
+#include "solver/simulation.h"
+#include "tools/commands.h"
+
+namespace ty {
+namespace {
+
+volatile std::sig_atomic_t g_stop = 0;
+void on_signal(int) { g_stop = 1; }
+
+std::string hms(double s) {
+  const long t = std::lround(std::max(0.0, s));
+  return fmt::format("{:02d}:{:02d}:{:02d}", t / 3600, (t / 60) % 60, t % 60);
+}
+
+template <class R>
+int run_with(const Scene& scene, const RunOptions& o) {
+  Log log;
+  RunFolder folder(o.out, scene);
+  log.open(folder.path("log.txt"));
+  log.quiet(o.quiet);
+  log.info(fmt::format("terayee {}: {}", TERAYEE_VERSION, scene.title.empty() ? scene.file : scene.title));
+  for (const auto& w : scene.warnings) log.warn(w);
+
+  Simulation<R> sim(scene, o.threads);
+  const YeeGrid& g = sim.grid();
+  for (const auto& n : sim.notes()) log.warn(n);
+  log.info(fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
+                       "{} threads, {} precision, {:.1f} MB",
+                       g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(),
+                       sim.threads(), sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
+  folder.begin(g, sim.snapshot_plan(), sizeof(R) == 4, sim.medium_map(), sim.map_nx(), sim.map_ny());
+  sim.set_snapshot_sink(&folder);
+
+  g_stop = 0;
+  auto old_int = std::signal(SIGINT, on_signal);
+  auto old_term = std::signal(SIGTERM, on_signal);
+  const bool tty = isatty(STDERR_FILENO) && !o.quiet;
+  const auto t0 = std::chrono::steady_clock::now();
+  const long N = sim.total_steps();
+  const long every = std::max(1L, N / 100);
+  int last_plain = -1;
+  double rate = 0;
+  for (long n = 0; n < N; ++n) {
+    sim.advance();
+    if (g_stop) {
+      std::signal(SIGINT, old_int);
+      std::signal(SIGTERM, old_term);
+      folder.abandon();
+      log.info(fmt::format("stopped at step {} of {}; the partial results were removed", n + 1, N));
+      return 1;
+    }
+    if ((n + 1) % every != 0 && n + 1 != N) continue;
+    int i, j;
+    Component c;
+    if (sim.find_nonfinite(i, j, c)) {
+      folder.abandon();
+      const double x = g.x(c, i) - scene.origin_shift.x, y = g.y(c, j) - scene.origin_shift.y;
+      log.info(fmt::format("error: the field {} became non-finite by step {} (t = {:.4g} ps) at node ({}, {}), "
+                           "x = {:.4g} mm, y = {:.4g} mm. Check the medium there; rerun with a smaller "
+                           "time.courant (e.g. --set time.courant=0.5) to see whether it is a stability problem.",
+                           component_name(c), n + 1, (n + 1) * g.dt * 1e12, i, j, x * 1e3, y * 1e3));
+      return 1;
+    }
+    const double el = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+    rate = el > 0 ? static_cast<double>(g.cells()) * (n + 1) / el : 0;
+    const int pct = static_cast<int>(100.0 * (n + 1) / N);
+    const std::string line =
+        fmt::format("{:3d}%  t = {:.4g} ps  elapsed {}  eta {}  {:.3g} cell-updates/s", pct, (n + 1) * g.dt * 1e12,
+                    hms(el), hms(el * (N - n - 1) / (n + 1)), rate);
+    if (tty) {
+      std::cerr << "\r" << line << std::flush;
+    } else if (!o.quiet && pct / 5 != last_plain) {
+      last_plain = pct / 5;
+      std::cerr << line << "\n";
+    }
+  }
+  if (tty) std::cerr << "\n";
+  std::signal(SIGINT, old_int);
+  std::signal(SIGTERM, old_term);
+  const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+  nlohmann::json s;
+  s["terayee-version"] = TERAYEE_VERSION;
+  s["title"] = scene.title;
+  s["scene"] = scene.file;
+  s["completed"] = true;
+  s["steps"] = N;
+  s["time-step-s"] = g.dt;
+  s["simulated-time-s"] = N * g.dt;
+  s["cells"] = {{"x", g.nx}, {"y", g.ny}, {"absorbing-x", g.npml_x}, {"absorbing-y", g.npml_y}, {"total", g.cells()}};
+  s["cell-size-m"] = {g.dx, g.dy};
+  s["threads"] = sim.threads();
+  s["precision"] = sizeof(R) == 4 ? "single" : "double";
+  s["wall-time-s"] = wall;
+  s["cell-updates-per-s"] = wall > 0 ? static_cast<double>(g.cells()) * N / wall : 0.0;
+  s["memory-bytes"] = sim.memory_bytes();
+  std::vector<std::string> warnings = scene.warnings;
+  warnings.insert(warnings.end(), sim.notes().begin(), sim.notes().end());
+  s["warnings"] = warnings;
+  s["energy"] = {{"field-energy-at-end-J-per-m", sim.field_energy()}};
+  folder.finish(sim.probes(), g.dt, s);
+  log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", N, hms(wall),
+                       s["cell-updates-per-s"].get<double>(), o.out));
+  return 0;
+}
+
+}  // namespace
+
+int run_command(const RunOptions& o) {
+  const Scene scene = read_scene(o.scene, o.sets);
+  if (scene.time.precision == Precision::single) return run_with<float>(scene, o);
+  return run_with<double>(scene, o);
+}
+
+}  // namespace ty
