@@ -499,7 +499,7 @@ void Simulation<R>::step() {
   const int ny = g_.ny;
   const long s = g_.stride;
   if (periodic_y_)
-    for (int c = 0; c < 3; ++c) std::copy_n(f_[c].data() + g_.at(-1, 0) - 0, s, f_[c].data() + g_.at(-1, ny));
+    for (int c = 0; c < 3; ++c) std::copy_n(f_[c].data() + g_.row_begin(0), s, f_[c].data() + g_.row_begin(ny));
 #pragma omp parallel num_threads(threads_)
   {
     int j0, j1;
@@ -507,7 +507,7 @@ void Simulation<R>::step() {
     if (j1 > j0) h_row(j1 - 1);
 #pragma omp barrier
     if (periodic_y_ && j0 == 0 && j1 > 0)
-      for (int c = 3; c < 6; ++c) std::copy_n(f_[c].data() + g_.at(-1, ny - 1), s, f_[c].data() + g_.at(-1, -1));
+      for (int c = 3; c < 6; ++c) std::copy_n(f_[c].data() + g_.row_begin(ny - 1), s, f_[c].data() + g_.row_begin(-1));
     for (int j = j0; j < j1 - 1; ++j) {
       h_row(j);
       e_row(j);

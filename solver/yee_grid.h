@@ -33,6 +33,8 @@ struct YeeGrid {
 
   /// Flat index of node (i, j); i in [-1, nx], j in [-1, ny].
   long at(int i, int j) const { return (static_cast<long>(j) + 1) * stride + lead + i; }
+  /// Flat index where row j's storage begins (its ghost and padding included).
+  long row_begin(int j) const { return (static_cast<long>(j) + 1) * stride; }
   std::size_t size() const { return static_cast<std::size_t>(ny + 2) * static_cast<std::size_t>(stride); }
   long cells() const { return static_cast<long>(nx) * ny; }
 

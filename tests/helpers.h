@@ -1,0 +1,65 @@
+/// \file helpers.h
+/// \brief Small helpers for the tests: scenes built in code, a DFT, zero crossings.
+#pragma once
+#include <cmath>
+#include <complex>
+#include <vector>
+
+#include "io/scene.h"
+#include "io/units.h"
+
+namespace ty::test {
+
+/// An empty vacuum scene of nx x ny cells of size d, no absorber unless the boundary says so.
+inline Scene box_scene(int nx, int ny, double d, Boundary bx, Boundary by, double courant, double stop) {
+  Scene s;
+  s.title = "test";
+  s.grid.dx = s.grid.dy = d;
+  s.grid.extent = {nx * d, ny * d};
+  s.grid.bx = bx;
+  s.grid.by = by;
+  s.time.courant = courant;
+  s.time.stop = stop;
+  s.time.threads = 2;
+  return s;
+}
+
+inline Source point_source(Component c, Vec2 at, double f, double fwhm, double delay, double amplitude) {
+  Source s;
+  s.kind = Source::Kind::point;
+  s.component = c;
+  s.at = at;
+  s.frequency = f;
+  s.amplitude = amplitude;
+  s.waveform.kind = Waveform::Kind::pulse;
+  s.waveform.fwhm = fwhm;
+  s.waveform.delay = delay;
+  return s;
+}
+
+/// X(f) = sum_n x_n exp(+i 2 pi f t_n) dt (the exp(-i w t) convention of the outputs).
+inline std::complex<double> dft(const std::vector<double>& x, double dt, double f, double t0 = 0) {
+  std::complex<double> s = 0;
+  const double w = 2 * constants::pi * f;
+  for (size_t n = 0; n < x.size(); ++n) {
+    const double t = t0 + n * dt;
+    s += x[n] * std::complex<double>(std::cos(w * t), std::sin(w * t));
+  }
+  return s * dt;
+}
+
+/// Frequency of a pure oscillation from its first and last upward zero crossings.
+inline double crossing_frequency(const std::vector<double>& x, double dt) {
+  double first = -1, last = -1;
+  int count = 0;
+  for (size_t n = 1; n < x.size(); ++n)
+    if (x[n - 1] < 0 && x[n] >= 0) {
+      const double t = (n - 1 + x[n - 1] / (x[n - 1] - x[n])) * dt;
+      if (first < 0) first = t;
+      last = t;
+      ++count;
+    }
+  return count > 1 ? (count - 1) / (last - first) : 0.0;
+}
+
+}  // namespace ty::test

@@ -1,0 +1,93 @@
+/// \file test_fresnel.cpp
+/// \brief Normal-incidence reflection from a dielectric half-space: a plane-wave pulse
+/// launched by the one-sided line source, the reflected wave recorded behind the launch
+/// line (only scattered field lives there), normalised by the incident spectrum of a
+/// run without the half-space. r = (1 - n)/(1 + n) for the tangential E (Born & Wolf,
+/// Principles of Optics, 7th ed., sec. 1.5.2), so the Ez of the Ez wave reflects with a
+/// negative sign and the Hz of the Hz wave with a positive one.
+#include <doctest/doctest.h>
+
+#include "solver/recorders.h"
+#include "solver/simulation.h"
+#include "tests/helpers.h"
+
+using namespace ty;
+
+namespace {
+
+constexpr double kCell = 5e-6;
+constexpr int kNx = 700, kNy = 2;
+constexpr double kLaunch = 200 * kCell, kInterface = 400 * kCell, kProbe = 100 * kCell;
+
+std::vector<double> run(Component pol, double eps, bool with_body, double probe_x, double* dt) {
+  Scene s = test::box_scene(kNx, kNy, kCell, Boundary::absorbing, Boundary::periodic, 0.95, 1e-9);
+  if (with_body) {
+    Medium m;
+    m.name = "half-space";
+    m.permittivity = {eps, eps, eps};
+    s.media.push_back(m);
+    Body b;
+    b.shape.kind = Shape::Kind::rectangle;
+    b.shape.centre = {kInterface + 0.5 * kNx * kCell, 0.5 * kNy * kCell};
+    b.shape.size = {kNx * kCell, 10 * kNy * kCell};  // reaches past the extent: continues through the absorber
+    s.bodies.push_back(b);
+  }
+  Source src;
+  src.kind = Source::Kind::plane;
+  src.component = pol;
+  src.angle = 0;
+  src.line_axis = 'x';
+  src.line_at = kLaunch;
+  src.frequency = 0.6e12;
+  src.amplitude = 1e3;
+  src.waveform.kind = Waveform::Kind::pulse;
+  src.waveform.fwhm = 1.0e-12;
+  src.waveform.delay = 3.0e-12;
+  s.sources.push_back(src);
+  Simulation<double> sim(s, 2);
+  *dt = sim.grid().dt;
+  const PointStencil p = point_stencil(sim.grid(), pol, {probe_x, 0.5 * kNy * kCell});
+  std::vector<double> out;
+  const long steps = static_cast<long>(30e-12 / *dt);
+  for (long k = 0; k < steps; ++k) {
+    sim.step();
+    double v = 0;
+    for (int q = 0; q < 4; ++q) v += p.weight[q] * sim.field(pol)[p.index[q]];
+    out.push_back(v);
+  }
+  return out;
+}
+
+}  // namespace
+
+TEST_CASE("Fresnel reflection at normal incidence, both polarizations") {
+  for (Component pol : {Component::Ez, Component::Hz}) {
+    for (double eps : {4.0, 2.25}) {
+      const double n = std::sqrt(eps), r_e = (1 - n) / (1 + n);
+      const double expected = pol == Component::Ez ? r_e : -r_e;  // Hz reflects with the opposite sign
+      double dt = 0;
+      const auto reflected = run(pol, eps, true, kProbe, &dt);
+      const auto incident = run(pol, eps, false, kInterface, &dt);
+      const double tau = (kInterface - kProbe) / constants::c0;  // extra path of the reflected wave
+      double worst = 0, fmax_checked = 0;
+      int checked = 0;
+      for (double f = 0.2e12; f <= 1.0e12; f += 0.05e12) {
+        const double cells_per_wavelength = constants::c0 / (f * n) / kCell;
+        if (cells_per_wavelength < 30) continue;
+        const auto I = test::dft(incident, dt, f), Rf = test::dft(reflected, dt, f);
+        const std::complex<double> r =
+            Rf / I * std::complex<double>(std::cos(2 * constants::pi * f * tau), -std::sin(2 * constants::pi * f * tau));
+        worst = std::max(worst, std::abs(std::abs(r) / std::abs(expected) - 1));
+        // the sign: the phase of r, after removing the path, is 0 or pi to within the
+        // half-cell uncertainty of the interface position
+        CHECK(r.real() * expected > 0.9 * std::abs(r) * std::abs(expected));
+        fmax_checked = f;
+        ++checked;
+      }
+      MESSAGE(std::string(component_name(pol)) << " wave, eps = " << eps << ": worst |r| error " << worst * 100
+                                  << "% over 0.2-" << fmax_checked / 1e12 << " THz (" << checked << " frequencies)");
+      CHECK(checked >= 10);
+      CHECK(worst < 0.005);
+    }
+  }
+}
