@@ -72,7 +72,7 @@ class Reader {
   /// A quantity of kind `k`. `cell` resolves `cells` (0: not allowed here); `period`
   /// resolves `periods` (0: not allowed here).
   std::optional<double> quantity(const YAML::Node& n, std::string_view key, Kind k, double cell = 0,
-                                 double period = 0, std::string_view period_why = "") {
+                                 double period = 0) {
     auto t = text(n, key);
     if (!t) return std::nullopt;
     std::string why;
@@ -90,7 +90,9 @@ class Reader {
     }
     if (q->relative == Quantity::Relative::periods) {
       if (period <= 0) {
-        error(n, fmt::format("'{}': 'periods' needs one source frequency{}", key, period_why));
+        error(n, fmt::format("'{}': 'periods' needs a source frequency, and one only (the sources here have "
+                             "none or several); give a time in s, ns or ps",
+                             key));
         return std::nullopt;
       }
       return q->value * period;
@@ -302,10 +304,12 @@ class SceneBuilder {
           med.permittivity = {*e, *e, *e};
         }
         for (double e : med.permittivity)
-          if (!(e >= 1.0))
+          if (!(e >= 1.0)) {
             r_.error(p, fmt::format("{}: permittivity must be at least 1 (a value below 1 would make the local "
                                     "speed of light exceed the time step's limit), got {}",
                                     where, e));
+            break;
+          }
       }
       if (const auto& s = v["conductivity"]) {
         if (auto c = r_.quantity(s, "conductivity", Kind::conductivity)) {
@@ -378,15 +382,20 @@ class SceneBuilder {
       r_.error(g["cells-per-wavelength"], "grid: give either 'cell' or 'cells-per-wavelength', not both");
       ok = false;
     } else if (const auto& c = g["cell"]) {
+      bool read = false;
       if (c.IsSequence()) {
         if (auto v = r_.vec2(c, "cell", Kind::length)) {
           G.dx = v->x;
           G.dy = v->y;
+          read = true;
         }
       } else if (auto v = r_.quantity(c, "cell", Kind::length)) {
         G.dx = G.dy = *v;
+        read = true;
       }
-      if (!(G.dx > 0 && G.dy > 0)) {
+      if (!read) {
+        ok = false;
+      } else if (!(G.dx > 0 && G.dy > 0)) {
         r_.error(c, "'cell' must be a positive length");
         ok = false;
       }

@@ -137,8 +137,9 @@ std::optional<Quantity> parse_quantity(std::string_view text, Kind k, std::strin
   for (const auto& u : kUnits) {
     if (u.name != unit) continue;
     if (u.kind != k) {
-      why = fmt::format("'{}' is a {}, but a {} is expected here ({})", s, kind_name(u.kind), kind_name(k),
-                        kind_units(k));
+      auto article = [](std::string_view w) { return std::string_view("aeiou").find(w[0]) != std::string_view::npos ? "an" : "a"; };
+      why = fmt::format("'{}' is {} {}, but {} {} is expected here ({})", s, article(kind_name(u.kind)),
+                        kind_name(u.kind), article(kind_name(k)), kind_name(k), kind_units(k));
       return std::nullopt;
     }
     return Quantity{number * u.to_si};

@@ -1,0 +1,127 @@
+/// \file test_run_folder.cpp
+/// \brief End to end: `terayee run` on the bundled scene writes the run folder of
+/// scene-format.md (HDF5 with units on every dataset, XDMF, summary, log, resolved
+/// scene); the resolved scene reads back to the same scene; a stopped run leaves no
+/// results behind.
+#include <doctest/doctest.h>
+#include <sys/wait.h>
+
+#include <array>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <sstream>
+
+#include "io/hdf5_file.h"
+#include "io/scene_reader.h"
+
+namespace fs = std::filesystem;
+using namespace ty;
+
+namespace {
+
+int shell(const std::string& cmd) {
+  const int status = std::system((cmd + " > /dev/null 2>&1").c_str());
+  return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+}
+
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p);
+  std::stringstream ss;
+  ss << in.rdbuf();
+  return ss.str();
+}
+
+}  // namespace
+
+TEST_CASE("a run folder holds self-describing HDF5, XDMF, summary, log and the resolved scene") {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/window-beam.yaml";
+  const fs::path dir = fs::temp_directory_path() / "terayee-test-run";
+  fs::remove_all(dir);
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + dir.string() +
+                "' --threads 2 --set time.stop=6ps --set outputs.0.snapshots.every=2ps") == 0);
+  for (auto f : {"scene.yaml", "fields.h5", "fields.xmf", "summary.json", "log.txt"}) CHECK(fs::exists(dir / f));
+  CHECK_FALSE(fs::exists(dir / "fields.h5.partial"));
+
+  const auto summary = nlohmann::json::parse(slurp(dir / "summary.json"));
+  CHECK(summary["completed"] == true);
+  CHECK(summary["cell-updates-per-s"].get<double>() > 0);
+  const long steps = summary["steps"];
+  const double dt = summary["time-step-s"];
+  CHECK(steps * dt == doctest::Approx(6e-12).epsilon(dt / 6e-12 + 1e-9));
+
+  const auto h = h5::File::open((dir / "fields.h5").string());
+  std::vector<hsize_t> shape;
+  const auto times = h.read("/snapshots/time", &shape);
+  REQUIRE(times.size() == 3);  // 2, 4, 6 ps
+  CHECK(times[0] == doctest::Approx(2e-12).epsilon(dt / 2e-12));
+  for (const char* f : {"Ez", "Hx", "Hy"}) {
+    const std::string name = f;
+    const auto x = h.read("/grid/" + name + "/x"), y = h.read("/grid/" + name + "/y");
+    h.read("/snapshots/" + name, &shape);
+    REQUIRE(shape.size() == 3);
+    CHECK(shape[0] == 3);
+    CHECK(shape[1] == y.size());
+    CHECK(shape[2] == x.size());
+    CHECK(h.read_attribute("/snapshots/" + name, "units") == (name[0] == 'E' ? "V/m" : "A/m"));
+    CHECK(h.read_attribute("/grid/" + name + "/x", "units") == "m");
+    // stride 2 over a 6 mm extent centred on the origin
+    CHECK(x.front() >= -3e-3 - 1e-12);
+    CHECK(x.back() <= 3e-3 + 1e-12);
+    CHECK(x[1] - x[0] == doctest::Approx(40e-6));
+  }
+  // Hx sits half a cell above Ez (its own staggered position)
+  CHECK(h.read("/grid/Hx/y")[0] - h.read("/grid/Ez/y")[0] == doctest::Approx(10e-6));
+  const auto ez = h.read("/snapshots/Ez");
+  double peak = 0;
+  for (double v : ez) peak = std::max(peak, std::abs(v));
+  CHECK(peak > 100);   // the 1 kV/m beam is in the grid
+  CHECK(peak < 3000);  // and nothing blew up
+  const auto medium = h.read("/grid/medium", &shape);
+  CHECK(shape == std::vector<hsize_t>{200, 300});
+  CHECK(std::count(medium.begin(), medium.end(), 0.0) > 1000);  // the window
+  CHECK(h.read("/probes/behind-window/Ez").size() == static_cast<size_t>(steps));
+  CHECK(h.read_attribute("/probes/behind-window/Sx", "units") == "W/m^2");
+  CHECK(h.read_attribute("/probes/behind-window/time", "units") == "s");
+
+  const std::string xmf = slurp(dir / "fields.xmf");
+  CHECK(xmf.find("fields.h5:/snapshots/Ez") != std::string::npos);
+  CHECK(xmf.find("CollectionType=\"Temporal\"") != std::string::npos);
+  CHECK(xmf.find("2DRectMesh") != std::string::npos);
+
+  // the resolved scene is a valid scene and reads back to the same values
+  const Scene a = read_scene(scene, {"time.stop=6ps"});
+  const Scene b = read_scene((dir / "scene.yaml").string());
+  CHECK(b.grid.dx == doctest::Approx(a.grid.dx));
+  CHECK(b.time.stop == doctest::Approx(a.time.stop));
+  CHECK(b.sources.at(0).waist == doctest::Approx(a.sources.at(0).waist));
+  CHECK(b.sources.at(0).waveform.ramp == doctest::Approx(a.sources.at(0).waveform.ramp));
+  CHECK(b.bodies.at(0).shape.rotate == doctest::Approx(a.bodies.at(0).shape.rotate));
+  CHECK(b.bodies.at(0).shape.centre.x == doctest::Approx(a.bodies.at(0).shape.centre.x));
+  CHECK(b.outputs.size() == a.outputs.size());
+  fs::remove_all(dir);
+}
+
+TEST_CASE("a run stopped by a signal leaves no results") {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/window-beam.yaml";
+  const fs::path dir = fs::temp_directory_path() / "terayee-test-stopped";
+  fs::remove_all(dir);
+  const int rc = shell("timeout --preserve-status -s INT 1 " + std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" +
+                       dir.string() + "' --set time.stop=20ns");
+  CHECK(rc == 1);
+  CHECK_FALSE(fs::exists(dir / "fields.h5"));
+  CHECK_FALSE(fs::exists(dir / "fields.h5.partial"));
+  CHECK_FALSE(fs::exists(dir / "summary.json"));
+  fs::remove_all(dir);
+}
+
+TEST_CASE("--set overrides any scene value and is checked like the file") {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/window-beam.yaml";
+  const Scene s = read_scene(scene, {"sources.0.beam.angle=10 deg", "grid.cell=25 um"});
+  CHECK(s.sources.at(0).angle == doctest::Approx(10 * 3.14159265358979 / 180));
+  CHECK(s.grid.dx == doctest::Approx(25e-6));
+  CHECK_THROWS_AS(read_scene(scene, {"time.stop=5"}), BadInput);
+  CHECK_THROWS_AS(read_scene(scene, {"sources.7.beam.angle=1 deg"}), BadInput);
+  CHECK_THROWS_AS(read_scene(scene, {"nonsense"}), BadInput);
+}

@@ -1,0 +1,24 @@
+#!/usr/bin/env bash
+# Installs what terayee needs to build (Debian packages, only those missing), then
+# configures and builds it in build/ (Release). Run it from anywhere; it is idempotent.
+#   tools/setup.sh            build
+#   BUILD_TYPE=Debug tools/setup.sh, SANITIZE=ON tools/setup.sh (into build-sanitize/)
+set -euo pipefail
+root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+packages=(cmake g++ make libhdf5-dev libyaml-cpp-dev libfmt-dev nlohmann-json3-dev doctest-dev libcli11-dev)
+missing=()
+for p in "${packages[@]}"; do
+  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
+done
+if [ ${#missing[@]} -gt 0 ]; then
+  echo "terayee setup: installing ${missing[*]}" >&2
+  sudo=""
+  [ "$(id -u)" -eq 0 ] || sudo="sudo"
+  $sudo apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -qq "${missing[@]}" >/dev/null
+fi
+build="$root/build"
+sanitize="${SANITIZE:-OFF}"
+[ "$sanitize" = "ON" ] && build="$root/build-sanitize"
+cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE="${BUILD_TYPE:-Release}" -DTERAYEE_SANITIZE="$sanitize" >/dev/null
+cmake --build "$build" -j "$(nproc)"
