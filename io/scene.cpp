@@ -22,6 +22,10 @@ const char* boundary_name(Boundary b) {
   return "?";
 }
 
+double Magnet::exchange_field() const {
+  return sublattices.empty() ? 0.0 : lambda * sublattices[0].saturation;
+}
+
 bool Shape::contains(Vec2 p) const {
   switch (kind) {
     case Kind::rectangle: {

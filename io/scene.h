@@ -56,8 +56,32 @@ struct TimeSpec {
   int threads = 0;       ///< 0 = auto
 };
 
+/// One sublattice of a magnetic medium.
+struct Sublattice {
+  double saturation = 0;  ///< mu0*Ms, T
+  double g = 2.0;         ///< Lande g
+  double damping = 0;     ///< Gilbert alpha
+};
+
+struct UniaxialAnisotropy {
+  std::array<double, 3> axis{0, 0, 1};  ///< unit vector, scene coordinates
+  double field = 0;                      ///< mu0*H_A, T; > 0 easy axis, < 0 hard axis
+};
+
+/// The `magnet` block: sublattice magnetizations moved by the Landau-Lifshitz-Gilbert
+/// equation (conventions in docs/magnets.md).
+struct Magnet {
+  std::vector<Sublattice> sublattices;        ///< 1 (ferromagnet, ferrite) or 2
+  double lambda = 0;                          ///< molecular-field constant, H_ex,1 = -lambda M2
+  std::vector<UniaxialAnisotropy> anisotropy;
+  std::array<double, 3> dzyaloshinskii{0, 0, 0};  ///< mu0*H_D, T
+  std::array<double, 3> order{0, 0, 0};           ///< sublattice 1's side; zero = not given
+  double exchange_field() const;                  ///< mu0*H_E = lambda * mu0*Ms1, T
+};
+
 struct Medium {
   std::string name;
+  std::optional<Magnet> magnet;
   std::array<double, 3> permittivity{1, 1, 1};  ///< relative, along x, y, z
   double conductivity = 0;                      ///< S/m
   bool perfect_conductor = false;

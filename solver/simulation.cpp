@@ -64,6 +64,11 @@ Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   magnetic_y_ = G.by == Boundary::magnetic_wall;
   threads_ = threads > 0 ? threads : scene.time.threads > 0 ? scene.time.threads : omp_get_max_threads();
 
+  for (const Body& b : scene.bodies)
+    if (scene.media[b.medium].magnet)
+      throw BadInput(fmt::format("{}:{}:{}: error: medium '{}' is magnetic; `terayee check` analyses it, but this "
+                                 "version cannot run it in the time domain yet",
+                                 b.where.file, b.where.line, b.where.column, scene.media[b.medium].name));
   for (auto& a : f_) a.resize(g_.size());
   bytes_ += 6 * g_.size() * sizeof(R);
   std::vector<double> cb[3];

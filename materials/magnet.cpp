@@ -1,0 +1,57 @@
+/// \file magnet.cpp
+/// \brief Effective field and energy of a sublattice magnet (formulas in magnet.h).
+#include "materials/magnet.h"
+
+#include <cmath>
+
+namespace ty {
+
+double gyromagnetic_ratio(double g) { return g * constants::mu_B / constants::hbar; }
+
+MagnetModel::MagnetModel(const Magnet& m, const std::array<double, 3>& b0) {
+  n = static_cast<int>(m.sublattices.size());
+  for (int s = 0; s < n; ++s) {
+    mu[s] = m.sublattices[s].saturation;
+    gamma[s] = gyromagnetic_ratio(m.sublattices[s].g);
+    alpha[s] = m.sublattices[s].damping;
+  }
+  lambda = m.lambda;
+  for (const auto& a : m.anisotropy) {
+    axis.push_back(Vec3(a.axis[0], a.axis[1], a.axis[2]).normalized());
+    b_a.push_back(a.field);
+  }
+  b_d = Vec3(m.dzyaloshinskii[0], m.dzyaloshinskii[1], m.dzyaloshinskii[2]);
+  mu_d = n == 2 ? std::sqrt(mu[0] * mu[1]) : 0.0;
+  bias = Vec3(b0[0], b0[1], b0[2]);
+  order = Vec3(m.order[0], m.order[1], m.order[2]);
+}
+
+Vec3 MagnetModel::field(int s, const std::array<Vec3, 2>& m, const Vec3& b) const {
+  Vec3 h = bias + b;
+  for (size_t k = 0; k < axis.size(); ++k) h += b_a[k] * m[s].dot(axis[k]) * axis[k];
+  if (n == 2) {
+    const int t = 1 - s;
+    h -= lambda * mu[t] * m[t];
+    if (s == 0) h += (mu_d / mu[0]) * b_d.cross(m[1]);
+    else h += (mu_d / mu[1]) * m[0].cross(b_d);
+  }
+  return h;
+}
+
+double MagnetModel::energy(const std::array<Vec3, 2>& m) const {
+  double e = 0;
+  for (int s = 0; s < n; ++s) {
+    e -= mu[s] * m[s].dot(bias);
+    for (size_t k = 0; k < axis.size(); ++k) e -= 0.5 * mu[s] * b_a[k] * std::pow(m[s].dot(axis[k]), 2);
+  }
+  if (n == 2) e += lambda * mu[0] * mu[1] * m[0].dot(m[1]) + mu_d * b_d.dot(m[0].cross(m[1]));
+  return e;
+}
+
+Vec3 MagnetModel::net(const std::array<Vec3, 2>& m) const {
+  Vec3 v = mu[0] * m[0];
+  if (n == 2) v += mu[1] * m[1];
+  return v;
+}
+
+}  // namespace ty
