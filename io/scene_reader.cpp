@@ -412,6 +412,10 @@ class SceneBuilder {
           if (auto v = r_.quantity(t["field"], "field", Kind::magnetic_field)) u.field = *v; else ok = false;
           g.anisotropy.push_back(u);
         }
+      if (g.anisotropy.size() > 4) {
+        r_.error(a, fmt::format("{}: at most four anisotropy terms are supported", here));
+        ok = false;
+      }
     }
     if (two && m["dzyaloshinskii"])
       if (auto v = r_.vec3(m["dzyaloshinskii"], "dzyaloshinskii", Kind::magnetic_field)) g.dzyaloshinskii = *v;

@@ -55,3 +55,37 @@ Vec3 MagnetModel::net(const std::array<Vec3, 2>& m) const {
 }
 
 }  // namespace ty
+
+#include "materials/llg_cell.h"
+
+namespace ty {
+
+LlgCoefficients LlgCoefficients::from(const MagnetModel& m, double dt, double f_max, double phase_error) {
+  LlgCoefficients p;
+  p.n = m.n;
+  double scale = m.bias.norm() + m.b_d.norm();
+  for (int s = 0; s < m.n; ++s) {
+    p.mu[s] = m.mu[s];
+    p.alpha[s] = m.alpha[s];
+    p.gp[s] = m.gamma[s] / (1 + m.alpha[s] * m.alpha[s]);
+  }
+  p.lambda = m.lambda;
+  if (m.n == 2) scale += std::abs(m.lambda) * std::max(m.mu[0], m.mu[1]);
+  p.mu_d = m.mu_d;
+  for (int c = 0; c < 3; ++c) p.bd[c] = m.b_d[c], p.bias[c] = m.bias[c];
+  if (m.axis.size() > 4) throw std::runtime_error("at most four anisotropy terms per magnet");
+  p.na = static_cast<int>(m.axis.size());
+  for (int k = 0; k < p.na; ++k) {
+    for (int c = 0; c < 3; ++c) p.axis[k][c] = m.axis[k][c];
+    p.ba[k] = m.b_a[k];
+    scale += std::abs(m.b_a[k]);
+  }
+  p.dt = dt;
+  const double w_max = 2 * M_PI * f_max, g_max = std::max(m.gamma[0], m.n == 2 ? m.gamma[1] : 0.0);
+  const double by_phase = w_max * dt / std::sqrt(12 * phase_error);
+  const double by_contraction = 0.5 * dt * g_max * scale / 0.25;
+  p.substeps = std::max(1, static_cast<int>(std::ceil(std::max(by_phase, by_contraction) - 1e-12)));
+  return p;
+}
+
+}  // namespace ty

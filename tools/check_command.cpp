@@ -11,10 +11,106 @@
 
 #include "io/scene_reader.h"
 #include "io/units.h"
+#include "materials/linear_response.h"
 #include "solver/yee_grid.h"
 #include "tools/commands.h"
 
 namespace ty {
+namespace {
+
+std::string direction(const Vec3& m) {
+  const double theta = std::acos(std::clamp(m.z(), -1.0, 1.0)) * 180 / constants::pi;
+  const double phi = std::atan2(m.y(), m.x()) * 180 / constants::pi;
+  return fmt::format("({:+.6f}, {:+.6f}, {:+.6f}) = polar {:.4f} deg, azimuth {:.4f} deg", m.x(), m.y(), m.z(), theta,
+                     phi);
+}
+
+std::string band_list(const std::vector<Band>& bands) {
+  if (bands.empty()) return "none";
+  std::string out;
+  for (const auto& b : bands) out += fmt::format("{}{:.4f}-{:.4f} GHz", out.empty() ? "" : ", ", b.from / 1e9, b.to / 1e9);
+  return out;
+}
+
+/// Ground state, resonances and negative-permeability bands of each magnetic medium;
+/// returns the number of warnings.
+int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
+  int warnings = 0;
+  for (size_t k = 0; k < s.media.size(); ++k) {
+    const Medium& med = s.media[k];
+    if (!med.magnet) continue;
+    const MagnetModel M(*med.magnet, s.bias);
+    const GroundStates gs = find_ground_states(M);
+    std::cout << fmt::format("  magnetic medium '{}' ({} sublattice{}), bias [{}, {}, {}] T:\n", med.name, M.n,
+                             M.n == 1 ? "" : "s", s.bias[0], s.bias[1], s.bias[2]);
+    std::cout << fmt::format("    ground state: {}{}\n", gs.ground.kind,
+                             gs.ground.soft ? " (degenerate: the state is chosen deterministically, see docs/magnets.md)" : "");
+    for (int q = 0; q < M.n; ++q) std::cout << fmt::format("      sublattice {}: {}\n", q + 1, direction(gs.ground.m[q]));
+    const Vec3 net = M.net(gs.ground.m);
+    std::cout << fmt::format("      net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", net.x(), net.y(), net.z());
+    for (const auto& st : gs.metastable)
+      std::cout << fmt::format("    metastable: {}, {:.6g} T^2 above (mu0 x energy density)\n", st.kind,
+                               st.energy - gs.ground.energy);
+    if (std::hypot(net.x(), net.y()) > 1e-9) {
+      std::cout << "    warning: the ground state has a net moment in the plane; the static field inside a body would "
+                   "differ from the bias (terayee does not solve static demagnetization)\n";
+      ++warnings;
+    }
+    const auto f = resonances(M, gs.ground);
+    std::string fl;
+    for (double x : f) fl += fmt::format("{}{:.4f} GHz", fl.empty() ? "" : ", ", x / 1e9);
+    std::cout << "    resonances: " << (fl.empty() ? "none" : fl) << "\n";
+    double lo = f_lo, hi = f_hi;
+    if (!f.empty()) lo = std::min(lo, 0.8 * f.front()), hi = std::max(hi, 1.2 * f.back());
+    if (!(hi > lo)) continue;
+    auto component = [&](int a, int b) {
+      return [&, a, b](double x) {
+        const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * x);
+        return mu(a, b).real();
+      };
+    };
+    auto voigt = [&](int normal) {
+      return [&, normal](double x) {
+        const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * x);
+        return voigt_permeability(mu, normal).real();
+      };
+    };
+    const int samples = 20000;
+    std::cout << fmt::format("    negative bands over {:.4f}-{:.4f} GHz (real parts):\n", lo / 1e9, hi / 1e9);
+    std::cout << "      mu_xx: " << band_list(negative_bands(component(0, 0), lo, hi, samples)) << "\n";
+    std::cout << "      mu_yy: " << band_list(negative_bands(component(1, 1), lo, hi, samples)) << "\n";
+    std::cout << "      mu_zz: " << band_list(negative_bands(component(2, 2), lo, hi, samples)) << "\n";
+    std::cout << "      Ez wave, interface normal x, mu_V: " << band_list(negative_bands(voigt(0), lo, hi, samples)) << "\n";
+    std::cout << "      Ez wave, interface normal y, mu_V: " << band_list(negative_bands(voigt(1), lo, hi, samples)) << "\n";
+    // resolution near the resonances inside the sources' band
+    for (double fr : f) {
+      if (fr < f_lo || fr > f_hi) continue;
+      const double run_res = 1.0 / s.time.stop;
+      double nmax = 0;
+      for (int q = -50; q <= 50; ++q) {
+        const double x = fr * (1 + 0.02 * q / 50.0);
+        const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * x);
+        nmax = std::max(nmax, std::sqrt(med.permittivity[2] * std::abs(voigt_permeability(mu, 1))));
+      }
+      const double cpw = constants::c0 / (fr * nmax) / cell;
+      if (run_res > 0.002 * fr) {
+        std::cout << fmt::format("    warning: the run resolves {:.3g} GHz, too coarse for the line at {:.4f} GHz "
+                                 "(its negative-permeability band is a fraction of a percent wide); run longer\n",
+                                 run_res / 1e9, fr / 1e9);
+        ++warnings;
+      }
+      if (cpw < 10) {
+        std::cout << fmt::format("    warning: within 2% of the line at {:.4f} GHz the wave has only {:.1f} cells per "
+                                 "wavelength in '{}'\n",
+                                 fr / 1e9, cpw, med.name);
+        ++warnings;
+      }
+    }
+  }
+  return warnings;
+}
+
+}  // namespace
 
 int check_command(const std::string& path, const std::vector<std::string>& sets) {
   const Scene s = read_scene(path, sets);
@@ -58,6 +154,19 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
     if (src.kind == Source::Kind::beam && src.waist < 2 * constants::c0 / src.frequency)
       std::cout << "    note: the waist is under two wavelengths; the beam is far from paraxial\n";
   }
+  double f_lo = 1e300, f_hi = 0;
+  for (const auto& src : s.sources) {
+    double a = src.frequency, b = src.frequency;
+    if (src.waveform.kind == Waveform::Kind::pulse) {
+      const double w = std::sqrt(2.0 * std::log(100.0)) * 2.0 * std::sqrt(std::log(2.0)) /
+                       (2 * constants::pi * src.waveform.fwhm);
+      a -= w, b += w;
+    } else if (src.waveform.kind == Waveform::Kind::chirp) {
+      a = std::min(src.waveform.from, src.waveform.to), b = std::max(src.waveform.from, src.waveform.to);
+    }
+    f_lo = std::min(f_lo, std::max(a, 0.01 * src.frequency)), f_hi = std::max(f_hi, b);
+  }
+  warnings += report_magnets(s, f_lo, f_hi, std::max(G.dx, G.dy));
   // run time from a short measurement of this machine's vacuum rate
   const int threads = s.time.threads > 0 ? s.time.threads : omp_get_max_threads();
   const double rate = measure_vacuum_rate(256, threads, real == 4, 0.1, 3);

@@ -1,0 +1,184 @@
+/// \file test_llg_cell.cpp
+/// \brief The bare integrator: one cell, a prescribed uniform field, no Maxwell coupling.
+/// It must ring at the linear-response resonances (linear_response.h, itself checked against
+/// the closed forms) within 1e-4 at the production time step (MnF2 at 20 cells per
+/// wavelength in the crystal, S = 0.5: dt = 4.1e-14 s, gamma mu0 H_E dt = 0.39, shared/
+/// references.md), converge at the order of its scheme (the midpoint rule's error is
+/// -(w dt)^2/12: the Cayley map's phase 2 atan(w dt/2), d'Aquino, Serpico & Miano 2005),
+/// keep |m_s| = 1 to round-off (1e-12 over 1e5 steps), and recover chi(omega) from its
+/// response to a small drive.
+#include <doctest/doctest.h>
+
+#include "materials/linear_response.h"
+#include "materials/llg_cell.h"
+#include "tests/helpers.h"
+
+using namespace ty;
+
+namespace {
+
+constexpr double kDt = 4.1e-14;
+
+Magnet mnf2(double alpha = 0) {  // references.md values (from memory there)
+  Magnet m;
+  m.sublattices = {{0.754, 2.0, alpha}, {0.754, 2.0, alpha}};
+  m.lambda = 55.0 / 0.754;
+  m.anisotropy = {{{0, 0, 1}, 0.787}};
+  m.order = {0, 0, 1};
+  return m;
+}
+
+// free ringing after a small tilt: net mu0*M_x (and y) per step
+// substeps = 0: the automatic choice
+std::vector<double> ring(const MagnetModel& M, double dt, long steps, int substeps, int component = 0) {
+  const auto gs = find_ground_states(M);
+  LlgCoefficients p = LlgCoefficients::from(M, dt, resonances(M, gs.ground).back());
+  if (substeps > 0) p.substeps = substeps;
+  double m[2][3];
+  for (int s = 0; s < M.n; ++s)
+    for (int c = 0; c < 3; ++c) m[s][c] = gs.ground.m[s][c];
+  // tilt sublattice 1 by 1e-4 rad about an axis perpendicular to it
+  const Vec3 axis = gs.ground.m[0].cross(Vec3(0.3, 0.5, 0.8)).normalized();
+  const Vec3 t = Eigen::AngleAxisd(1e-4, axis) * gs.ground.m[0];
+  for (int c = 0; c < 3; ++c) m[0][c] = t[c];
+  const double zero[3] = {0, 0, 0};
+  std::vector<double> out;
+  double dM[3];
+  for (long k = 0; k < steps; ++k) {
+    llg_cell_step(p, zero, zero, zero, m, dM);
+    out.push_back(M.mu[0] * m[0][component] + (M.n == 2 ? M.mu[1] * m[1][component] : 0.0));
+  }
+  return out;
+}
+
+double peak_near(std::vector<double> x, double dt, double f0, double span) {
+  const double mean = [&] { double s = 0; for (double v : x) s += v; return s / x.size(); }();
+  for (size_t n = 0; n < x.size(); ++n) x[n] = (x[n] - mean) * (0.5 - 0.5 * std::cos(2 * M_PI * n / (x.size() - 1)));
+  double lo = f0 * (1 - span), hi = f0 * (1 + span), best = lo, bv = 0;
+  for (int k = 0; k <= 200; ++k) {
+    const double f = lo + (hi - lo) * k / 200;
+    const double v = std::abs(test::dft(x, dt, f));
+    if (v > bv) bv = v, best = f;
+  }
+  const double w = (hi - lo) / 200;
+  lo = best - w, hi = best + w;
+  const double g = 0.5 * (std::sqrt(5.0) - 1);
+  for (int it = 0; it < 60; ++it) {
+    const double a = hi - g * (hi - lo), b = lo + g * (hi - lo);
+    if (std::abs(test::dft(x, dt, a)) > std::abs(test::dft(x, dt, b))) hi = b; else lo = a;
+  }
+  return 0.5 * (lo + hi);
+}
+
+}  // namespace
+
+TEST_CASE("bare integrator rings at the linear-response lines within 1e-4 at the production step") {
+  struct Case {
+    const char* name;
+    std::array<double, 3> bias;
+  };
+  for (const Case& c : {Case{"zero bias", {0, 0, 0}}, Case{"1 T along the easy axis", {0, 0, 1}},
+                        Case{"1 T transverse", {1, 0, 0}}}) {
+    const MagnetModel M(mnf2(), c.bias);
+    const auto gs = find_ground_states(M);
+    const auto lines = resonances(M, gs.ground);
+    std::vector<std::vector<double>> x;
+    for (int comp : {0, 1, 2}) x.push_back(ring(M, kDt, 1 << 17, 0, comp));
+    for (double f : lines) {
+      // the component in which this line is strongest
+      int best = 0;
+      double strongest = 0;
+      for (int comp = 0; comp < 3; ++comp) {
+        const double a = std::abs(test::dft(x[comp], kDt, f));
+        if (a > strongest) strongest = a, best = comp;
+      }
+      const double measured = peak_near(x[best], kDt, f, 0.001);
+      MESSAGE(std::string(c.name) << ": line " << f / 1e9 << " GHz, integrator " << measured / 1e9
+                                  << " GHz (component " << best << "), error " << measured / f - 1);
+      CHECK(std::abs(measured / f - 1) < 1e-4);
+    }
+  }
+}
+
+TEST_CASE("bare integrator: the midpoint rule converges as dt^2 with the predicted error") {
+  const MagnetModel M(mnf2(), {0, 0, 0});
+  const double fr = resonances(M, find_ground_states(M).ground)[0];
+  const double wr = 2 * M_PI * fr;
+  auto error = [&](int substeps) {
+    const long steps = static_cast<long>(3e-9 / kDt);
+    return test::crossing_frequency(ring(M, kDt, steps, substeps), kDt) / fr - 1;
+  };
+  const double e1 = error(1), e2 = error(2), e3 = error(3);
+  MESSAGE("midpoint, 1/2/3 sub-steps: errors " << e1 << ", " << e2 << ", " << e3 << " (ratio " << e1 / e2
+                                               << "); -(w dt)^2/12 = " << -std::pow(wr * kDt, 2) / 12);
+  CHECK(e1 / e2 == doctest::Approx(4.0).epsilon(0.02));
+  CHECK(e1 == doctest::Approx(-std::pow(wr * kDt, 2) / 12).epsilon(0.02));
+  CHECK(e1 / e3 == doctest::Approx(9.0).epsilon(0.02));
+  const LlgCoefficients p = LlgCoefficients::from(M, kDt, fr);
+  // phase error (w_r dt / n)^2 / 12 below 2.5e-5 needs n = 4 here
+  MESSAGE("automatic choice at the production step: " << p.substeps << " sub-steps");
+  CHECK(p.substeps == 4);
+}
+
+TEST_CASE("bare integrator keeps |m| = 1 to 1e-12 over 1e5 steps of a large damped drive") {
+  const MagnetModel M(mnf2(0.01), {0, 0, 0.5});
+  const auto gs = find_ground_states(M);
+  const LlgCoefficients p = LlgCoefficients::from(M, kDt, resonances(M, gs.ground).back());
+  double m[2][3];
+  for (int s = 0; s < 2; ++s)
+    for (int c = 0; c < 3; ++c) m[s][c] = gs.ground.m[s][c];
+  const double w = 2 * M_PI * 255e9, b0 = 2.0;  // a 2 T rotating field near the lower line
+  double worst = 0, tilt = 0, dM[3];
+  for (long k = 0; k < 100000; ++k) {
+    const double t0 = k * kDt, t1 = t0 + kDt;
+    const double bo[3] = {b0 * std::cos(w * t0), b0 * std::sin(w * t0), 0};
+    const double bn[3] = {b0 * std::cos(w * t1), b0 * std::sin(w * t1), 0};
+    const double zero[3] = {0, 0, 0};
+    llg_cell_step(p, bo, bn, zero, m, dM);
+    for (int s = 0; s < 2; ++s) worst = std::max(worst, std::abs(std::sqrt(m[s][0] * m[s][0] + m[s][1] * m[s][1] + m[s][2] * m[s][2]) - 1));
+    tilt = std::max(tilt, std::acos(std::clamp(m[0][2], -1.0, 1.0)));
+  }
+  MESSAGE("max | |m| - 1 | = " << worst << ", largest tilt " << tilt * 180 / M_PI << " deg");
+  CHECK(worst < 1e-12);
+  CHECK(tilt > 0.1);  // the drive really moved the sublattices
+}
+
+TEST_CASE("bare integrator recovers chi(omega), diagonal and off-diagonal, within 1%") {
+  const MagnetModel M(mnf2(0.01), {0, 0, 1.0});  // gyrotropic: chi_xy != 0
+  const auto gs = find_ground_states(M);
+  const LlgCoefficients p = LlgCoefficients::from(M, kDt, resonances(M, gs.ground).back());
+  for (double f : {120e9, 200e9, 330e9, 500e9}) {
+    const double w = 2 * M_PI * f, b0 = 1e-5;
+    double m[2][3];
+    for (int s = 0; s < 2; ++s)
+      for (int c = 0; c < 3; ++c) m[s][c] = gs.ground.m[s][c];
+    const Vec3 M0 = M.net(gs.ground.m);
+    // settle (damped: the transient dies within a few hundred periods), then one DFT over whole periods
+    const long per = static_cast<long>(std::lround(1.0 / (f * kDt)));
+    const double dt = 1.0 / (f * per);  // a whole number of steps per period
+    LlgCoefficients q = p;
+    q.dt = dt;
+    std::complex<double> X = 0, Y = 0;
+    const long settle = 400 * per, window = 200 * per;
+    double dM[3];
+    const double zero[3] = {0, 0, 0};
+    for (long k = 0; k < settle + window; ++k) {
+      const double t0 = k * dt, t1 = t0 + dt;
+      const double ramp0 = std::min(1.0, t0 / (50.0 / f)), ramp1 = std::min(1.0, t1 / (50.0 / f));
+      const double bo[3] = {b0 * ramp0 * std::cos(w * t0), 0, 0}, bn[3] = {b0 * ramp1 * std::cos(w * t1), 0, 0};
+      llg_cell_step(q, bo, bn, zero, m, dM);
+      if (k < settle) continue;
+      const double mx = M.mu[0] * m[0][0] + M.mu[1] * m[1][0] - M0.x();
+      const double my = M.mu[0] * m[0][1] + M.mu[1] * m[1][1] - M0.y();
+      const std::complex<double> e(std::cos(w * t1), std::sin(w * t1));
+      X += mx * e;
+      Y += my * e;
+    }
+    X *= 2.0 / window / b0;
+    Y *= 2.0 / window / b0;
+    const Mat3c chi = susceptibility(M, gs.ground, w);
+    MESSAGE(std::to_string(f / 1e9) << " GHz: chi_xx " << X << " vs " << chi(0, 0) << ", chi_yx " << Y << " vs " << chi(1, 0));
+    CHECK(std::abs(X - chi(0, 0)) < 0.01 * std::abs(chi(0, 0)));
+    CHECK(std::abs(Y - chi(1, 0)) < 0.01 * std::abs(chi(1, 0)));
+  }
+}
