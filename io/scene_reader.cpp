@@ -970,10 +970,20 @@ class SceneBuilder {
           else
             out.fields.push_back(name);
         } else if (magnetic.count(name)) {
-          r_.error(f, fmt::format("field '{}' needs a magnetic medium, which this version does not support yet", name));
-          ok = false;
+          bool any = false;
+          for (const auto& m : scene_.media) any |= m.magnet.has_value();
+          if (!any) {
+            r_.error(f, fmt::format("field '{}' needs a magnetic medium in the scene", name));
+            ok = false;
+          } else if (std::find(out.fields.begin(), out.fields.end(), name) != out.fields.end()) {
+            r_.error(f, fmt::format("field '{}' is listed twice", name));
+          } else {
+            out.fields.push_back(name);
+          }
         } else {
-          r_.error(f, fmt::format("unknown field '{}' (Ex Ey Ez Hx Hy Hz Sx Sy S)", name));
+          r_.error(f, fmt::format("unknown field '{}' (Ex Ey Ez Hx Hy Hz Sx Sy S; with magnets Mx My Mz Lx Ly Lz "
+                                  "dLx dLy dLz M1x ... M2z)",
+                                  name));
           ok = false;
         }
       }

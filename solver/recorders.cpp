@@ -21,7 +21,11 @@ PointStencil point_stencil(const YeeGrid& g, Component c, Vec2 p) {
   return s;
 }
 
+bool is_magnetic_field(const std::string& f) { return f[0] == 'M' || f[0] == 'L' || f[0] == 'd'; }
+
 const char* field_units(const std::string& f) {
+  if (f[0] == 'M') return "T";
+  if (f[0] == 'L' || f[0] == 'd') return "1";
   if (f[0] == 'E') return "V/m";
   if (f[0] == 'H') return "A/m";
   if (f[0] == 'S') return "W/m^2";
@@ -30,6 +34,8 @@ const char* field_units(const std::string& f) {
 
 std::vector<double> ProbeRecorder::series(const std::string& field) const {
   const long n = count;
+  for (size_t f = 0; f < magnetic.size(); ++f)
+    if (magnetic[f] == field) return std::vector<double>(magnetic_series[f].begin(), magnetic_series[f].begin() + n);
   auto raw_of = [&](int c, long k) { return raw[static_cast<size_t>(k) * 6 + c]; };
   auto aligned = [&](int c, long k) {  // component c at the E time of record k, SI
     if (c < 3) return raw_of(c, k);
@@ -71,9 +77,12 @@ SnapshotPlan plan_snapshots(const Scene& s, const Output& o, const YeeGrid& g, l
     static const char* names[6] = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz"};
     for (int k = 0; k < 6; ++k)
       if (name == names[k]) c = static_cast<Component>(k);
+    if (is_magnetic_field(name)) c = Component::Hz;  // magnetizations live at the cell centres
     f.node = c;
     f.units = field_units(name);
-    f.time_offset = is_electric(c) || name[0] == 'S' ? 0.0 : -0.5 * g.dt;
+    // H and M frames lag the E time by half a step; S is formed at the E time
+    const bool half_step = is_magnetic_field(name) || (!is_electric(c) && name[0] != 'S');
+    f.time_offset = half_step ? -0.5 * g.dt : 0.0;
     f.stride = o.stride;
     const int ia = std::max(0, static_cast<int>(std::ceil(g.fi(c, lo.x) - eps)));
     const int ib = std::min(g.nx - 1, static_cast<int>(std::floor(g.fi(c, hi.x) + eps)));

@@ -32,6 +32,12 @@ struct ProbeRecorder {
   std::array<PointStencil, 6> stencil;
   std::vector<double> raw;  ///< per recorded step: the six components as stored (E in V/m, eta0*H)
   long count = 0;
+  /// Magnetic fields (Mx, Lx, ...): bilinear over the four nearest cell centres (cells that
+  /// are not magnetic count as zero), recorded at the magnetization's time, n + 1/2.
+  std::vector<std::string> magnetic;
+  std::array<int, 4> cells{-1, -1, -1, -1};
+  std::array<double, 4> cell_weight{};
+  std::vector<std::vector<double>> magnetic_series;
   /// The time-aligned series of one field in SI (E in V/m, H in A/m, S in W/m^2).
   std::vector<double> series(const std::string& field) const;
 };
@@ -64,5 +70,6 @@ struct SnapshotPlan {
 SnapshotPlan plan_snapshots(const Scene& s, const Output& o, const YeeGrid& g, long total_steps);
 
 const char* field_units(const std::string& field);
+bool is_magnetic_field(const std::string& field);
 
 }  // namespace ty

@@ -64,15 +64,11 @@ Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   magnetic_y_ = G.by == Boundary::magnetic_wall;
   threads_ = threads > 0 ? threads : scene.time.threads > 0 ? scene.time.threads : omp_get_max_threads();
 
-  for (const Body& b : scene.bodies)
-    if (scene.media[b.medium].magnet)
-      throw BadInput(fmt::format("{}:{}:{}: error: medium '{}' is magnetic; `terayee check` analyses it, but this "
-                                 "version cannot run it in the time domain yet",
-                                 b.where.file, b.where.line, b.where.column, scene.media[b.medium].name));
   for (auto& a : f_) a.resize(g_.size());
   bytes_ += 6 * g_.size() * sizeof(R);
   std::vector<double> cb[3];
   build_media(cb);
+  build_magnets();
   build_pml(cb);
   build_sources(cb);
   build_recorders();
@@ -342,6 +338,20 @@ void Simulation<R>::build_recorders() {
       p.fields = o.fields;
       for (int c = 0; c < 6; ++c) p.stencil[c] = point_stencil(g_, static_cast<Component>(c), o.at);
       p.raw.assign(static_cast<size_t>(total_steps_) * 6, 0.0);
+      for (const auto& f : o.fields)
+        if (is_magnetic_field(f)) {
+          p.magnetic.push_back(f);
+          p.magnetic_series.emplace_back(static_cast<size_t>(total_steps_), 0.0);
+        }
+      if (!p.magnetic.empty() && !mag_.empty()) {
+        const PointStencil st = point_stencil(g_, Component::Hz, o.at);
+        for (int q = 0; q < 4; ++q) {
+          const long idx = st.index[q];
+          const int j = static_cast<int>(idx / g_.stride) - 1, i = static_cast<int>(idx % g_.stride - g_.lead);
+          p.cells[q] = mag_.cell_of[static_cast<size_t>(j) * g_.nx + i];
+          p.cell_weight[q] = st.weight[q];
+        }
+      }
       bytes_ += p.raw.size() * sizeof(double);
       probes_.push_back(std::move(p));
     } else {
@@ -500,6 +510,11 @@ void Simulation<R>::e_row(int j) {
 
 template <class R>
 void Simulation<R>::step() {
+  if (mag_.empty()) step_fused(); else step_split();
+}
+
+template <class R>
+void Simulation<R>::step_fused() {
   compute_emitters();
   const int ny = g_.ny;
   const long s = g_.stride;
@@ -531,6 +546,12 @@ void Simulation<R>::record() {
       for (int q = 0; q < 4; ++q) v += p.stencil[c].weight[q] * f_[c][p.stencil[c].index[q]];
       p.raw[static_cast<size_t>(k) * 6 + c] = v;
     }
+    for (size_t f = 0; f < p.magnetic.size(); ++f) {
+      double v = 0;
+      for (int q = 0; q < 4; ++q)
+        if (p.cells[q] >= 0) v += p.cell_weight[q] * magnetic_value(p.magnetic[f], p.cells[q]);
+      p.magnetic_series[f][k] = v;
+    }
     p.count = k + 1;
   }
   if (next_frame_ >= snap_.steps.size() || snap_.steps[next_frame_] != k) return;
@@ -546,7 +567,10 @@ void Simulation<R>::record() {
         const int i = sf.i0 + a * sf.stride, j = sf.j0 + b * sf.stride;
         const long id = g_.at(i, j);
         double v;
-        if (!derived) {
+        if (is_magnetic_field(sf.name)) {
+          const int cell = mag_.empty() ? -1 : mag_.cell_of[static_cast<size_t>(j) * g_.nx + i];
+          v = cell >= 0 ? magnetic_value(sf.name, cell) : 0.0;
+        } else if (!derived) {
           v = F[c][id];
           if (c >= 3) v /= eta0;
         } else {  // Poynting vector at the Ez node from neighbour averages

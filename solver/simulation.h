@@ -19,6 +19,7 @@
 #include "io/scene.h"
 #include "solver/aligned.h"
 #include "solver/cpml.h"
+#include "solver/magnetic_cells.h"
 #include "solver/recorders.h"
 #include "solver/waveform.h"
 #include "solver/yee_grid.h"
@@ -49,6 +50,13 @@ class Simulation {
 
   /// Electromagnetic energy per unit length in z, J/m (E at n, H at n-1/2).
   double field_energy() const;
+  /// Energy of the magnetic media relative to their ground states (exchange, anisotropy,
+  /// bias, DM; the wave-field coupling is in field_energy), J/m.
+  double magnetic_energy() const;
+  const MagneticCells& magnets() const { return mag_; }
+  MagneticCells& magnets() { return mag_; }
+  /// Value of a magnetic output field (Mx, Lx, dLx, M1x, ...) in list cell k.
+  double magnetic_value(const std::string& field, long k) const;
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
   bool find_nonfinite(int& i, int& j, Component& c) const;
 
@@ -115,6 +123,7 @@ class Simulation {
   std::vector<R> frame_buf_;
   std::vector<int> medium_map_;
   int map_nx_ = 0, map_ny_ = 0;
+  MagneticCells mag_;
   std::size_t bytes_ = 0;
   std::vector<std::string> notes_;
 
@@ -122,6 +131,10 @@ class Simulation {
   void build_pml(const std::vector<double> (&cb)[3]);
   void build_sources(const std::vector<double> (&cb)[3]);
   void build_recorders();
+  void build_magnets();
+  void step_fused();
+  void step_split();
+  void gather(long k, double* b) const;
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);
   void compute_emitters();
   void h_row(int j);
