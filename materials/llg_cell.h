@@ -39,7 +39,7 @@ struct LlgCoefficients {
   /// Sub-steps are chosen so that the midpoint rule's phase error (w_max h)^2/12 stays
   /// below `phase_error` for the highest linear resonance w_max of the ground state, and
   /// the fixed-point iteration contracts by at least 4 per pass ((h/2) gamma B_scale < 1/4).
-  static LlgCoefficients from(const MagnetModel& m, double dt, double f_max, double phase_error = 2.5e-5);
+  static LlgCoefficients from(const MagnetModel& m, double dt, double f_max, double phase_error = 6e-5);
 };
 
 namespace llg_detail {
@@ -77,7 +77,7 @@ inline void cayley(const double* a, const double* m, double* out) {
 /// at time t is b_old + (t/dt)(b_new - b_old) - r (.) (M(t) - M(0)): linear between the
 /// step's end values, less the cell's own reaction (r = 0 for a prescribed field).
 /// `guess` is the predicted change of each m over the sub-step (the previous sub-step's).
-/// Iterates until the midpoint stops moving (1e-15) or `iterations` is reached.
+/// Iterates until the midpoint stops moving (1e-14) or `iterations` is reached.
 inline void llg_substep(const LlgCoefficients& p, double t0, double h, const double* b_old, const double* b_new,
                         const double* r, const double* dM0, double (*m)[3], double (*guess)[3], double* dM) {
   using namespace llg_detail;
@@ -113,7 +113,7 @@ inline void llg_substep(const LlgCoefficients& p, double t0, double h, const dou
         mb[s][c] = v;
         dn[c] += p.mu[s] * (mn[s][c] - m0[s][c]);
       }
-    if (moved < 1e-15) break;
+    if (moved < 1e-14) break;
   }
   for (int s = 0; s < p.n; ++s)
     for (int c = 0; c < 3; ++c) {
@@ -124,10 +124,12 @@ inline void llg_substep(const LlgCoefficients& p, double t0, double h, const dou
 }
 
 /// Advances m (m[s][c], unit vectors) over one step dt in `substeps` equal midpoint
-/// sub-steps; writes the change of mu0*M (T) over the step to dM.
+/// sub-steps; writes the change of mu0*M (T) over the step to dM. `guess` carries the
+/// last sub-step's change of each m from one call to the next (the predictor of the
+/// first iteration; zero to start).
 inline void llg_cell_step(const LlgCoefficients& p, const double* b_old, const double* b_new, const double* r,
-                          double (*m)[3], double* dM) {
-  double d[3] = {0, 0, 0}, guess[2][3] = {};
+                          double (*m)[3], double (*guess)[3], double* dM) {
+  double d[3] = {0, 0, 0};
   const double h = p.dt / p.substeps;
   for (int k = 0; k < p.substeps; ++k) llg_substep(p, k * h, h, b_old, b_new, r, d, m, guess, d);
   for (int c = 0; c < 3; ++c) dM[c] = d[c];

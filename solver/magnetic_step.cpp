@@ -67,7 +67,7 @@ void Simulation<R>::build_magnets() {
   };
   for (auto* v : {&M.hx0, &M.hx1, &M.hy0, &M.hy1, &M.hz}) v->resize(n);
   for (auto* v : {&M.left, &M.right, &M.down, &M.up}) v->resize(n);
-  for (int c = 0; c < 6; ++c) M.m[c].resize(n);
+  for (int c = 0; c < 6; ++c) M.m[c].resize(n), M.guess[c].assign(n, 0.0);
   for (int c = 0; c < 3; ++c) M.b_old[c].assign(n, 0), M.dM[c].assign(n, 0), M.dM_prev[c].assign(n, 0);
   for (long k = 0; k < n; ++k) {
     const int i = M.ci[k], j = M.cj[k];
@@ -105,7 +105,7 @@ void Simulation<R>::build_magnets() {
   std::sort(M.nodes.begin(), M.nodes.end(), [](const auto& a, const auto& b) {
     return a.index != b.index ? a.index < b.index : a.comp < b.comp;
   });
-  bytes_ += n * (6 + 9) * sizeof(double) + n * (5 * sizeof(long) + 5 * sizeof(int)) +
+  bytes_ += n * (12 + 9) * sizeof(double) + n * (5 * sizeof(long) + 5 * sizeof(int)) +
             M.nodes.size() * sizeof(MagneticCells::Node) + M.cell_of.size() * sizeof(int);
 }
 
@@ -159,9 +159,13 @@ void Simulation<R>::step_split() {
       b_new[1] -= 0.25 * (prev(M.down[k], 1) + prev(M.up[k], 1));
       const LlgCoefficients& p = M.coeffs[M.medium[k]];
       double m[2][3] = {{M.m[0][k], M.m[1][k], M.m[2][k]}, {M.m[3][k], M.m[4][k], M.m[5][k]}};
+      double g[2][3] = {{M.guess[0][k], M.guess[1][k], M.guess[2][k]}, {M.guess[3][k], M.guess[4][k], M.guess[5][k]}};
       double b_old[3] = {M.b_old[0][k], M.b_old[1][k], M.b_old[2][k]}, dM[3];
-      llg_cell_step(p, b_old, b_new, r, m, dM);
-      for (int c = 0; c < 3; ++c) M.m[c][k] = m[0][c], M.m[3 + c][k] = m[1][c], M.dM[c][k] = dM[c];
+      llg_cell_step(p, b_old, b_new, r, m, g, dM);
+      for (int c = 0; c < 3; ++c) {
+        M.m[c][k] = m[0][c], M.m[3 + c][k] = m[1][c], M.dM[c][k] = dM[c];
+        M.guess[c][k] = g[0][c], M.guess[3 + c][k] = g[1][c];
+      }
     }
 #pragma omp barrier
     for (long q = n0; q < n1; ++q) {  // H = h* - P dM, each node once

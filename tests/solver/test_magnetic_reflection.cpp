@@ -22,8 +22,8 @@ namespace {
 // mu_V diverges and no grid resolves the wave; there the error falls with the cell
 // (measured worst |R - R_linear|: 0.057 at 20 um, 0.024 at 10 um over the band).
 constexpr double kCell = 10e-6;
-constexpr int kNx = 1000, kNy = 2;
-constexpr double kLaunch = 3e-3, kInterface = 5e-3, kProbe = 1.2e-3;
+constexpr int kNx = 400, kNy = 2;
+constexpr double kLaunch = 1.0e-3, kInterface = 2.0e-3, kProbe = 0.4e-3;
 
 Magnet mnf2(double alpha) {  // references.md values (from memory there)
   Magnet m;
@@ -103,47 +103,53 @@ TEST_CASE("worked values: MnF2 half-space reflectance at normal incidence (lossl
   CHECK(predicted_R(m, {0, 0, 0}, 262e9) == doctest::Approx(1.0).epsilon(1e-9));
 }
 
-TEST_CASE("coupled solver: reflectance of an MnF2 half-space matches the linear response") {
-  const Magnet mag = mnf2(2e-4);
-  const std::array<double, 3> bias{0, 0, 0};
+struct Spectrum {
+  std::vector<double> f, R;
+};
+
+Spectrum measured_R(const Magnet& mag, std::array<double, 3> bias, Precision prec) {
   double dt = 0;
   const double stop = 3.0e-9;
-  const auto reflected = run(mag, bias, true, kProbe, stop, &dt);
-  const auto incident = run(mag, bias, false, kInterface, stop, &dt);
+  const auto reflected = run(mag, bias, true, kProbe, stop, &dt, prec);
+  const auto incident = run(mag, bias, false, kInterface, stop, &dt, prec);
+  Spectrum s;
+  for (double f = 240e9; f <= 285e9; f += 0.125e9) {
+    s.f.push_back(f);
+    s.R.push_back(std::norm(test::dft(reflected, dt, f) / test::dft(incident, dt, f)));
+  }
+  return s;
+}
+
+TEST_CASE("coupled solver: reflectance of an MnF2 half-space matches the linear response, double and single") {
+  const Magnet mag = mnf2(2e-4);
+  const std::array<double, 3> bias{0, 0, 0};
+  const Spectrum sp = measured_R(mag, bias, Precision::double_);
   // Near the band edge R is so steep in mu that the grid's own second-order dispersion
   // error (cells per wavelength in the crystal falls to ~20 there) shows: measured worst
   // |R - R_linear| 0.057 at 20 um, 0.024 at 10 um (halving dt changes nothing). The issue
   // asks 0.02; at 10 um it is met away from the edge (below 0.005 off the band) and the
-  // edge is held to 0.03 here. Frequencies under 15 cells per wavelength are reported apart.
-  double worst = 0, worst_unresolved = 0, peak = 0, peak_linear = 0, f_peak = 0, f_peak_linear = 0;
-  int resolved = 0;
-  const MagnetModel M(mag, bias);
-  const auto gs = find_ground_states(M);
-  for (double f = 240e9; f <= 285e9; f += 0.125e9) {
-    const auto I = test::dft(incident, dt, f), Rf = test::dft(reflected, dt, f);
-    const double R = std::norm(Rf / I), P = predicted_R(mag, bias, f);
-    const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * M_PI * f);
-    const double n = std::abs(std::sqrt(5.5 * voigt_permeability(mu, 0)));
-    const double cells_per_wavelength = constants::c0 / (f * n) / kCell;
-    if (cells_per_wavelength >= 15) {
-      worst = std::max(worst, std::abs(R - P));
-      ++resolved;
-    } else {
-      worst_unresolved = std::max(worst_unresolved, std::abs(R - P));
-    }
+  // edge is held to 0.03 here.
+  double worst = 0, worst_off = 0, peak = 0, peak_linear = 0, f_peak = 0, f_peak_linear = 0;
+  for (size_t k = 0; k < sp.f.size(); ++k) {
+    const double f = sp.f[k], R = sp.R[k], P = predicted_R(mag, bias, f);
+    worst = std::max(worst, std::abs(R - P));
+    if (f < 258e9 || f > 266e9) worst_off = std::max(worst_off, std::abs(R - P));
     if (R > peak) peak = R, f_peak = f;
     if (P > peak_linear) peak_linear = P, f_peak_linear = f;
     if (std::abs(f - 262e9) < 1.6e9 || static_cast<int>(std::lround(f / 0.125e9)) % 40 == 0)
-      MESSAGE(std::to_string(f / 1e9) << " GHz: R = " << R << ", linear response " << P << " (" << cells_per_wavelength
-                                      << " cells per wavelength)");
+      MESSAGE(std::to_string(f / 1e9) << " GHz: R = " << R << ", linear response " << P);
   }
-  MESSAGE("worst |R - R_linear|: " << worst << " where resolved (" << resolved << " frequencies), "
-                                   << worst_unresolved << " near the pole");
+  MESSAGE("worst |R - R_linear|: " << worst << " over 240-285 GHz, " << worst_off << " outside 258-266 GHz");
   MESSAGE("reflection peak " << peak << " at " << f_peak / 1e9 << " GHz; linear response " << peak_linear << " at "
                              << f_peak_linear / 1e9 << " GHz");
-  CHECK(resolved > 300);
   CHECK(worst < 0.03);
-  CHECK(worst_unresolved < 0.04);
+  CHECK(worst_off < 0.005);
   CHECK(std::abs(peak - peak_linear) < 0.02);  // the damped total reflection inside the band
   CHECK(std::abs(f_peak / f_peak_linear - 1) < 5e-4);
+  // single precision fields, spin state in double: the same spectrum within 0.03
+  const Spectrum single = measured_R(mag, bias, Precision::single);
+  double diff = 0;
+  for (size_t k = 0; k < sp.f.size(); ++k) diff = std::max(diff, std::abs(sp.R[k] - single.R[k]));
+  MESSAGE("worst |R_single - R_double|: " << diff);
+  CHECK(diff < 0.03);
 }
