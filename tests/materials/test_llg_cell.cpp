@@ -182,3 +182,35 @@ TEST_CASE("bare integrator recovers chi(omega), diagonal and off-diagonal, withi
     CHECK(std::abs(Y - chi(1, 0)) < 0.01 * std::abs(chi(1, 0)));
   }
 }
+
+TEST_CASE("large-angle precession: |m| exact, the line softens as the easy-axis anisotropy predicts") {
+  // With the Neel vector tilted by theta0 from the easy axis and no net moment, the
+  // exchange approximation of the two-sublattice equations is a pendulum in 2 theta:
+  // (2 theta)'' = -w_r^2 sin(2 theta) (e.g. Kittel & Keffer's AFMR in the exchange limit;
+  // the sine-Gordon form of antiferromagnetic dynamics), whose frequency falls with the
+  // amplitude as (pi/2) / K(sin theta0), K the complete elliptic integral of the first kind.
+  const MagnetModel M(mnf2(), {0, 0, 0});
+  const auto gs = find_ground_states(M);
+  const double f0 = resonances(M, gs.ground)[0];
+  const LlgCoefficients p = LlgCoefficients::from(M, kDt, f0);
+  for (double deg : {20.0, 40.0}) {
+    const double th = deg * M_PI / 180;
+    double m[2][3] = {{std::sin(th), 0, std::cos(th)}, {-std::sin(th), 0, -std::cos(th)}};
+    double dM[3], guess[2][3] = {}, worst = 0;
+    const double zero[3] = {0, 0, 0};
+    std::vector<double> lx;
+    for (long k = 0; k < 200000; ++k) {
+      llg_cell_step(p, zero, zero, zero, m, guess, dM);
+      lx.push_back(0.5 * (m[0][0] - m[1][0]));
+      for (int s = 0; s < 2; ++s)
+        worst = std::max(worst, std::abs(std::sqrt(m[s][0] * m[s][0] + m[s][1] * m[s][1] + m[s][2] * m[s][2]) - 1));
+    }
+    const double f = test::crossing_frequency(lx, kDt);
+    const double predicted = M_PI / 2 / std::comp_ellint_1(std::sin(th));
+    MESSAGE(deg << " deg: line at " << f / f0 << " of the small-signal one, pendulum " << predicted
+                << "; max ||m|-1| " << worst);
+    CHECK(f < f0);
+    CHECK(std::abs((f / f0 - 1) / (predicted - 1) - 1) < 0.1);
+    CHECK(worst < 1e-12);
+  }
+}
