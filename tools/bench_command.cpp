@@ -102,6 +102,24 @@ double measure_vacuum_rate(int size, int threads, bool single, double seconds, i
   return single ? rate_of<float>(s, threads, seconds, samples) : rate_of<double>(s, threads, seconds, samples);
 }
 
+double measure_magnetic_rate(const Scene& scene, int medium, int threads, double seconds) {
+  Scene s = bench_scene(32, false);
+  s.grid.dx = scene.grid.dx, s.grid.dy = scene.grid.dy;
+  s.grid.extent = {32 * s.grid.dx, 32 * s.grid.dy};
+  s.time = scene.time;
+  s.bias = scene.bias;
+  s.media = {scene.media[medium]};
+  Body b;
+  b.shape.kind = Shape::Kind::rectangle;
+  b.shape.centre = {0.5 * s.grid.extent.x, 0.5 * s.grid.extent.y};
+  b.shape.size = {2 * s.grid.extent.x, 2 * s.grid.extent.y};
+  s.bodies = {b};
+  s.sources[0].at = {0.3 * s.grid.extent.x, 0.5 * s.grid.extent.y};
+  s.sources[0].frequency = scene.sources.empty() ? 1e12 : scene.sources[0].frequency;
+  return scene.time.precision == Precision::single ? rate_of<float>(s, threads, seconds, 3)
+                                                   : rate_of<double>(s, threads, seconds, 3);
+}
+
 int bench_command(int size, int threads, const std::string& precision, double seconds) {
   const bool single = precision == "single";
   const int nt = threads > 0 ? threads : omp_get_max_threads();

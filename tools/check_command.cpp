@@ -11,6 +11,7 @@
 
 #include "io/scene_reader.h"
 #include "io/units.h"
+#include "materials/dielectric.h"
 #include "materials/linear_response.h"
 #include "solver/yee_grid.h"
 #include "tools/commands.h"
@@ -18,11 +19,14 @@
 namespace ty {
 namespace {
 
+double clean(double v) { return std::abs(v) < 1e-12 ? 0.0 : v; }
+
 std::string direction(const Vec3& m) {
   const double theta = std::acos(std::clamp(m.z(), -1.0, 1.0)) * 180 / constants::pi;
   const double phi = std::atan2(m.y(), m.x()) * 180 / constants::pi;
-  return fmt::format("({:+.6f}, {:+.6f}, {:+.6f}) = polar {:.4f} deg, azimuth {:.4f} deg", m.x(), m.y(), m.z(), theta,
-                     phi);
+  const std::string v = fmt::format("({:+.6f}, {:+.6f}, {:+.6f})", clean(m.x()), clean(m.y()), clean(m.z()));
+  if (std::hypot(m.x(), m.y()) < 1e-9) return fmt::format("{} = polar {:.4f} deg", v, theta);
+  return fmt::format("{} = polar {:.4f} deg, azimuth {:.4f} deg", v, theta, phi);
 }
 
 std::string band_list(const std::vector<Band>& bands) {
@@ -47,7 +51,8 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
                              gs.ground.soft ? " (degenerate: the state is chosen deterministically, see docs/magnets.md)" : "");
     for (int q = 0; q < M.n; ++q) std::cout << fmt::format("      sublattice {}: {}\n", q + 1, direction(gs.ground.m[q]));
     const Vec3 net = M.net(gs.ground.m);
-    std::cout << fmt::format("      net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", net.x(), net.y(), net.z());
+    std::cout << fmt::format("      net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", clean(net.x()), clean(net.y()),
+                             clean(net.z()));
     for (const auto& st : gs.metastable)
       std::cout << fmt::format("    metastable: {}, {:.6g} T^2 above (mu0 x energy density)\n", st.kind,
                                st.energy - gs.ground.energy);
@@ -56,9 +61,16 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
                    "differ from the bias (terayee does not solve static demagnetization)\n";
       ++warnings;
     }
-    const auto f = resonances(M, gs.ground);
+    std::vector<double> f;  // distinct lines (degenerate pairs listed once)
     std::string fl;
-    for (double x : f) fl += fmt::format("{}{:.4f} GHz", fl.empty() ? "" : ", ", x / 1e9);
+    for (double x : resonances(M, gs.ground)) {
+      if (!f.empty() && std::abs(x / f.back() - 1) < 1e-9) {
+        fl += " (twice)";
+        continue;
+      }
+      f.push_back(x);
+      fl += fmt::format("{}{:.4f} GHz", fl.empty() ? "" : ", ", x / 1e9);
+    }
     std::cout << "    resonances: " << (fl.empty() ? "none" : fl) << "\n";
     double lo = f_lo, hi = f_hi;
     if (!f.empty()) lo = std::min(lo, 0.8 * f.front()), hi = std::max(hi, 1.2 * f.back());
@@ -170,8 +182,25 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
   // run time from a short measurement of this machine's vacuum rate
   const int threads = s.time.threads > 0 ? s.time.threads : omp_get_max_threads();
   const double rate = measure_vacuum_rate(256, threads, real == 4, 0.1, 3);
-  const double est = static_cast<double>(nx) * ny * steps / rate;
-  std::cout << fmt::format("  estimated run time: {:.3g} s on {} threads (at {:.3g} cell-updates/s measured here)\n",
+  double est = static_cast<double>(nx) * ny * steps / rate;
+  // magnetic cells cost far more than the rest: count them and time their medium
+  std::vector<long> magnetic(s.media.size(), 0);
+  bool any = false;
+  for (const auto& m : s.media) any |= m.magnet.has_value();
+  if (any)
+    for (long j = 0; j < ny; ++j)
+      for (long i = 0; i < nx; ++i) {
+        const int med = medium_at(s, {(i - npx + 0.5) * G.dx, (j - npy + 0.5) * G.dy});
+        if (med >= 0 && s.media[med].magnet) ++magnetic[med];
+      }
+  for (size_t k = 0; k < s.media.size(); ++k) {
+    if (magnetic[k] == 0) continue;
+    const double r = measure_magnetic_rate(s, static_cast<int>(k), threads, 0.1);
+    est += static_cast<double>(magnetic[k]) * steps / r;
+    std::cout << fmt::format("  {} magnetic cells of '{}' at {:.3g} cell-updates/s ({:.0f}x a vacuum cell)\n",
+                             magnetic[k], s.media[k].name, r, rate / r);
+  }
+  std::cout << fmt::format("  estimated run time: {:.3g} s on {} threads (vacuum {:.3g} cell-updates/s measured here)\n",
                            est, threads, rate);
   std::cout << fmt::format("check passed with {} warning{}\n", warnings, warnings == 1 ? "" : "s");
   return 0;

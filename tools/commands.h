@@ -4,6 +4,8 @@
 #include <string>
 #include <vector>
 
+#include "io/scene.h"
+
 namespace ty {
 
 struct RunOptions {
@@ -21,5 +23,9 @@ int bench_command(int size, int threads, const std::string& precision, double se
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench
 /// and by check's run-time estimate).
 double measure_vacuum_rate(int size, int threads, bool single, double seconds, int samples);
+
+/// Cell-updates per second of a small periodic grid filled with one magnetic medium of
+/// the scene (its bias, cell and time step), for check's run-time estimate.
+double measure_magnetic_rate(const Scene& scene, int medium, int threads, double seconds);
 
 }  // namespace ty
