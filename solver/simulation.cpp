@@ -79,8 +79,8 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
   const Scene& s = scene_;
   const int nx = g_.nx, ny = g_.ny;
   std::vector<double> ca[3];
-  // sub-cell sampling: arithmetic mean of the medium over the node's cell (3 x 3 points)
-  constexpr int kSub = 3;
+  // sub-cell sampling: arithmetic mean of the medium over the node's cell (4 x 4 points)
+  constexpr int kSub = 4;  // even: a face on a node splits its cell exactly in half
   for (int c = 0; c < 3; ++c) {
     const Component comp = static_cast<Component>(c);
     ca[c].assign(static_cast<size_t>(nx) * ny, 1.0);
