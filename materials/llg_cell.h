@@ -34,105 +34,142 @@ struct LlgCoefficients {
   double axis[4][3] = {};
   double ba[4] = {};
   double dt = 0;
-  int substeps = 1;     ///< midpoint sub-steps per time step
-  int iterations = 30;  ///< most fixed-point iterations per sub-step (they stop when converged)
+  int substeps = 1;    ///< midpoint sub-steps per time step
+  int iterations = 6;  ///< fixed-point passes per sub-step (converged: see `from`)
   /// Sub-steps are chosen so that the midpoint rule's phase error (w_max h)^2/12 stays
   /// below `phase_error` for the highest linear resonance w_max of the ground state, and
-  /// the fixed-point iteration contracts by at least 4 per pass ((h/2) gamma B_scale < 1/4).
+  /// the fixed-point iteration contracts by at least 4 per pass (rho = (h/2) gamma B_scale
+  /// < 1/4); the passes so that rho^passes < 1e-8 of the predictor's error.
   static LlgCoefficients from(const MagnetModel& m, double dt, double f_max, double phase_error = 6e-5);
 };
 
-namespace llg_detail {
 
-inline void effective_field(const LlgCoefficients& p, int s, const double (*m)[3], const double* b, double* h) {
-  for (int c = 0; c < 3; ++c) h[c] = p.bias[c] + b[c];
-  for (int k = 0; k < p.na; ++k) {
-    const double d = p.ba[k] * (m[s][0] * p.axis[k][0] + m[s][1] * p.axis[k][1] + m[s][2] * p.axis[k][2]);
-    for (int c = 0; c < 3; ++c) h[c] += d * p.axis[k][c];
+
+/// Advances cells [0, count) of structure-of-arrays state over one step dt, in `substeps`
+/// equal midpoint sub-steps of `iterations` fixed-point passes each (a fixed count, so the
+/// loop over cells vectorizes; `from` picks it so that the iteration has converged).
+///   m[6]      m1 xyz, m2 xyz per cell (unit vectors; m2 = 0 for one sublattice)
+///   guess[6]  the last sub-step's change of m (the predictor; zero to start)
+///   b_old[3], b_new[3]  mu0 h at the start and end of the step (T)
+///   r[3]      the cell's own reaction weight (0 for a prescribed field)
+///   dM[3]     out: change of mu0 M over the step (T)
+inline void llg_cells(const LlgCoefficients& p, long count, double* const* m, double* const* guess,
+                      const double* const* b_old, const double* const* b_new, const double* r, double* const* dM) {
+  constexpr int W = 8;
+  const double h = p.dt / p.substeps;
+  const double mu0 = p.mu[0], mu1 = p.n == 2 ? p.mu[1] : 0.0;
+  const double lam0 = p.n == 2 ? p.lambda * mu1 : 0.0, lam1 = p.n == 2 ? p.lambda * mu0 : 0.0;
+  const double fd0 = p.n == 2 ? p.mu_d / p.mu[0] : 0.0, fd1 = p.n == 2 ? p.mu_d / p.mu[1] : 0.0;
+  const double k0 = 0.5 * h * p.gp[0], k1 = 0.5 * h * (p.n == 2 ? p.gp[1] : 0.0);
+  const double al0 = p.alpha[0], al1 = p.n == 2 ? p.alpha[1] : 0.0;
+  double ax[4][3] = {}, ba[4] = {};
+  for (int q = 0; q < p.na; ++q) {
+    for (int c = 0; c < 3; ++c) ax[q][c] = p.axis[q][c];
+    ba[q] = p.ba[q];
   }
-  if (p.n == 2) {
-    const int t = 1 - s;
-    for (int c = 0; c < 3; ++c) h[c] -= p.lambda * p.mu[t] * m[t][c];
-    const double f = p.mu_d / p.mu[s];
-    const double* a = s == 0 ? p.bd : m[0];  // B_DM,1 = f B_D x m2 ; B_DM,2 = f m1 x B_D
-    const double* c = s == 0 ? m[1] : p.bd;
-    h[0] += f * (a[1] * c[2] - a[2] * c[1]);
-    h[1] += f * (a[2] * c[0] - a[0] * c[2]);
-    h[2] += f * (a[0] * c[1] - a[1] * c[0]);
-  }
-}
-
-inline void cayley(const double* a, const double* m, double* out) {
-  const double f = 2.0 / (1.0 + a[0] * a[0] + a[1] * a[1] + a[2] * a[2]);
-  const double b0 = a[1] * m[2] - a[2] * m[1], b1 = a[2] * m[0] - a[0] * m[2], b2 = a[0] * m[1] - a[1] * m[0];
-  const double d0 = a[1] * b2 - a[2] * b1, d1 = a[2] * b0 - a[0] * b2, d2 = a[0] * b1 - a[1] * b0;
-  out[0] = m[0] + f * (b0 + d0);
-  out[1] = m[1] + f * (b1 + d1);
-  out[2] = m[2] + f * (b2 + d2);
-}
-
-}  // namespace llg_detail
-
-/// One implicit-midpoint sub-step over [t0, t0 + h] of the step [0, dt]. The wave field
-/// at time t is b_old + (t/dt)(b_new - b_old) - r (.) (M(t) - M(0)): linear between the
-/// step's end values, less the cell's own reaction (r = 0 for a prescribed field).
-/// `guess` is the predicted change of each m over the sub-step (the previous sub-step's).
-/// Iterates until the midpoint stops moving (1e-14) or `iterations` is reached.
-inline void llg_substep(const LlgCoefficients& p, double t0, double h, const double* b_old, const double* b_new,
-                        const double* r, const double* dM0, double (*m)[3], double (*guess)[3], double* dM) {
-  using namespace llg_detail;
-  double m0[2][3], mb[2][3] = {}, mn[2][3] = {};
-  for (int s = 0; s < p.n; ++s)
-    for (int c = 0; c < 3; ++c) {
-      m0[s][c] = m[s][c];
-      mn[s][c] = m[s][c] + guess[s][c];
-      mb[s][c] = m[s][c] + 0.5 * guess[s][c];
-    }
-  const double u = (t0 + 0.5 * h) / p.dt;  // midpoint of the sub-step, in units of the step
-  double dn[3] = {dM0[0], dM0[1], dM0[2]};
-  for (int s = 0; s < p.n; ++s)
-    for (int c = 0; c < 3; ++c) dn[c] += p.mu[s] * guess[s][c];
-  for (int it = 0; it < p.iterations; ++it) {
-    double b[3];
-    for (int c = 0; c < 3; ++c) b[c] = b_old[c] + u * (b_new[c] - b_old[c]) - r[c] * 0.5 * (dM0[c] + dn[c]);
-    for (int s = 0; s < p.n; ++s) {
-      double f[3];
-      effective_field(p, s, mb, b, f);
-      const double* x = mb[s];
-      const double cx = x[1] * f[2] - x[2] * f[1], cy = x[2] * f[0] - x[0] * f[2], cz = x[0] * f[1] - x[1] * f[0];
-      const double k = 0.5 * h * p.gp[s];
-      const double a[3] = {k * (f[0] + p.alpha[s] * cx), k * (f[1] + p.alpha[s] * cy), k * (f[2] + p.alpha[s] * cz)};
-      cayley(a, m0[s], mn[s]);
-    }
-    double moved = 0;
-    for (int c = 0; c < 3; ++c) dn[c] = dM0[c];
-    for (int s = 0; s < p.n; ++s)
-      for (int c = 0; c < 3; ++c) {
-        const double v = 0.5 * (m0[s][c] + mn[s][c]);
-        moved = std::max(moved, std::abs(v - mb[s][c]));
-        mb[s][c] = v;
-        dn[c] += p.mu[s] * (mn[s][c] - m0[s][c]);
+  for (long k0_ = 0; k0_ < count; k0_ += W) {
+    const int nl = static_cast<int>(std::min<long>(W, count - k0_));
+    double M0[6][W], MB[6][W], MN[6][W], D0[3][W], DN[3][W];
+    for (int c = 0; c < 6; ++c)
+      for (int l = 0; l < nl; ++l) M0[c][l] = m[c][k0_ + l];
+    for (int c = 0; c < 3; ++c)
+      for (int l = 0; l < nl; ++l) D0[c][l] = 0.0;
+    for (int sub = 0; sub < p.substeps; ++sub) {
+      const double u = (sub + 0.5) * h / p.dt;  // the sub-step's midpoint, in units of the step
+      for (int l = 0; l < nl; ++l) {
+        for (int c = 0; c < 6; ++c) {
+          const double g = guess[c][k0_ + l];
+          MN[c][l] = M0[c][l] + g;
+          MB[c][l] = M0[c][l] + 0.5 * g;
+        }
+        for (int c = 0; c < 3; ++c) DN[c][l] = D0[c][l] + mu0 * (MN[c][l] - M0[c][l]) + mu1 * (MN[3 + c][l] - M0[3 + c][l]);
       }
-    if (moved < 1e-14) break;
-  }
-  for (int s = 0; s < p.n; ++s)
-    for (int c = 0; c < 3; ++c) {
-      guess[s][c] = mn[s][c] - m0[s][c];
-      m[s][c] = mn[s][c];
+      for (int it = 0; it < p.iterations; ++it) {
+#pragma omp simd
+        for (int l = 0; l < nl; ++l) {
+          double b[3];
+          for (int c = 0; c < 3; ++c) {
+            const double bo = b_old[c][k0_ + l], bn = b_new[c][k0_ + l];
+            b[c] = p.bias[c] + bo + u * (bn - bo) - r[c] * 0.5 * (D0[c][l] + DN[c][l]);
+          }
+          const double x0 = MB[0][l], x1 = MB[1][l], x2 = MB[2][l];
+          const double y0 = MB[3][l], y1 = MB[4][l], y2 = MB[5][l];
+          double f0 = b[0] - lam0 * y0, f1 = b[1] - lam0 * y1, f2 = b[2] - lam0 * y2;  // on sublattice 1
+          double g0 = b[0] - lam1 * x0, g1 = b[1] - lam1 * x1, g2 = b[2] - lam1 * x2;  // on sublattice 2
+          for (int q = 0; q < 4; ++q) {
+            const double d1 = ba[q] * (x0 * ax[q][0] + x1 * ax[q][1] + x2 * ax[q][2]);
+            const double d2 = ba[q] * (y0 * ax[q][0] + y1 * ax[q][1] + y2 * ax[q][2]);
+            f0 += d1 * ax[q][0], f1 += d1 * ax[q][1], f2 += d1 * ax[q][2];
+            g0 += d2 * ax[q][0], g1 += d2 * ax[q][1], g2 += d2 * ax[q][2];
+          }
+          // B_DM,1 = fd0 B_D x m2 ; B_DM,2 = fd1 m1 x B_D
+          f0 += fd0 * (p.bd[1] * y2 - p.bd[2] * y1), f1 += fd0 * (p.bd[2] * y0 - p.bd[0] * y2),
+              f2 += fd0 * (p.bd[0] * y1 - p.bd[1] * y0);
+          g0 += fd1 * (x1 * p.bd[2] - x2 * p.bd[1]), g1 += fd1 * (x2 * p.bd[0] - x0 * p.bd[2]),
+              g2 += fd1 * (x0 * p.bd[1] - x1 * p.bd[0]);
+          // rotation vectors a = (h/2) gamma' (B + alpha m x B), then the Cayley rotations of m0
+          const double a0 = k0 * (f0 + al0 * (x1 * f2 - x2 * f1)), a1 = k0 * (f1 + al0 * (x2 * f0 - x0 * f2)),
+                       a2 = k0 * (f2 + al0 * (x0 * f1 - x1 * f0));
+          const double c0 = k1 * (g0 + al1 * (y1 * g2 - y2 * g1)), c1 = k1 * (g1 + al1 * (y2 * g0 - y0 * g2)),
+                       c2 = k1 * (g2 + al1 * (y0 * g1 - y1 * g0));
+          double n1[3], n2[3];
+          {
+            const double p0 = M0[0][l], p1 = M0[1][l], p2 = M0[2][l];
+            const double s = 2.0 / (1.0 + a0 * a0 + a1 * a1 + a2 * a2);
+            const double e0 = a1 * p2 - a2 * p1, e1 = a2 * p0 - a0 * p2, e2 = a0 * p1 - a1 * p0;
+            n1[0] = p0 + s * (e0 + a1 * e2 - a2 * e1);
+            n1[1] = p1 + s * (e1 + a2 * e0 - a0 * e2);
+            n1[2] = p2 + s * (e2 + a0 * e1 - a1 * e0);
+          }
+          {
+            const double p0 = M0[3][l], p1 = M0[4][l], p2 = M0[5][l];
+            const double s = 2.0 / (1.0 + c0 * c0 + c1 * c1 + c2 * c2);
+            const double e0 = c1 * p2 - c2 * p1, e1 = c2 * p0 - c0 * p2, e2 = c0 * p1 - c1 * p0;
+            n2[0] = p0 + s * (e0 + c1 * e2 - c2 * e1);
+            n2[1] = p1 + s * (e1 + c2 * e0 - c0 * e2);
+            n2[2] = p2 + s * (e2 + c0 * e1 - c1 * e0);
+          }
+          for (int c = 0; c < 3; ++c) {
+            MN[c][l] = n1[c], MN[3 + c][l] = n2[c];
+            MB[c][l] = 0.5 * (M0[c][l] + n1[c]), MB[3 + c][l] = 0.5 * (M0[3 + c][l] + n2[c]);
+            DN[c][l] = D0[c][l] + mu0 * (n1[c] - M0[c][l]) + mu1 * (n2[c] - M0[3 + c][l]);
+          }
+        }
+      }
+      for (int l = 0; l < nl; ++l) {
+        for (int c = 0; c < 6; ++c) {
+          guess[c][k0_ + l] = MN[c][l] - M0[c][l];
+          M0[c][l] = MN[c][l];
+        }
+        for (int c = 0; c < 3; ++c) D0[c][l] = DN[c][l];
+      }
     }
-  for (int c = 0; c < 3; ++c) dM[c] = dn[c];
+    for (int l = 0; l < nl; ++l) {
+      for (int c = 0; c < 6; ++c) m[c][k0_ + l] = M0[c][l];
+      for (int c = 0; c < 3; ++c) dM[c][k0_ + l] = D0[c][l];
+    }
+  }
 }
 
-/// Advances m (m[s][c], unit vectors) over one step dt in `substeps` equal midpoint
-/// sub-steps; writes the change of mu0*M (T) over the step to dM. `guess` carries the
-/// last sub-step's change of each m from one call to the next (the predictor of the
-/// first iteration; zero to start).
+/// One cell (m[s][c], unit vectors; guess as in llg_cells), for tests and small uses.
 inline void llg_cell_step(const LlgCoefficients& p, const double* b_old, const double* b_new, const double* r,
                           double (*m)[3], double (*guess)[3], double* dM) {
-  double d[3] = {0, 0, 0};
-  const double h = p.dt / p.substeps;
-  for (int k = 0; k < p.substeps; ++k) llg_substep(p, k * h, h, b_old, b_new, r, d, m, guess, d);
-  for (int c = 0; c < 3; ++c) dM[c] = d[c];
+  double mm[6], gg[6], bo[3], bn[3], d[3];
+  for (int c = 0; c < 3; ++c) {
+    mm[c] = m[0][c], mm[3 + c] = p.n == 2 ? m[1][c] : 0.0;
+    gg[c] = guess[0][c], gg[3 + c] = p.n == 2 ? guess[1][c] : 0.0;
+    bo[c] = b_old[c], bn[c] = b_new[c];
+  }
+  double* mp[6] = {&mm[0], &mm[1], &mm[2], &mm[3], &mm[4], &mm[5]};
+  double* gp[6] = {&gg[0], &gg[1], &gg[2], &gg[3], &gg[4], &gg[5]};
+  const double* bop[3] = {&bo[0], &bo[1], &bo[2]};
+  const double* bnp[3] = {&bn[0], &bn[1], &bn[2]};
+  double* dp[3] = {&d[0], &d[1], &d[2]};
+  llg_cells(p, 1, mp, gp, bop, bnp, r, dp);
+  for (int c = 0; c < 3; ++c) {
+    m[0][c] = mm[c], guess[0][c] = gg[c], dM[c] = d[c];
+    if (p.n == 2) m[1][c] = mm[3 + c], guess[1][c] = gg[3 + c];
+  }
 }
 
 }  // namespace ty

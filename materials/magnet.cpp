@@ -2,6 +2,7 @@
 /// \brief Effective field and energy of a sublattice magnet (formulas in magnet.h).
 #include "materials/magnet.h"
 
+#include <algorithm>
 #include <cmath>
 
 namespace ty {
@@ -85,6 +86,8 @@ LlgCoefficients LlgCoefficients::from(const MagnetModel& m, double dt, double f_
   const double by_phase = w_max * dt / std::sqrt(12 * phase_error);
   const double by_contraction = 0.5 * dt * g_max * scale / 0.25;
   p.substeps = std::max(1, static_cast<int>(std::ceil(std::max(by_phase, by_contraction) - 1e-12)));
+  const double rho = std::max(0.5 * (dt / p.substeps) * g_max * scale, 1e-6);
+  p.iterations = std::clamp(static_cast<int>(std::ceil(-8.0 / std::log10(rho))), 2, 30);
   return p;
 }
 

@@ -32,7 +32,7 @@ struct MagneticCells {
   std::vector<int> left, right, down, up;       ///< neighbouring magnetic cells (-1: none)
   std::vector<double> m[6];                     ///< m1 xyz, m2 xyz (unit vectors)
   std::vector<double> guess[6];                 ///< last sub-step's change of m (predictor)
-  std::vector<double> b_old[3];                 ///< mu0 h at n-1/2, T
+  std::vector<double> b_old[3], b_new[3];       ///< mu0 h at n-1/2 and (less neighbours' share) n+1/2, T
   std::vector<double> dM[3], dM_prev[3];        ///< change of mu0 M over the step, T
   // per scattered H node: flat index, component (3 = Hx ...), up to two cells with weights
   struct Node {

@@ -68,7 +68,8 @@ void Simulation<R>::build_magnets() {
   for (auto* v : {&M.hx0, &M.hx1, &M.hy0, &M.hy1, &M.hz}) v->resize(n);
   for (auto* v : {&M.left, &M.right, &M.down, &M.up}) v->resize(n);
   for (int c = 0; c < 6; ++c) M.m[c].resize(n), M.guess[c].assign(n, 0.0);
-  for (int c = 0; c < 3; ++c) M.b_old[c].assign(n, 0), M.dM[c].assign(n, 0), M.dM_prev[c].assign(n, 0);
+  for (int c = 0; c < 3; ++c)
+    M.b_old[c].assign(n, 0), M.b_new[c].assign(n, 0), M.dM[c].assign(n, 0), M.dM_prev[c].assign(n, 0);
   for (long k = 0; k < n; ++k) {
     const int i = M.ci[k], j = M.cj[k];
     M.hx0[k] = node(i, j), M.hx1[k] = node(i + 1, j), M.hy0[k] = node(i, j), M.hy1[k] = node(i, j + 1);
@@ -105,7 +106,7 @@ void Simulation<R>::build_magnets() {
   std::sort(M.nodes.begin(), M.nodes.end(), [](const auto& a, const auto& b) {
     return a.index != b.index ? a.index < b.index : a.comp < b.comp;
   });
-  bytes_ += n * (12 + 9) * sizeof(double) + n * (5 * sizeof(long) + 5 * sizeof(int)) +
+  bytes_ += n * (12 + 15) * sizeof(double) + n * (5 * sizeof(long) + 5 * sizeof(int)) +
             M.nodes.size() * sizeof(MagneticCells::Node) + M.cell_of.size() * sizeof(int);
 }
 
@@ -150,22 +151,26 @@ void Simulation<R>::step_split() {
     for (long j = j0; j < j1; ++j) h_row(static_cast<int>(j));  // h* = H - c dt curl E
 #pragma omp barrier
     const double r[3] = {0.5, 0.5, 1.0};  // the cell's own share of G P dM
-    for (long k = c0_; k < c1_; ++k) {
-      double b_new[3];
-      gather(k, b_new);
-      // the neighbours' share of G P dM, from their previous step
+    for (long k = c0_; k < c1_; ++k) {  // b at n+1/2 less the neighbours' share of G P dM (their previous step)
+      double b[3];
+      gather(k, b);
       auto prev = [&](int cell, int comp) { return cell < 0 ? 0.0 : M.dM_prev[comp][cell]; };
-      b_new[0] -= 0.25 * (prev(M.left[k], 0) + prev(M.right[k], 0));
-      b_new[1] -= 0.25 * (prev(M.down[k], 1) + prev(M.up[k], 1));
-      const LlgCoefficients& p = M.coeffs[M.medium[k]];
-      double m[2][3] = {{M.m[0][k], M.m[1][k], M.m[2][k]}, {M.m[3][k], M.m[4][k], M.m[5][k]}};
-      double g[2][3] = {{M.guess[0][k], M.guess[1][k], M.guess[2][k]}, {M.guess[3][k], M.guess[4][k], M.guess[5][k]}};
-      double b_old[3] = {M.b_old[0][k], M.b_old[1][k], M.b_old[2][k]}, dM[3];
-      llg_cell_step(p, b_old, b_new, r, m, g, dM);
-      for (int c = 0; c < 3; ++c) {
-        M.m[c][k] = m[0][c], M.m[3 + c][k] = m[1][c], M.dM[c][k] = dM[c];
-        M.guess[c][k] = g[0][c], M.guess[3 + c][k] = g[1][c];
-      }
+      M.b_new[0][k] = b[0] - 0.25 * (prev(M.left[k], 0) + prev(M.right[k], 0));
+      M.b_new[1][k] = b[1] - 0.25 * (prev(M.down[k], 1) + prev(M.up[k], 1));
+      M.b_new[2][k] = b[2];
+    }
+    // the cells of one medium are contiguous in the list: advance each run together
+    for (long a = c0_; a < c1_;) {
+      long e = a;
+      while (e < c1_ && M.medium[e] == M.medium[a]) ++e;
+      double* mp[6];
+      double* gp[6];
+      for (int c = 0; c < 6; ++c) mp[c] = M.m[c].data() + a, gp[c] = M.guess[c].data() + a;
+      const double* bo[3] = {M.b_old[0].data() + a, M.b_old[1].data() + a, M.b_old[2].data() + a};
+      const double* bn[3] = {M.b_new[0].data() + a, M.b_new[1].data() + a, M.b_new[2].data() + a};
+      double* dp[3] = {M.dM[0].data() + a, M.dM[1].data() + a, M.dM[2].data() + a};
+      llg_cells(M.coeffs[M.medium[a]], e - a, mp, gp, bo, bn, r, dp);
+      a = e;
     }
 #pragma omp barrier
     for (long q = n0; q < n1; ++q) {  // H = h* - P dM, each node once
