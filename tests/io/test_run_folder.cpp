@@ -125,3 +125,36 @@ TEST_CASE("--set overrides any scene value and is checked like the file") {
   CHECK_THROWS_AS(read_scene(scene, {"sources.7.beam.angle=1 deg"}), BadInput);
   CHECK_THROWS_AS(read_scene(scene, {"nonsense"}), BadInput);
 }
+
+TEST_CASE("magnetic outputs: the Neel vector and magnetization in probes and snapshots") {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/mnf2-mirror.yaml";
+  const fs::path dir = fs::temp_directory_path() / "terayee-test-magnet-run";
+  fs::remove_all(dir);
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + dir.string() +
+                "' --threads 2 --set time.stop=80ps --set outputs.2.snapshots.every=40ps") == 0);
+  const auto h = h5::File::open((dir / "fields.h5").string());
+  const auto lx = h.read("/probes/inside/Lx"), mx = h.read("/probes/inside/Mx");
+  CHECK(h.read_attribute("/probes/inside/Lx", "units") == "1");
+  CHECK(h.read_attribute("/probes/inside/Mx", "units") == "T");
+  REQUIRE(!lx.empty());
+  CHECK(std::abs(lx.front()) < 1e-12);  // the ground state: L along z
+  double peak = 0;
+  for (double v : lx) peak = std::max(peak, std::abs(v));
+  CHECK(peak > 1e-9);   // the pulse tilts the sublattices (a 1 kV/m wave: ~1e-7 rad in MnF2)
+  CHECK(peak < 1e-3);
+  std::vector<hsize_t> shape;
+  const auto snap = h.read("/snapshots/Lx", &shape);
+  REQUIRE(shape.size() == 3);
+  CHECK(shape[0] == 2);
+  CHECK(h.read("/grid/Lx/x").size() == shape[2]);
+  // outside the crystal the magnetic fields are zero; inside they move
+  double outside = 0, inside = 0;
+  const auto x = h.read("/grid/Lx/x");
+  for (size_t k = 0; k < snap.size(); ++k) {
+    const double xv = x[k % shape[2]];
+    (xv < 0.9e-3 ? outside : inside) = std::max(xv < 0.9e-3 ? outside : inside, std::abs(snap[k]));
+  }
+  CHECK(outside == 0.0);
+  CHECK(inside > 0.0);
+  fs::remove_all(dir);
+}
