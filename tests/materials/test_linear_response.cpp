@@ -15,6 +15,7 @@
 #include <doctest/doctest.h>
 
 #include "materials/linear_response.h"
+#include "tests/helpers.h"
 
 using namespace ty;
 
@@ -24,14 +25,7 @@ constexpr double kTwoPi = 2 * M_PI;
 
 // MnF2 with the values of references.md (from memory there): mu0 H_E = 55 T,
 // mu0 H_A = 0.787 T, mu0 Ms = 0.754 T, g = 2.
-Magnet mnf2(double alpha = 0) {
-  Magnet m;
-  m.sublattices = {{0.754, 2.0, alpha}, {0.754, 2.0, alpha}};
-  m.lambda = 55.0 / 0.754;
-  m.anisotropy = {{{0, 0, 1}, 0.787}};
-  m.order = {0, 0, 1};
-  return m;
-}
+using test::mnf2;
 
 double rel(double a, double b) { return std::abs(a / b - 1); }
 

@@ -19,14 +19,7 @@ namespace {
 
 constexpr double kDt = 4.1e-14;
 
-Magnet mnf2(double alpha = 0) {  // references.md values (from memory there)
-  Magnet m;
-  m.sublattices = {{0.754, 2.0, alpha}, {0.754, 2.0, alpha}};
-  m.lambda = 55.0 / 0.754;
-  m.anisotropy = {{{0, 0, 1}, 0.787}};
-  m.order = {0, 0, 1};
-  return m;
-}
+using test::mnf2;
 
 // free ringing after a small tilt: net mu0*M_x (and y) per step
 // substeps = 0: the automatic choice

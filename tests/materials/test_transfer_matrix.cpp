@@ -10,6 +10,7 @@
 
 #include "io/units.h"
 #include "materials/transfer_matrix.h"
+#include "tests/helpers.h"
 
 using namespace ty;
 
@@ -17,14 +18,7 @@ namespace {
 
 Mat3c iso(double v) { return v * Mat3c::Identity(); }
 
-Magnet mnf2(double alpha = 0) {  // references.md values (from memory there)
-  Magnet m;
-  m.sublattices = {{0.754, 2.0, alpha}, {0.754, 2.0, alpha}};
-  m.lambda = 55.0 / 0.754;
-  m.anisotropy = {{{0, 0, 1}, 0.787}};
-  m.order = {0, 0, 1};
-  return m;
-}
+using test::mnf2;
 
 Mat3c mu_of(const Magnet& mag, std::array<double, 3> bias, double f) {
   const MagnetModel M(mag, bias);

@@ -34,17 +34,7 @@ std::vector<double> run(Component pol, double eps, bool with_body, double probe_
     b.shape.size = {kNx * kCell, 10 * kNy * kCell};  // reaches past the extent: continues through the absorber
     s.bodies.push_back(b);
   }
-  Source src;
-  src.kind = Source::Kind::plane;
-  src.component = pol;
-  src.angle = 0;
-  src.line_axis = 'x';
-  src.line_at = kLaunch;
-  src.frequency = 0.6e12;
-  src.amplitude = 1e3;
-  src.waveform.kind = Waveform::Kind::pulse;
-  src.waveform.fwhm = 1.0e-12;
-  src.waveform.delay = 3.0e-12;
+  const Source src = test::plane_pulse(pol, kLaunch, 0.6e12, 1.0e-12, 3.0e-12, 1e3);
   s.sources.push_back(src);
   Simulation<double> sim(s, 2);
   *dt = sim.grid().dt;

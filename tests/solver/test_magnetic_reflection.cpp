@@ -25,14 +25,7 @@ constexpr double kCell = 10e-6;
 constexpr int kNx = 400, kNy = 2;
 constexpr double kLaunch = 1.0e-3, kInterface = 2.0e-3, kProbe = 0.4e-3;
 
-Magnet mnf2(double alpha) {  // references.md values (from memory there)
-  Magnet m;
-  m.sublattices = {{0.754, 2.0, alpha}, {0.754, 2.0, alpha}};
-  m.lambda = 55.0 / 0.754;
-  m.anisotropy = {{{0, 0, 1}, 0.787}};
-  m.order = {0, 0, 1};
-  return m;
-}
+using test::mnf2;
 
 // thickness 0: a half-space from kInterface on (through the absorber)
 std::vector<double> run(const Magnet& mag, std::array<double, 3> bias, bool with_body, double probe_x, double stop,
@@ -53,16 +46,7 @@ std::vector<double> run(const Magnet& mag, std::array<double, 3> bias, bool with
     b.shape.size = {len, 10 * kNy * kCell};
     s.bodies.push_back(b);
   }
-  Source src;
-  src.kind = Source::Kind::plane;
-  src.component = Component::Ez;
-  src.line_axis = 'x';
-  src.line_at = kLaunch;
-  src.frequency = 262e9;
-  src.amplitude = 1e3;
-  src.waveform.kind = Waveform::Kind::pulse;
-  src.waveform.fwhm = 12e-12;
-  src.waveform.delay = 30e-12;
+  const Source src = test::plane_pulse(Component::Ez, kLaunch, 262e9, 12e-12, 30e-12, 1e3);
   s.sources.push_back(src);
   std::vector<double> out;
   auto go = [&](auto& sim) {
