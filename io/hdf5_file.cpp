@@ -44,6 +44,14 @@ File File::open(const std::string& path) {
   return f;
 }
 
+File File::open_rw(const std::string& path) {
+  File f;
+  f.h_ = Handle(check(H5Fopen(path.c_str(), H5F_ACC_RDWR, H5P_DEFAULT), "cannot open " + path), H5Fclose);
+  return f;
+}
+
+void File::flush() { H5Fflush(id(), H5F_SCOPE_GLOBAL); }
+
 bool File::exists(const std::string& path) const {
   size_t pos = 0;
   while ((pos = path.find('/', pos + 1)) != std::string::npos)
@@ -81,6 +89,10 @@ void File::write(const std::string& p, const std::vector<hsize_t>& s, const floa
 }
 void File::write(const std::string& p, const std::vector<hsize_t>& s, const int* d, const std::string& u) {
   write_any(p, s, d, H5T_NATIVE_INT, u);
+}
+
+void File::write(const std::string& p, const std::vector<hsize_t>& s, const long* d, const std::string& u) {
+  write_any(p, s, d, H5T_NATIVE_LONG, u);
 }
 
 void File::create_frames(const std::string& path, hsize_t frames, hsize_t ny, hsize_t nx, bool single,

@@ -31,6 +31,8 @@ class File {
  public:
   static File create(const std::string& path);  ///< truncates
   static File open(const std::string& path);    ///< read-only
+  static File open_rw(const std::string& path); ///< read-write, existing file
+  void flush();
   hid_t id() const { return h_.id(); }
 
   /// Writes a whole dataset of the given shape (row-major), making parent groups.
@@ -39,6 +41,7 @@ class File {
   void write(const std::string& path, const std::vector<hsize_t>& shape, const float* data,
              const std::string& units);
   void write(const std::string& path, const std::vector<hsize_t>& shape, const int* data, const std::string& units);
+  void write(const std::string& path, const std::vector<hsize_t>& shape, const long* data, const std::string& units);
   /// A dataset [frames][ny][nx] written one frame at a time, chunked per frame.
   void create_frames(const std::string& path, hsize_t frames, hsize_t ny, hsize_t nx, bool single,
                      const std::string& units);

@@ -8,7 +8,9 @@ namespace ty {
 
 class Log {
  public:
-  void open(const std::string& path) { file_.open(path, std::ios::trunc); }
+  void open(const std::string& path, bool append = false) {
+    file_.open(path, append ? std::ios::app : std::ios::trunc);
+  }
   void quiet(bool q) { quiet_ = q; }
   void info(const std::string& line);
   void warn(const std::string& line) { info("warning: " + line); }

@@ -7,6 +7,9 @@
 
 #include <filesystem>
 #include <fstream>
+#include <iterator>
+
+#include "io/diagnostics.h"
 
 #include "io/scene_writer.h"
 
@@ -18,13 +21,27 @@ namespace {
 const char* kPartial = "fields.h5.partial";
 }
 
-RunFolder::RunFolder(const std::string& dir, const Scene& scene) : dir_(dir), scene_(scene) {
+RunFolder::RunFolder(const std::string& dir, const Scene& scene, bool resume)
+    : dir_(dir), scene_(scene), resume_(resume) {
+  const std::string resolved =
+      "# resolved by terayee: every default filled in, every value in SI\n" + resolved_scene_yaml(scene);
   std::error_code ec;
+  if (resume) {
+    for (auto f : {kPartial, "checkpoint.h5", "scene.yaml"})
+      if (!fs::exists(path(f)))
+        throw BadInput(fmt::format("{}: error: there is no stopped run to resume here (no {})", dir_, f));
+    std::ifstream in(path("scene.yaml"));
+    const std::string old((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    if (old != resolved)
+      throw BadInput(fmt::format("{}: error: the scene differs from the one this run started with; resume with the "
+                                 "same scene and --set values",
+                                 dir_));
+    return;
+  }
   fs::create_directories(dir_, ec);
   if (!fs::is_directory(dir_)) throw std::runtime_error(fmt::format("cannot make the run folder '{}'", dir_));
-  for (auto f : {"fields.h5", "fields.xmf", "summary.json", kPartial}) fs::remove(path(f), ec);
-  std::ofstream(path("scene.yaml")) << "# resolved by terayee: every default filled in, every value in SI\n"
-                                    << resolved_scene_yaml(scene);
+  for (auto f : {"fields.h5", "fields.xmf", "summary.json", kPartial, "checkpoint.h5"}) fs::remove(path(f), ec);
+  std::ofstream(path("scene.yaml")) << resolved;
 }
 
 RunFolder::~RunFolder() {
@@ -33,9 +50,13 @@ RunFolder::~RunFolder() {
 
 void RunFolder::begin(const YeeGrid& g, const SnapshotPlan& plan, bool single, const std::vector<int>& medium_map,
                       int map_nx, int map_ny) {
-  h5_ = std::make_unique<h5::File>(h5::File::create(path(kPartial)));
   plan_ = plan;
   single_ = single;
+  if (resume_) {  // the datasets exist; frames go on where the checkpoint left them
+    h5_ = std::make_unique<h5::File>(h5::File::open_rw(path(kPartial)));
+    return;
+  }
+  h5_ = std::make_unique<h5::File>(h5::File::create(path(kPartial)));
   h5::File& f = *h5_;
   const double cell[2] = {g.dx, g.dy};
   f.write("/grid/cell", {2}, cell, "m");
@@ -91,8 +112,19 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, double dt, cons
   }
   h5_.reset();  // closes the file
   fs::rename(path(kPartial), path("fields.h5"));
+  std::error_code ec;
+  fs::remove(path("checkpoint.h5"), ec);
   write_xdmf();
   std::ofstream(path("summary.json")) << summary.dump(2) << "\n";
+  done_ = true;
+}
+
+void RunFolder::flush() {
+  if (h5_) h5_->flush();
+}
+
+void RunFolder::keep() {
+  h5_.reset();
   done_ = true;
 }
 
@@ -100,6 +132,7 @@ void RunFolder::abandon() {
   h5_.reset();
   std::error_code ec;
   fs::remove(path(kPartial), ec);
+  fs::remove(path("checkpoint.h5"), ec);
   done_ = true;
 }
 

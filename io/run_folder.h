@@ -19,8 +19,9 @@ namespace ty {
 
 class RunFolder : public SnapshotSink {
  public:
-  /// Makes the folder (if needed), removes old results there, writes scene.yaml.
-  RunFolder(const std::string& dir, const Scene& scene);
+  /// Makes the folder (if needed), removes old results there, writes scene.yaml. With
+  /// `resume`, the folder must hold a stopped run of the same resolved scene instead.
+  RunFolder(const std::string& dir, const Scene& scene, bool resume = false);
   ~RunFolder() override;
 
   const std::string& dir() const { return dir_; }
@@ -29,6 +30,10 @@ class RunFolder : public SnapshotSink {
   /// Opens fields.h5 (as a partial file) and lays out the grid and snapshot datasets.
   void begin(const YeeGrid& g, const SnapshotPlan& plan, bool single, const std::vector<int>& medium_map,
              int map_nx, int map_ny);
+  /// Flushes the partial results (before a checkpoint is written).
+  void flush();
+  /// Leaves the partial results and the checkpoint in place for a later --resume.
+  void keep();
   void frame(std::size_t frame, double time, std::size_t field, const float* data) override;
   void frame(std::size_t frame, double time, std::size_t field, const double* data) override;
   /// Writes the probes, closes the HDF5 file, renames it, writes fields.xmf and summary.json.
@@ -43,6 +48,7 @@ class RunFolder : public SnapshotSink {
   SnapshotPlan plan_;
   bool single_ = false;
   bool done_ = false;
+  bool resume_ = false;
   void write_xdmf() const;
 };
 

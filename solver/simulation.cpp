@@ -554,7 +554,7 @@ void Simulation<R>::record() {
     }
     p.count = k + 1;
   }
-  if (next_frame_ >= snap_.steps.size() || snap_.steps[next_frame_] != k) return;
+  if (next_frame_ >= static_cast<long>(snap_.steps.size()) || snap_.steps[next_frame_] != k) return;
   for (size_t fi = 0; fi < snap_.fields.size(); ++fi) {
     const SnapshotField& sf = snap_.fields[fi];
     const bool derived = sf.name[0] == 'S';

@@ -57,6 +57,30 @@ class Simulation {
   MagneticCells& magnets() { return mag_; }
   /// Value of a magnetic output field (Mx, Lx, dLx, M1x, ...) in list cell k.
   double magnetic_value(const std::string& field, long k) const;
+  /// Every piece of state a resumed run needs, one call per array, f(name, data, count),
+  /// data a pointer to R, double or long. Saving and loading both go through this one list,
+  /// so their order cannot drift apart. Derived data (coefficients, stencils) is rebuilt
+  /// from the scene instead.
+  template <class F>
+  void visit_state(F&& f) {
+    static const char* names[6] = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz"};
+    for (int c = 0; c < 6; ++c) f(std::string("fields/") + names[c], f_[c].data(), f_[c].size());
+    AlignedArray<R>* psi[8] = {&psi_hyx_, &psi_hzx_, &psi_eyx_, &psi_ezx_, &psi_hxy_, &psi_hzy_, &psi_exy_, &psi_ezy_};
+    static const char* pn[8] = {"hyx", "hzx", "eyx", "ezx", "hxy", "hzy", "exy", "ezy"};
+    for (int k = 0; k < 8; ++k) f(std::string("absorber/psi-") + pn[k], psi[k]->data(), psi[k]->size());
+    for (int c = 0; c < 6; ++c) {
+      f("magnets/m" + std::to_string(c), mag_.m[c].data(), mag_.m[c].size());
+      f("magnets/guess" + std::to_string(c), mag_.guess[c].data(), mag_.guess[c].size());
+    }
+    for (int c = 0; c < 3; ++c) f("magnets/dM" + std::to_string(c), mag_.dM_prev[c].data(), mag_.dM_prev[c].size());
+    for (auto& p : probes_) f("probes/" + p.name, p.raw.data(), p.raw.size());
+    for (auto& p : probes_)
+      for (size_t k = 0; k < p.magnetic.size(); ++k)
+        f("probes/" + p.name + "-" + p.magnetic[k], p.magnetic_series[k].data(), p.magnetic_series[k].size());
+    f("clock/steps", &n_, 1);
+    f("clock/frames", &next_frame_, 1);
+    for (auto& p : probes_) p.count = n_;
+  }
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
   bool find_nonfinite(int& i, int& j, Component& c) const;
 
@@ -118,7 +142,7 @@ class Simulation {
   // recorders
   std::vector<ProbeRecorder> probes_;
   SnapshotPlan snap_;
-  std::size_t next_frame_ = 0;
+  long next_frame_ = 0;
   SnapshotSink* sink_ = nullptr;
   std::vector<R> frame_buf_;
   std::vector<int> medium_map_;

@@ -14,6 +14,9 @@ struct RunOptions {
   int threads = 0;
   std::vector<std::string> sets;
   bool quiet = false;
+  bool resume = false;            ///< go on from RUN/checkpoint.h5
+  double checkpoint_minutes = 30; ///< wall time between checkpoints (0: only when stopped)
+  long stop_at_step = 0;          ///< stop (with a checkpoint) after this step (0: no)
 };
 
 int run_command(const RunOptions& o);

@@ -21,6 +21,11 @@ int main(int argc, char** argv) {
   r->add_option("--threads", run.threads, "OpenMP threads (overrides time.threads)")->check(CLI::PositiveNumber);
   r->add_option("--set", run.sets, "Override a scene value: key.path=value (repeatable)");
   r->add_flag("--quiet", run.quiet, "No progress line or log on the terminal");
+  r->add_flag("--resume", run.resume, "Go on with a stopped run from its checkpoint in the run folder");
+  r->add_option("--checkpoint-every", run.checkpoint_minutes, "Minutes of wall time between checkpoints (0: only on stop)")
+      ->check(CLI::NonNegativeNumber);
+  r->add_option("--stop-at-step", run.stop_at_step, "Stop after this step, leaving a checkpoint to resume from")
+      ->check(CLI::PositiveNumber);
 
   std::string check_scene;
   std::vector<std::string> check_sets;

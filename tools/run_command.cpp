@@ -11,9 +11,11 @@
 #include <csignal>
 #include <iostream>
 
+#include "io/checkpoint.h"
 #include "io/log.h"
 #include "io/run_folder.h"
 #include "io/scene_reader.h"
+#include "io/scene_writer.h"
 #include "solver/simulation.h"
 #include "tools/commands.h"
 
@@ -31,8 +33,8 @@ std::string hms(double s) {
 template <class R>
 int run_with(const Scene& scene, const RunOptions& o) {
   Log log;
-  RunFolder folder(o.out, scene);
-  log.open(folder.path("log.txt"));
+  RunFolder folder(o.out, scene, o.resume);
+  log.open(folder.path("log.txt"), o.resume);
   log.quiet(o.quiet);
   log.info(fmt::format("terayee {}: {}", TERAYEE_VERSION, scene.title.empty() ? scene.file : scene.title));
   for (const auto& w : scene.warnings) log.warn(w);
@@ -46,24 +48,47 @@ int run_with(const Scene& scene, const RunOptions& o) {
                        sim.threads(), sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
   folder.begin(g, sim.snapshot_plan(), sizeof(R) == 4, sim.medium_map(), sim.map_nx(), sim.map_ny());
   sim.set_snapshot_sink(&folder);
+  const std::string resolved = resolved_scene_yaml(scene);
+  const std::string checkpoint = folder.path("checkpoint.h5");
+  if (o.resume) {
+    load_checkpoint(checkpoint, sim, resolved);
+    log.info(fmt::format("resumed at step {} of {}", sim.steps_done(), sim.total_steps()));
+  }
+  auto stop_here = [&](long done, const char* why) {
+    folder.flush();
+    save_checkpoint(checkpoint, sim, resolved);
+    folder.keep();
+    log.info(fmt::format("{} at step {} of {}; the state is in {}. Go on with: terayee run {} -o {} --resume{}", why,
+                         done, sim.total_steps(), checkpoint, scene.file, o.out,
+                         o.sets.empty() ? "" : " (and the same --set values)"));
+    return 1;
+  };
 
   g_stop = 0;
   auto old_int = std::signal(SIGINT, on_signal);
   auto old_term = std::signal(SIGTERM, on_signal);
   const bool tty = isatty(STDERR_FILENO) && !o.quiet;
   const auto t0 = std::chrono::steady_clock::now();
+  auto last_checkpoint = t0;
   const long N = sim.total_steps();
+  const long first = sim.steps_done();
   const long every = std::max(1L, N / 100);
   int last_plain = -1;
   double rate = 0;
-  for (long n = 0; n < N; ++n) {
+  for (long n = first; n < N; ++n) {
     sim.advance();
-    if (g_stop) {
+    if (g_stop || (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N)) {
       std::signal(SIGINT, old_int);
       std::signal(SIGTERM, old_term);
-      folder.abandon();
-      log.info(fmt::format("stopped at step {} of {}; the partial results were removed", n + 1, N));
-      return 1;
+      return stop_here(n + 1, g_stop ? "stopped" : "stopped as asked");
+    }
+    if (o.checkpoint_minutes > 0 &&
+        std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >
+            60 * o.checkpoint_minutes) {
+      folder.flush();
+      save_checkpoint(checkpoint, sim, resolved);
+      last_checkpoint = std::chrono::steady_clock::now();
+      log.info(fmt::format("checkpoint at step {}", n + 1));
     }
     if ((n + 1) % every != 0 && n + 1 != N) continue;
     int i, j;
@@ -78,11 +103,12 @@ int run_with(const Scene& scene, const RunOptions& o) {
       return 1;
     }
     const double el = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
-    rate = el > 0 ? static_cast<double>(g.cells()) * (n + 1) / el : 0;
+    const long done_here = n + 1 - first;
+    rate = el > 0 ? static_cast<double>(g.cells()) * done_here / el : 0;
     const int pct = static_cast<int>(100.0 * (n + 1) / N);
     const std::string line =
         fmt::format("{:3d}%  t = {:.4g} ps  elapsed {}  eta {}  {:.3g} cell-updates/s", pct, (n + 1) * g.dt * 1e12,
-                    hms(el), hms(el * (N - n - 1) / (n + 1)), rate);
+                    hms(el), hms(el * (N - n - 1) / done_here), rate);
     if (tty) {
       std::cerr << "\r" << line << std::flush;
     } else if (!o.quiet && pct / 5 != last_plain) {
@@ -107,7 +133,8 @@ int run_with(const Scene& scene, const RunOptions& o) {
   s["threads"] = sim.threads();
   s["precision"] = sizeof(R) == 4 ? "single" : "double";
   s["wall-time-s"] = wall;
-  s["cell-updates-per-s"] = wall > 0 ? static_cast<double>(g.cells()) * N / wall : 0.0;
+  s["cell-updates-per-s"] = wall > 0 ? static_cast<double>(g.cells()) * (N - first) / wall : 0.0;
+  s["resumed-at-step"] = first;
   s["memory-bytes"] = sim.memory_bytes();
   std::vector<std::string> warnings = scene.warnings;
   warnings.insert(warnings.end(), sim.notes().begin(), sim.notes().end());

@@ -7,6 +7,7 @@
 #include <sys/wait.h>
 
 #include <array>
+#include <cstring>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
@@ -103,7 +104,7 @@ TEST_CASE("a run folder holds self-describing HDF5, XDMF, summary, log and the r
   fs::remove_all(dir);
 }
 
-TEST_CASE("a run stopped by a signal leaves no results") {
+TEST_CASE("a run stopped by a signal leaves no results, only a checkpoint to resume from") {
   const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/window-beam.yaml";
   const fs::path dir = fs::temp_directory_path() / "terayee-test-stopped";
   fs::remove_all(dir);
@@ -111,9 +112,36 @@ TEST_CASE("a run stopped by a signal leaves no results") {
                        dir.string() + "' --set time.stop=20ns");
   CHECK(rc == 1);
   CHECK_FALSE(fs::exists(dir / "fields.h5"));
-  CHECK_FALSE(fs::exists(dir / "fields.h5.partial"));
   CHECK_FALSE(fs::exists(dir / "summary.json"));
+  CHECK(fs::exists(dir / "checkpoint.h5"));
+  // a resume with another scene is refused
+  CHECK(shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + dir.string() +
+              "' --set time.stop=21ns --resume") == 2);
   fs::remove_all(dir);
+}
+
+TEST_CASE("a stopped and resumed run gives the same bits as one that ran straight through") {
+  // the MnF2 scene: fields, absorber, magnetic state and recorders all go through the checkpoint
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/mnf2-mirror.yaml";
+  const std::string sets = " --threads 2 --set time.stop=60ps --set outputs.2.snapshots.every=20ps";
+  const fs::path a = fs::temp_directory_path() / "terayee-test-straight", b = fs::temp_directory_path() / "terayee-test-resumed";
+  fs::remove_all(a);
+  fs::remove_all(b);
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + a.string() + "'" + sets) == 0);
+  CHECK(shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + b.string() + "'" + sets + " --stop-at-step 977") == 1);
+  CHECK_FALSE(fs::exists(b / "fields.h5"));
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + b.string() + "'" + sets + " --resume") == 0);
+  CHECK_FALSE(fs::exists(b / "checkpoint.h5"));
+  const auto fa = h5::File::open((a / "fields.h5").string()), fb = h5::File::open((b / "fields.h5").string());
+  for (const char* d : {"/probes/in-front/Ez", "/probes/in-front/Sx", "/probes/inside/Lx", "/probes/inside/My",
+                        "/snapshots/Ez", "/snapshots/Lx", "/snapshots/Mx", "/snapshots/time"}) {
+    INFO(d);
+    const auto x = fa.read(d), y = fb.read(d);
+    REQUIRE(x.size() == y.size());
+    CHECK(std::memcmp(x.data(), y.data(), x.size() * sizeof(double)) == 0);
+  }
+  fs::remove_all(a);
+  fs::remove_all(b);
 }
 
 TEST_CASE("--set overrides any scene value and is checked like the file") {
