@@ -96,8 +96,31 @@ void RunFolder::frame(std::size_t k, double, std::size_t field, const double* da
   h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
 }
 
-void RunFolder::finish(const std::vector<ProbeRecorder>& probes, double dt, const nlohmann::json& summary) {
+void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes, double dt,
+                       const nlohmann::json& summary) {
   h5::File& f = *h5_;
+  for (const auto& fl : fluxes) {
+    const std::string base = "/flux/" + fl.name;
+    const double T = fl.steps * dt;
+    const auto P = line_power(fl, [&](size_t a, size_t b, int c) { return fl.field(a, b, c, T); });
+    f.write(base + "/frequency", {fl.freq.size()}, fl.freq.data(), "Hz");
+    f.write(base + "/power", {P.size()}, P.data(), "W/m");
+    f.attribute(base + "/power", "meaning",
+                "net power through the line towards its normal, for a steady wave with the recorded spectrum's "
+                "amplitude ((2/T) normalisation, T the run's length)");
+    std::vector<double> re(fl.acc.size()), im(fl.acc.size()), px, py;
+    for (size_t k = 0; k < fl.acc.size(); ++k) re[k] = fl.acc[k].real() * 2 / T, im[k] = fl.acc[k].imag() * 2 / T;
+    const hsize_t np = fl.points.size();
+    f.write(base + "/fields/real", {fl.freq.size(), np, 6}, re.data(), "V/m (E), A/m (H)");
+    f.write(base + "/fields/imag", {fl.freq.size(), np, 6}, im.data(), "V/m (E), A/m (H)");
+    f.attribute(base + "/fields/real", "layout", "[frequency][point][Ex Ey Ez Hx Hy Hz]");
+    for (const auto& p : fl.points) px.push_back(p.x - scene_.origin_shift.x), py.push_back(p.y - scene_.origin_shift.y);
+    f.write(base + "/points/x", {np}, px.data(), "m");
+    f.write(base + "/points/y", {np}, py.data(), "m");
+    f.write(base + "/weights", {np}, fl.weight.data(), "m");
+    const double n[2] = {fl.normal.x, fl.normal.y};
+    f.write(base + "/normal", {2}, n, "");
+  }
   for (const auto& p : probes) {
     std::vector<double> t(p.count);
     for (long k = 0; k < p.count; ++k) t[k] = (k + 1) * dt;

@@ -12,6 +12,7 @@
 
 #include "io/hdf5_file.h"
 #include "io/scene.h"
+#include "solver/flux.h"
 #include "solver/recorders.h"
 #include "solver/yee_grid.h"
 
@@ -37,7 +38,8 @@ class RunFolder : public SnapshotSink {
   void frame(std::size_t frame, double time, std::size_t field, const float* data) override;
   void frame(std::size_t frame, double time, std::size_t field, const double* data) override;
   /// Writes the probes, closes the HDF5 file, renames it, writes fields.xmf and summary.json.
-  void finish(const std::vector<ProbeRecorder>& probes, double dt, const nlohmann::json& summary);
+  void finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes, double dt,
+              const nlohmann::json& summary);
   /// Removes the partial files of a run that did not complete.
   void abandon();
 

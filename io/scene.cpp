@@ -26,6 +26,33 @@ double Magnet::exchange_field() const {
   return sublattices.empty() ? 0.0 : lambda * sublattices[0].saturation;
 }
 
+Scene reference_scene(const Scene& s) {
+  Scene r = s;
+  r.reference = true;
+  r.bodies.clear();
+  bool marked = false;
+  for (const auto& b : s.bodies) marked |= b.sample;
+  for (const auto& b : s.bodies) {
+    bool remove = b.sample;
+    if (!marked) {
+      bool holds = false;
+      for (const auto& src : s.sources) {
+        Vec2 p = src.at;
+        if (src.kind != Source::Kind::point) {
+          const double c = std::cos(src.angle), sn = std::sin(src.angle);
+          const Vec2 f = src.kind == Source::Kind::beam ? src.focus : Vec2{src.line_at, src.line_at};
+          if (src.line_axis == 'x') p = {src.line_at, src.kind == Source::Kind::beam ? f.y + (src.line_at - f.x) / c * sn : 0.5 * s.grid.extent.y};
+          else p = {src.kind == Source::Kind::beam ? f.x + (src.line_at - f.y) / sn * c : 0.5 * s.grid.extent.x, src.line_at};
+        }
+        holds |= b.shape.contains(p);
+      }
+      remove = !holds;
+    }
+    if (!remove) r.bodies.push_back(b);
+  }
+  return r;
+}
+
 bool Shape::contains(Vec2 p) const {
   switch (kind) {
     case Kind::rectangle: {

@@ -135,13 +135,16 @@ struct Region {
 };
 
 struct Output {
-  enum class Kind { snapshots, probe } kind = Kind::snapshots;
+  enum class Kind { snapshots, probe, flux } kind = Kind::snapshots;
   std::string name;
   std::vector<std::string> fields;
   double every = 0;  ///< snapshots: s
   int stride = 1;
   Region region;
   Vec2 at;  ///< probe
+  Vec2 from, to;     ///< flux: the line, positive towards z x (to - from)
+  double band_from = 0, band_to = 0;  ///< flux: Hz
+  int count = 0;     ///< flux: frequencies
   Mark where;
 };
 
@@ -156,7 +159,13 @@ struct Scene {
   std::vector<Source> sources;
   std::vector<Output> outputs;
   Vec2 origin_shift;  ///< user coordinates = internal coordinates - origin_shift
+  bool reference = false;  ///< the sample bodies were removed (a reference run)
   std::vector<std::string> warnings;  ///< found while reading (rounded extents, ...)
 };
+
+/// The scene of a reference run: without the bodies marked `sample: true`, or, where none
+/// is marked, without every body that holds no source (a point source inside it, or the
+/// point where a beam's axis or a plane wave's line meets its launch line).
+Scene reference_scene(const Scene& s);
 
 }  // namespace ty

@@ -874,22 +874,98 @@ class SceneBuilder {
     }
   }
 
+  void read_flux(const YAML::Node& o, Output& out) {
+    out.kind = Output::Kind::flux;
+    if (!r_.is_map(o, "flux")) return;
+    r_.allow(o, {"name", "line", "band"}, "a flux output");
+    bool ok = true;
+    if (!o["name"]) {
+      r_.error(o, "a flux output needs the key 'name'");
+      ok = false;
+    } else if (auto n = r_.text(o["name"], "name")) {
+      out.name = *n;
+      if (n->empty() || n->find_first_of("/ .") != std::string::npos) {
+        r_.error(o["name"], fmt::format("flux name '{}' must be non-empty without '/', '.' or spaces", *n));
+        ok = false;
+      }
+      for (const auto& other : scene_.outputs)
+        if (other.kind == Output::Kind::flux && other.name == out.name) {
+          r_.error(o["name"], fmt::format("flux name '{}' is used twice", out.name));
+          ok = false;
+        }
+    }
+    const GridSpec& G = scene_.grid;
+    if (!o["line"]) {
+      r_.error(o, "a flux output needs the key 'line': {x: ...}, {y: ...} or {from: [...], to: [...]}");
+      ok = false;
+    } else if (r_.is_map(o["line"], "line")) {
+      const YAML::Node& l = o["line"];
+      r_.allow(l, {"x", "y", "from", "to"}, "a flux line");
+      if (l["x"] && l.size() == 1) {
+        if (auto v = r_.quantity(l["x"], "line.x", Kind::length, cell())) {
+          const double x = *v + scene_.origin_shift.x;
+          out.from = {x, G.extent.y}, out.to = {x, 0};  // positive towards +x
+          if (grid_ok_ && (x < 0 || x > G.extent.x)) r_.error(l["x"], "the flux line lies outside the grid's extent"), ok = false;
+        } else ok = false;
+      } else if (l["y"] && l.size() == 1) {
+        if (auto v = r_.quantity(l["y"], "line.y", Kind::length, cell())) {
+          const double y = *v + scene_.origin_shift.y;
+          out.from = {0, y}, out.to = {G.extent.x, y};  // positive towards +y
+          if (grid_ok_ && (y < 0 || y > G.extent.y)) r_.error(l["y"], "the flux line lies outside the grid's extent"), ok = false;
+        } else ok = false;
+      } else if (l["from"] && l["to"] && l.size() == 2) {
+        auto a = r_.vec2(l["from"], "from", Kind::length, cell()), b = r_.vec2(l["to"], "to", Kind::length, cell());
+        if (a && b) {
+          out.from = to_internal(*a), out.to = to_internal(*b);
+          if (grid_ok_ && (!inside_extent(out.from) || !inside_extent(out.to)))
+            r_.error(l, "the flux line must lie inside the grid's extent"), ok = false;
+          if (std::hypot(out.to.x - out.from.x, out.to.y - out.from.y) <= 0) r_.error(l, "the flux line has no length"), ok = false;
+        } else ok = false;
+      } else {
+        r_.error(l, "'line' must be {x: ...}, {y: ...} or {from: [...], to: [...]}");
+        ok = false;
+      }
+    }
+    if (!o["band"]) {
+      r_.error(o, "a flux output needs the key 'band': {from: ..., to: ..., count: ...}");
+      ok = false;
+    } else if (r_.is_map(o["band"], "band")) {
+      const YAML::Node& b = o["band"];
+      r_.allow(b, {"from", "to", "count"}, "a band");
+      for (auto k : {"from", "to", "count"}) r_.require(b, k, "a band");
+      if (b["from"]) { if (auto v = r_.positive(b["from"], "band.from", Kind::frequency)) out.band_from = *v; else ok = false; }
+      if (b["to"]) { if (auto v = r_.positive(b["to"], "band.to", Kind::frequency)) out.band_to = *v; else ok = false; }
+      if (b["count"]) { if (auto v = r_.integer(b["count"], "band.count", 1, 100000)) out.count = *v; else ok = false; }
+      if (ok && out.count > 1 && !(out.band_to > out.band_from)) {
+        r_.error(b, "'band.to' must lie above 'band.from'");
+        ok = false;
+      }
+      ok = ok && b["from"] && b["to"] && b["count"];
+    } else {
+      ok = false;
+    }
+    if (ok) scene_.outputs.push_back(out);
+  }
+
   void read_output(const YAML::Node& item) {
     if (!item.IsMap() || item.size() != 1) {
       r_.error(item, "each output is one of 'snapshots' or 'probe' with its keys below it");
       return;
     }
     const std::string kind = item.begin()->first.as<std::string>("");
-    const YAML::Node& o = item.begin()->second;
     Output out;
     out.where = r_.mark(item.begin()->first);
+    const YAML::Node& o = item.begin()->second;
     if (kind == "snapshots") out.kind = Output::Kind::snapshots;
     else if (kind == "probe") out.kind = Output::Kind::probe;
-    else if (kind == "flux" || kind == "spectral-map") {
+    else if (kind == "flux") {
+      read_flux(o, out);
+      return;
+    } else if (kind == "spectral-map") {
       r_.error(item.begin()->first, fmt::format("the '{}' output is not supported by this version of terayee yet", kind));
       return;
     } else {
-      r_.error(item.begin()->first, fmt::format("unknown output '{}' (snapshots or probe)", kind));
+      r_.error(item.begin()->first, fmt::format("unknown output '{}' (snapshots, probe or flux)", kind));
       return;
     }
     if (!r_.is_map(o, kind)) return;

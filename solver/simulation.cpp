@@ -354,6 +354,9 @@ void Simulation<R>::build_recorders() {
       }
       bytes_ += p.raw.size() * sizeof(double);
       probes_.push_back(std::move(p));
+    } else if (o.kind == Output::Kind::flux) {
+      fluxes_.push_back(make_flux(o, g_));
+      bytes_ += fluxes_.back().acc.size() * sizeof(std::complex<double>);
     } else {
       snap_ = plan_snapshots(scene_, o, g_, total_steps_);
       size_t most = 0;
@@ -553,6 +556,30 @@ void Simulation<R>::record() {
       p.magnetic_series[f][k] = v;
     }
     p.count = k + 1;
+  }
+  for (auto& fl : fluxes_) {
+    const size_t np = fl.points.size(), nf = fl.freq.size();
+    for (size_t p = 0; p < np; ++p)
+      for (int c = 0; c < 6; ++c) {
+        double v = 0;
+        for (int q = 0; q < 4; ++q) v += fl.stencil[p][c].weight[q] * f_[c][fl.stencil[p][c].index[q]];
+        fl.value[p * 6 + c] = c < 3 ? v : v / eta0;
+      }
+    const double te = n_ * g_.dt, th = (n_ - 0.5) * g_.dt, dt = g_.dt;
+    std::complex<double>* acc = fl.acc.data();
+    const double* val = fl.value.data();
+    const double* freq = fl.freq.data();
+#pragma omp parallel for schedule(static) num_threads(threads_)
+    for (long fi = 0; fi < static_cast<long>(nf); ++fi) {
+      const double w = 2 * constants::pi * freq[fi];
+      const std::complex<double> pe = std::polar(dt, w * te), ph = std::polar(dt, w * th);
+      std::complex<double>* a = acc + static_cast<size_t>(fi) * np * 6;
+      for (size_t p = 0; p < np; ++p) {
+        for (int c = 0; c < 3; ++c) a[p * 6 + c] += val[p * 6 + c] * pe;
+        for (int c = 3; c < 6; ++c) a[p * 6 + c] += val[p * 6 + c] * ph;
+      }
+    }
+    fl.steps = n_;
   }
   if (next_frame_ >= static_cast<long>(snap_.steps.size()) || snap_.steps[next_frame_] != k) return;
   for (size_t fi = 0; fi < snap_.fields.size(); ++fi) {

@@ -19,6 +19,7 @@
 #include "io/scene.h"
 #include "solver/aligned.h"
 #include "solver/cpml.h"
+#include "solver/flux.h"
 #include "solver/magnetic_cells.h"
 #include "solver/recorders.h"
 #include "solver/waveform.h"
@@ -74,17 +75,21 @@ class Simulation {
     }
     for (int c = 0; c < 3; ++c) f("magnets/dM" + std::to_string(c), mag_.dM_prev[c].data(), mag_.dM_prev[c].size());
     for (auto& p : probes_) f("probes/" + p.name, p.raw.data(), p.raw.size());
+    for (auto& fl : fluxes_)  // complex sums as pairs of doubles
+      f("flux/" + fl.name, reinterpret_cast<double*>(fl.acc.data()), 2 * fl.acc.size());
     for (auto& p : probes_)
       for (size_t k = 0; k < p.magnetic.size(); ++k)
         f("probes/" + p.name + "-" + p.magnetic[k], p.magnetic_series[k].data(), p.magnetic_series[k].size());
     f("clock/steps", &n_, 1);
     f("clock/frames", &next_frame_, 1);
     for (auto& p : probes_) p.count = n_;
+    for (auto& fl : fluxes_) fl.steps = n_;
   }
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
   bool find_nonfinite(int& i, int& j, Component& c) const;
 
   std::vector<ProbeRecorder>& probes() { return probes_; }
+  const std::vector<FluxRecorder>& fluxes() const { return fluxes_; }
   const SnapshotPlan& snapshot_plan() const { return snap_; }
   void set_snapshot_sink(SnapshotSink* sink) { sink_ = sink; }
   /// Medium index of each cell of the extent ([row][column], -1 = vacuum).
@@ -141,6 +146,7 @@ class Simulation {
   bool periodic_x_ = false, periodic_y_ = false, magnetic_x_ = false, magnetic_y_ = false;
   // recorders
   std::vector<ProbeRecorder> probes_;
+  std::vector<FluxRecorder> fluxes_;
   SnapshotPlan snap_;
   long next_frame_ = 0;
   SnapshotSink* sink_ = nullptr;

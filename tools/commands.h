@@ -15,12 +15,15 @@ struct RunOptions {
   std::vector<std::string> sets;
   bool quiet = false;
   bool resume = false;            ///< go on from RUN/checkpoint.h5
+  bool reference = false;         ///< run without the sample bodies
   double checkpoint_minutes = 30; ///< wall time between checkpoints (0: only when stopped)
   long stop_at_step = 0;          ///< stop (with a checkpoint) after this step (0: no)
 };
 
 int run_command(const RunOptions& o);
 int check_command(const std::string& scene, const std::vector<std::string>& sets);
+int measure_spectrum(const std::string& run, const std::string& reference, std::string reflected,
+                     std::string transmitted);
 int bench_command(int size, int threads, const std::string& precision, double seconds);
 
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench

@@ -21,6 +21,8 @@ int main(int argc, char** argv) {
   r->add_option("--threads", run.threads, "OpenMP threads (overrides time.threads)")->check(CLI::PositiveNumber);
   r->add_option("--set", run.sets, "Override a scene value: key.path=value (repeatable)");
   r->add_flag("--quiet", run.quiet, "No progress line or log on the terminal");
+  r->add_flag("--reference", run.reference,
+              "Run the scene without its sample bodies (those marked sample: true, else those holding no source)");
   r->add_flag("--resume", run.resume, "Go on with a stopped run from its checkpoint in the run folder");
   r->add_option("--checkpoint-every", run.checkpoint_minutes, "Minutes of wall time between checkpoints (0: only on stop)")
       ->check(CLI::NonNegativeNumber);
@@ -32,6 +34,17 @@ int main(int argc, char** argv) {
   auto* c = app.add_subcommand("check", "Validate a scene and print what a run would cost");
   c->add_option("scene", check_scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
   c->add_option("--set", check_sets, "Override a scene value: key.path=value (repeatable)");
+
+  auto* m = app.add_subcommand("measure", "Numbers from a run folder");
+  m->require_subcommand(1);
+  std::string m_run, m_ref, m_reflected, m_transmitted;
+  auto* ms = m->add_subcommand("spectrum", "Reflectance, transmittance and absorptance from flux lines");
+  ms->add_option("run", m_run, "Run folder")->required()->check(CLI::ExistingDirectory);
+  ms->add_option("--reference", m_ref, "Run folder of the reference run (terayee run --reference)")
+      ->required()
+      ->check(CLI::ExistingDirectory);
+  ms->add_option("--reflected", m_reflected, "Flux line before the sample (default: the one named 'reflected')");
+  ms->add_option("--transmitted", m_transmitted, "Flux line behind the sample (default: the one named 'transmitted')");
 
   int size = 1024, threads = 0;
   double seconds = 0.5;
@@ -51,6 +64,7 @@ int main(int argc, char** argv) {
   try {
     if (*r) return ty::run_command(run);
     if (*c) return ty::check_command(check_scene, check_sets);
+    if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
     if (*b) return ty::bench_command(size, threads, precision, seconds);
   } catch (const ty::BadInput& e) {
     std::cerr << e.what() << "\n";

@@ -36,7 +36,8 @@ int run_with(const Scene& scene, const RunOptions& o) {
   RunFolder folder(o.out, scene, o.resume);
   log.open(folder.path("log.txt"), o.resume);
   log.quiet(o.quiet);
-  log.info(fmt::format("terayee {}: {}", TERAYEE_VERSION, scene.title.empty() ? scene.file : scene.title));
+  log.info(fmt::format("terayee {}: {}{}", TERAYEE_VERSION, scene.title.empty() ? scene.file : scene.title,
+                       scene.reference ? " (reference run: sample bodies removed)" : ""));
   for (const auto& w : scene.warnings) log.warn(w);
 
   Simulation<R> sim(scene, o.threads);
@@ -123,6 +124,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
   nlohmann::json s;
   s["terayee-version"] = TERAYEE_VERSION;
   s["title"] = scene.title;
+  s["reference-run"] = scene.reference;
   s["scene"] = scene.file;
   s["completed"] = true;
   s["steps"] = N;
@@ -140,7 +142,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
   warnings.insert(warnings.end(), sim.notes().begin(), sim.notes().end());
   s["warnings"] = warnings;
   s["energy"] = {{"field-energy-at-end-J-per-m", sim.field_energy()}};
-  folder.finish(sim.probes(), g.dt, s);
+  folder.finish(sim.probes(), sim.fluxes(), g.dt, s);
   log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", N, hms(wall),
                        s["cell-updates-per-s"].get<double>(), o.out));
   return 0;
@@ -149,7 +151,8 @@ int run_with(const Scene& scene, const RunOptions& o) {
 }  // namespace
 
 int run_command(const RunOptions& o) {
-  const Scene scene = read_scene(o.scene, o.sets);
+  const Scene read = read_scene(o.scene, o.sets);
+  const Scene scene = o.reference ? reference_scene(read) : read;
   if (scene.time.precision == Precision::single) return run_with<float>(scene, o);
   return run_with<double>(scene, o);
 }
