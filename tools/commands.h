@@ -22,6 +22,14 @@ struct RunOptions {
 
 int run_command(const RunOptions& o);
 int check_command(const std::string& scene, const std::vector<std::string>& sets);
+struct MediumOptions {
+  std::string scene, medium, normal = "y", csv;
+  std::vector<std::string> sets;
+  double from = 0, to = 0, angle = 0, thickness = 0, waist = 0, incidence_index = 1;
+  int count = 101;
+};
+int medium_command(const MediumOptions& o);
+
 int measure_spectrum(const std::string& run, const std::string& reference, std::string reflected,
                      std::string transmitted);
 int bench_command(int size, int threads, const std::string& precision, double seconds);

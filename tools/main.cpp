@@ -7,6 +7,7 @@
 #include <iostream>
 
 #include "io/diagnostics.h"
+#include "io/units.h"
 #include "tools/commands.h"
 
 int main(int argc, char** argv) {
@@ -34,6 +35,23 @@ int main(int argc, char** argv) {
   auto* c = app.add_subcommand("check", "Validate a scene and print what a run would cost");
   c->add_option("scene", check_scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
   c->add_option("--set", check_sets, "Override a scene value: key.path=value (repeatable)");
+
+  ty::MediumOptions med;
+  std::string med_from, med_to, med_angle = "0", med_thickness = "0", med_waist = "0";
+  auto* md = app.add_subcommand("medium", "Linear-response properties of a medium of a scene under its bias");
+  md->add_option("scene", med.scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
+  md->add_option("--medium", med.medium, "Name of the medium")->required();
+  md->add_option("--from", med_from, "Lowest frequency, e.g. \"250 GHz\"")->required();
+  md->add_option("--to", med_to, "Highest frequency")->required();
+  md->add_option("--count", med.count, "Frequencies")->check(CLI::Range(1, 100000));
+  md->add_option("--angle", med_angle, "Angle of incidence from the normal, e.g. \"30 deg\"");
+  md->add_option("--normal", med.normal, "Interface normal: x or y")->check(CLI::IsMember({"x", "y"}));
+  md->add_option("--thickness", med_thickness, "Slab thickness (default: a half-space)");
+  md->add_option("--waist", med_waist, "Beam waist for the beam-summed lateral shift");
+  md->add_option("--incidence-index", med.incidence_index, "Refractive index of the incidence side")
+      ->check(CLI::PositiveNumber);
+  md->add_option("--csv", med.csv, "Also write the table to this CSV file");
+  md->add_option("--set", med.sets, "Override a scene value: key.path=value (repeatable)");
 
   auto* m = app.add_subcommand("measure", "Numbers from a run folder");
   m->require_subcommand(1);
@@ -65,6 +83,22 @@ int main(int argc, char** argv) {
     if (*r) return ty::run_command(run);
     if (*c) return ty::check_command(check_scene, check_sets);
     if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
+    if (*md) {
+      auto q = [](const std::string& text, ty::Kind k, const char* what) {
+        std::string why;
+        auto v = ty::parse_quantity(text, k, why);
+        if (!v || v->relative != ty::Quantity::Relative::none)
+          throw ty::BadInput(fmt::format("terayee medium: error: {}: {}", what, why.empty() ? "no relative units here" : why));
+        return v->value;
+      };
+      med.from = q(med_from, ty::Kind::frequency, "--from");
+      med.to = q(med_to, ty::Kind::frequency, "--to");
+      med.angle = q(med_angle, ty::Kind::angle, "--angle");
+      med.thickness = q(med_thickness, ty::Kind::length, "--thickness");
+      med.waist = q(med_waist, ty::Kind::length, "--waist");
+      if (!(med.to >= med.from) || med.from <= 0) throw ty::BadInput("terayee medium: error: need 0 < --from <= --to");
+      return ty::medium_command(med);
+    }
     if (*b) return ty::bench_command(size, threads, precision, seconds);
   } catch (const ty::BadInput& e) {
     std::cerr << e.what() << "\n";
