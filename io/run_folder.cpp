@@ -96,9 +96,43 @@ void RunFolder::frame(std::size_t k, double, std::size_t field, const double* da
   h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
 }
 
-void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes, double dt,
-                       const nlohmann::json& summary) {
+void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes,
+                       const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary) {
   h5::File& f = *h5_;
+  for (const auto& m : maps) {
+    const std::string base = "/spectral-maps/" + m.name;
+    f.write(base + "/frequency", {m.freq.size()}, m.freq.data(), "Hz");
+    f.write(base + "/x", {m.x.size()}, m.x.data(), "m");
+    f.write(base + "/y", {m.y.size()}, m.y.data(), "m");
+    f.attribute(base, "positions", "the Ez nodes (cell corners); every component averaged to them");
+    f.attribute(base, "convention", "E(t) = Re[E exp(-i w t)], amplitude of the steady wave");
+    const size_t np = static_cast<size_t>(m.ni) * m.nj;
+    const std::vector<hsize_t> shape{m.freq.size(), static_cast<hsize_t>(m.nj), static_cast<hsize_t>(m.ni)};
+    for (const auto& name : m.fields) {
+      std::vector<double> re(m.freq.size() * np), im(m.freq.size() * np);
+      for (size_t fi = 0; fi < m.freq.size(); ++fi)
+        for (size_t p = 0; p < np; ++p) {
+          std::complex<double> v;
+          static const char* comps[6] = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz"};
+          int c = -1;
+          for (int q = 0; q < 6; ++q)
+            if (name == comps[q]) c = q;
+          if (c >= 0) {
+            v = m.field(fi, p, c);
+          } else {  // 1/2 E x H*: real part the time-averaged Poynting vector, imaginary the reactive part
+            std::complex<double> E[3], H[3];
+            for (int q = 0; q < 3; ++q) E[q] = m.field(fi, p, q), H[q] = m.field(fi, p, q + 3);
+            const std::complex<double> sx = 0.5 * (E[1] * std::conj(H[2]) - E[2] * std::conj(H[1]));
+            const std::complex<double> sy = 0.5 * (E[2] * std::conj(H[0]) - E[0] * std::conj(H[2]));
+            v = name == "Sx" ? sx : name == "Sy" ? sy : std::complex<double>(std::hypot(sx.real(), sy.real()), 0.0);
+          }
+          re[fi * np + p] = v.real();
+          im[fi * np + p] = v.imag();
+        }
+      f.write(base + "/" + name + "/real", shape, re.data(), field_units(name));
+      f.write(base + "/" + name + "/imag", shape, im.data(), field_units(name));
+    }
+  }
   for (const auto& fl : fluxes) {
     const std::string base = "/flux/" + fl.name;
     const double T = fl.steps * dt;

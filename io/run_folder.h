@@ -14,6 +14,7 @@
 #include "io/scene.h"
 #include "solver/flux.h"
 #include "solver/recorders.h"
+#include "solver/spectral_map.h"
 #include "solver/yee_grid.h"
 
 namespace ty {
@@ -38,8 +39,8 @@ class RunFolder : public SnapshotSink {
   void frame(std::size_t frame, double time, std::size_t field, const float* data) override;
   void frame(std::size_t frame, double time, std::size_t field, const double* data) override;
   /// Writes the probes, closes the HDF5 file, renames it, writes fields.xmf and summary.json.
-  void finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes, double dt,
-              const nlohmann::json& summary);
+  void finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes,
+              const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary);
   /// Removes the partial files of a run that did not complete.
   void abandon();
 

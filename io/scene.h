@@ -135,7 +135,7 @@ struct Region {
 };
 
 struct Output {
-  enum class Kind { snapshots, probe, flux } kind = Kind::snapshots;
+  enum class Kind { snapshots, probe, flux, spectral_map } kind = Kind::snapshots;
   std::string name;
   std::vector<std::string> fields;
   double every = 0;  ///< snapshots: s
@@ -145,6 +145,7 @@ struct Output {
   Vec2 from, to;     ///< flux: the line, positive towards z x (to - from)
   double band_from = 0, band_to = 0;  ///< flux: Hz
   int count = 0;     ///< flux: frequencies
+  std::vector<double> frequencies;  ///< spectral-map: Hz
   Mark where;
 };
 

@@ -947,6 +947,53 @@ class SceneBuilder {
     if (ok) scene_.outputs.push_back(out);
   }
 
+  void read_spectral_map(const YAML::Node& o, Output& out) {
+    out.kind = Output::Kind::spectral_map;
+    if (!r_.is_map(o, "spectral-map")) return;
+    r_.allow(o, {"name", "frequencies", "fields", "stride", "region"}, "a spectral-map output");
+    bool ok = true;
+    for (auto k : {"name", "frequencies", "fields"})
+      if (!o[k]) r_.error(o, fmt::format("a spectral-map output needs the key '{}'", k)), ok = false;
+    if (o["name"])
+      if (auto n = r_.text(o["name"], "name")) {
+        out.name = *n;
+        if (n->empty() || n->find_first_of("/ .") != std::string::npos)
+          r_.error(o["name"], fmt::format("spectral-map name '{}' must be non-empty without '/', '.' or spaces", *n)), ok = false;
+        for (const auto& other : scene_.outputs)
+          if (other.kind == Output::Kind::spectral_map && other.name == out.name)
+            r_.error(o["name"], fmt::format("spectral-map name '{}' is used twice", out.name)), ok = false;
+      }
+    if (o["frequencies"] && r_.is_seq(o["frequencies"], "frequencies")) {
+      for (const auto& f : o["frequencies"])
+        if (auto v = r_.positive(f, "frequencies", Kind::frequency)) out.frequencies.push_back(*v); else ok = false;
+      if (out.frequencies.empty()) r_.error(o["frequencies"], "'frequencies' is empty"), ok = false;
+    }
+    if (o["fields"] && r_.is_seq(o["fields"], "fields")) {
+      static const std::set<std::string> allowed = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz", "Sx", "Sy", "S"};
+      for (const auto& f : o["fields"]) {
+        const std::string name = f.IsScalar() ? f.Scalar() : "";
+        if (!allowed.count(name))
+          r_.error(f, fmt::format("field '{}' cannot go in a spectral map (Ex Ey Ez Hx Hy Hz Sx Sy S)", name)), ok = false;
+        else if (std::find(out.fields.begin(), out.fields.end(), name) != out.fields.end())
+          r_.error(f, fmt::format("field '{}' is listed twice", name));
+        else
+          out.fields.push_back(name);
+      }
+    }
+    if (o["stride"])
+      if (auto v = r_.integer(o["stride"], "stride", 1, 1 << 20)) out.stride = *v;
+    if (const auto& rg = o["region"]) {
+      if (r_.is_map(rg, "region")) {
+        r_.allow(rg, {"centre", "size"}, "region");
+        auto c = rg["centre"] ? r_.vec2(rg["centre"], "centre", Kind::length, cell()) : std::nullopt;
+        auto z = rg["size"] ? r_.vec2(rg["size"], "size", Kind::length, cell()) : std::nullopt;
+        if (!c || !z || !(z->x > 0 && z->y > 0)) r_.error(rg, "'region' needs a centre and a positive size"), ok = false;
+        else out.region = {true, to_internal(*c), *z};
+      }
+    }
+    if (ok) scene_.outputs.push_back(out);
+  }
+
   void read_output(const YAML::Node& item) {
     if (!item.IsMap() || item.size() != 1) {
       r_.error(item, "each output is one of 'snapshots' or 'probe' with its keys below it");
@@ -962,7 +1009,7 @@ class SceneBuilder {
       read_flux(o, out);
       return;
     } else if (kind == "spectral-map") {
-      r_.error(item.begin()->first, fmt::format("the '{}' output is not supported by this version of terayee yet", kind));
+      read_spectral_map(o, out);
       return;
     } else {
       r_.error(item.begin()->first, fmt::format("unknown output '{}' (snapshots, probe or flux)", kind));

@@ -354,6 +354,9 @@ void Simulation<R>::build_recorders() {
       }
       bytes_ += p.raw.size() * sizeof(double);
       probes_.push_back(std::move(p));
+    } else if (o.kind == Output::Kind::spectral_map) {
+      maps_.push_back(make_spectral_map(scene_, o, g_, total_steps_));
+      bytes_ += maps_.back().acc.size() * sizeof(std::complex<double>);
     } else if (o.kind == Output::Kind::flux) {
       fluxes_.push_back(make_flux(o, g_));
       bytes_ += fluxes_.back().acc.size() * sizeof(std::complex<double>);
@@ -580,6 +583,35 @@ void Simulation<R>::record() {
       }
     }
     fl.steps = n_;
+  }
+  for (auto& m : maps_) {
+    if (k < *std::min_element(m.first_step.begin(), m.first_step.end())) continue;
+    const long st = g_.stride;
+    const size_t np = static_cast<size_t>(m.ni) * m.nj;
+    for (int b = 0; b < m.nj; ++b)
+      for (int a = 0; a < m.ni; ++a) {  // the six components averaged to the Ez node
+        const long id = g_.at(m.i0 + a * m.stride, m.j0 + b * m.stride);
+        double* v = &m.value[(static_cast<size_t>(b) * m.ni + a) * 6];
+        v[0] = 0.5 * (f_[0][id] + f_[0][id - 1]);
+        v[1] = 0.5 * (f_[1][id] + f_[1][id - st]);
+        v[2] = f_[2][id];
+        v[3] = 0.5 * (f_[3][id] + f_[3][id - st]) / eta0;
+        v[4] = 0.5 * (f_[4][id] + f_[4][id - 1]) / eta0;
+        v[5] = 0.25 * (f_[5][id] + f_[5][id - 1] + f_[5][id - st] + f_[5][id - st - 1]) / eta0;
+      }
+    const double te = n_ * g_.dt, th = (n_ - 0.5) * g_.dt;
+    for (size_t fi = 0; fi < m.freq.size(); ++fi) {
+      if (k < m.first_step[fi]) continue;
+      const double w = 2 * constants::pi * m.freq[fi];
+      const std::complex<double> pe = std::polar(g_.dt, w * te), ph = std::polar(g_.dt, w * th);
+      std::complex<double>* acc = m.acc.data() + fi * np * 6;
+      const double* val = m.value.data();
+#pragma omp parallel for schedule(static) num_threads(threads_)
+      for (long p = 0; p < static_cast<long>(np); ++p) {
+        for (int c = 0; c < 3; ++c) acc[p * 6 + c] += val[p * 6 + c] * pe;
+        for (int c = 3; c < 6; ++c) acc[p * 6 + c] += val[p * 6 + c] * ph;
+      }
+    }
   }
   if (next_frame_ >= static_cast<long>(snap_.steps.size()) || snap_.steps[next_frame_] != k) return;
   for (size_t fi = 0; fi < snap_.fields.size(); ++fi) {

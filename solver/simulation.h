@@ -20,6 +20,7 @@
 #include "solver/aligned.h"
 #include "solver/cpml.h"
 #include "solver/flux.h"
+#include "solver/spectral_map.h"
 #include "solver/magnetic_cells.h"
 #include "solver/recorders.h"
 #include "solver/waveform.h"
@@ -80,6 +81,7 @@ class Simulation {
     for (auto& p : probes_)
       for (size_t k = 0; k < p.magnetic.size(); ++k)
         f("probes/" + p.name + "-" + p.magnetic[k], p.magnetic_series[k].data(), p.magnetic_series[k].size());
+    for (auto& m : maps_) f("spectral-maps/" + m.name, reinterpret_cast<double*>(m.acc.data()), 2 * m.acc.size());
     f("clock/steps", &n_, 1);
     f("clock/frames", &next_frame_, 1);
     for (auto& p : probes_) p.count = n_;
@@ -90,6 +92,7 @@ class Simulation {
 
   std::vector<ProbeRecorder>& probes() { return probes_; }
   const std::vector<FluxRecorder>& fluxes() const { return fluxes_; }
+  const std::vector<SpectralMap>& spectral_maps() const { return maps_; }
   const SnapshotPlan& snapshot_plan() const { return snap_; }
   void set_snapshot_sink(SnapshotSink* sink) { sink_ = sink; }
   /// Medium index of each cell of the extent ([row][column], -1 = vacuum).
@@ -147,6 +150,7 @@ class Simulation {
   // recorders
   std::vector<ProbeRecorder> probes_;
   std::vector<FluxRecorder> fluxes_;
+  std::vector<SpectralMap> maps_;
   SnapshotPlan snap_;
   long next_frame_ = 0;
   SnapshotSink* sink_ = nullptr;

@@ -142,7 +142,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
   warnings.insert(warnings.end(), sim.notes().begin(), sim.notes().end());
   s["warnings"] = warnings;
   s["energy"] = {{"field-energy-at-end-J-per-m", sim.field_energy()}};
-  folder.finish(sim.probes(), sim.fluxes(), g.dt, s);
+  folder.finish(sim.probes(), sim.fluxes(), sim.spectral_maps(), g.dt, s);
   log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", N, hms(wall),
                        s["cell-updates-per-s"].get<double>(), o.out));
   return 0;
