@@ -32,6 +32,8 @@ int medium_command(const MediumOptions& o);
 
 int measure_spectrum(const std::string& run, const std::string& reference, std::string reflected,
                      std::string transmitted);
+int measure_focus(const std::string& run, const std::string& map, const std::string& reference, double freq,
+                  const std::string& axis, double face, bool has_face);
 int bench_command(int size, int threads, const std::string& precision, double seconds);
 
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench

@@ -64,6 +64,16 @@ int main(int argc, char** argv) {
   ms->add_option("--reflected", m_reflected, "Flux line before the sample (default: the one named 'reflected')");
   ms->add_option("--transmitted", m_transmitted, "Flux line behind the sample (default: the one named 'transmitted')");
 
+  std::string f_run, f_map, f_ref, f_freq, f_axis = "x", f_face;
+  auto* mf = m->add_subcommand("focus", "The focal spot in a spectral map");
+  mf->add_option("run", f_run, "Run folder")->required()->check(CLI::ExistingDirectory);
+  mf->add_option("--map", f_map, "Spectral map name")->required();
+  mf->add_option("--frequency", f_freq, "One of the map's frequencies (default: its first)");
+  mf->add_option("--axis", f_axis, "The beam's axis: x or y")->check(CLI::IsMember({"x", "y"}));
+  mf->add_option("--reference", f_ref, "Reference run folder, for the peak relative to the incident beam")
+      ->check(CLI::ExistingDirectory);
+  mf->add_option("--face", f_face, "Coordinate of a face along the axis, e.g. \"1.2 mm\"");
+
   int size = 1024, threads = 0;
   double seconds = 0.5;
   std::string precision = "double";
@@ -83,6 +93,22 @@ int main(int argc, char** argv) {
     if (*r) return ty::run_command(run);
     if (*c) return ty::check_command(check_scene, check_sets);
     if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
+    if (*mf) {
+      std::string why;
+      double freq = 0, face = 0;
+      if (!f_freq.empty()) {
+        auto v = ty::parse_quantity(f_freq, ty::Kind::frequency, why);
+        if (!v) throw ty::BadInput("terayee measure focus: error: --frequency: " + why);
+        freq = v->value;
+      }
+      if (!f_face.empty()) {
+        auto v = ty::parse_quantity(f_face, ty::Kind::length, why);
+        if (!v || v->relative != ty::Quantity::Relative::none)
+          throw ty::BadInput("terayee measure focus: error: --face: " + (why.empty() ? std::string("give a length") : why));
+        face = v->value;
+      }
+      return ty::measure_focus(f_run, f_map, f_ref, freq, f_axis, face, !f_face.empty());
+    }
     if (*md) {
       auto q = [](const std::string& text, ty::Kind k, const char* what) {
         std::string why;
