@@ -34,6 +34,8 @@ int measure_spectrum(const std::string& run, const std::string& reference, std::
                      std::string transmitted);
 int measure_focus(const std::string& run, const std::string& map, const std::string& reference, double freq,
                   const std::string& axis, double face, bool has_face);
+int measure_angle(const std::string& run, const std::string& map, const std::vector<double>& region,
+                  const std::string& normal, double incidence, bool has_incidence);
 int bench_command(int size, int threads, const std::string& precision, double seconds);
 
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench

@@ -74,6 +74,15 @@ int main(int argc, char** argv) {
       ->check(CLI::ExistingDirectory);
   mf->add_option("--face", f_face, "Coordinate of a face along the axis, e.g. \"1.2 mm\"");
 
+  std::string a_run, a_map, a_normal = "y", a_inc;
+  std::vector<std::string> a_region;
+  auto* ma = m->add_subcommand("angle", "Direction of power flow of a beam inside a region");
+  ma->add_option("run", a_run, "Run folder")->required()->check(CLI::ExistingDirectory);
+  ma->add_option("--map", a_map, "Spectral map name (with Sx and Sy)")->required();
+  ma->add_option("--region", a_region, "Centre and size: \"CX\" \"CY\" \"SX\" \"SY\" with units")->required()->expected(4);
+  ma->add_option("--normal", a_normal, "Interface normal: x or y")->check(CLI::IsMember({"x", "y"}));
+  ma->add_option("--incidence", a_inc, "Angle of incidence, for the sign of the refraction");
+
   int size = 1024, threads = 0;
   double seconds = 0.5;
   std::string precision = "double";
@@ -93,6 +102,24 @@ int main(int argc, char** argv) {
     if (*r) return ty::run_command(run);
     if (*c) return ty::check_command(check_scene, check_sets);
     if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
+    if (*ma) {
+      std::vector<double> region;
+      for (const auto& t : a_region) {
+        std::string why;
+        auto v = ty::parse_quantity(t, ty::Kind::length, why);
+        if (!v || v->relative != ty::Quantity::Relative::none)
+          throw ty::BadInput("terayee measure angle: error: --region: " + (why.empty() ? std::string("give lengths") : why));
+        region.push_back(v->value);
+      }
+      double inc = 0;
+      if (!a_inc.empty()) {
+        std::string why;
+        auto v = ty::parse_quantity(a_inc, ty::Kind::angle, why);
+        if (!v) throw ty::BadInput("terayee measure angle: error: --incidence: " + why);
+        inc = v->value;
+      }
+      return ty::measure_angle(a_run, a_map, region, a_normal, inc, !a_inc.empty());
+    }
     if (*mf) {
       std::string why;
       double freq = 0, face = 0;
