@@ -36,6 +36,12 @@ int measure_focus(const std::string& run, const std::string& map, const std::str
                   const std::string& axis, double face, bool has_face);
 int measure_angle(const std::string& run, const std::string& map, const std::vector<double>& region,
                   const std::string& normal, double incidence, bool has_incidence);
+struct ShiftOptions {
+  std::string run, reference, map, reversed, reversed_reference;
+  char line_axis = 'y';
+  double line = 0, interface = 0, angle = 0, frequency = 0;
+};
+int measure_shift(const ShiftOptions& o);
 int bench_command(int size, int threads, const std::string& precision, double seconds);
 
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench

@@ -83,6 +83,19 @@ int main(int argc, char** argv) {
   ma->add_option("--normal", a_normal, "Interface normal: x or y")->check(CLI::IsMember({"x", "y"}));
   ma->add_option("--incidence", a_inc, "Angle of incidence, for the sign of the refraction");
 
+  ty::ShiftOptions sh;
+  std::string sh_line, sh_interface, sh_angle, sh_freq;
+  auto* msh = m->add_subcommand("shift", "Lateral shift of a reflected beam");
+  msh->add_option("run", sh.run, "Run folder")->required()->check(CLI::ExistingDirectory);
+  msh->add_option("--reference", sh.reference, "Reference run folder (the incident beam)")->required()->check(CLI::ExistingDirectory);
+  msh->add_option("--map", sh.map, "Spectral map name")->required();
+  msh->add_option("--line", sh_line, "The measurement line parallel to the interface: y=VALUE or x=VALUE")->required();
+  msh->add_option("--interface", sh_interface, "The interface's coordinate along its normal")->required();
+  msh->add_option("--angle", sh_angle, "Angle of incidence (positive towards t = z x n)")->required();
+  msh->add_option("--frequency", sh_freq, "One of the map's frequencies (default: its first)");
+  msh->add_option("--reversed", sh.reversed, "Run folder with the bias reversed")->check(CLI::ExistingDirectory);
+  msh->add_option("--reversed-reference", sh.reversed_reference, "Its reference run")->check(CLI::ExistingDirectory);
+
   int size = 1024, threads = 0;
   double seconds = 0.5;
   std::string precision = "double";
@@ -102,6 +115,25 @@ int main(int argc, char** argv) {
     if (*r) return ty::run_command(run);
     if (*c) return ty::check_command(check_scene, check_sets);
     if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
+    if (*msh) {
+      auto q = [](const std::string& text, ty::Kind k, const char* what) {
+        std::string why;
+        auto v = ty::parse_quantity(text, k, why);
+        if (!v || v->relative != ty::Quantity::Relative::none)
+          throw ty::BadInput(fmt::format("terayee measure shift: error: {}: {}", what, why.empty() ? "no relative units" : why));
+        return v->value;
+      };
+      if (sh_line.size() < 3 || (sh_line[0] != 'x' && sh_line[0] != 'y') || sh_line[1] != '=')
+        throw ty::BadInput("terayee measure shift: error: --line must be y=VALUE or x=VALUE");
+      sh.line_axis = sh_line[0];
+      sh.line = q(sh_line.substr(2), ty::Kind::length, "--line");
+      sh.interface = q(sh_interface, ty::Kind::length, "--interface");
+      sh.angle = q(sh_angle, ty::Kind::angle, "--angle");
+      if (!sh_freq.empty()) sh.frequency = q(sh_freq, ty::Kind::frequency, "--frequency");
+      if (sh.reversed.empty() != sh.reversed_reference.empty())
+        throw ty::BadInput("terayee measure shift: error: --reversed and --reversed-reference go together");
+      return ty::measure_shift(sh);
+    }
     if (*ma) {
       std::vector<double> region;
       for (const auto& t : a_region) {
