@@ -874,26 +874,48 @@ class SceneBuilder {
     }
   }
 
+  /// The `name` of a probe, flux or spectral map: required, plain, unique among its kind.
+  bool read_output_name(const YAML::Node& o, Output& out, const char* what) {
+    if (!o["name"]) {
+      r_.error(o, fmt::format("a {} needs the key 'name'", what));
+      return false;
+    }
+    auto n = r_.text(o["name"], "name");
+    if (!n) return false;
+    out.name = *n;
+    if (n->empty() || n->find_first_of("/ .") != std::string::npos) {
+      r_.error(o["name"], fmt::format("{} name '{}' must be non-empty without '/', '.' or spaces", what, *n));
+      return false;
+    }
+    for (const auto& other : scene_.outputs)
+      if (other.kind == out.kind && other.name == out.name) {
+        r_.error(o["name"], fmt::format("{} name '{}' is used twice", what, out.name));
+        return false;
+      }
+    return true;
+  }
+
+  /// An optional `region: {centre, size}`; false when given but broken.
+  bool read_region(const YAML::Node& o, Output& out) {
+    const YAML::Node& rg = o["region"];
+    if (!rg) return true;
+    if (!r_.is_map(rg, "region")) return false;
+    r_.allow(rg, {"centre", "size"}, "region");
+    auto c = rg["centre"] ? r_.vec2(rg["centre"], "centre", Kind::length, cell()) : std::nullopt;
+    auto z = rg["size"] ? r_.vec2(rg["size"], "size", Kind::length, cell()) : std::nullopt;
+    if (!c || !z || !(z->x > 0 && z->y > 0)) {
+      r_.error(rg, "'region' needs a centre and a positive size");
+      return false;
+    }
+    out.region = {true, to_internal(*c), *z};
+    return true;
+  }
+
   void read_flux(const YAML::Node& o, Output& out) {
     out.kind = Output::Kind::flux;
     if (!r_.is_map(o, "flux")) return;
     r_.allow(o, {"name", "line", "band"}, "a flux output");
-    bool ok = true;
-    if (!o["name"]) {
-      r_.error(o, "a flux output needs the key 'name'");
-      ok = false;
-    } else if (auto n = r_.text(o["name"], "name")) {
-      out.name = *n;
-      if (n->empty() || n->find_first_of("/ .") != std::string::npos) {
-        r_.error(o["name"], fmt::format("flux name '{}' must be non-empty without '/', '.' or spaces", *n));
-        ok = false;
-      }
-      for (const auto& other : scene_.outputs)
-        if (other.kind == Output::Kind::flux && other.name == out.name) {
-          r_.error(o["name"], fmt::format("flux name '{}' is used twice", out.name));
-          ok = false;
-        }
-    }
+    bool ok = read_output_name(o, out, "flux output");
     const GridSpec& G = scene_.grid;
     if (!o["line"]) {
       r_.error(o, "a flux output needs the key 'line': {x: ...}, {y: ...} or {from: [...], to: [...]}");
@@ -952,17 +974,9 @@ class SceneBuilder {
     if (!r_.is_map(o, "spectral-map")) return;
     r_.allow(o, {"name", "frequencies", "fields", "stride", "region"}, "a spectral-map output");
     bool ok = true;
-    for (auto k : {"name", "frequencies", "fields"})
+    for (auto k : {"frequencies", "fields"})
       if (!o[k]) r_.error(o, fmt::format("a spectral-map output needs the key '{}'", k)), ok = false;
-    if (o["name"])
-      if (auto n = r_.text(o["name"], "name")) {
-        out.name = *n;
-        if (n->empty() || n->find_first_of("/ .") != std::string::npos)
-          r_.error(o["name"], fmt::format("spectral-map name '{}' must be non-empty without '/', '.' or spaces", *n)), ok = false;
-        for (const auto& other : scene_.outputs)
-          if (other.kind == Output::Kind::spectral_map && other.name == out.name)
-            r_.error(o["name"], fmt::format("spectral-map name '{}' is used twice", out.name)), ok = false;
-      }
+    ok = read_output_name(o, out, "spectral-map output") && ok;
     if (o["frequencies"] && r_.is_seq(o["frequencies"], "frequencies")) {
       for (const auto& f : o["frequencies"])
         if (auto v = r_.positive(f, "frequencies", Kind::frequency)) out.frequencies.push_back(*v); else ok = false;
@@ -982,15 +996,7 @@ class SceneBuilder {
     }
     if (o["stride"])
       if (auto v = r_.integer(o["stride"], "stride", 1, 1 << 20)) out.stride = *v;
-    if (const auto& rg = o["region"]) {
-      if (r_.is_map(rg, "region")) {
-        r_.allow(rg, {"centre", "size"}, "region");
-        auto c = rg["centre"] ? r_.vec2(rg["centre"], "centre", Kind::length, cell()) : std::nullopt;
-        auto z = rg["size"] ? r_.vec2(rg["size"], "size", Kind::length, cell()) : std::nullopt;
-        if (!c || !z || !(z->x > 0 && z->y > 0)) r_.error(rg, "'region' needs a centre and a positive size"), ok = false;
-        else out.region = {true, to_internal(*c), *z};
-      }
-    }
+    ok = read_region(o, out) && ok;
     if (ok) scene_.outputs.push_back(out);
   }
 
@@ -1030,19 +1036,7 @@ class SceneBuilder {
       }
       if (o["stride"])
         if (auto v = r_.integer(o["stride"], "stride", 1, 1 << 20)) out.stride = *v;
-      if (const auto& rg = o["region"]) {
-        if (r_.is_map(rg, "region")) {
-          r_.allow(rg, {"centre", "size"}, "region");
-          auto c = rg["centre"] ? r_.vec2(rg["centre"], "centre", Kind::length, cell()) : std::nullopt;
-          auto z = rg["size"] ? r_.vec2(rg["size"], "size", Kind::length, cell()) : std::nullopt;
-          if (!c || !z || !(z->x > 0 && z->y > 0)) {
-            r_.error(rg, "'region' needs a centre and a positive size");
-            ok = false;
-          } else {
-            out.region = {true, to_internal(*c), *z};
-          }
-        }
-      }
+      ok = read_region(o, out) && ok;
       for (const auto& other : scene_.outputs)
         if (other.kind == Output::Kind::snapshots) {
           r_.error(item.begin()->first, "only one 'snapshots' output is allowed");
@@ -1050,21 +1044,7 @@ class SceneBuilder {
         }
     } else {
       r_.allow(o, {"name", "at", "fields"}, "a probe");
-      if (!o["name"]) {
-        r_.error(o, "a probe needs the key 'name'");
-        ok = false;
-      } else if (auto n = r_.text(o["name"], "name")) {
-        out.name = *n;
-        if (n->empty() || n->find_first_of("/ .") != std::string::npos) {
-          r_.error(o["name"], fmt::format("probe name '{}' must be non-empty without '/', '.' or spaces", *n));
-          ok = false;
-        }
-        for (const auto& other : scene_.outputs)
-          if (other.kind == Output::Kind::probe && other.name == out.name) {
-            r_.error(o["name"], fmt::format("probe name '{}' is used twice", out.name));
-            ok = false;
-          }
-      }
+      ok = read_output_name(o, out, "probe") && ok;
       if (!o["at"]) {
         r_.error(o, "a probe needs the key 'at'");
         ok = false;

@@ -1,8 +1,12 @@
 /// \file helpers.h
 /// \brief Small helpers for the tests: scenes built in code, a DFT, zero crossings.
 #pragma once
+#include <sys/wait.h>
+
 #include <cmath>
 #include <complex>
+#include <cstdlib>
+#include <string>
 #include <vector>
 
 #include "io/scene.h"
@@ -62,6 +66,12 @@ inline Source point_source(Component c, Vec2 at, double f, double fwhm, double d
   s.waveform.fwhm = fwhm;
   s.waveform.delay = delay;
   return s;
+}
+
+/// Runs a shell command quietly; its exit status (-1 if it did not exit).
+inline int shell(const std::string& cmd) {
+  const int status = std::system((cmd + " > /dev/null 2>&1").c_str());
+  return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
 }
 
 /// X(f) = sum_n x_n exp(+i 2 pi f t_n) dt (the exp(-i w t) convention of the outputs).

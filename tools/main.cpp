@@ -10,6 +10,19 @@
 #include "io/units.h"
 #include "tools/commands.h"
 
+namespace {
+
+/// A command-line quantity with its unit, in SI (relative units are not allowed here).
+double quantity_option(const std::string& text, ty::Kind k, const std::string& what) {
+  std::string why;
+  auto v = ty::parse_quantity(text, k, why);
+  if (!v || v->relative != ty::Quantity::Relative::none)
+    throw ty::BadInput(fmt::format("terayee: error: {}: {}", what, why.empty() ? "cells and periods are not allowed here" : why));
+  return v->value;
+}
+
+}  // namespace
+
 int main(int argc, char** argv) {
   CLI::App app{"terayee: 2D FDTD simulation of terahertz waves in dielectric and magnetically ordered media"};
   app.set_version_flag("--version", std::string("terayee ") + TERAYEE_VERSION);
@@ -116,13 +129,7 @@ int main(int argc, char** argv) {
     if (*c) return ty::check_command(check_scene, check_sets);
     if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
     if (*msh) {
-      auto q = [](const std::string& text, ty::Kind k, const char* what) {
-        std::string why;
-        auto v = ty::parse_quantity(text, k, why);
-        if (!v || v->relative != ty::Quantity::Relative::none)
-          throw ty::BadInput(fmt::format("terayee measure shift: error: {}: {}", what, why.empty() ? "no relative units" : why));
-        return v->value;
-      };
+      auto q = quantity_option;
       if (sh_line.size() < 3 || (sh_line[0] != 'x' && sh_line[0] != 'y') || sh_line[1] != '=')
         throw ty::BadInput("terayee measure shift: error: --line must be y=VALUE or x=VALUE");
       sh.line_axis = sh_line[0];
@@ -136,46 +143,17 @@ int main(int argc, char** argv) {
     }
     if (*ma) {
       std::vector<double> region;
-      for (const auto& t : a_region) {
-        std::string why;
-        auto v = ty::parse_quantity(t, ty::Kind::length, why);
-        if (!v || v->relative != ty::Quantity::Relative::none)
-          throw ty::BadInput("terayee measure angle: error: --region: " + (why.empty() ? std::string("give lengths") : why));
-        region.push_back(v->value);
-      }
-      double inc = 0;
-      if (!a_inc.empty()) {
-        std::string why;
-        auto v = ty::parse_quantity(a_inc, ty::Kind::angle, why);
-        if (!v) throw ty::BadInput("terayee measure angle: error: --incidence: " + why);
-        inc = v->value;
-      }
+      for (const auto& t : a_region) region.push_back(quantity_option(t, ty::Kind::length, "--region"));
+      const double inc = a_inc.empty() ? 0.0 : quantity_option(a_inc, ty::Kind::angle, "--incidence");
       return ty::measure_angle(a_run, a_map, region, a_normal, inc, !a_inc.empty());
     }
     if (*mf) {
-      std::string why;
-      double freq = 0, face = 0;
-      if (!f_freq.empty()) {
-        auto v = ty::parse_quantity(f_freq, ty::Kind::frequency, why);
-        if (!v) throw ty::BadInput("terayee measure focus: error: --frequency: " + why);
-        freq = v->value;
-      }
-      if (!f_face.empty()) {
-        auto v = ty::parse_quantity(f_face, ty::Kind::length, why);
-        if (!v || v->relative != ty::Quantity::Relative::none)
-          throw ty::BadInput("terayee measure focus: error: --face: " + (why.empty() ? std::string("give a length") : why));
-        face = v->value;
-      }
+      const double freq = f_freq.empty() ? 0.0 : quantity_option(f_freq, ty::Kind::frequency, "--frequency");
+      const double face = f_face.empty() ? 0.0 : quantity_option(f_face, ty::Kind::length, "--face");
       return ty::measure_focus(f_run, f_map, f_ref, freq, f_axis, face, !f_face.empty());
     }
     if (*md) {
-      auto q = [](const std::string& text, ty::Kind k, const char* what) {
-        std::string why;
-        auto v = ty::parse_quantity(text, k, why);
-        if (!v || v->relative != ty::Quantity::Relative::none)
-          throw ty::BadInput(fmt::format("terayee medium: error: {}: {}", what, why.empty() ? "no relative units here" : why));
-        return v->value;
-      };
+      auto q = quantity_option;
       med.from = q(med_from, ty::Kind::frequency, "--from");
       med.to = q(med_to, ty::Kind::frequency, "--to");
       med.angle = q(med_angle, ty::Kind::angle, "--angle");

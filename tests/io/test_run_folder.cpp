@@ -17,15 +17,14 @@
 #include "io/hdf5_file.h"
 #include "io/scene_reader.h"
 
+#include "tests/helpers.h"
+
 namespace fs = std::filesystem;
 using namespace ty;
 
 namespace {
 
-int shell(const std::string& cmd) {
-  const int status = std::system((cmd + " > /dev/null 2>&1").c_str());
-  return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-}
+using ty::test::shell;
 
 std::string slurp(const fs::path& p) {
   std::ifstream in(p);

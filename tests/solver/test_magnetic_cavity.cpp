@@ -18,11 +18,7 @@ TEST_CASE("closed cavity with an undamped magnetic slab: energy bounded, |m| = 1
   Medium m;
   m.name = "MnF2";
   m.permittivity = {5.5, 5.5, 5.5};
-  Magnet mag;
-  mag.sublattices = {{0.754, 2.0, 0.0}, {0.754, 2.0, 0.0}};
-  mag.lambda = 55.0 / 0.754;  // references.md values (from memory there)
-  mag.anisotropy = {{{0, 0, 1}, 0.787}};
-  m.magnet = mag;
+  m.magnet = test::mnf2(0.0);
   s.media.push_back(m);
   s.bias = {0, 0, 0.5};
   Body b;

@@ -12,14 +12,13 @@
 #include <fstream>
 #include <nlohmann/json.hpp>
 
+#include "tests/helpers.h"
+
 namespace fs = std::filesystem;
 
 namespace {
 
-int shell(const std::string& cmd) {
-  const int status = std::system((cmd + " > /dev/null 2>&1").c_str());
-  return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-}
+using ty::test::shell;
 
 double shift_of(const std::string& pol) {
   const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/tir-shift.yaml";

@@ -13,14 +13,13 @@
 #include <fstream>
 #include <sstream>
 
+#include "tests/helpers.h"
+
 namespace fs = std::filesystem;
 
 namespace {
 
-int shell(const std::string& cmd) {
-  const int status = std::system((cmd + " > /dev/null 2>&1").c_str());
-  return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-}
+using ty::test::shell;
 
 }  // namespace
 

@@ -12,6 +12,8 @@
 #include <sstream>
 #include <vector>
 
+#include "tests/helpers.h"
+
 namespace {
 
 std::vector<double> first_row(const std::string& csv) {
@@ -25,10 +27,7 @@ std::vector<double> first_row(const std::string& csv) {
   return v;
 }
 
-int shell(const std::string& cmd) {
-  const int status = std::system((cmd + " > /dev/null 2>&1").c_str());
-  return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-}
+using ty::test::shell;
 
 }  // namespace
 
