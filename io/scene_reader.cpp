@@ -746,7 +746,7 @@ class SceneBuilder {
       return;
     }
     const std::string kind = item.begin()->first.as<std::string>("");
-    const YAML::Node& s = item.begin()->second;
+    const YAML::Node s = item.begin()->second;  // a copy: the iterator is a temporary
     Source src;
     src.where = r_.mark(item.begin()->first);
     if (kind == "point") src.kind = Source::Kind::point;
@@ -1008,7 +1008,7 @@ class SceneBuilder {
     const std::string kind = item.begin()->first.as<std::string>("");
     Output out;
     out.where = r_.mark(item.begin()->first);
-    const YAML::Node& o = item.begin()->second;
+    const YAML::Node o = item.begin()->second;  // a copy: the iterator is a temporary
     if (kind == "snapshots") out.kind = Output::Kind::snapshots;
     else if (kind == "probe") out.kind = Output::Kind::probe;
     else if (kind == "flux") {
