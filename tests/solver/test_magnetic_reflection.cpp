@@ -75,7 +75,10 @@ double predicted_R(const Magnet& mag, std::array<double, 3> bias, double f) {
   const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * M_PI * f);
   const std::complex<double> muv = voigt_permeability(mu, 0);
   std::complex<double> n2 = std::sqrt(5.5 * muv);
-  if (n2.imag() < 0) n2 = -n2;  // the transmitted wave decays away from the interface
+  // the transmitted wave decays away from the interface, or, lossless, carries power away
+  // (Re(n2 / mu_V) > 0); round-off of order 1e-17 must not flip a propagating root
+  const double tiny = 1e-12 * std::abs(n2);
+  if (n2.imag() < -tiny || (std::abs(n2.imag()) <= tiny && (n2 / muv).real() < 0)) n2 = -n2;
   const std::complex<double> r = (muv / n2 - 1.0) / (muv / n2 + 1.0);
   return std::norm(r);
 }
