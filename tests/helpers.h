@@ -25,22 +25,6 @@ inline Magnet mnf2(double alpha = 0) {
   return m;
 }
 
-/// A plane-wave pulse launched from the line x = at, travelling +x.
-inline Source plane_pulse(Component pol, double at, double f, double fwhm, double delay, double amplitude) {
-  Source s;
-  s.kind = Source::Kind::plane;
-  s.component = pol;
-  s.angle = 0;
-  s.line_axis = 'x';
-  s.line_at = at;
-  s.frequency = f;
-  s.amplitude = amplitude;
-  s.waveform.kind = Waveform::Kind::pulse;
-  s.waveform.fwhm = fwhm;
-  s.waveform.delay = delay;
-  return s;
-}
-
 /// An empty vacuum scene of nx x ny cells of size d, no absorber unless the boundary says so.
 inline Scene box_scene(int nx, int ny, double d, Boundary bx, Boundary by, double courant, double stop) {
   Scene s;
@@ -55,16 +39,31 @@ inline Scene box_scene(int nx, int ny, double d, Boundary bx, Boundary by, doubl
   return s;
 }
 
-inline Source point_source(Component c, Vec2 at, double f, double fwhm, double delay, double amplitude) {
+/// A source of the given kind and component carrying a Gaussian pulse.
+inline Source pulsed(Source::Kind kind, Component c, double f, double fwhm, double delay, double amplitude) {
   Source s;
-  s.kind = Source::Kind::point;
+  s.kind = kind;
   s.component = c;
-  s.at = at;
   s.frequency = f;
   s.amplitude = amplitude;
   s.waveform.kind = Waveform::Kind::pulse;
   s.waveform.fwhm = fwhm;
   s.waveform.delay = delay;
+  return s;
+}
+
+inline Source point_source(Component c, Vec2 at, double f, double fwhm, double delay, double amplitude) {
+  Source s = pulsed(Source::Kind::point, c, f, fwhm, delay, amplitude);
+  s.at = at;
+  return s;
+}
+
+/// A plane-wave pulse launched from the line x = at, travelling +x.
+inline Source plane_pulse(Component pol, double at, double f, double fwhm, double delay, double amplitude) {
+  Source s = pulsed(Source::Kind::plane, pol, f, fwhm, delay, amplitude);
+  s.angle = 0;
+  s.line_axis = 'x';
+  s.line_at = at;
   return s;
 }
 
