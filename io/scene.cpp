@@ -26,6 +26,29 @@ double Magnet::exchange_field() const {
   return sublattices.empty() ? 0.0 : lambda * sublattices[0].saturation;
 }
 
+Vec2 launch_point(const Source& s, Vec2 extent) {
+  const double c = std::cos(s.angle), sn = std::sin(s.angle);
+  if (s.line_axis == 'x')
+    return {s.line_at, s.kind == Source::Kind::beam ? s.focus.y + (s.line_at - s.focus.x) / c * sn : 0.5 * extent.y};
+  return {s.kind == Source::Kind::beam ? s.focus.x + (s.line_at - s.focus.y) / sn * c : 0.5 * extent.x, s.line_at};
+}
+
+Band2 source_band(const Source& s) {
+  switch (s.waveform.kind) {
+    case Waveform::Kind::cw: return {s.frequency, s.frequency};
+    case Waveform::Kind::pulse: {
+      // Gaussian field envelope of std dev fwhm / (2 sqrt(ln 2)): its spectrum falls to 1%
+      // at sqrt(2 ln 100) / (2 pi sigma_t) from the carrier
+      const double sigma_t = s.waveform.fwhm / (2.0 * std::sqrt(std::log(2.0)));
+      const double w = std::sqrt(2.0 * std::log(100.0)) / (2.0 * 3.14159265358979323846 * sigma_t);
+      return {std::max(0.0, s.frequency - w), s.frequency + w};
+    }
+    case Waveform::Kind::chirp:
+      return {std::min(s.waveform.from, s.waveform.to), std::max(s.waveform.from, s.waveform.to)};
+  }
+  return {s.frequency, s.frequency};
+}
+
 Scene reference_scene(const Scene& s) {
   Scene r = s;
   r.reference = true;
@@ -37,13 +60,7 @@ Scene reference_scene(const Scene& s) {
     if (!marked) {
       bool holds = false;
       for (const auto& src : s.sources) {
-        Vec2 p = src.at;
-        if (src.kind != Source::Kind::point) {
-          const double c = std::cos(src.angle), sn = std::sin(src.angle);
-          const Vec2 f = src.kind == Source::Kind::beam ? src.focus : Vec2{src.line_at, src.line_at};
-          if (src.line_axis == 'x') p = {src.line_at, src.kind == Source::Kind::beam ? f.y + (src.line_at - f.x) / c * sn : 0.5 * s.grid.extent.y};
-          else p = {src.kind == Source::Kind::beam ? f.x + (src.line_at - f.y) / sn * c : 0.5 * s.grid.extent.x, src.line_at};
-        }
+        const Vec2 p = src.kind == Source::Kind::point ? src.at : launch_point(src, s.grid.extent);
         holds |= b.shape.contains(p);
       }
       remove = !holds;

@@ -164,6 +164,18 @@ struct Scene {
   std::vector<std::string> warnings;  ///< found while reading (rounded extents, ...)
 };
 
+/// Where a beam's axis meets its launch line (for a plane wave, the middle of the line
+/// within the extent), internal coordinates. The launch medium is taken there, delays are
+/// measured from there, and a body holding it holds the source.
+Vec2 launch_point(const Source& s, Vec2 extent);
+
+/// The frequencies a source's spectrum covers down to 1% of its peak amplitude, Hz
+/// (a cw source: its frequency; a chirp: its sweep).
+struct Band2 {
+  double lo = 0, hi = 0;
+};
+Band2 source_band(const Source& s);
+
 /// The scene of a reference run: without the bodies marked `sample: true`, or, where none
 /// is marked, without every body that holds no source (a point source inside it, or the
 /// point where a beam's axis or a plane wave's line meets its launch line).

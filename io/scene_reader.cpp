@@ -180,19 +180,6 @@ class Reader {
   std::string file_;
 };
 
-/// Upper edge of a source's band (where a pulse's spectral amplitude falls to 1%).
-double band_top(const Source& s) {
-  switch (s.waveform.kind) {
-    case Waveform::Kind::cw: return s.frequency;
-    case Waveform::Kind::pulse: {
-      const double sigma_t = s.waveform.fwhm / (2.0 * std::sqrt(std::log(2.0)));  // field envelope std dev
-      return s.frequency + std::sqrt(2.0 * std::log(100.0)) / (2.0 * pi * sigma_t);
-    }
-    case Waveform::Kind::chirp: return std::max(s.waveform.from, s.waveform.to);
-  }
-  return s.frequency;
-}
-
 void apply_override(YAML::Node root, const std::string& item) {
   const auto eq = item.find('=');
   if (eq == std::string::npos || eq == 0)
@@ -456,7 +443,7 @@ class SceneBuilder {
             if (f == 0) s.frequency = f = 0.5 * (s.waveform.from + s.waveform.to);
           }
         }
-        if (f > 0) f_top_ = std::max(f_top_, band_top(s));
+        if (f > 0) f_top_ = std::max(f_top_, source_band(s).hi);
       }
       freq_.push_back(f);
       if (f > 0) freqs.insert(f);

@@ -30,21 +30,13 @@ double yee_wavenumber(double omega, double theta, double n, double dx, double dy
   return 0.5 * (lo + hi);
 }
 
-IncidentField::IncidentField(const Source& s, double n, double dx, double dy, double dt) : s_(s), n_(n) {
+IncidentField::IncidentField(const Source& s, Vec2 crossing, double n, double dx, double dy, double dt)
+    : s_(s), n_(n), crossing_(crossing) {
   const double omega = 2 * pi * s.frequency;
   k_ = yee_wavenumber(omega, s.angle, n, dx, dy, dt);
   v_ = omega / k_;
   u_ = {std::cos(s.angle), std::sin(s.angle)};
   v_dir_ = {-u_.y, u_.x};
-  // where the axis (through the focus, or any point for a plane wave) meets the line
-  const Vec2 f = s.kind == Source::Kind::beam ? s.focus : Vec2{s.line_at, s.line_at};
-  if (s.line_axis == 'x') {
-    const double t = (s.line_at - f.x) / u_.x;
-    crossing_ = {s.line_at, s.kind == Source::Kind::beam ? f.y + t * u_.y : 0.0};
-  } else {
-    const double t = (s.line_at - f.y) / u_.y;
-    crossing_ = {s.kind == Source::Kind::beam ? f.x + t * u_.x : 0.0, s.line_at};
-  }
   if (s.kind == Source::Kind::beam) {
     qmax_ = std::min(0.999 * k_, 9.0 / s.waist);
     nq_ = 601;

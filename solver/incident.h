@@ -26,10 +26,10 @@ double yee_wavenumber(double omega, double theta, double n, double dx, double dy
 
 class IncidentField {
  public:
-  IncidentField(const Source& s, double n, double dx, double dy, double dt);
+  /// `crossing`: where the beam's axis meets the launch line (io's launch_point).
+  IncidentField(const Source& s, Vec2 crossing, double n, double dx, double dy, double dt);
   /// Complex amplitude and delay of component c at internal position p.
   void at(Component c, Vec2 p, std::complex<double>& A, double& tau) const;
-  Vec2 crossing() const { return crossing_; }
 
  private:
   Source s_;

@@ -251,9 +251,8 @@ void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
     }
     // launch line: one-sided total-field/scattered-field sheet
     const bool xline = src.line_axis == 'x';
-    const Vec2 cross0 = xline ? Vec2{src.line_at, src.kind == Source::Kind::beam ? src.focus.y : 0.5 * s.grid.extent.y}
-                              : Vec2{src.kind == Source::Kind::beam ? src.focus.x : 0.5 * s.grid.extent.x, src.line_at};
-    const int m = medium_at(s, cross0);
+    const Vec2 cross = launch_point(src, s.grid.extent);
+    const int m = medium_at(s, cross);
     double n = 1;
     if (m >= 0) {
       const Medium& med = s.media[m];
@@ -271,7 +270,7 @@ void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
                                      "ignores its loss",
                                      src.where.line, med.name));
     }
-    const IncidentField inc(src, n, g_.dx, g_.dy, g_.dt);
+    const IncidentField inc(src, cross, n, g_.dx, g_.dy, g_.dt);
     const int line = xline ? static_cast<int>(std::lround(g_.fi(Component::Ez, src.line_at)))
                            : static_cast<int>(std::lround(g_.fj(Component::Ez, src.line_at)));
     const double x0 = xline ? g_.x(Component::Ez, line) : g_.y(Component::Ez, line);

@@ -152,10 +152,7 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
     if (!m.perfect_conductor) media.emplace_back(m.name, *std::max_element(m.permittivity.begin(), m.permittivity.end()));
   for (size_t k = 0; k < s.sources.size(); ++k) {
     const Source& src = s.sources[k];
-    double f = src.frequency;
-    if (src.waveform.kind == Waveform::Kind::pulse)
-      f += std::sqrt(2.0 * std::log(100.0)) * 2.0 * std::sqrt(std::log(2.0)) / (2 * constants::pi * src.waveform.fwhm);
-    if (src.waveform.kind == Waveform::Kind::chirp) f = std::max(src.waveform.from, src.waveform.to);
+    const double f = source_band(src).hi;
     std::cout << fmt::format("  source {} (line {}): band up to {:.4g} THz\n", k + 1, src.where.line, f / 1e12);
     for (const auto& [name, eps] : media) {
       const double cpw = constants::c0 / (f * std::sqrt(eps)) / std::max(G.dx, G.dy);
@@ -168,15 +165,8 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
   }
   double f_lo = 1e300, f_hi = 0;
   for (const auto& src : s.sources) {
-    double a = src.frequency, b = src.frequency;
-    if (src.waveform.kind == Waveform::Kind::pulse) {
-      const double w = std::sqrt(2.0 * std::log(100.0)) * 2.0 * std::sqrt(std::log(2.0)) /
-                       (2 * constants::pi * src.waveform.fwhm);
-      a -= w, b += w;
-    } else if (src.waveform.kind == Waveform::Kind::chirp) {
-      a = std::min(src.waveform.from, src.waveform.to), b = std::max(src.waveform.from, src.waveform.to);
-    }
-    f_lo = std::min(f_lo, std::max(a, 0.01 * src.frequency)), f_hi = std::max(f_hi, b);
+    const Band2 b = source_band(src);
+    f_lo = std::min(f_lo, std::max(b.lo, 0.01 * src.frequency)), f_hi = std::max(f_hi, b.hi);
   }
   warnings += report_magnets(s, f_lo, f_hi, std::max(G.dx, G.dy));
   // run time from a short measurement of this machine's vacuum rate
