@@ -49,13 +49,8 @@ constexpr Term kTerms[] = {
 template <class R>
 Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   const GridSpec& G = scene.grid;
-  const int ext_x = static_cast<int>(std::lround(G.extent.x / G.dx));
-  const int ext_y = static_cast<int>(std::lround(G.extent.y / G.dy));
-  const int npx = G.bx == Boundary::absorbing ? G.absorber.cells : 0;
-  const int npy = G.by == Boundary::absorbing ? G.absorber.cells : 0;
-  g_.init(ext_x + 2 * npx, ext_y + 2 * npy, npx, npy, G.dx, G.dy, static_cast<int>(64 / sizeof(R)));
-  g_.dt = scene.time.courant * courant_limit_dt(G.dx, G.dy);
-  total_steps_ = std::max(1L, static_cast<long>(std::ceil(scene.time.stop / g_.dt - 1e-9)));
+  g_ = grid_for(scene, static_cast<int>(64 / sizeof(R)));
+  total_steps_ = steps_for(scene, g_);
   sx_ = static_cast<R>(c0 * g_.dt / g_.dx);
   sy_ = static_cast<R>(c0 * g_.dt / g_.dy);
   periodic_x_ = G.bx == Boundary::periodic;

@@ -2,6 +2,7 @@
 /// \brief Yee grid layout and the Courant limit.
 #include "solver/yee_grid.h"
 
+#include <algorithm>
 #include <cmath>
 
 #include "io/units.h"
@@ -18,6 +19,22 @@ void YeeGrid::init(int nx_, int ny_, int npx, int npy, double dx_, double dy_, i
   lead = align_elements;  // column 0 starts on an aligned boundary; column -1 is the ghost
   const long need = lead + nx + 1;
   stride = (need + align_elements - 1) / align_elements * align_elements;
+}
+
+YeeGrid grid_for(const Scene& s, int align_elements) {
+  const GridSpec& G = s.grid;
+  const int ext_x = static_cast<int>(std::lround(G.extent.x / G.dx));
+  const int ext_y = static_cast<int>(std::lround(G.extent.y / G.dy));
+  const int npx = G.bx == Boundary::absorbing ? G.absorber.cells : 0;
+  const int npy = G.by == Boundary::absorbing ? G.absorber.cells : 0;
+  YeeGrid g;
+  g.init(ext_x + 2 * npx, ext_y + 2 * npy, npx, npy, G.dx, G.dy, align_elements);
+  g.dt = s.time.courant * courant_limit_dt(G.dx, G.dy);
+  return g;
+}
+
+long steps_for(const Scene& s, const YeeGrid& g) {
+  return std::max(1L, static_cast<long>(std::ceil(s.time.stop / g.dt - 1e-9)));
 }
 
 double courant_limit_dt(double dx, double dy) {

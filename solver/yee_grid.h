@@ -46,6 +46,12 @@ struct YeeGrid {
   double fj(Component c, double py) const { return py / dy + npml_y - offset_y[static_cast<int>(c)]; }
 };
 
+/// The grid a scene asks for: the extent in whole cells plus the absorbing layers, and
+/// the time step (`courant` times the Courant limit); rows aligned to `align_elements`.
+YeeGrid grid_for(const Scene& s, int align_elements);
+/// Steps to reach the scene's stop time on grid g.
+long steps_for(const Scene& s, const YeeGrid& g);
+
 /// The 2D Courant limit c*dt <= 1/sqrt(dx^-2 + dy^-2) (Taflove & Hagness, eq. 4.92).
 double courant_limit_dt(double dx, double dy);
 

@@ -127,11 +127,11 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
 int check_command(const std::string& path, const std::vector<std::string>& sets) {
   const Scene s = read_scene(path, sets);
   const GridSpec& G = s.grid;
-  const int ex = static_cast<int>(std::lround(G.extent.x / G.dx)), ey = static_cast<int>(std::lround(G.extent.y / G.dy));
-  const int npx = G.bx == Boundary::absorbing ? G.absorber.cells : 0, npy = G.by == Boundary::absorbing ? G.absorber.cells : 0;
-  const long nx = ex + 2 * npx, ny = ey + 2 * npy;
-  const double dt = s.time.courant * courant_limit_dt(G.dx, G.dy);
-  const long steps = std::max(1L, static_cast<long>(std::ceil(s.time.stop / dt - 1e-9)));
+  const YeeGrid g = grid_for(s, 8);
+  const int npx = g.npml_x, npy = g.npml_y, ex = g.nx - 2 * npx, ey = g.ny - 2 * npy;
+  const long nx = g.nx, ny = g.ny;
+  const double dt = g.dt;
+  const long steps = steps_for(s, g);
   const size_t real = s.time.precision == Precision::single ? 4 : 8;
   const double mem = 6.0 * nx * ny * real + 6.0 * (2.0 * (npx + 1) * ny + 2.0 * (npy + 1) * nx) * real;
   std::cout << fmt::format("scene: {}\n", s.title.empty() ? path : s.title);
