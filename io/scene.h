@@ -44,7 +44,6 @@ struct GridSpec {
   Boundary bx = Boundary::absorbing, by = Boundary::absorbing;
   Absorber absorber;
   bool origin_corner = false;
-  double cells_per_wavelength = 0;  ///< as given (0: the cell was given)
 };
 
 enum class Precision { double_, single };

@@ -501,7 +501,6 @@ class SceneBuilder {
           for (const auto& m : scene_.media)
             if (!m.perfect_conductor)
               for (double e : m.permittivity) n_max = std::max(n_max, std::sqrt(e));
-          G.cells_per_wavelength = *v;
           G.dx = G.dy = c0 / (f_top_ * n_max) / *v;
         }
       } else {

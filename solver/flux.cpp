@@ -9,8 +9,6 @@ namespace ty {
 FluxRecorder make_flux(const Output& o, const YeeGrid& g) {
   FluxRecorder r;
   r.name = o.name;
-  r.from = o.from;
-  r.to = o.to;
   const double dx = o.to.x - o.from.x, dy = o.to.y - o.from.y, len = std::hypot(dx, dy);
   r.normal = {-dy / len, dx / len};  // z x (to - from)
   const int n = std::max(1, static_cast<int>(std::ceil(len / std::min(g.dx, g.dy))));

@@ -21,7 +21,7 @@ namespace ty {
 
 struct FluxRecorder {
   std::string name;
-  Vec2 from, to, normal;
+  Vec2 normal;  ///< z x (to - from), unit
   std::vector<double> freq;                     ///< Hz
   std::vector<Vec2> points;                     ///< internal coordinates
   std::vector<double> weight;                   ///< m per point

@@ -46,7 +46,6 @@ struct MagneticCells {
   std::vector<LlgCoefficients> coeffs;
   std::vector<MagnetModel> models;
   std::vector<MagneticState> ground;
-  std::vector<int> medium_index;  ///< scene medium of each entry above
   std::vector<int> cell_of;       ///< grid cell (j * nx + i) -> list index, -1 if not magnetic
 
   long count() const { return static_cast<long>(ci.size()); }

@@ -35,7 +35,6 @@ void Simulation<R>::build_magnets() {
     const auto f = resonances(M.models.back(), M.ground.back());
     const double f_max = f.empty() ? M.models.back().gamma[0] * 1.0 / (2 * constants::pi) : f.back();
     M.coeffs.push_back(LlgCoefficients::from(M.models.back(), g_.dt, f_max));
-    M.medium_index.push_back(static_cast<int>(k));
     notes_.push_back(fmt::format("magnetic medium '{}': ground state {}, {} midpoint sub-step{} per time step",
                                  s.media[k].name, M.ground.back().kind, M.coeffs.back().substeps,
                                  M.coeffs.back().substeps == 1 ? "" : "s"));

@@ -579,7 +579,7 @@ void Simulation<R>::record() {
     fl.steps = n_;
   }
   for (auto& m : maps_) {
-    if (k < *std::min_element(m.first_step.begin(), m.first_step.end())) continue;
+    if (k < m.start) continue;
     const long st = g_.stride;
     const size_t np = static_cast<size_t>(m.ni) * m.nj;
     for (int b = 0; b < m.nj; ++b)

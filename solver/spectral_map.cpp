@@ -37,6 +37,7 @@ SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g,
     m.first_step.push_back(total_steps - steps);
     m.window.push_back(steps * g.dt);
   }
+  m.start = m.first_step.empty() ? total_steps : *std::min_element(m.first_step.begin(), m.first_step.end());
   m.acc.assign(m.freq.size() * static_cast<std::size_t>(m.ni) * m.nj * 6, 0.0);
   m.value.assign(static_cast<std::size_t>(m.ni) * m.nj * 6, 0.0);
   return m;

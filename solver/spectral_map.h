@@ -23,6 +23,7 @@ struct SpectralMap {
   std::vector<std::string> fields;
   std::vector<double> freq;          ///< Hz
   std::vector<long> first_step;      ///< per frequency: the step its window starts at
+  long start = 0;                    ///< the earliest of them
   std::vector<double> window;        ///< per frequency: the window's length, s
   int i0 = 0, j0 = 0, ni = 0, nj = 0, stride = 1;  ///< Ez nodes of the region
   std::vector<double> x, y;          ///< their positions, user coordinates

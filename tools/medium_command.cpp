@@ -68,7 +68,6 @@ double beam_shift(const Setup& s, double f, double theta, int p, double w) {
   const double qmax = 4.0 / w;
   const int nq = 201;
   double num = 0, den = 0;
-  cd prev = 0;
   for (int m = 0; m < nq; ++m) {
     const double q = -qmax + 2 * qmax * m / (nq - 1);  // tangential wavenumber offset
     const double st = std::sin(theta) + q / k;
@@ -77,7 +76,6 @@ double beam_shift(const Setup& s, double f, double theta, int p, double w) {
     const double A2 = std::exp(-q * q * w * w / 2);
     const cd r = respond(s, f, th).r[p][p];
     const double dphi = artmann(s, f, th, p);  // -dphi/dk_t at this component
-    (void)prev;
     num += A2 * std::norm(r) * dphi;
     den += A2 * std::norm(r);
   }
