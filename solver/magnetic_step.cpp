@@ -81,9 +81,6 @@ void Simulation<R>::build_magnets() {
   std::vector<std::pair<long, int>> keys;  // (index * 8 + comp) -> list position
   auto add = [&](long index, int comp, int k, double w) {
     if (index < 0) return;
-    const bool wall_x = magnetic_x_ && comp != 3 && index % g_.stride == g_.lead + nx - 1;
-    const bool wall_y = magnetic_y_ && comp != 4 && index / g_.stride == ny;
-    if (wall_x || wall_y) return;  // a magnetic wall holds that node at zero
     const long key = index * 8 + comp;
     auto it = std::lower_bound(keys.begin(), keys.end(), std::make_pair(key, -1));
     if (it != keys.end() && it->first == key) {
@@ -182,13 +179,10 @@ void Simulation<R>::step_split() {
     for (long k = c0_; k < c1_; ++k)
       for (int c = 0; c < 3; ++c) M.dM_prev[c][k] = M.dM[c][k];
 #pragma omp barrier
-    if (t == 0) {
-      if (periodic_x_)
-        for (int j = 0; j < ny; ++j)
-          for (int c = 3; c < 6; ++c) f_[c][g_.at(-1, j)] = f_[c][g_.at(g_.nx - 1, j)];
-      if (periodic_y_)
-        for (int c = 3; c < 6; ++c) std::copy_n(f_[c].data() + g_.row_begin(ny - 1), s, f_[c].data() + g_.row_begin(-1));
-    }
+    for (long j = j0; j < j1; ++j) h_boundaries(static_cast<int>(j));  // walls and ghosts again, after the scatter
+#pragma omp barrier
+    if (t == 0 && periodic_y_)
+      for (int c = 3; c < 6; ++c) std::copy_n(f_[c].data() + g_.row_begin(ny - 1), s, f_[c].data() + g_.row_begin(-1));
 #pragma omp barrier
     for (long j = j0; j < j1; ++j) e_row(static_cast<int>(j));
   }

@@ -426,6 +426,16 @@ void Simulation<R>::h_row(int j) {
     const Injection& e = inj_h_[q];
     f_[e.comp][e.index] += static_cast<R>(emitter_value_[e.slot]);
   }
+  h_boundaries(j);
+}
+
+template <class R>
+void Simulation<R>::h_boundaries(int j) {
+  const int nx = g_.nx;
+  const long o = g_.at(0, j);
+  R* hx = f_[3].data() + o;
+  R* hy = f_[4].data() + o;
+  R* hz = f_[5].data() + o;
   if (magnetic_x_) hy[nx - 1] = 0, hz[nx - 1] = 0;
   if (magnetic_y_ && j == g_.ny - 1)
     for (int i = 0; i < nx; ++i) hx[i] = 0, hz[i] = 0;

@@ -172,6 +172,8 @@ class Simulation {
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);
   void compute_emitters();
   void h_row(int j);
+  /// Magnetic walls and periodic ghost columns of H row j, after everything that adds to H.
+  void h_boundaries(int j);
   void e_row(int j);
   void record();
 };
