@@ -11,6 +11,7 @@
 
 #include "io/scene.h"
 #include "io/units.h"
+#include "solver/recorders.h"
 
 namespace ty::test {
 
@@ -65,6 +66,20 @@ inline Source plane_pulse(Component pol, double at, double f, double fwhm, doubl
   s.line_axis = 'x';
   s.line_at = at;
   return s;
+}
+
+/// Steps `sim` `steps` times, recording component c interpolated at p after each step.
+template <class Sim>
+std::vector<double> probe_series(Sim& sim, Component c, Vec2 p, long steps) {
+  const PointStencil st = point_stencil(sim.grid(), c, p);
+  std::vector<double> out;
+  for (long k = 0; k < steps; ++k) {
+    sim.step();
+    double v = 0;
+    for (int q = 0; q < 4; ++q) v += st.weight[q] * sim.field(c)[st.index[q]];
+    out.push_back(v);
+  }
+  return out;
 }
 
 /// Runs a shell command quietly; its exit status (-1 if it did not exit).

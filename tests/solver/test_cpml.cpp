@@ -26,15 +26,7 @@ std::vector<double> record(int n, const Vec2& src_from_centre, const Vec2& probe
                                   2.0e-12, is_electric(c) ? 1e-3 : 1.0);
   s.sources.push_back(src);
   Simulation<double> sim(s, 2);
-  const PointStencil p = point_stencil(sim.grid(), c, {centre.x + probe_from_centre.x, centre.y + probe_from_centre.y});
-  std::vector<double> out;
-  for (long k = 0; k < steps; ++k) {
-    sim.step();
-    double v = 0;
-    for (int q = 0; q < 4; ++q) v += p.weight[q] * sim.field(c)[p.index[q]];
-    out.push_back(v);
-  }
-  return out;
+  return test::probe_series(sim, c, {centre.x + probe_from_centre.x, centre.y + probe_from_centre.y}, steps);
 }
 
 }  // namespace

@@ -38,16 +38,7 @@ std::vector<double> run(Component pol, double eps, bool with_body, double probe_
   s.sources.push_back(src);
   Simulation<double> sim(s, 2);
   *dt = sim.grid().dt;
-  const PointStencil p = point_stencil(sim.grid(), pol, {probe_x, 0.5 * kNy * kCell});
-  std::vector<double> out;
-  const long steps = static_cast<long>(30e-12 / *dt);
-  for (long k = 0; k < steps; ++k) {
-    sim.step();
-    double v = 0;
-    for (int q = 0; q < 4; ++q) v += p.weight[q] * sim.field(pol)[p.index[q]];
-    out.push_back(v);
-  }
-  return out;
+  return test::probe_series(sim, pol, {probe_x, 0.5 * kNy * kCell}, static_cast<long>(30e-12 / *dt));
 }
 
 }  // namespace

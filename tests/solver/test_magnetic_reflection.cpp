@@ -51,13 +51,7 @@ std::vector<double> run(const Magnet& mag, std::array<double, 3> bias, bool with
   std::vector<double> out;
   auto go = [&](auto& sim) {
     *dt = sim.grid().dt;
-    const PointStencil p = point_stencil(sim.grid(), Component::Ez, {probe_x, 0.5 * kNy * kCell});
-    for (long k = 0; k < sim.total_steps(); ++k) {
-      sim.step();
-      double v = 0;
-      for (int q = 0; q < 4; ++q) v += p.weight[q] * sim.field(Component::Ez)[p.index[q]];
-      out.push_back(v);
-    }
+    out = test::probe_series(sim, Component::Ez, {probe_x, 0.5 * kNy * kCell}, sim.total_steps());
   };
   if (prec == Precision::single) {
     Simulation<float> sim(s, 2);
