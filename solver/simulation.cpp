@@ -368,9 +368,15 @@ template <class R>
 void Simulation<R>::compute_emitters() {
   const double th = n_ * g_.dt, te = (n_ + 0.5) * g_.dt;
   const long n = static_cast<long>(emitters_.size());
+  // a point source's footprint shares one signal value: evaluate it once per run of emitters
+  int last_signal = -1;
+  double last_t = 0;
+  std::complex<double> g = 0;
   for (long k = 0; k < n; ++k) {
     const Emitter& e = emitters_[k];
-    emitter_value_[k] = (e.A * signals_[e.signal]((e.h_phase ? th : te) - e.tau)).real();
+    const double t = (e.h_phase ? th : te) - e.tau;
+    if (e.signal != last_signal || t != last_t) g = signals_[e.signal](t), last_signal = e.signal, last_t = t;
+    emitter_value_[k] = (e.A * g).real();
   }
 }
 
