@@ -15,12 +15,7 @@ Eigen::Matrix3d cross_matrix(const Vec3& a) {
   return m;
 }
 
-struct Linearised {
-  int n;
-  Eigen::MatrixXd L;   // undamped dm' = L dm
-  Eigen::MatrixXd D;   // damping: the -i w alpha [m0]x blocks (without -i w)
-  Eigen::MatrixXd Bm;  // drive: -gamma [m0]x b
-};
+}  // namespace
 
 Linearised linearise(const MagnetModel& M, const MagneticState& st) {
   const int n = M.n;
@@ -44,8 +39,6 @@ Linearised linearise(const MagnetModel& M, const MagneticState& st) {
   }
   return lin;
 }
-
-}  // namespace
 
 Mat3c susceptibility(const MagnetModel& M, const MagneticState& st, double omega) {
   const Linearised lin = linearise(M, st);

@@ -21,6 +21,15 @@ namespace ty {
 
 using Mat3c = Eigen::Matrix3cd;
 
+/// The linearised equations in the time domain, 3N unknowns dm (N sublattices):
+///   d(dm)/dt = L dm + D d(dm)/dt + Bm b,
+/// L the undamped operator, D the Gilbert blocks alpha_s [m0_s]x, Bm the drive -gamma_s [m0_s]x.
+struct Linearised {
+  int n;
+  Eigen::MatrixXd L, D, Bm;
+};
+Linearised linearise(const MagnetModel& model, const MagneticState& st);
+
 /// chi(omega), omega in rad/s (> 0), for the state st. Gilbert damping included.
 Mat3c susceptibility(const MagnetModel& model, const MagneticState& st, double omega);
 

@@ -49,11 +49,12 @@ struct LlgCoefficients {
 /// equal midpoint sub-steps of `iterations` fixed-point passes each (a fixed count, so the
 /// loop over cells vectorizes; `from` picks it so that the iteration has converged).
 ///   m[6]      m1 xyz, m2 xyz per cell (unit vectors; m2 = 0 for one sublattice)
-///   guess[6]  the last sub-step's change of m (the predictor; zero to start)
+///   guess[6]  a prediction of the change of m over the whole step (the first sub-step
+///             starts from its share; later ones from the previous sub-step's change)
 ///   b_old[3], b_new[3]  mu0 h at the start and end of the step (T)
 ///   r[3]      the cell's own reaction weight (0 for a prescribed field)
 ///   dM[3]     out: change of mu0 M over the step (T)
-inline void llg_cells(const LlgCoefficients& p, long count, double* const* m, double* const* guess,
+inline void llg_cells(const LlgCoefficients& p, long count, double* const* m, const double* const* guess,
                       const double* const* b_old, const double* const* b_new, const double* r, double* const* dM) {
   constexpr int W = 8;
   const double h = p.dt / p.substeps;
@@ -69,16 +70,16 @@ inline void llg_cells(const LlgCoefficients& p, long count, double* const* m, do
   }
   for (long k0_ = 0; k0_ < count; k0_ += W) {
     const int nl = static_cast<int>(std::min<long>(W, count - k0_));
-    double M0[6][W], MB[6][W], MN[6][W], D0[3][W], DN[3][W];
+    double M0[6][W], MB[6][W], MN[6][W], D0[3][W], DN[3][W], G[6][W];
     for (int c = 0; c < 6; ++c)
-      for (int l = 0; l < nl; ++l) M0[c][l] = m[c][k0_ + l];
+      for (int l = 0; l < nl; ++l) M0[c][l] = m[c][k0_ + l], G[c][l] = guess[c][k0_ + l] / p.substeps;
     for (int c = 0; c < 3; ++c)
       for (int l = 0; l < nl; ++l) D0[c][l] = 0.0;
     for (int sub = 0; sub < p.substeps; ++sub) {
       const double u = (sub + 0.5) * h / p.dt;  // the sub-step's midpoint, in units of the step
       for (int l = 0; l < nl; ++l) {
         for (int c = 0; c < 6; ++c) {
-          const double g = guess[c][k0_ + l];
+          const double g = G[c][l];
           MN[c][l] = M0[c][l] + g;
           MB[c][l] = M0[c][l] + 0.5 * g;
         }
@@ -140,7 +141,7 @@ inline void llg_cells(const LlgCoefficients& p, long count, double* const* m, do
       }
       for (int l = 0; l < nl; ++l) {
         for (int c = 0; c < 6; ++c) {
-          guess[c][k0_ + l] = MN[c][l] - M0[c][l];
+          G[c][l] = MN[c][l] - M0[c][l];
           M0[c][l] = MN[c][l];
         }
         for (int c = 0; c < 3; ++c) D0[c][l] = DN[c][l];
@@ -150,27 +151,6 @@ inline void llg_cells(const LlgCoefficients& p, long count, double* const* m, do
       for (int c = 0; c < 6; ++c) m[c][k0_ + l] = M0[c][l];
       for (int c = 0; c < 3; ++c) dM[c][k0_ + l] = D0[c][l];
     }
-  }
-}
-
-/// One cell (m[s][c], unit vectors; guess as in llg_cells), for tests and small uses.
-inline void llg_cell_step(const LlgCoefficients& p, const double* b_old, const double* b_new, const double* r,
-                          double (*m)[3], double (*guess)[3], double* dM) {
-  double mm[6], gg[6], bo[3], bn[3], d[3];
-  for (int c = 0; c < 3; ++c) {
-    mm[c] = m[0][c], mm[3 + c] = p.n == 2 ? m[1][c] : 0.0;
-    gg[c] = guess[0][c], gg[3 + c] = p.n == 2 ? guess[1][c] : 0.0;
-    bo[c] = b_old[c], bn[c] = b_new[c];
-  }
-  double* mp[6] = {&mm[0], &mm[1], &mm[2], &mm[3], &mm[4], &mm[5]};
-  double* gp[6] = {&gg[0], &gg[1], &gg[2], &gg[3], &gg[4], &gg[5]};
-  const double* bop[3] = {&bo[0], &bo[1], &bo[2]};
-  const double* bnp[3] = {&bn[0], &bn[1], &bn[2]};
-  double* dp[3] = {&d[0], &d[1], &d[2]};
-  llg_cells(p, 1, mp, gp, bop, bnp, r, dp);
-  for (int c = 0; c < 3; ++c) {
-    m[0][c] = mm[c], guess[0][c] = gg[c], dM[c] = d[c];
-    if (p.n == 2) m[1][c] = mm[3 + c], guess[1][c] = gg[3 + c];
   }
 }
 

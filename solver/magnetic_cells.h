@@ -4,49 +4,59 @@
 /// and their state (kept in double whatever the field precision).
 ///
 /// Placement: M lives at cell centres (i+1/2, j+1/2), the Hz node. A cell is magnetic when
-/// its centre lies in a magnetic medium. The field at the cell is gathered as
+/// its centre lies in a magnetic medium (and not on a magnetic wall, where tangential H is
+/// held at zero). The field at the cell is gathered as
 ///   b_x = (Hx(i,j) + Hx(i+1,j))/2,  b_y = (Hy(i,j) + Hy(i,j+1))/2,  b_z = Hz(i,j)  (times mu0),
 /// and the change of M is scattered with the transposed weights (1/2 to each of the two
 /// Hx and Hy nodes, 1 to Hz), so that the coupling energy mu0 M . (G h) = mu0 (G^T M) . h
 /// is the same seen from either side: an H node at a body's edge takes half of its one
-/// magnetic neighbour's change. Gather G and scatter P = G^T are exact transposes.
+/// magnetic neighbour's change. Gather G and scatter P = G^T are exact transposes; a node
+/// outside the grid (the ghost line past a non-periodic edge) is in neither.
 ///
 /// Time: M and H at half steps. Faraday's law advances B = mu0 (H + M) (h* = H - c dt curl E),
-/// then each cell's magnetization moves from n-1/2 to n+1/2 by the midpoint rule with the
-/// field interpolated between b(n-1/2) and b(n+1/2) = G h* - G P dM, the cell's own share
-/// of G P dM (1/2, 1/2, 1) taken implicitly inside the step, its neighbours' share from
-/// their previous step; then H = h* - P dM exactly.
+/// then each cell's magnetization moves from n-1/2 to n+1/2 with the field taken as
+/// varying linearly between b(n-1/2) (gathered before Faraday's law moves H) and
+/// b(n+1/2) = G h* - G P dM, the cell's own share of G P dM (1/2, 1/2, 1) taken inside the
+/// step, its neighbours' share from their previous step (taken off both ends alike); then
+/// H = h* - P dM exactly.
+///
+/// Layout: cells are listed row by row, left to right, in runs of one medium along a row
+/// (`runs`, those of row j at row_runs[j] .. row_runs[j+1]), so that gathers and scatters
+/// read and write contiguous stretches of the field rows and the solver can move a row's
+/// cells in the same sweep as the row's fields.
 #pragma once
 #include <vector>
 
+#include "materials/cell_step.h"
 #include "materials/ground_state.h"
-#include "materials/llg_cell.h"
 
 namespace ty {
 
 struct MagneticCells {
-  // per cell
-  std::vector<int> ci, cj;                      ///< cell indices
-  std::vector<int> medium;                      ///< index into coeffs / ground
-  std::vector<long> hx0, hx1, hy0, hy1, hz;     ///< flat indices of the gathered nodes (-1: none)
-  std::vector<int> left, right, down, up;       ///< neighbouring magnetic cells (-1: none)
-  std::vector<double> m[6];                     ///< m1 xyz, m2 xyz (unit vectors)
-  std::vector<double> guess[6];                 ///< last sub-step's change of m (predictor)
-  std::vector<double> b_old[3], b_new[3];       ///< mu0 h at n-1/2 and (less neighbours' share) n+1/2, T
-  std::vector<double> dM[3], dM_prev[3];        ///< change of mu0 M over the step, T
-  // per scattered H node: flat index, component (3 = Hx ...), up to two cells with weights
-  struct Node {
-    long index;
-    int comp;
-    int cell[2];
-    double weight[2];
+  struct Run {
+    int i0, i1;  ///< cells (i0 .. i1-1, j)
+    long k0;     ///< list index of cell i0
+    int slot;    ///< medium slot (steps, models, ground)
   };
-  std::vector<Node> nodes;
+  std::vector<Run> runs;
+  std::vector<int> row_runs;  ///< size ny + 1
+  // per cell
+  std::vector<int> ci, cj;                 ///< cell indices
+  std::vector<int> medium;                 ///< medium slot
+  std::vector<int> left, right, down, up;  ///< neighbouring magnetic cells (count(): none)
+  /// m1 xyz, m2 xyz (unit vectors; m2 = 0 for one sublattice), two copies: the step reads one
+  /// and writes the other; m[latest] is the state now
+  std::vector<double> m[2][6];
+  int latest = 0;
+  /// change of mu0 M over a step (T), by the parity of the step: this step's and the
+  /// previous one's; entry count() is a zero that missing neighbours read
+  std::vector<double> dM[2][3];
   // per magnetic medium
-  std::vector<LlgCoefficients> coeffs;
+  std::vector<CellStep> steps;
   std::vector<MagnetModel> models;
   std::vector<MagneticState> ground;
-  std::vector<int> cell_of;       ///< grid cell (j * nx + i) -> list index, -1 if not magnetic
+  std::vector<int> cell_of;  ///< grid cell (j * nx + i) -> list index, -1 if not magnetic
+  int longest_row = 0;  ///< most cells in one row
 
   long count() const { return static_cast<long>(ci.size()); }
   bool empty() const { return ci.empty(); }

@@ -20,11 +20,6 @@ using constants::eta0;
 
 namespace {
 
-void block_range(int n, int t, int nt, int& lo, int& hi) {
-  const int q = n / nt, r = n % nt;
-  lo = t * q + std::min(t, r);
-  hi = lo + q + (t < r ? 1 : 0);
-}
 
 // Curl stencils of the Yee update, one term F_p(i,j) += sign * coef * F_q(i+di, j+dj);
 // coef: 0 = c dt/dx, 1 = c dt/dy (H), 2 = cb c dt/dx, 3 = cb c dt/dy (E, cb of node p).
@@ -526,7 +521,7 @@ void Simulation<R>::e_row(int j) {
 
 template <class R>
 void Simulation<R>::step() {
-  if (mag_.empty()) step_fused(); else step_split();
+  if (mag_.empty()) step_fused(); else step_magnetic();
 }
 
 template <class R>
@@ -539,7 +534,7 @@ void Simulation<R>::step_fused() {
 #pragma omp parallel num_threads(threads_)
   {
     int j0, j1;
-    block_range(ny, omp_get_thread_num(), omp_get_num_threads(), j0, j1);
+    block_rows(ny, omp_get_thread_num(), omp_get_num_threads(), j0, j1);
     if (j1 > j0) h_row(j1 - 1);
 #pragma omp barrier
     if (periodic_y_ && j0 == 0 && j1 > 0)

@@ -28,6 +28,13 @@
 
 namespace ty {
 
+/// Rows [lo, hi) of thread t of nt: contiguous blocks whose sizes differ by at most one.
+inline void block_rows(int n, int t, int nt, int& lo, int& hi) {
+  const int q = n / nt, r = n % nt;
+  lo = t * q + (t < r ? t : r);
+  hi = lo + q + (t < r ? 1 : 0);
+}
+
 template <class R>
 class Simulation {
  public:
@@ -70,11 +77,11 @@ class Simulation {
     AlignedArray<R>* psi[8] = {&psi_hyx_, &psi_hzx_, &psi_eyx_, &psi_ezx_, &psi_hxy_, &psi_hzy_, &psi_exy_, &psi_ezy_};
     static const char* pn[8] = {"hyx", "hzx", "eyx", "ezx", "hxy", "hzy", "exy", "ezy"};
     for (int k = 0; k < 8; ++k) f(std::string("absorber/psi-") + pn[k], psi[k]->data(), psi[k]->size());
-    for (int c = 0; c < 6; ++c) {
-      f("magnets/m" + std::to_string(c), mag_.m[c].data(), mag_.m[c].size());
-      f("magnets/guess" + std::to_string(c), mag_.guess[c].data(), mag_.guess[c].size());
+    for (int p = 0; p < 2; ++p) {
+      const std::string q = std::to_string(p);
+      for (int c = 0; c < 6; ++c) f("magnets/m" + q + std::to_string(c), mag_.m[p][c].data(), mag_.m[p][c].size());
+      for (int c = 0; c < 3; ++c) f("magnets/dM" + q + std::to_string(c), mag_.dM[p][c].data(), mag_.dM[p][c].size());
     }
-    for (int c = 0; c < 3; ++c) f("magnets/dM" + std::to_string(c), mag_.dM_prev[c].data(), mag_.dM_prev[c].size());
     for (auto& p : probes_) f("probes/" + p.name, p.raw.data(), p.raw.size());
     for (auto& fl : fluxes_)  // complex sums as pairs of doubles
       f("flux/" + fl.name, reinterpret_cast<double*>(fl.acc.data()), 2 * fl.acc.size());
@@ -86,6 +93,7 @@ class Simulation {
     f("clock/frames", &next_frame_, 1);
     for (auto& p : probes_) p.count = n_;
     for (auto& fl : fluxes_) fl.steps = n_;
+    mag_.latest = static_cast<int>(n_ & 1);
   }
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
   bool find_nonfinite(int& i, int& j, Component& c) const;
@@ -158,6 +166,7 @@ class Simulation {
   std::vector<int> medium_map_;
   int map_nx_ = 0, map_ny_ = 0;
   MagneticCells mag_;
+  std::vector<std::vector<double>> mag_scratch_;  // per thread: b(n+1/2) of one row's cells
   std::size_t bytes_ = 0;
   std::vector<std::string> notes_;
 
@@ -167,8 +176,16 @@ class Simulation {
   void build_recorders();
   void build_magnets();
   void step_fused();
-  void step_split();
-  void gather(long k, double* b) const;
+  void step_magnetic();
+  /// mu0 H at the magnetic cells of row j as H is now, b[c * longest_row + q] for the row's
+  /// q-th cell.
+  void gather_row(int j, double* b) const;
+  const R* hy_above(int j) const;
+  /// The magnetic cells of row j (old: their field at n-1/2 from gather_row): the field at
+  /// n+1/2, their step, and the scatter into Hx and Hz.
+  void magnetic_row(int j, const double* old, double* scratch);
+  /// The scatter into the Hy nodes of row j (from cell rows j and j-1).
+  void scatter_hy(int j);
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);
   void compute_emitters();
   void h_row(int j);

@@ -43,15 +43,16 @@ TEST_CASE("closed cavity with an undamped magnetic slab: energy bounded, |m| = 1
   for (size_t k = 0; k < win; ++k) first += w[k] / win, last += w[w.size() - 1 - k] / win;
   for (double v : w) top = std::max(top, v);
   const MagneticCells& M = sim.magnets();
+  const auto& ms = M.m[M.latest];
   double worst = 0;
   for (long k = 0; k < M.count(); ++k)
     for (int q = 0; q < 2; ++q) {
-      const double n = std::sqrt(M.m[3 * q][k] * M.m[3 * q][k] + M.m[3 * q + 1][k] * M.m[3 * q + 1][k] +
-                                 M.m[3 * q + 2][k] * M.m[3 * q + 2][k]);
+      const double n = std::sqrt(ms[3 * q][k] * ms[3 * q][k] + ms[3 * q + 1][k] * ms[3 * q + 1][k] +
+                                 ms[3 * q + 2][k] * ms[3 * q + 2][k]);
       worst = std::max(worst, std::abs(n - 1));
     }
   double tilt = 0;
-  for (long k = 0; k < M.count(); ++k) tilt = std::max(tilt, std::hypot(M.m[0][k], M.m[1][k]));
+  for (long k = 0; k < M.count(); ++k) tilt = std::max(tilt, std::hypot(ms[0][k], ms[1][k]));
   MESSAGE("energy: last/first window " << last / first << ", peak/first " << top / first << "; max ||m|-1| " << worst
                                        << "; largest sublattice tilt " << tilt << " rad");
   CHECK(first > 0);
