@@ -25,7 +25,7 @@ Mat3c to_frame(const Mat3c& m, int normal) {
 
 /// Delta of psi = (Ex, Ez, hx, hz) in the frame with normal y, tangential wavenumber
 /// kx (in units of k0): psi' = i k0 Delta psi.
-Mat4c berreman_delta(const Mat3c& e, const Mat3c& u, double kx) {
+Mat4c berreman_delta(const Mat3c& e, const Mat3c& u, cd kx) {
   Mat4c D;
   for (int col = 0; col < 4; ++col) {
     Vec4c p = Vec4c::Zero();
@@ -49,54 +49,98 @@ double flux_y(const Vec4c& p) {  // eta0 * time-averaged S_y = 1/2 Re(Ez hx* - E
   return 0.5 * (p[1] * std::conj(p[2]) - p[0] * std::conj(p[3])).real();
 }
 
+/// The four plane waves of a medium (eigenvectors of Delta, columns of v, with their normal
+/// wavenumbers q): the two forward ones first (decaying along +y, or carrying power along +y).
+struct Modes {
+  Mat4c v;
+  Vec4c q;
+};
+
+Modes sorted_modes(const Mat3c& e, const Mat3c& u, cd kx) {
+  Eigen::ComplexEigenSolver<Mat4c> es(berreman_delta(e, u, kx));
+  std::vector<int> fwd, bwd;
+  for (int k = 0; k < 4; ++k) {
+    const cd q = es.eigenvalues()[k];
+    const double scale = std::abs(q) + 1e-300;
+    const bool forward = std::abs(q.imag()) > 1e-9 * scale ? q.imag() > 0 : flux_y(es.eigenvectors().col(k)) > 0;
+    (forward ? fwd : bwd).push_back(k);
+  }
+  if (fwd.size() != 2) throw std::runtime_error("transfer matrix: could not sort a medium's modes");
+  Modes m;
+  const int order[4] = {fwd[0], fwd[1], bwd[0], bwd[1]};
+  for (int k = 0; k < 4; ++k) m.v.col(k) = es.eigenvectors().col(order[k]), m.q[k] = es.eigenvalues()[order[k]];
+  return m;
+}
+
 }  // namespace
 
 StackResponse stack_response(const LayerStack& s, double omega, double theta) {
+  return stack_response_kt(s, omega, s.n_in * std::sin(theta));
+}
+
+StackResponse stack_response_kt(const LayerStack& s, double omega, cd kt) {
   const double k0 = omega / constants::c0;
   const double n1 = s.n_in;
-  const double kx = -n1 * std::sin(theta);  // t = z x n is -x in this frame
-  const double ky = n1 * std::cos(theta);
+  const cd kx = -kt;                          // t = z x n is -x in this frame
+  cd ky = std::sqrt(n1 * n1 - kt * kt);       // the branch with Im ky >= 0: evanescent beyond n1
+  if (ky.imag() < 0) ky = -ky;
   // incidence-medium plane waves (units of k0), E amplitude 1
   Vec4c inc[2], back[2];
   inc[0] << 0, 1, ky, 0;
   back[0] << 0, 1, -ky, 0;
   inc[1] << -ky / n1, 0, 0, n1;
   back[1] << ky / n1, 0, 0, n1;
-  // total transfer matrix over the layers
-  Mat4c M = Mat4c::Identity();
-  for (const Layer& L : s.layers) {
-    const Mat4c D = berreman_delta(to_frame(L.eps, s.normal), to_frame(L.mu, s.normal), kx);
-    Eigen::ComplexEigenSolver<Mat4c> es(D);
-    const Vec4c ph = (cd(0, 1) * k0 * L.thickness * es.eigenvalues().array()).exp();
-    M = es.eigenvectors() * ph.asDiagonal() * es.eigenvectors().inverse() * M;
+  // modes of each layer and of the exit half-space, forward ones first
+  const Mat3c eps_out = to_frame(s.eps_out, s.normal), mu_out = to_frame(s.mu_out, s.normal);
+  const int nl = static_cast<int>(s.layers.size());
+  std::vector<Modes> m;
+  for (const Layer& L : s.layers) m.push_back(sorted_modes(to_frame(L.eps, s.normal), to_frame(L.mu, s.normal), kx));
+  const Modes out_modes = sorted_modes(eps_out, mu_out, kx);
+  // psi continuous at each of the nl + 1 interfaces. Unknowns: r (2), the four mode
+  // amplitudes of each layer, t (2). A layer's forward modes are normalised at its entrance
+  // face and its backward ones at its exit face, so that no factor exp(i k0 q d) exceeds
+  // one: thick and evanescent layers stay well conditioned (the scattering-matrix idea of
+  // e.g. Ko & Inkson, Phys. Rev. B 38, 9945 (1988), in one linear system).
+  const int n = 4 + 4 * nl;
+  Eigen::MatrixXcd A = Eigen::MatrixXcd::Zero(n, n);
+  auto layer_face = [&](int L, bool exit, int row, double sign) {  // adds sign * psi of layer L at a face
+    const Layer& lay = s.layers[L];
+    for (int k = 0; k < 4; ++k) {
+      const bool forward = k < 2;
+      const cd q = m[L].q[k];
+      const cd phase = forward == exit ? std::exp(cd(0, 1) * k0 * lay.thickness * (forward ? q : -q)) : cd(1, 0);
+      A.block(row, 2 + 4 * L + k, 4, 1) += sign * phase * m[L].v.col(k);
+    }
+  };
+  // interface 0: inc + r0 back0 + r1 back1 = (first layer's entrance | exit modes)
+  A.block(0, 0, 4, 1) = back[0];
+  A.block(0, 1, 4, 1) = back[1];
+  for (int L = 0; L <= nl; ++L) {
+    const int row = 4 * L;
+    if (L > 0) layer_face(L - 1, true, row, 1.0);  // the layer before, at its exit face
+    if (L < nl) {
+      layer_face(L, false, row, -1.0);  // the layer after, at its entrance face
+    } else {
+      A.block(row, n - 2, 4, 1) = -out_modes.v.col(0);
+      A.block(row, n - 1, 4, 1) = -out_modes.v.col(1);
+    }
   }
-  // forward modes of the exit half-space
-  const Mat4c Dout = berreman_delta(to_frame(s.eps_out, s.normal), to_frame(s.mu_out, s.normal), kx);
-  Eigen::ComplexEigenSolver<Mat4c> eo(Dout);
-  std::vector<int> fwd;
-  for (int k = 0; k < 4; ++k) {
-    const cd q = eo.eigenvalues()[k];
-    const double scale = std::abs(q) + 1e-300;
-    if (q.imag() > 1e-9 * scale || (std::abs(q.imag()) <= 1e-9 * scale && flux_y(eo.eigenvectors().col(k)) > 0))
-      fwd.push_back(k);
-  }
-  if (fwd.size() != 2) throw std::runtime_error("transfer matrix: could not sort the exit medium's modes");
+  const auto lu = A.partialPivLu();
   StackResponse out{};
   for (int p = 0; p < 2; ++p) {
-    // M (inc + r0 back0 + r1 back1) = t0 f0 + t1 f1
-    Mat4c A;
-    A.col(0) = M * back[0];
-    A.col(1) = M * back[1];
-    A.col(2) = -eo.eigenvectors().col(fwd[0]);
-    A.col(3) = -eo.eigenvectors().col(fwd[1]);
-    const Vec4c x = A.partialPivLu().solve(-M * inc[p]);
+    Eigen::VectorXcd rhs = Eigen::VectorXcd::Zero(n);
+    rhs.head(4) = -inc[p];
+    const Eigen::VectorXcd x = lu.solve(rhs);
     const double s_inc = flux_y(inc[p]);
+    const double none = std::nan("");
     for (int q = 0; q < 2; ++q) {
       out.r[p][q] = x[q];
-      out.R[p][q] = -flux_y(x[q] * back[q]) / s_inc;
+      out.R[p][q] = s_inc > 0 ? -flux_y(x[q] * back[q]) / s_inc : none;
     }
-    const Vec4c trans = x[2] * eo.eigenvectors().col(fwd[0]) + x[3] * eo.eigenvectors().col(fwd[1]);
-    out.T[p] = flux_y(trans) / s_inc;
+    const Vec4c trans = x[n - 2] * out_modes.v.col(0) + x[n - 1] * out_modes.v.col(1);
+    out.T[p] = s_inc > 0 ? flux_y(trans) / s_inc : none;
+    out.t[p][0] = trans[1];
+    out.t[p][1] = trans[3];
   }
   return out;
 }

@@ -35,11 +35,19 @@ struct LayerStack {
 
 struct StackResponse {
   std::complex<double> r[2][2];  ///< r[incident][reflected], polarizations 0 = Ez, 1 = Hz
-  double R[2][2];                ///< reflected power fractions
-  double T[2];                   ///< transmitted power fraction per incident polarization
+  double R[2][2];                ///< reflected power fractions (NaN for an evanescent incident wave)
+  double T[2];                   ///< transmitted power fraction per incident polarization (likewise)
+  /// transmitted field at the exit face per incident polarization: [p][0] its Ez, [p][1]
+  /// its eta0 Hz (for a vacuum exit, the amplitudes of the transmitted Ez and Hz waves)
+  std::complex<double> t[2][2];
 };
 
 /// Response at angular frequency omega and angle of incidence theta (rad).
 StackResponse stack_response(const LayerStack& s, double omega, double theta);
+/// The same for a tangential wavenumber kt along t (units of k0), which may exceed n_in (an
+/// evanescent incident wave, as in the angular spectrum of a source close to the stack) or
+/// be complex (an integration path moved off the real axis, around the stack's guided-wave
+/// poles); the incidence side's normal wavenumber takes the branch with Im >= 0.
+StackResponse stack_response_kt(const LayerStack& s, double omega, std::complex<double> kt);
 
 }  // namespace ty

@@ -6,7 +6,7 @@
 
 namespace ty {
 
-FluxRecorder make_flux(const Output& o, const YeeGrid& g) {
+FluxRecorder make_flux(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
   FluxRecorder r;
   r.name = o.name;
   const double dx = o.to.x - o.from.x, dy = o.to.y - o.from.y, len = std::hypot(dx, dy);
@@ -22,6 +22,7 @@ FluxRecorder make_flux(const Output& o, const YeeGrid& g) {
   }
   for (int k = 0; k < o.count; ++k)
     r.freq.push_back(o.count == 1 ? o.band_from : o.band_from + (o.band_to - o.band_from) * k / (o.count - 1));
+  r.every = dft_every(s, std::max(o.band_from, o.band_to), g.dt, total_steps);
   r.acc.assign(r.freq.size() * r.points.size() * 6, 0.0);
   r.value.assign(r.points.size() * 6, 0.0);
   return r;

@@ -4,8 +4,9 @@
 /// frequency follows (and, given a reference run, the scattered part).
 ///
 /// Each component is transformed at its own time level (E at (n+1) dt, H at (n+1/2) dt),
-/// X(f) = (2/T) sum_n x(t_n) exp(+i 2 pi f t_n) dt with T the run's length, so that a
-/// steady wave of amplitude A gives |X| = A (the exp(-i w t) convention of the outputs).
+/// X(f) = (2/T) sum_n x(t_n) exp(+i 2 pi f t_n) M dt over every M-th step (dft_every) with
+/// T the run's length, so that a steady wave of amplitude A gives |X| = A (the
+/// exp(-i w t) convention of the outputs).
 /// The power is P(f) = sum_points w 1/2 Re[(E x H*) . n], w the line length a point
 /// stands for and n = z x (to - from)/|to - from|, in W/m.
 #pragma once
@@ -29,6 +30,7 @@ struct FluxRecorder {
   std::vector<std::complex<double>> acc;        ///< [f][point][component], sum of x exp(i w t) dt
   std::vector<double> value;                    ///< this step's six values per point (scratch)
   long steps = 0;
+  int every = 1;  ///< steps between samples (dft_every), ending with the run's last step
 
   std::complex<double> field(std::size_t f, std::size_t p, int c, double run_time) const {
     return acc[(f * points.size() + p) * 6 + c] * (2.0 / run_time);
@@ -36,7 +38,7 @@ struct FluxRecorder {
 };
 
 /// Points one cell apart (or closer) along the output's line.
-FluxRecorder make_flux(const Output& o, const YeeGrid& g);
+FluxRecorder make_flux(const Scene& s, const Output& o, const YeeGrid& g, long total_steps);
 
 /// Net power per frequency through the line, W/m, from the (optionally differenced)
 /// transformed fields E, H (H in A/m) given as a function of (f, point, component).

@@ -9,6 +9,14 @@
 
 namespace ty {
 
+int dft_every(const Scene& s, double f_max, double dt, long window_steps) {
+  for (const Source& src : s.sources) f_max = std::max({f_max, src.frequency, source_band(src).hi});
+  if (f_max <= 0) return 1;
+  const long by_band = static_cast<long>(std::floor(1.0 / (8.0 * f_max * dt)));
+  return static_cast<int>(std::max(1L, std::min(by_band, window_steps / 400)));
+}
+
+
 PointStencil point_stencil(const YeeGrid& g, Component c, Vec2 p) {
   const double fi = g.fi(c, p.x), fj = g.fj(c, p.y);
   int i = static_cast<int>(std::floor(fi)), j = static_cast<int>(std::floor(fj));

@@ -18,6 +18,15 @@
 
 namespace ty {
 
+/// Steps between the samples of a running DFT (flux lines, spectral maps): every step would
+/// be wasted work, since the fields hold nothing above the sources' bands. Sampling every M
+/// steps (the last step always among them) with M dt <= 1/(8 f_max), f_max the highest of
+/// the recorder's frequencies and the sources' band edges, aliases nothing below 7 f_max
+/// onto the recorded band (harmonics of a driven magnet up to the sixth included), and the
+/// sum with weight M dt is the same Riemann sum of the Fourier integral. M is also kept at
+/// most window / 400, so short windows sample every step.
+int dft_every(const Scene& s, double f_max, double dt, long window_steps);
+
 /// Bilinear interpolation stencil of one component at a point.
 struct PointStencil {
   std::array<long, 4> index{};

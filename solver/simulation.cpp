@@ -256,7 +256,7 @@ void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
         n = std::sqrt(1.0 / (vx * vx / med.permittivity[0] + vy * vy / med.permittivity[1]));
       }
       if (med.conductivity > 0)
-        notes_.push_back(fmt::format("source at line {}: the launch medium '{}' is lossy; the launched field "
+        warnings_.push_back(fmt::format("source at line {}: the launch medium '{}' is lossy; the launched field "
                                      "ignores its loss",
                                      src.where.line, med.name));
     }
@@ -347,7 +347,7 @@ void Simulation<R>::build_recorders() {
       maps_.push_back(make_spectral_map(scene_, o, g_, total_steps_));
       bytes_ += maps_.back().acc.size() * sizeof(std::complex<double>);
     } else if (o.kind == Output::Kind::flux) {
-      fluxes_.push_back(make_flux(o, g_));
+      fluxes_.push_back(make_flux(scene_, o, g_, total_steps_));
       bytes_ += fluxes_.back().acc.size() * sizeof(std::complex<double>);
     } else {
       snap_ = plan_snapshots(scene_, o, g_, total_steps_);
@@ -566,6 +566,8 @@ void Simulation<R>::record() {
     p.count = k + 1;
   }
   for (auto& fl : fluxes_) {
+    fl.steps = n_;
+    if ((total_steps_ - 1 - k) % fl.every != 0) continue;  // not a sampling step
     const size_t np = fl.points.size(), nf = fl.freq.size();
     for (size_t p = 0; p < np; ++p)
       for (int c = 0; c < 6; ++c) {
@@ -573,7 +575,7 @@ void Simulation<R>::record() {
         for (int q = 0; q < 4; ++q) v += fl.stencil[p][c].weight[q] * f_[c][fl.stencil[p][c].index[q]];
         fl.value[p * 6 + c] = c < 3 ? v : v / eta0;
       }
-    const double te = n_ * g_.dt, th = (n_ - 0.5) * g_.dt, dt = g_.dt;
+    const double te = n_ * g_.dt, th = (n_ - 0.5) * g_.dt, dt = g_.dt * fl.every;
     std::complex<double>* acc = fl.acc.data();
     const double* val = fl.value.data();
     const double* freq = fl.freq.data();
@@ -587,10 +589,9 @@ void Simulation<R>::record() {
         for (int c = 3; c < 6; ++c) a[p * 6 + c] += val[p * 6 + c] * ph;
       }
     }
-    fl.steps = n_;
   }
   for (auto& m : maps_) {
-    if (k < m.start) continue;
+    if (k < m.start || (total_steps_ - 1 - k) % m.every != 0) continue;
     const long st = g_.stride;
     const size_t np = static_cast<size_t>(m.ni) * m.nj;
     for (int b = 0; b < m.nj; ++b)
@@ -608,7 +609,8 @@ void Simulation<R>::record() {
     for (size_t fi = 0; fi < m.freq.size(); ++fi) {
       if (k < m.first_step[fi]) continue;
       const double w = 2 * constants::pi * m.freq[fi];
-      const std::complex<double> pe = std::polar(g_.dt, w * te), ph = std::polar(g_.dt, w * th);
+      const double dt = g_.dt * m.every;
+      const std::complex<double> pe = std::polar(dt, w * te), ph = std::polar(dt, w * th);
       std::complex<double>* acc = m.acc.data() + fi * np * 6;
       const double* val = m.value.data();
 #pragma omp parallel for schedule(static) num_threads(threads_)

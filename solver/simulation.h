@@ -109,7 +109,9 @@ class Simulation {
   int map_ny() const { return map_ny_; }
   /// Bytes held by fields, coefficients, absorbers and recorders.
   std::size_t memory_bytes() const { return bytes_; }
-  /// Periodic walls, 1 if the number of cells-per-wavelength etc. Messages for the log.
+  /// What the run should warn about (a lossy launch medium ...), and what it should say
+  /// (the magnetic media's ground states and steps), for the log and the summary.
+  const std::vector<std::string>& warnings() const { return warnings_; }
   const std::vector<std::string>& notes() const { return notes_; }
 
  private:
@@ -168,7 +170,7 @@ class Simulation {
   MagneticCells mag_;
   std::vector<std::vector<double>> mag_scratch_;  // per thread: b(n+1/2) of one row's cells
   std::size_t bytes_ = 0;
-  std::vector<std::string> notes_;
+  std::vector<std::string> warnings_, notes_;
 
   void build_media(std::vector<double> (&cb)[3]);
   void build_pml(const std::vector<double> (&cb)[3]);

@@ -5,6 +5,8 @@
 #include <algorithm>
 #include <cmath>
 
+#include "solver/recorders.h"
+
 namespace ty {
 
 SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
@@ -29,11 +31,15 @@ SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g,
   for (int a = 0; a < m.ni; ++a) m.x.push_back(g.x(Component::Ez, ia + a * o.stride) - s.origin_shift.x);
   for (int b = 0; b < m.nj; ++b) m.y.push_back(g.y(Component::Ez, ja + b * o.stride) - s.origin_shift.y);
   m.freq = o.frequencies;
+  const double half = 0.5 * total_steps * g.dt;
+  double f_max = 0;
+  for (double f : m.freq) f_max = std::max(f_max, f);
+  m.every = dft_every(s, f_max, g.dt, static_cast<long>(half / g.dt));
+  const long every = m.every;
   for (double f : m.freq) {
-    const double half = 0.5 * total_steps * g.dt;
     const double periods = std::floor(half * f);
     const double win = periods >= 1 ? periods / f : total_steps * g.dt;
-    const long steps = std::clamp(static_cast<long>(std::lround(win / g.dt)), 1L, total_steps);
+    const long steps = std::clamp(every * std::lround(win / (every * g.dt)), every, total_steps / every * every);
     m.first_step.push_back(total_steps - steps);
     m.window.push_back(steps * g.dt);
   }

@@ -6,8 +6,9 @@
 /// Every component is averaged to the Ez nodes (cell corners: Ex and Hy over their two
 /// neighbours along x, Ey and Hx along y, Hz over four) and transformed at its own time
 /// level. Each frequency is accumulated over the last whole number of its periods that fits
-/// in the second half of the run (so cw ramps and transits are left out) and normalised by
-/// 2/window, so that a steady wave of amplitude A gives |X| = A whatever the run length.
+/// in the second half of the run (so cw ramps and transits are left out; rounded to a whole
+/// number of sampling intervals, dft_every) and normalised by 2/window, so that a steady
+/// wave of amplitude A gives |X| = A whatever the run length.
 #pragma once
 #include <complex>
 #include <string>
@@ -26,6 +27,7 @@ struct SpectralMap {
   long start = 0;                    ///< the earliest of them
   std::vector<double> window;        ///< per frequency: the window's length, s
   int i0 = 0, j0 = 0, ni = 0, nj = 0, stride = 1;  ///< Ez nodes of the region
+  int every = 1;                     ///< steps between samples (dft_every), ending with the last step
   std::vector<double> x, y;          ///< their positions, user coordinates
   std::vector<std::complex<double>> acc;  ///< [f][point][component]
   std::vector<double> value;         ///< this step's six averaged values per point (scratch)

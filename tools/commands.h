@@ -23,9 +23,10 @@ struct RunOptions {
 int run_command(const RunOptions& o);
 int check_command(const std::string& scene, const std::vector<std::string>& sets);
 struct MediumOptions {
-  std::string scene, medium, normal = "y", csv;
+  std::string scene, medium, normal = "y", csv, json;
   std::vector<std::string> sets;
   double from = 0, to = 0, angle = 0, thickness = 0, waist = 0, incidence_index = 1;
+  double source_distance = 0, image_range = 0;  ///< line-source image behind a slab
   int count = 101;
 };
 int medium_command(const MediumOptions& o);

@@ -50,7 +50,8 @@ int main(int argc, char** argv) {
   c->add_option("--set", check_sets, "Override a scene value: key.path=value (repeatable)");
 
   ty::MediumOptions med;
-  std::string med_from, med_to, med_angle = "0", med_thickness = "0", med_waist = "0";
+  std::string med_from, med_to, med_angle = "0", med_thickness = "0", med_waist = "0", med_source = "0",
+                                                            med_range = "0";
   auto* md = app.add_subcommand("medium", "Linear-response properties of a medium of a scene under its bias");
   md->add_option("scene", med.scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
   md->add_option("--medium", med.medium, "Name of the medium")->required();
@@ -63,7 +64,11 @@ int main(int argc, char** argv) {
   md->add_option("--waist", med_waist, "Beam waist for the beam-summed lateral shift");
   md->add_option("--incidence-index", med.incidence_index, "Refractive index of the incidence side")
       ->check(CLI::PositiveNumber);
+  md->add_option("--source-distance", med_source,
+                 "With --thickness: a line source this far before the slab; predict its image behind it");
+  md->add_option("--image-range", med_range, "How far behind the slab to look for the image (default 6 wavelengths)");
   md->add_option("--csv", med.csv, "Also write the table to this CSV file");
+  md->add_option("--json", med.json, "Also write the results to this JSON file");
   md->add_option("--set", med.sets, "Override a scene value: key.path=value (repeatable)");
 
   auto* m = app.add_subcommand("measure", "Numbers from a run folder");
@@ -159,6 +164,8 @@ int main(int argc, char** argv) {
       med.angle = q(med_angle, ty::Kind::angle, "--angle");
       med.thickness = q(med_thickness, ty::Kind::length, "--thickness");
       med.waist = q(med_waist, ty::Kind::length, "--waist");
+      med.source_distance = q(med_source, ty::Kind::length, "--source-distance");
+      med.image_range = q(med_range, ty::Kind::length, "--image-range");
       if (!(med.to >= med.from) || med.from <= 0) throw ty::BadInput("terayee medium: error: need 0 < --from <= --to");
       return ty::medium_command(med);
     }

@@ -3,21 +3,25 @@
 /// medium of a scene under the scene's bias, over a frequency band, at an angle of
 /// incidence from vacuum (or the scene's chosen incidence index): the permeability tensor,
 /// the Ez wave's effective permeability mu_V and its propagation character (the iso-frequency
-/// curve k_t^2/mu_nn' + k_n^2/mu_tt' = eps k0^2 is an ellipse, a hyperbola, or has no real
-/// branch), the power-flow refraction angle, reflection (co- and cross-polarized) and
-/// transmission from the 4x4 transfer matrix for both signs of the angle (half-space, or a
-/// slab with --thickness), the stationary-phase lateral shift D = -d(phi)/dk_t (Artmann,
-/// Ann. Phys. 437, 87 (1948)) and, with --waist, the shift of that Gaussian beam from its
-/// angular spectrum, D = -sum A^2 |r|^2 dphi/dk_t / sum A^2 |r|^2 (the centroid of the
-/// reflected beam), which stays finite where the stationary phase fails.
+/// curve of the diagonal part, k_t^2/mu_nn + k_n^2/mu_tt = eps k0^2, is an ellipse, a
+/// hyperbola, or has no real branch), the power-flow refraction angle with losses
+/// (materials/refraction.h), reflection (co- and cross-polarized) and transmission from the
+/// 4x4 transfer matrix for both signs of the angle (half-space, or a slab with --thickness),
+/// the stationary-phase lateral shift and, with --waist, the shift of that Gaussian beam
+/// (materials/angular_spectrum.h). With --thickness and --source-distance it also predicts
+/// where the slab images a line source and how large the spot is, from the source's angular
+/// spectrum through the transfer matrix, beside the paraxial estimate.
 #include <fmt/format.h>
+#include <nlohmann/json.hpp>
 
+#include <cmath>
 #include <fstream>
 #include <iostream>
 
 #include "io/scene_reader.h"
 #include "io/units.h"
-#include "materials/transfer_matrix.h"
+#include "materials/angular_spectrum.h"
+#include "materials/refraction.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -26,7 +30,8 @@ namespace {
 using cd = std::complex<double>;
 
 struct Setup {
-  Mat3c eps = Mat3c::Identity();
+  Mat3c eps_static = Mat3c::Identity();
+  double sigma = 0;  // S/m
   MagnetModel model;
   MagneticState state;
   bool magnetic = false;
@@ -35,51 +40,22 @@ struct Setup {
   double n_in = 1;
 };
 
+Mat3c eps_at(const Setup& s, double f) {  // eps + i sigma / (eps0 w)
+  return s.eps_static + cd(0, s.sigma / (constants::eps0 * 2 * constants::pi * f)) * Mat3c::Identity();
+}
+
 Mat3c mu_at(const Setup& s, double f) {
   if (!s.magnetic) return Mat3c::Identity();
   return Mat3c::Identity() + susceptibility(s.model, s.state, 2 * constants::pi * f);
 }
 
-StackResponse respond(const Setup& s, double f, double theta) {
+LayerStack stack_at(const Setup& s, double f) {
   LayerStack st;
   st.n_in = s.n_in;
   st.normal = s.normal;
-  if (s.thickness > 0) st.layers = {{s.eps, mu_at(s, f), s.thickness}};
-  else st.eps_out = s.eps, st.mu_out = mu_at(s, f);
-  return stack_response(st, 2 * constants::pi * f, theta);
-}
-
-double phase(cd z) { return std::arg(z); }
-
-/// -dphi/dk_t of the co-polarized reflection of polarization p at theta (m).
-double artmann(const Setup& s, double f, double theta, int p) {
-  const double h = 1e-5;
-  const double k = 2 * constants::pi * f / constants::c0 * s.n_in;
-  const cd a = respond(s, f, theta + h).r[p][p], b = respond(s, f, theta - h).r[p][p];
-  double d = phase(a) - phase(b);
-  while (d > constants::pi) d -= 2 * constants::pi;
-  while (d < -constants::pi) d += 2 * constants::pi;
-  return -d / (2 * h) / (k * std::cos(theta));
-}
-
-/// Lateral shift of a Gaussian beam of waist w: the centroid of its reflected angular spectrum.
-double beam_shift(const Setup& s, double f, double theta, int p, double w) {
-  const double k = 2 * constants::pi * f / constants::c0 * s.n_in;
-  const double qmax = 4.0 / w;
-  const int nq = 201;
-  double num = 0, den = 0;
-  for (int m = 0; m < nq; ++m) {
-    const double q = -qmax + 2 * qmax * m / (nq - 1);  // tangential wavenumber offset
-    const double st = std::sin(theta) + q / k;
-    if (std::abs(st) >= 1) continue;
-    const double th = std::asin(st);
-    const double A2 = std::exp(-q * q * w * w / 2);
-    const cd r = respond(s, f, th).r[p][p];
-    const double dphi = artmann(s, f, th, p);  // -dphi/dk_t at this component
-    num += A2 * std::norm(r) * dphi;
-    den += A2 * std::norm(r);
-  }
-  return den > 0 ? num / den : 0.0;
+  if (s.thickness > 0) st.layers = {{eps_at(s, f), mu_at(s, f), s.thickness}};
+  else st.eps_out = eps_at(s, f), st.mu_out = mu_at(s, f);
+  return st;
 }
 
 }  // namespace
@@ -93,9 +69,8 @@ int medium_command(const MediumOptions& o) {
   const Medium& med = scene.media[k];
   if (med.perfect_conductor) throw BadInput(fmt::format("{}: error: '{}' is a perfect conductor", o.scene, o.medium));
   Setup s;
-  for (int c = 0; c < 3; ++c) s.eps(c, c) = cd(med.permittivity[c], 0);
-  if (med.conductivity > 0)
-    for (int c = 0; c < 3; ++c) s.eps(c, c) += cd(0, 1) * med.conductivity / (constants::eps0 * 2 * constants::pi * o.from);
+  for (int c = 0; c < 3; ++c) s.eps_static(c, c) = cd(med.permittivity[c], 0);
+  s.sigma = med.conductivity;
   if (med.magnet) {
     s.magnetic = true;
     s.model = MagnetModel(*med.magnet, scene.bias);
@@ -119,6 +94,9 @@ int medium_command(const MediumOptions& o) {
   std::cout << fmt::format("{:>11s} {:>9s} {:>9s} {:>9s} {:>10s} {:>10s} {:>11s} {:>8s} {:>7s} {:>7s} {:>7s} {:>10s} {:>10s}\n",
                            "f/GHz", "mu_xx", "mu_yy", "mu_zz", "Im mu_xy", "Re mu_V", "character", "refr/deg",
                            "|r+|", "|r-|", "T+", "D+/um", "D-/um");
+  if (o.source_distance > 0 && o.thickness <= 0)
+    throw BadInput("terayee medium: error: --source-distance needs --thickness (the slab the source faces)");
+  nlohmann::json rows = nlohmann::json::array();
   for (int q = 0; q < o.count; ++q) {
     const double f = o.count == 1 ? o.from : o.from + (o.to - o.from) * q / (o.count - 1);
     const Mat3c mu = mu_at(s, f);
@@ -126,19 +104,15 @@ int medium_command(const MediumOptions& o) {
     // the Ez wave's iso-frequency curve: k_t^2 / mu_nn + k_n^2 / mu_tt = eps_zz k0^2 (diagonal part)
     const double a = mu(nn, nn).real(), b = mu(nt, nt).real();
     const std::string character = (a > 0 && b > 0) ? "ellipse" : (a < 0 && b < 0) ? "evanescent" : "hyperbola";
-    // power-flow direction inside for the incidence's k_t: S ~ (k_t / mu_nn, k_n / mu_tt)
-    const double k0 = 1.0, kt = s.n_in * std::sin(th) * k0;
-    const double kn2 = (s.eps(2, 2).real() * k0 * k0 - kt * kt / a) * b;
-    double refr = std::nan("");
-    if (kn2 > 0) {
-      double kn = std::sqrt(kn2);
-      if (kn / b < 0) kn = -kn;  // power leaves the interface into the medium
-      refr = std::atan2(kt / a, kn / b) * 180 / constants::pi;
-    }
-    const auto rp = respond(s, f, th), rm = respond(s, f, -th);
-    const double dp = artmann(s, f, th, 0), dm = artmann(s, f, -th, 0);
-    const double bp = o.waist > 0 ? beam_shift(s, f, th, 0, o.waist) : std::nan("");
-    const double bm = o.waist > 0 ? beam_shift(s, f, -th, 0, o.waist) : std::nan("");
+    // power-flow direction inside, losses included (from vacuum or the incidence index)
+    const Refraction rf = ez_refraction(eps_at(s, f)(2, 2), mu, nn, s.n_in * std::sin(th));
+    const double refr = rf.propagates ? rf.angle * 180 / constants::pi : std::nan("");
+    const LayerStack st = stack_at(s, f);
+    const double w = 2 * constants::pi * f;
+    const auto rp = stack_response(st, w, th), rm = stack_response(st, w, -th);
+    const double dp = artmann_shift(st, w, th, 0), dm = artmann_shift(st, w, -th, 0);
+    const double bp = o.waist > 0 ? beam_shift(st, w, th, 0, o.waist) : std::nan("");
+    const double bm = o.waist > 0 ? beam_shift(st, w, -th, 0, o.waist) : std::nan("");
     std::cout << fmt::format("{:11.4f} {:9.4f} {:9.4f} {:9.4f} {:10.4f} {:10.4f} {:>11s} {:8.2f} {:7.4f} {:7.4f} {:7.4f} "
                              "{:10.3f} {:10.3f}\n",
                              f / 1e9, mu(0, 0).real(), mu(1, 1).real(), mu(2, 2).real(), mu(0, 1).imag(), muv.real(),
@@ -148,9 +122,37 @@ int medium_command(const MediumOptions& o) {
                          "{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g}\n",
                          f, mu(0, 0).real(), mu(0, 0).imag(), mu(1, 1).real(), mu(1, 1).imag(), mu(2, 2).real(),
                          mu(2, 2).imag(), mu(0, 1).real(), mu(0, 1).imag(), muv.real(), muv.imag(), character, refr,
-                         std::abs(rp.r[0][0]), phase(rp.r[0][0]), std::abs(rm.r[0][0]), phase(rm.r[0][0]),
+                         std::abs(rp.r[0][0]), std::arg(rp.r[0][0]), std::abs(rm.r[0][0]), std::arg(rm.r[0][0]),
                          std::abs(rp.r[0][1]), rp.T[0], rm.T[0], dp, dm, bp, bm);
+    nlohmann::json row;
+    row["frequency"] = f;
+    row["mu"] = {{mu(0, 0).real(), mu(0, 0).imag(), mu(1, 1).real(), mu(1, 1).imag(), mu(2, 2).real(), mu(2, 2).imag()}};
+    row["mu-xy"] = {mu(0, 1).real(), mu(0, 1).imag()};
+    row["mu-V"] = {muv.real(), muv.imag()};
+    row["character"] = character;
+    row["refraction-angle-deg"] = std::isnan(refr) ? nlohmann::json() : nlohmann::json(refr);
+    row["r-plus"] = {std::abs(rp.r[0][0]), std::arg(rp.r[0][0])};
+    row["r-minus"] = {std::abs(rm.r[0][0]), std::arg(rm.r[0][0])};
+    row["T-plus"] = rp.T[0], row["T-minus"] = rm.T[0];
+    row["artmann-plus"] = dp, row["artmann-minus"] = dm;
+    if (o.waist > 0) row["beam-shift-plus"] = bp, row["beam-shift-minus"] = bm;
+    if (o.source_distance > 0) {
+      // a line source before the slab: its image from the angular spectrum (no paraxial
+      // approximation), looked for from a tenth of a wavelength to `image-range` behind the face
+      const double lambda0 = constants::c0 / f;
+      const LineImage img = line_source_image(st, w, o.source_distance, 0.1 * lambda0,
+                                              o.image_range > 0 ? o.image_range : 6 * lambda0);
+      std::cout << fmt::format("  line source {:.4g} um before the slab: paraxial image {:.4g} um behind it; "
+                               "transfer-matrix focus {:.4g} um behind the far face, FWHM across {:.4g} um, along "
+                               "{:.4g} um\n",
+                               o.source_distance * 1e6, img.paraxial * 1e6, img.peak * 1e6, img.fwhm_across * 1e6,
+                               img.fwhm_along * 1e6);
+      row["image"] = {{"source-distance", o.source_distance}, {"paraxial", img.paraxial}, {"focus", img.peak},
+                      {"fwhm-across", img.fwhm_across}, {"fwhm-along", img.fwhm_along}};
+    }
+    rows.push_back(row);
   }
+  if (!o.json.empty()) std::ofstream(o.json) << nlohmann::json{{"medium", med.name}, {"rows", rows}}.dump(2) << "\n";
   return 0;
 }
 

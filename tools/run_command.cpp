@@ -42,7 +42,8 @@ int run_with(const Scene& scene, const RunOptions& o) {
 
   Simulation<R> sim(scene, o.threads);
   const YeeGrid& g = sim.grid();
-  for (const auto& n : sim.notes()) log.warn(n);
+  for (const auto& w : sim.warnings()) log.warn(w);
+  for (const auto& n : sim.notes()) log.info(n);
   log.info(fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
                        "{} threads, {} precision, {:.1f} MB",
                        g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(),
@@ -139,8 +140,9 @@ int run_with(const Scene& scene, const RunOptions& o) {
   s["resumed-at-step"] = first;
   s["memory-bytes"] = sim.memory_bytes();
   std::vector<std::string> warnings = scene.warnings;
-  warnings.insert(warnings.end(), sim.notes().begin(), sim.notes().end());
+  warnings.insert(warnings.end(), sim.warnings().begin(), sim.warnings().end());
   s["warnings"] = warnings;
+  s["notes"] = sim.notes();
   s["energy"] = {{"field-energy-at-end-J-per-m", sim.field_energy()}};
   folder.finish(sim.probes(), sim.fluxes(), sim.spectral_maps(), g.dt, s);
   log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", N, hms(wall),
