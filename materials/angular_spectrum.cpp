@@ -21,22 +21,27 @@ double artmann_shift(const LayerStack& s, double omega, double theta, int p) {
   return -d / (2 * h) / (k * std::cos(theta));
 }
 
-double beam_shift(const LayerStack& s, double omega, double theta, int p, double w) {
+double beam_shift(const LayerStack& s, double omega, double theta, int p, double w, double h) {
   const double k = omega / constants::c0 * s.n_in;
-  const double qmax = 4.0 / w;
-  const int nq = 201;
-  double num = 0, den = 0;
+  const double qmax = std::min(0.999 * k, 5.0 / w);
+  const int nq = 401;
+  double num = 0, den = 0, tan_r = 0, tan_i = 0, den_i = 0;
   for (int m = 0; m < nq; ++m) {
-    const double q = -qmax + 2 * qmax * m / (nq - 1);  // tangential wavenumber offset
-    const double st = std::sin(theta) + q / k;
-    if (std::abs(st) >= 1) continue;
-    const double th = std::asin(st);
-    const double A2 = std::exp(-q * q * w * w / 2);
+    const double q = -qmax + 2 * qmax * m / (nq - 1);  // transverse wavenumber in the beam's frame
+    const double delta = std::asin(q / k), th = theta + delta;
+    if (std::abs(th) >= 0.5 * constants::pi) continue;
+    // |A|^2 per unit q becomes |F|^2 per unit k_t: |A|^2 dq/dk_t = |A|^2 cos(delta) / cos(th)
+    const double A2 = std::exp(-q * q * w * w / 2) * std::cos(delta) / std::cos(th);
     const double r2 = std::norm(stack_response(s, omega, th).r[p][p]);
     num += A2 * r2 * artmann_shift(s, omega, th, p);
     den += A2 * r2;
+    tan_r += A2 * r2 * std::tan(th);
+    tan_i += A2 * std::tan(th);
+    den_i += A2;
   }
-  return den > 0 ? num / den : 0.0;
+  if (den <= 0) return 0.0;
+  // on a line h before the interface: the beams' own angular drift, less the geometric 2 h tan(theta)
+  return num / den + h * (tan_r / den + tan_i / den_i - 2 * std::tan(theta));
 }
 
 namespace {

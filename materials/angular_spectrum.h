@@ -6,7 +6,8 @@
 /// - Stationary-phase (Artmann) shift D = -d(phi)/dk_t of the co-polarized reflection
 ///   (Artmann, Ann. Phys. 437, 87 (1948)), and the shift of a Gaussian beam of waist w as
 ///   the centroid of its reflected spectrum, D = -sum A^2 |r|^2 dphi/dk_t / sum A^2 |r|^2,
-///   which stays finite where the stationary phase fails near resonances.
+///   which stays finite where the stationary phase fails near resonances; measured on a line
+///   before the interface the centroid also drifts with the reflected beam's mean angle.
 /// - A line current (a point in 2D) at distance a before the stack radiates
 ///   Ez ~ H0^(1)(k0 r) = (1/pi) int exp(i(kx x + ky |y|)) / ky dkx (the Sommerfeld-Weyl
 ///   expansion; e.g. Chew, Waves and Fields in Inhomogeneous Media, sec. 2.2); behind the
@@ -28,8 +29,16 @@ namespace ty {
 
 /// -dphi/dk_t (m) of the co-polarized reflection of polarization p at angle theta.
 double artmann_shift(const LayerStack& s, double omega, double theta, int p);
-/// Lateral shift (m) of a reflected Gaussian beam of waist w (1/e field radius).
-double beam_shift(const LayerStack& s, double omega, double theta, int p, double w);
+/// Lateral shift (m) of a reflected Gaussian beam of waist w (1/e field radius, focused on
+/// the interface), as the intensity centroids show it on a line a distance h before the
+/// interface: the reflected centroid less the incident one less 2 h tan(theta). The beam is
+/// the one the scene's sources launch, A(q) ~ exp(-q^2 w^2/4) over the transverse wavenumber
+/// q of its own frame (solver/incident.h); the centroids along the line follow from
+/// Parseval's theorem with weights |F|^2 per unit k_t, |F|^2 = |A|^2 dq/dk_t (incident)
+/// and |F r|^2 (reflected):
+///   D(h) = -<dphi/dk_t>_r + h (<tan theta>_r + <tan theta>_i - 2 tan theta),
+/// the second term the angular drift a reflection that favours some angles gives the beam.
+double beam_shift(const LayerStack& s, double omega, double theta, int p, double w, double h = 0);
 
 struct LineImage {
   double paraxial = 0;                 ///< paraxial image distance behind the exit face, m (single layer)

@@ -28,12 +28,16 @@ struct CellStep {
   double r[3] = {0, 0, 0};  ///< the cell's own reaction weights (0 for a prescribed field)
   double tilt2 = kTilt * kTilt;
 
-  /// f_max: the highest linear resonance (Hz), which sets the midpoint rule's sub-steps.
+  /// f_max: the highest linear resonance (Hz), which sets the midpoint rule's sub-steps; r the
+  /// cell's own reaction weights, self its self field (llg_linear.h).
   static CellStep from(const MagnetModel& model, const MagneticState& ground, double dt, double f_max,
-                       const std::array<double, 3>& r, double tilt = kTilt) {
+                       const std::array<double, 3>& r, const std::array<double, 3>& self = {0, 0, 0},
+                       double tilt = kTilt) {
     CellStep p;
-    p.linear = LinearStep::from(model, ground, dt, r);
+    p.linear = LinearStep::from(model, ground, dt, r, self);
     p.midpoint = LlgCoefficients::from(model, dt, f_max);
+    const Vec3 mg = model.net(ground.m);
+    for (int c = 0; c < 3; ++c) p.midpoint.self[c] = self[c], p.midpoint.m_ground[c] = mg[c];
     for (int c = 0; c < 3; ++c) p.r[c] = r[c];
     p.tilt2 = tilt * tilt;
     return p;
@@ -41,10 +45,11 @@ struct CellStep {
 };
 
 template <int N>
-inline void step_cells_n(const CellStep& p, long count, const double* const* m, double* const* mn,
+inline long step_cells_n(const CellStep& p, long count, const double* const* m, double* const* mn,
                          const double* const* b0, const double* const* b1, double* const* dM, double* x2) {
   constexpr int W = 8;
   linear_cells<N>(p.linear, count, m, b0, b1, mn, dM, x2);
+  long tilted = 0;
   for (long k0 = 0; k0 < count; k0 += W) {
     const int nl = static_cast<int>(std::min<long>(W, count - k0));
     bool any = false;
@@ -67,21 +72,25 @@ inline void step_cells_n(const CellStep& p, long count, const double* const* m, 
       for (int l = 0; l < nl; ++l) kd[c][l] = dp[c][l];
     llg_cells(p.midpoint, nl, mo, gp, bo, bn, p.r, dp);
     for (int l = 0; l < nl; ++l) {
-      if (x2[k0 + l] > p.tilt2) continue;
+      if (x2[k0 + l] > p.tilt2) {
+        ++tilted;
+        continue;
+      }
       for (int c = 0; c < 6; ++c) mo[c][l] = keep[c][l];
       for (int c = 0; c < 3; ++c) dp[c][l] = kd[c][l];
     }
   }
+  return tilted;
 }
 
 /// Advances cells [0, count) of one medium over one step. m[6] in, mn[6] out: m1 xyz, m2 xyz
 /// (unit vectors; m2 = 0 for one sublattice); b0[3], b1[3]: the wave field at the cell at the
 /// step's start and end (T, bias excluded); dM[3] out: the change of mu0 M over the step (T);
-/// scratch: count doubles.
-inline void step_cells(const CellStep& p, long count, const double* const* m, double* const* mn,
+/// scratch: count doubles. Returns how many cells took the midpoint rule.
+inline long step_cells(const CellStep& p, long count, const double* const* m, double* const* mn,
                        const double* const* b0, const double* const* b1, double* const* dM, double* scratch) {
-  if (p.linear.n == 2) step_cells_n<2>(p, count, m, mn, b0, b1, dM, scratch);
-  else step_cells_n<1>(p, count, m, mn, b0, b1, dM, scratch);
+  return p.linear.n == 2 ? step_cells_n<2>(p, count, m, mn, b0, b1, dM, scratch)
+                         : step_cells_n<1>(p, count, m, mn, b0, b1, dM, scratch);
 }
 
 /// One cell, for tests and small uses: m[s][c] (unit vectors), b0, b1 as above, dM out.

@@ -34,6 +34,8 @@ struct LlgCoefficients {
   double axis[4][3] = {};
   double ba[4] = {};
   double dt = 0;
+  double self[3] = {0, 0, 0};     ///< self field of a surface cell: -self . (mu0 M - mu0 M_ground)
+  double m_ground[3] = {0, 0, 0};  ///< mu0 M of the ground state, T
   int substeps = 1;    ///< midpoint sub-steps per time step
   int iterations = 6;  ///< fixed-point passes per sub-step (converged: see `from`)
   /// Sub-steps are chosen so that the midpoint rule's phase error (w_max h)^2/12 stays
@@ -91,7 +93,8 @@ inline void llg_cells(const LlgCoefficients& p, long count, double* const* m, co
           double b[3];
           for (int c = 0; c < 3; ++c) {
             const double bo = b_old[c][k0_ + l], bn = b_new[c][k0_ + l];
-            b[c] = p.bias[c] + bo + u * (bn - bo) - r[c] * 0.5 * (D0[c][l] + DN[c][l]);
+            b[c] = p.bias[c] + bo + u * (bn - bo) - r[c] * 0.5 * (D0[c][l] + DN[c][l]) -
+                   p.self[c] * (mu0 * MB[c][l] + mu1 * MB[3 + c][l] - p.m_ground[c]);
           }
           const double x0 = MB[0][l], x1 = MB[1][l], x2 = MB[2][l];
           const double y0 = MB[3][l], y1 = MB[4][l], y2 = MB[5][l];

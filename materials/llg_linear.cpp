@@ -10,7 +10,7 @@
 namespace ty {
 
 LinearStep LinearStep::from(const MagnetModel& model, const MagneticState& ground, double dt,
-                            const std::array<double, 3>& r) {
+                            const std::array<double, 3>& r, const std::array<double, 3>& self) {
   LinearStep p;
   const int n = model.n, nt = 2 * n;
   p.n = n;
@@ -36,7 +36,8 @@ LinearStep LinearStep::from(const MagnetModel& model, const MagneticState& groun
   Eigen::MatrixXd K = Eigen::MatrixXd::Zero(3, nt);
   for (int s = 0; s < n; ++s) K.block(0, 2 * s, 3, 2) = model.mu[s] * E.block(3 * s, 2 * s, 3, 2);
   const Eigen::Matrix3d R = Eigen::Vector3d(r[0], r[1], r[2]).asDiagonal();
-  const Eigen::MatrixXd A = Lt - Ct * R * K;
+  const Eigen::Matrix3d N = Eigen::Vector3d(self[0], self[1], self[2]).asDiagonal();
+  const Eigen::MatrixXd A = Lt - Ct * (R + N) * K;
   // exp([[hA, I, 0], [0, 0, I], [0, 0, 0]]) = [[e^{hA}, phi1(hA), phi2(hA)], ...]
   Eigen::MatrixXd big = Eigen::MatrixXd::Zero(3 * nt, 3 * nt);
   big.block(0, 0, nt, nt) = dt * A;

@@ -8,11 +8,13 @@
 /// orthonormal and g_s the ground state, so |m_s| = 1 exactly for any |x_s| < 1. Projected on
 /// the tangent planes (P = E^T, E = [e1 e2] per sublattice) the linearised equations are
 ///   dx/dt = Lt x + Ct b,   Lt = Q P L E,   Ct = Q P Bm,   Q = [P (I - D) E]^-1.
-/// Within the step the field at the cell is b(t) = b0 + (t/h)(b1 - b0) - R K (x(t) - x(0)): the
-/// gathered field interpolated between the step's ends less the cell's own reaction (R =
-/// diag(r), the cell's own share of gather-after-scatter; K = [mu_1 E_1, mu_2 E_2], the linear
-/// change of mu0 M). With A = Lt - Ct R K this is dx/dt = A x + f0 + (t/h) f1, whose exact
-/// solution is
+/// Within the step the field at the cell is
+///   b(t) = b0 + (t/h)(b1 - b0) - R K (x(t) - x(0)) - N K x(t):
+/// the gathered field interpolated between the step's ends, less the cell's own reaction
+/// (R = diag(r), the cell's own share of gather-after-scatter), less a self field N = diag(n)
+/// that a cell on the surface of its body sees (the normal component of H jumps there;
+/// solver/magnetic_cells.h), K = [mu_1 E_1, mu_2 E_2] the linear change of mu0 M. With
+/// A = Lt - Ct (R + N) K this is dx/dt = A x + f0 + (t/h) f1, whose exact solution is
 ///   x(h) = e^{hA} x(0) + h phi1(hA) f0 + h phi2(hA) f1,  phi1(z) = (e^z - 1)/z,  phi2(z) = (e^z - 1 - z)/z^2
 /// (exponential integrators: Hochbruck & Ostermann, Acta Numerica 19, 209 (2010), sec. 2.1),
 /// the phi functions read off one exponential of a block matrix (Higham, Functions of
@@ -39,9 +41,9 @@ struct LinearStep {
   double psi0[4][3] = {}, psi1[4][3] = {};
 
   /// The step over dt about `ground`, with the cell's own reaction weights r (0 for a
-  /// prescribed field).
+  /// prescribed field) and its self field N = diag(self) (0 inside a body).
   static LinearStep from(const MagnetModel& model, const MagneticState& ground, double dt,
-                         const std::array<double, 3>& r);
+                         const std::array<double, 3>& r, const std::array<double, 3>& self = {0, 0, 0});
 };
 
 /// The linear step of cells [0, count): m (6 components, unit vectors), b0 and b1 the wave

@@ -20,6 +20,18 @@
 /// step, its neighbours' share from their previous step (taken off both ends alike); then
 /// H = h* - P dM exactly.
 ///
+/// Surface cells: on a face between a magnetic cell and a non-magnetic one, the normal
+/// component of H jumps by M (B_n is continuous), and the H node on the face holds the mean
+/// of its two sides, B_n/mu0 - M/2. The cell's field on its side of the face is that less
+/// M/2, so its gathered field is G h less M/4 per such face along the face's normal: a self
+/// field, part of the cell's step (llg_linear.h), like the averaging of the inverse
+/// permittivity for normal E at dielectric interfaces. Without it a gyrotropic surface
+/// reflects with a phase error of first order in the cell (measured: 0.022 rad at 25 um,
+/// 0.010 at 12.5 um, at 292 GHz near an MnF2 line; with it 0.003 and 0.001).
+/// Absorbing layers: there the cells' damping rises towards 0.005 (a cubic ramp over the
+/// layer), since a PML can amplify the backward waves a hyperbolic or negative-permeability
+/// medium carries (Becache, Fauqueux & Joly, J. Comput. Phys. 188, 399 (2003)).
+///
 /// Layout: cells are listed row by row, left to right, in runs of one medium along a row
 /// (`runs`, those of row j at row_runs[j] .. row_runs[j+1]), so that gathers and scatters
 /// read and write contiguous stretches of the field rows and the solver can move a row's

@@ -63,6 +63,13 @@ class Simulation {
   /// bias, DM; the wave-field coupling is in field_energy), J/m.
   double magnetic_energy() const;
   const MagneticCells& magnets() const { return mag_; }
+  /// Magnetic cell-steps so far that were tilted past the small-signal step and took the
+  /// midpoint rule (cell_step.h).
+  long midpoint_cell_steps() const {
+    long s = 0;
+    for (size_t t = 0; t < mag_tilted_.size(); t += 8) s += mag_tilted_[t];
+    return s;
+  }
   MagneticCells& magnets() { return mag_; }
   /// Value of a magnetic output field (Mx, Lx, dLx, M1x, ...) in list cell k.
   double magnetic_value(const std::string& field, long k) const;
@@ -169,6 +176,7 @@ class Simulation {
   int map_nx_ = 0, map_ny_ = 0;
   MagneticCells mag_;
   std::vector<std::vector<double>> mag_scratch_;  // per thread: b(n+1/2) of one row's cells
+  std::vector<long> mag_tilted_;                  // per thread (every 8th): cell steps by the midpoint rule
   std::size_t bytes_ = 0;
   std::vector<std::string> warnings_, notes_;
 
@@ -185,7 +193,7 @@ class Simulation {
   const R* hy_above(int j) const;
   /// The magnetic cells of row j (old: their field at n-1/2 from gather_row): the field at
   /// n+1/2, their step, and the scatter into Hx and Hz.
-  void magnetic_row(int j, const double* old, double* scratch);
+  void magnetic_row(int j, const double* old, double* scratch, long& tilted);
   /// The scatter into the Hy nodes of row j (from cell rows j and j-1).
   void scatter_hy(int j);
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);

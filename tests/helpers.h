@@ -6,6 +6,8 @@
 #include <cmath>
 #include <complex>
 #include <cstdlib>
+#include <fstream>
+#include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
 
@@ -80,6 +82,12 @@ std::vector<double> probe_series(Sim& sim, Component c, Vec2 p, long steps) {
     out.push_back(v);
   }
   return out;
+}
+
+/// A JSON file, parsed.
+inline nlohmann::json read_json(const std::string& path) {
+  std::ifstream in(path);
+  return nlohmann::json::parse(in);
 }
 
 /// Runs a shell command quietly; its exit status (-1 if it did not exit).

@@ -27,6 +27,7 @@ struct MediumOptions {
   std::vector<std::string> sets;
   double from = 0, to = 0, angle = 0, thickness = 0, waist = 0, incidence_index = 1;
   double source_distance = 0, image_range = 0;  ///< line-source image behind a slab
+  double line_distance = 0;  ///< where the beam-summed shift is seen: a line this far before the interface
   int count = 101;
 };
 int medium_command(const MediumOptions& o);

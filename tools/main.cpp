@@ -51,7 +51,7 @@ int main(int argc, char** argv) {
 
   ty::MediumOptions med;
   std::string med_from, med_to, med_angle = "0", med_thickness = "0", med_waist = "0", med_source = "0",
-                                                            med_range = "0";
+                                                            med_range = "0", med_line = "0";
   auto* md = app.add_subcommand("medium", "Linear-response properties of a medium of a scene under its bias");
   md->add_option("scene", med.scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
   md->add_option("--medium", med.medium, "Name of the medium")->required();
@@ -62,6 +62,8 @@ int main(int argc, char** argv) {
   md->add_option("--normal", med.normal, "Interface normal: x or y")->check(CLI::IsMember({"x", "y"}));
   md->add_option("--thickness", med_thickness, "Slab thickness (default: a half-space)");
   md->add_option("--waist", med_waist, "Beam waist for the beam-summed lateral shift");
+  md->add_option("--line-distance", med_line,
+                 "With --waist: the shift as seen on a line this far before the interface (as measure shift sees it)");
   md->add_option("--incidence-index", med.incidence_index, "Refractive index of the incidence side")
       ->check(CLI::PositiveNumber);
   md->add_option("--source-distance", med_source,
@@ -166,6 +168,7 @@ int main(int argc, char** argv) {
       med.waist = q(med_waist, ty::Kind::length, "--waist");
       med.source_distance = q(med_source, ty::Kind::length, "--source-distance");
       med.image_range = q(med_range, ty::Kind::length, "--image-range");
+      med.line_distance = q(med_line, ty::Kind::length, "--line-distance");
       if (!(med.to >= med.from) || med.from <= 0) throw ty::BadInput("terayee medium: error: need 0 < --from <= --to");
       return ty::medium_command(med);
     }

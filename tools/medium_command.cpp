@@ -111,8 +111,8 @@ int medium_command(const MediumOptions& o) {
     const double w = 2 * constants::pi * f;
     const auto rp = stack_response(st, w, th), rm = stack_response(st, w, -th);
     const double dp = artmann_shift(st, w, th, 0), dm = artmann_shift(st, w, -th, 0);
-    const double bp = o.waist > 0 ? beam_shift(st, w, th, 0, o.waist) : std::nan("");
-    const double bm = o.waist > 0 ? beam_shift(st, w, -th, 0, o.waist) : std::nan("");
+    const double bp = o.waist > 0 ? beam_shift(st, w, th, 0, o.waist, o.line_distance) : std::nan("");
+    const double bm = o.waist > 0 ? beam_shift(st, w, -th, 0, o.waist, o.line_distance) : std::nan("");
     std::cout << fmt::format("{:11.4f} {:9.4f} {:9.4f} {:9.4f} {:10.4f} {:10.4f} {:>11s} {:8.2f} {:7.4f} {:7.4f} {:7.4f} "
                              "{:10.3f} {:10.3f}\n",
                              f / 1e9, mu(0, 0).real(), mu(1, 1).real(), mu(2, 2).real(), mu(0, 1).imag(), muv.real(),

@@ -1,0 +1,46 @@
+/// \file test_slab_lens.cpp
+/// \brief The slab-lens study (scenarios/slab-lens): a line source 0.25 mm before a 3 mm
+/// a-cut MnF2 plate at 262.5 GHz, inside the hyperbolic band. The prediction is made without
+/// the simulation: the source's plane-wave (Sommerfeld-Weyl) spectrum through the plate's 4x4
+/// transfer matrix (materials/angular_spectrum.h; the same sum reproduces the free-space
+/// Hankel field to 1e-13 in test_angular_spectrum.cpp), whose axial intensity maximum puts
+/// the focus 1.02 mm behind the far face with a 0.64 mm FWHM across it (the paraxial
+/// b = |rho| d - a, rho = sqrt(mu_xx/eps) Re(1/mu_yy), says 1.74 mm: loss and the wide
+/// angles of a source this close move the focus in). The run's `measure focus` must find
+/// the focus behind the plate, where the prediction puts it within the 25 um grid's error,
+/// measured at 21% in the focal distance and 9% in the spot (12.5 um cells: 8% and 4%; the
+/// error falls with the cell, docs in the study's README), so the test allows 30% and 15%.
+#include <doctest/doctest.h>
+
+#include <filesystem>
+
+#include "tests/helpers.h"
+
+namespace fs = std::filesystem;
+using ty::test::read_json;
+using ty::test::shell;
+
+TEST_CASE("slab-lens study: the focus lies where the transfer matrix puts it") {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/slab-lens/slab-lens.yaml";
+  const std::string bin = TERAYEE_BINARY;
+  const fs::path run = fs::temp_directory_path() / "terayee-test-slab-lens";
+  const fs::path pred = fs::temp_directory_path() / "terayee-test-slab-lens.json";
+  fs::remove_all(run);
+  REQUIRE(shell(bin + " medium '" + scene + "' --medium mnf2 --from '262.5 GHz' --to '262.5 GHz' --count 1 "
+                      "--thickness '3 mm' --source-distance '0.25 mm' --image-range '4 mm' --json '" + pred.string() +
+                      "'") == 0);
+  REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet") == 0);
+  REQUIRE(shell(bin + " measure focus '" + run.string() + "' --map image --axis y --face '1 mm'") == 0);
+  const auto f = read_json((run / "focus.json").string());
+  const auto img = read_json(pred.string())["rows"][0]["image"];
+  const double at = f["distance-from-face"].get<double>(), across = f["fwhm-across-axis"].get<double>();
+  const double p_at = img["focus"].get<double>(), p_across = img["fwhm-across"].get<double>();
+  MESSAGE("focus " << at * 1e3 << " mm behind the plate, FWHM " << across * 1e6 << " um; transfer matrix " << p_at * 1e3
+                   << " mm, " << p_across * 1e6 << " um; paraxial " << img["paraxial"].get<double>() * 1e3 << " mm");
+  CHECK(p_at > 0.5e-3);  // a real image behind the plate, not the face
+  CHECK(std::abs(f["peak-position"][0].get<double>()) < 25e-6);  // on the axis
+  CHECK(std::abs(at / p_at - 1) < 0.30);
+  CHECK(std::abs(across / p_across - 1) < 0.15);
+  fs::remove_all(run);
+  fs::remove(pred);
+}
