@@ -4,6 +4,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <stdexcept>
 
 namespace ty::h5 {
@@ -164,6 +165,44 @@ std::vector<double> File::read(const std::string& path, std::vector<hsize_t>* sh
   if (n > 0) check(H5Dread(set.id(), H5T_NATIVE_DOUBLE, H5S_ALL, H5S_ALL, H5P_DEFAULT, out.data()), "cannot read " + path);
   if (shape) *shape = dims;
   return out;
+}
+
+std::vector<std::string> File::members(const std::string& group) const {
+  Handle g(check(H5Gopen2(id(), group.c_str(), H5P_DEFAULT), "cannot open " + group), H5Gclose);
+  H5G_info_t info;
+  check(H5Gget_info(g.id(), &info), "group info");
+  std::vector<std::string> out;
+  for (hsize_t k = 0; k < info.nlinks; ++k) {
+    const ssize_t n = H5Lget_name_by_idx(g.id(), ".", H5_INDEX_NAME, H5_ITER_INC, k, nullptr, 0, H5P_DEFAULT);
+    std::string name(static_cast<size_t>(std::max<ssize_t>(n, 0)) + 1, '\0');
+    H5Lget_name_by_idx(g.id(), ".", H5_INDEX_NAME, H5_ITER_INC, k, name.data(), name.size(), H5P_DEFAULT);
+    name.resize(static_cast<size_t>(std::max<ssize_t>(n, 0)));
+    out.push_back(name);
+  }
+  return out;
+}
+
+std::vector<hsize_t> File::shape(const std::string& path) const {
+  Handle set(check(H5Dopen2(id(), path.c_str(), H5P_DEFAULT), "cannot open " + path), H5Dclose);
+  Handle space(check(H5Dget_space(set.id()), "dataspace"), H5Sclose);
+  const int rank = H5Sget_simple_extent_ndims(space.id());
+  std::vector<hsize_t> dims(rank > 0 ? rank : 0);
+  if (rank > 0) H5Sget_simple_extent_dims(space.id(), dims.data(), nullptr);
+  return dims;
+}
+
+void File::read_frame(const std::string& path, hsize_t frame, std::vector<float>& out) const {
+  Handle set(check(H5Dopen2(id(), path.c_str(), H5P_DEFAULT), "cannot open " + path), H5Dclose);
+  Handle space(check(H5Dget_space(set.id()), "dataspace"), H5Sclose);
+  hsize_t dims[3] = {0, 0, 0};
+  if (H5Sget_simple_extent_ndims(space.id()) != 3) throw std::runtime_error(path + " is not [frame][y][x]");
+  H5Sget_simple_extent_dims(space.id(), dims, nullptr);
+  if (frame >= dims[0]) throw std::runtime_error(path + ": no such frame");
+  const hsize_t start[3] = {frame, 0, 0}, count[3] = {1, dims[1], dims[2]};
+  check(H5Sselect_hyperslab(space.id(), H5S_SELECT_SET, start, nullptr, count, nullptr), "hyperslab");
+  Handle mem(check(H5Screate_simple(3, count, nullptr), "dataspace"), H5Sclose);
+  out.resize(dims[1] * dims[2]);
+  check(H5Dread(set.id(), H5T_NATIVE_FLOAT, mem.id(), space.id(), H5P_DEFAULT, out.data()), "cannot read " + path);
 }
 
 std::string File::read_attribute(const std::string& object, const std::string& name) const {

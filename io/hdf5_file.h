@@ -53,6 +53,12 @@ class File {
 
   /// Reading back (tests and measurements).
   std::vector<double> read(const std::string& path, std::vector<hsize_t>* shape = nullptr) const;
+  /// The names of a group's members, in name order.
+  std::vector<std::string> members(const std::string& group) const;
+  /// The dimensions of a dataset.
+  std::vector<hsize_t> shape(const std::string& path) const;
+  /// One frame [y][x] of a [frame][y][x] dataset, as float, into `out` (resized).
+  void read_frame(const std::string& path, hsize_t frame, std::vector<float>& out) const;
   std::string read_attribute(const std::string& object, const std::string& name) const;
   bool exists(const std::string& path) const;
 

@@ -2,6 +2,7 @@
 /// \brief The resolved scene as YAML, through yaml-cpp's emitter.
 #include "io/scene_writer.h"
 
+#include <fmt/format.h>
 #include <yaml-cpp/yaml.h>
 
 #include "io/units.h"
@@ -10,6 +11,42 @@ namespace ty {
 namespace {
 
 std::string q(double v, Kind k) { return format_si(v, k); }
+
+void vec3(YAML::Emitter& e, const std::array<double, 3>& v, Kind k) {
+  e << YAML::Flow << YAML::BeginSeq;
+  for (double c : v) e << (k == Kind::dimensionless ? fmt::format("{}", c) : q(c, k));
+  e << YAML::EndSeq;
+}
+
+/// The magnet block with every value explicit (the exchange as its constant lambda).
+void magnet(YAML::Emitter& e, const Magnet& g) {
+  e << YAML::Key << "magnet" << YAML::Value << YAML::Flow << YAML::BeginMap;
+  e << YAML::Key << "sublattices" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+  for (const auto& sl : g.sublattices)
+    e << YAML::Flow << YAML::BeginMap << YAML::Key << "saturation" << YAML::Value << q(sl.saturation, Kind::magnetic_field)
+      << YAML::Key << "g" << YAML::Value << sl.g << YAML::Key << "damping" << YAML::Value << sl.damping << YAML::EndMap;
+  e << YAML::EndSeq;
+  const bool two = g.sublattices.size() == 2;
+  if (two) e << YAML::Key << "exchange-constant" << YAML::Value << g.lambda;
+  if (!g.anisotropy.empty()) {
+    e << YAML::Key << "anisotropy" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+    for (const auto& a : g.anisotropy) {
+      e << YAML::Flow << YAML::BeginMap << YAML::Key << "axis" << YAML::Value;
+      vec3(e, a.axis, Kind::dimensionless);
+      e << YAML::Key << "field" << YAML::Value << q(a.field, Kind::magnetic_field) << YAML::EndMap;
+    }
+    e << YAML::EndSeq;
+  }
+  if (two) {
+    e << YAML::Key << "dzyaloshinskii" << YAML::Value;
+    vec3(e, g.dzyaloshinskii, Kind::magnetic_field);
+  }
+  if (g.order[0] != 0 || g.order[1] != 0 || g.order[2] != 0) {
+    e << YAML::Key << "order" << YAML::Value;
+    vec3(e, g.order, Kind::dimensionless);
+  }
+  e << YAML::EndMap;
+}
 
 void vec2(YAML::Emitter& e, Vec2 v, Kind k) {
   e << YAML::Flow << YAML::BeginSeq << q(v.x, k) << q(v.y, k) << YAML::EndSeq;
@@ -40,6 +77,13 @@ std::string resolved_scene_yaml(const Scene& s) {
   const Vec2 o = s.origin_shift;
   auto user = [&](Vec2 p) { return Vec2{p.x - o.x, p.y - o.y}; };
   YAML::Emitter e;
+  auto region = [&](const Region& r) {
+    e << YAML::Key << "region" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
+    vec2(e, user(r.centre), Kind::length);
+    e << YAML::Key << "size" << YAML::Value;
+    vec2(e, r.size, Kind::length);
+    e << YAML::EndMap;
+  };
   e << YAML::BeginMap;
   e << YAML::Key << "title" << YAML::Value << YAML::DoubleQuoted << s.title;
   e << YAML::Key << "grid" << YAML::Value << YAML::BeginMap;
@@ -72,6 +116,7 @@ std::string resolved_scene_yaml(const Scene& s) {
       << m.permittivity[1] << m.permittivity[2] << YAML::EndSeq;
     e << YAML::Key << "conductivity" << YAML::Value << q(m.conductivity, Kind::conductivity);
     e << YAML::Key << "perfect-conductor" << YAML::Value << m.perfect_conductor;
+    if (m.magnet) magnet(e, *m.magnet);
     e << YAML::EndMap;
   }
   e << YAML::EndMap;
@@ -143,13 +188,27 @@ std::string resolved_scene_yaml(const Scene& s) {
       e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
       e << YAML::Key << "every" << YAML::Value << q(out.every, Kind::time);
       e << YAML::Key << "stride" << YAML::Value << out.stride;
-      if (out.region.given) {
-        e << YAML::Key << "region" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
-        vec2(e, user(out.region.centre), Kind::length);
-        e << YAML::Key << "size" << YAML::Value;
-        vec2(e, out.region.size, Kind::length);
-        e << YAML::EndMap;
-      }
+      if (out.region.given) region(out.region);
+    } else if (out.kind == Output::Kind::flux) {  // the line as its two ends: the same line and normal
+      e << YAML::Key << "flux" << YAML::Value << YAML::BeginMap;
+      e << YAML::Key << "name" << YAML::Value << out.name;
+      e << YAML::Key << "line" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value;
+      vec2(e, user(out.from), Kind::length);
+      e << YAML::Key << "to" << YAML::Value;
+      vec2(e, user(out.to), Kind::length);
+      e << YAML::EndMap;
+      e << YAML::Key << "band" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value
+        << q(out.band_from, Kind::frequency) << YAML::Key << "to" << YAML::Value << q(out.band_to, Kind::frequency)
+        << YAML::Key << "count" << YAML::Value << out.count << YAML::EndMap;
+    } else if (out.kind == Output::Kind::spectral_map) {
+      e << YAML::Key << "spectral-map" << YAML::Value << YAML::BeginMap;
+      e << YAML::Key << "name" << YAML::Value << out.name;
+      e << YAML::Key << "frequencies" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+      for (double f : out.frequencies) e << q(f, Kind::frequency);
+      e << YAML::EndSeq;
+      e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
+      e << YAML::Key << "stride" << YAML::Value << out.stride;
+      if (out.region.given) region(out.region);
     } else {
       e << YAML::Key << "probe" << YAML::Value << YAML::BeginMap;
       e << YAML::Key << "name" << YAML::Value << out.name;

@@ -1,6 +1,7 @@
 /// \file commands.h
 /// \brief The subcommands of the terayee program.
 #pragma once
+#include <cmath>
 #include <string>
 #include <vector>
 
@@ -28,6 +29,7 @@ struct MediumOptions {
   double from = 0, to = 0, angle = 0, thickness = 0, waist = 0, incidence_index = 1;
   double source_distance = 0, image_range = 0;  ///< line-source image behind a slab
   double line_distance = 0;  ///< where the beam-summed shift is seen: a line this far before the interface
+  std::string plot;          ///< also draw the table: FILE.png, .pdf or .svg
   int count = 101;
 };
 int medium_command(const MediumOptions& o);
@@ -44,6 +46,18 @@ struct ShiftOptions {
   double line = 0, interface = 0, angle = 0, frequency = 0;
 };
 int measure_shift(const ShiftOptions& o);
+struct RenderOptions {
+  std::string run, field, movie, out, map, quantity, plot, predicted, colours, format = "png";
+  double fps = 12, time = NAN, frequency = 0, percentile = 99.5;
+  std::vector<double> limits;  ///< LO HI, or empty for robust limits
+  bool rescale = false, show_absorber = false;
+  int size = 800, every = 1;
+};
+int render_command(const RenderOptions& o);
+/// `render --plot spectrum|probes|shift|focus` (render_plots.cpp).
+int render_plot(const RenderOptions& o, const std::string& out_dir);
+/// The layout file written beside a still: FILE.png -> FILE-layout.json.
+std::string plot_layout_path(const std::string& picture);
 int bench_command(int size, int threads, const std::string& precision, double seconds);
 
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench

@@ -1,5 +1,5 @@
 /// \file main.cpp
-/// \brief The terayee command line: run, check, bench. Exit status 0 success,
+/// \brief The terayee command line: run, check, medium, measure, render, bench. Exit status 0 success,
 /// 1 run-time failure, 2 bad input or usage.
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
@@ -69,6 +69,7 @@ int main(int argc, char** argv) {
   md->add_option("--source-distance", med_source,
                  "With --thickness: a line source this far before the slab; predict its image behind it");
   md->add_option("--image-range", med_range, "How far behind the slab to look for the image (default 6 wavelengths)");
+  md->add_option("--plot", med.plot, "Also draw the table: FILE.png, .pdf or .svg");
   md->add_option("--csv", med.csv, "Also write the table to this CSV file");
   md->add_option("--json", med.json, "Also write the results to this JSON file");
   md->add_option("--set", med.sets, "Override a scene value: key.path=value (repeatable)");
@@ -115,6 +116,36 @@ int main(int argc, char** argv) {
   msh->add_option("--frequency", sh_freq, "One of the map's frequencies (default: its first)");
   msh->add_option("--reversed", sh.reversed, "Run folder with the bias reversed")->check(CLI::ExistingDirectory);
   msh->add_option("--reversed-reference", sh.reversed_reference, "Its reference run")->check(CLI::ExistingDirectory);
+
+  ty::RenderOptions ro;
+  std::string ro_time, ro_freq;
+  std::vector<std::string> ro_limits;
+  auto* rd = app.add_subcommand("render", "Pictures of a run: field frames, movies, stills and plots");
+  rd->add_option("run", ro.run, "Run folder")->required()->check(CLI::ExistingDirectory);
+  rd->add_option("--field", ro.field,
+                 "Snapshot field (Ez, Hz, Lx, ..., or intensity: the recorded E components squared); with --map: "
+                 "a component, Sx, Sy, S or intensity (default)");
+  rd->add_option("--movie", ro.movie, "Write an H.264 movie (MP4) of the frames instead of PNG files");
+  rd->add_option("--fps", ro.fps, "Movie frame rate")->check(CLI::Range(0.1, 240.0));
+  rd->add_option("--every", ro.every, "Use every k-th frame")->check(CLI::PositiveNumber);
+  rd->add_option("--time", ro_time, "One still: the frame nearest this time, e.g. \"20 ps\"");
+  rd->add_option("--map", ro.map, "A still of this spectral map");
+  rd->add_option("--frequency", ro_freq, "The map's frequency (default: its first)");
+  rd->add_option("--quantity", ro.quantity, "With --map: intensity (|F|^2), abs or real")
+      ->check(CLI::IsMember({"intensity", "abs", "real"}));
+  rd->add_option("--limits", ro_limits, "Colour limits LO HI in the field's SI units (default: robust, fixed for the movie)")
+      ->expected(2);
+  rd->add_option("--percentile", ro.percentile, "Robust limits: this percentile of |field| over all frames");
+  rd->add_flag("--rescale", ro.rescale, "Scale the colours to each frame on its own");
+  rd->add_option("--colours", ro.colours, "diverging or sequential (default: by the field)")
+      ->check(CLI::IsMember({"diverging", "sequential"}));
+  rd->add_flag("--show-absorber", ro.show_absorber, "Show the absorbing layers (shaded) where recorded");
+  rd->add_option("--size", ro.size, "The field panel's longer side, px")->check(CLI::Range(100, 8000));
+  rd->add_option("--format", ro.format, "Stills and plots: png, pdf or svg");
+  rd->add_option("--out", ro.out, "Folder for the pictures (default RUN/pictures)");
+  rd->add_option("--plot", ro.plot, "A plot instead: spectrum, probes, shift or focus")
+      ->check(CLI::IsMember({"spectrum", "probes", "shift", "focus"}));
+  rd->add_option("--predicted", ro.predicted, "With --plot spectrum: a CSV written by `terayee medium --csv`");
 
   int size = 1024, threads = 0;
   double seconds = 0.5;
@@ -171,6 +202,18 @@ int main(int argc, char** argv) {
       med.line_distance = q(med_line, ty::Kind::length, "--line-distance");
       if (!(med.to >= med.from) || med.from <= 0) throw ty::BadInput("terayee medium: error: need 0 < --from <= --to");
       return ty::medium_command(med);
+    }
+    if (*rd) {
+      if (!ro_time.empty()) ro.time = quantity_option(ro_time, ty::Kind::time, "--time");
+      if (!ro_freq.empty()) ro.frequency = quantity_option(ro_freq, ty::Kind::frequency, "--frequency");
+      for (const auto& l : ro_limits) {
+        char* end = nullptr;
+        const double v = std::strtod(l.c_str(), &end);
+        if (l.empty() || *end != '\0' || !std::isfinite(v))
+          throw ty::BadInput(fmt::format("terayee render: error: --limits: '{}' is not a number (SI units of the field)", l));
+        ro.limits.push_back(v);
+      }
+      return ty::render_command(ro);
     }
     if (*b) return ty::bench_command(size, threads, precision, seconds);
   } catch (const ty::BadInput& e) {

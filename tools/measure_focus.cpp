@@ -4,7 +4,8 @@
 /// parabola through the neighbouring samples, the full widths at half maximum across and
 /// along the axis (linear interpolation of the half-maximum crossings), the peak relative
 /// to the incident beam's (with --reference, the reference run's peak in the same map),
-/// and the distance from a face (--face, a coordinate along the axis). Table, CSV, JSON.
+/// and the distance from a face (--face, a coordinate along the axis). Table, CSV, JSON,
+/// and focus-profiles.csv: the intensity through the peak across and along the axis.
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
@@ -115,6 +116,16 @@ int measure_focus(const std::string& run, const std::string& map, const std::str
     std::cout << fmt::format("  distance from the face at {:.6g} mm: {:.6g} um\n", face * 1e3, d * 1e6);
   }
   std::ofstream(run + "/focus.json") << j.dump(2) << "\n";
+  // the intensity through the peak, across and along the axis (for `terayee render --plot focus`)
+  std::ofstream prof(run + "/focus-profiles.csv");
+  prof << "direction,s_m,intensity\n";
+  for (int across = 1; across >= 0; --across) {
+    const bool use_row = (across == 1) == along_x ? false : true;  // a row runs along x
+    const auto& s = use_row ? m.x : m.y;
+    const auto& v = use_row ? row : col;
+    for (size_t q = 0; q < s.size(); ++q)
+      prof << fmt::format("{},{:.10g},{:.10g}\n", across ? "across" : "along", s[q], v[q]);
+  }
   std::ofstream csv(run + "/focus.csv");
   csv << "frequency_Hz,x_m,y_m,peak,fwhm_across_m,fwhm_along_m\n"
       << fmt::format("{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g}\n", m.f, px, py, peak, along_x ? wy : wx,

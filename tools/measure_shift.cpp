@@ -9,6 +9,7 @@
 /// in where the discrete interface lies (dx tan(theta)) plus the centroids' sampling.
 /// With --reversed RUN2 --reversed-reference REF2 (the same scene, bias reversed) it also
 /// gives the non-reciprocal part (the difference) and the reciprocal part (the mean).
+/// Writes RUN/shift.json and RUN/shift-profiles.csv (the beams' |E|^2 along the line).
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
@@ -72,6 +73,7 @@ Beam moments(const std::vector<double>& s, const std::vector<double>& I) {
 }
 
 struct Shift {
+  std::vector<double> s, incident_profile, reflected_profile;  // |E|^2 along the line
   Beam incident, reflected;
   double geometric = 0, shift = 0, uncertainty = 0;
 };
@@ -86,6 +88,7 @@ Shift measure(const std::string& run, const std::string& ref, const std::string&
       Ir[q] += std::norm(a.E[c][q] - r.E[c][q]);
     }
   Shift out;
+  out.s = a.s, out.incident_profile = Ii, out.reflected_profile = Ir;
   out.incident = moments(a.s, Ii);
   out.reflected = moments(a.s, Ir);
   // t = z x n: for a line y = const (normal y) t = -x; for x = const (normal x) t = +y
@@ -117,8 +120,9 @@ int measure_shift(const ShiftOptions& o) {
     return e;
   };
   j["run"] = report(s, "run");
+  Shift b;
   if (!o.reversed.empty()) {
-    const Shift b = measure(o.reversed, o.reversed_reference, o.map, line_is_y, o.line, o.interface, o.angle, o.frequency);
+    b = measure(o.reversed, o.reversed_reference, o.map, line_is_y, o.line, o.interface, o.angle, o.frequency);
     j["reversed"] = report(b, "bias reversed");
     const double u = std::hypot(s.uncertainty, b.uncertainty);
     j["non-reciprocal"] = s.shift - b.shift;
@@ -127,6 +131,17 @@ int measure_shift(const ShiftOptions& o) {
                              (s.shift - b.shift) * 1e6, 0.5 * (s.shift + b.shift) * 1e6, u * 1e6);
   }
   std::ofstream(o.run + "/shift.json") << j.dump(2) << "\n";
+  // the beams' intensity along the line (for `terayee render --plot shift`)
+  std::ofstream prof(o.run + "/shift-profiles.csv");
+  prof << "beam,s_m,intensity\n";
+  auto profile = [&](const Shift& x, const std::string& tag) {
+    for (size_t q = 0; q < x.s.size(); ++q)
+      prof << fmt::format("incident{},{:.10g},{:.10g}\n", tag, x.s[q], x.incident_profile[q]);
+    for (size_t q = 0; q < x.s.size(); ++q)
+      prof << fmt::format("reflected{},{:.10g},{:.10g}\n", tag, x.s[q], x.reflected_profile[q]);
+  };
+  profile(s, "");
+  if (!o.reversed.empty()) profile(b, "-reversed");
   return 0;
 }
 

@@ -18,6 +18,7 @@
 #include <fstream>
 #include <iostream>
 
+#include "io/plot.h"
 #include "io/scene_reader.h"
 #include "io/units.h"
 #include "materials/angular_spectrum.h"
@@ -97,6 +98,11 @@ int medium_command(const MediumOptions& o) {
   if (o.source_distance > 0 && o.thickness <= 0)
     throw BadInput("terayee medium: error: --source-distance needs --thickness (the slab the source faces)");
   nlohmann::json rows = nlohmann::json::array();
+  PlotSeries curves[7];
+  const char* curve_names[7] = {"Re μ_xx", "Re μ_yy", "Re μ_V (Ez wave)", "Im μ_xy", "|r|² at +angle", "|r|² at −angle",
+                                "T at +angle"};
+  for (int c = 0; c < 7; ++c) curves[c].label = curve_names[c];
+  curves[3].style = curves[5].style = PlotSeries::Style::dashed;
   for (int q = 0; q < o.count; ++q) {
     const double f = o.count == 1 ? o.from : o.from + (o.to - o.from) * q / (o.count - 1);
     const Mat3c mu = mu_at(s, f);
@@ -151,6 +157,47 @@ int medium_command(const MediumOptions& o) {
                       {"fwhm-across", img.fwhm_across}, {"fwhm-along", img.fwhm_along}};
     }
     rows.push_back(row);
+    if (!o.plot.empty()) {
+      const double vals[7] = {mu(0, 0).real(), mu(1, 1).real(), muv.real(), mu(0, 1).imag(),
+                              std::norm(rp.r[0][0]), std::norm(rm.r[0][0]), rp.T[0]};
+      for (int c = 0; c < 7; ++c) curves[c].x.push_back(f / 1e9), curves[c].y.push_back(vals[c]);
+    }
+  }
+  if (!o.plot.empty()) {
+    PlotPanel mu_panel, r_panel;
+    mu_panel.xlabel = r_panel.xlabel = "frequency (GHz)";
+    mu_panel.ylabel = "permeability";
+    r_panel.ylabel = fmt::format("power fraction ({})", o.thickness > 0 ? "slab" : "half-space");
+    mu_panel.series = {curves[0], curves[1], curves[2], curves[3]};
+    r_panel.series = {curves[4], curves[5], curves[6]};
+    // the Ez wave's negative band: where Re mu_V < 0 between neighbouring samples
+    const auto& v = curves[2];
+    for (size_t q = 0; q < v.y.size();) {
+      if (!(v.y[q] < 0)) { ++q; continue; }
+      size_t e = q;
+      while (e + 1 < v.y.size() && v.y[e + 1] < 0) ++e;
+      const double lo = q > 0 ? 0.5 * (v.x[q - 1] + v.x[q]) : v.x[q];
+      const double hi = e + 1 < v.y.size() ? 0.5 * (v.x[e] + v.x[e + 1]) : v.x[e];
+      mu_panel.shaded.push_back({lo, hi});
+      r_panel.shaded.push_back({lo, hi});
+      q = e + 1;
+    }
+    mu_panel.shaded_label = r_panel.shaded_label = "Re μ_V < 0";
+    // the permeability near a line spans decades: show the range that matters for the waves
+    double lo = 0, hi = 1;
+    for (int c = 0; c < 4; ++c)
+      for (double y : curves[c].y)
+        if (std::isfinite(y)) lo = std::min(lo, y), hi = std::max(hi, y);
+    lo = std::max(lo, -20.0), hi = std::min(hi, 20.0);
+    mu_panel.ymin = lo - 0.05 * (hi - lo), mu_panel.ymax = hi + 0.05 * (hi - lo);
+    r_panel.ymin = 0, r_panel.ymax = 1.05;
+    Plot plot;
+    plot.title = fmt::format("medium '{}', bias [{}, {}, {}] T, angle {:+.1f} deg", med.name, scene.bias[0],
+                             scene.bias[1], scene.bias[2], th * 180 / constants::pi);
+    plot.panels = {mu_panel, r_panel};
+    plot.height = 800;
+    write_plot(plot, o.plot);
+    std::cout << fmt::format("plot -> {} (data: {})\n", o.plot, plot_data_path(o.plot));
   }
   if (!o.json.empty()) std::ofstream(o.json) << nlohmann::json{{"medium", med.name}, {"rows", rows}}.dump(2) << "\n";
   return 0;

@@ -22,3 +22,9 @@ scene="$here/negative-refraction.yaml"
 echo
 echo "predicted by terayee medium (the same crystal's linear response, losses included):"
 tail -n 2 "$out/prediction.txt"
+
+# pictures: a movie of the field, the steady power flow |S| (the refracted beam) and the
+# steady wave's Re Ez (its phase fronts), in $out/pictures/
+"$ty" render "$out" --field Ez --movie "$out/pictures/Ez.mp4" --fps 20
+"$ty" render "$out" --map steady --field S
+"$ty" render "$out" --map steady --field Ez --quantity real

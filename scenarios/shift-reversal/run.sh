@@ -32,3 +32,11 @@ echo "predicted by terayee medium (the beam's angular spectrum through the trans
 p=$(grep -o '"beam-shift-plus": [-0-9.e]*' "$out/prediction-plus.json" | awk '{print $2 * 1e6}')
 m=$(grep -o '"beam-shift-plus": [-0-9.e]*' "$out/prediction-minus.json" | awk '{print $2 * 1e6}')
 awk -v p="$p" -v m="$m" 'BEGIN { printf "  +1 T: %.1f um, -1 T: %.1f um; non-reciprocal part %.1f um, reciprocal part %.1f um\n", p, m, p - m, (p + m) / 2 }'
+
+# pictures: a movie of the field and the steady intensity for each bias, and the incident
+# and the two reflected beams along the strip, in $out/plus/pictures/ and $out/minus/pictures/
+for b in plus minus; do
+  "$ty" render "$out/$b" --field Ez --movie "$out/$b/pictures/Ez.mp4" --fps 20
+  "$ty" render "$out/$b" --map steady
+done
+"$ty" render "$out/plus" --plot shift

@@ -21,3 +21,10 @@ scene="$here/slab-lens.yaml"
 echo
 echo "predicted by terayee medium (angular spectrum through the transfer matrix):"
 tail -n 1 "$out/prediction.txt"
+
+# pictures: a movie of the field, the steady intensity over the whole bench and behind the
+# plate (the focal spot), and the spot's profiles with their FWHM, in $out/pictures/
+"$ty" render "$out" --field Ez --movie "$out/pictures/Ez.mp4" --fps 20
+"$ty" render "$out" --map steady
+"$ty" render "$out" --map image
+"$ty" render "$out" --plot focus

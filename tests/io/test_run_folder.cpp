@@ -16,6 +16,7 @@
 
 #include "io/hdf5_file.h"
 #include "io/scene_reader.h"
+#include "io/scene_writer.h"
 
 #include "tests/helpers.h"
 
@@ -184,4 +185,52 @@ TEST_CASE("magnetic outputs: the Neel vector and magnetization in probes and sna
   CHECK(outside == 0.0);
   CHECK(inside > 0.0);
   fs::remove_all(dir);
+}
+
+TEST_CASE("the resolved scene keeps every magnet parameter (a run's scene.yaml reads back to the same crystal)") {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/mnf2-mirror.yaml";
+  // add a Dzyaloshinskii field and a second anisotropy term, so every key is exercised
+  const Scene a = read_scene(scene, {"media.mnf2.magnet.dzyaloshinskii=[0, 0.1 T, 0]",
+                                     "media.mnf2.magnet.anisotropy.0.axis=[0.6, 0, 0.8]"});
+  const Scene b = read_scene_text(resolved_scene_yaml(a), "resolved.yaml");
+  REQUIRE(b.media.at(0).magnet.has_value());
+  const Magnet &ma = *a.media.at(0).magnet, &mb = *b.media.at(0).magnet;
+  REQUIRE(mb.sublattices.size() == 2);
+  for (int k = 0; k < 2; ++k) {
+    CHECK(mb.sublattices[k].saturation == ma.sublattices[k].saturation);
+    CHECK(mb.sublattices[k].g == ma.sublattices[k].g);
+    CHECK(mb.sublattices[k].damping == ma.sublattices[k].damping);
+  }
+  CHECK(mb.lambda == ma.lambda);
+  REQUIRE(mb.anisotropy.size() == ma.anisotropy.size());
+  CHECK(mb.anisotropy[0].field == ma.anisotropy[0].field);
+  for (int c = 0; c < 3; ++c) {
+    CHECK(mb.anisotropy[0].axis[c] == doctest::Approx(ma.anisotropy[0].axis[c]).epsilon(1e-15));
+    CHECK(mb.dzyaloshinskii[c] == ma.dzyaloshinskii[c]);
+    CHECK(mb.order[c] == doctest::Approx(ma.order[c]).epsilon(1e-15));
+  }
+  CHECK(mb.dzyaloshinskii[1] == doctest::Approx(0.1));
+}
+
+TEST_CASE("the resolved scene keeps flux lines and spectral maps (a run's scene.yaml reads back to the same outputs)") {
+  for (const char* file : {"/tests/data/mnf2-slab.yaml", "/scenarios/slab-lens/slab-lens.yaml"}) {
+    const Scene a = read_scene(std::string(TERAYEE_SOURCE_DIR) + file);
+    const Scene b = read_scene_text(resolved_scene_yaml(a), "resolved.yaml");
+    REQUIRE(b.outputs.size() == a.outputs.size());
+    for (size_t k = 0; k < a.outputs.size(); ++k) {
+      const Output &x = a.outputs[k], &y = b.outputs[k];
+      CHECK(y.kind == x.kind);
+      CHECK(y.name == x.name);
+      CHECK(y.fields == x.fields);
+      CHECK(y.from.x == doctest::Approx(x.from.x).epsilon(1e-12));
+      CHECK(y.to.y == doctest::Approx(x.to.y).epsilon(1e-12));
+      CHECK(y.band_from == x.band_from);
+      CHECK(y.band_to == x.band_to);
+      CHECK(y.count == x.count);
+      CHECK(y.frequencies == x.frequencies);
+      CHECK(y.region.given == x.region.given);
+      CHECK(y.region.centre.y == doctest::Approx(x.region.centre.y).epsilon(1e-12));
+      CHECK(y.region.size.x == doctest::Approx(x.region.size.x).epsilon(1e-12));
+    }
+  }
 }

@@ -106,6 +106,21 @@ TEST_CASE("measure spectrum: an MnF2 slab's R and T match medium's transfer matr
   CHECK(swing > 0.3);  // the band really holds the lines
   CHECK(worst_r < 0.02);
   CHECK(worst_t < 0.02);
+
+  // the plot of both: measured R and T with the transfer matrix's beside them, the data file
+  // holding the measured R as written by measure and the predicted R as |r|^2 of medium's table
+  REQUIRE(shell(bin + " render '" + run.string() + "' --plot spectrum --predicted '" + csv.string() + "'") == 0);
+  const fs::path plot = run / "pictures" / "spectrum.png";
+  CHECK(fs::file_size(plot) > 5000);
+  const auto data = rows(run / "pictures" / "spectrum.csv");
+  size_t measured = 0, predicted = 0;
+  for (const auto& d : data) {
+    if (d[1] == "R measured") CHECK(std::stod(d[3]) == doctest::Approx(std::stod(sim[measured++][1])).epsilon(1e-8));
+    if (d[1] == "R transfer matrix")
+      CHECK(std::stod(d[3]) == doctest::Approx(std::pow(std::stod(tm[predicted++][13]), 2)).epsilon(1e-8));
+  }
+  CHECK(measured == 91);
+  CHECK(predicted == 91);
   fs::remove_all(run);
   fs::remove_all(ref);
   fs::remove(csv);

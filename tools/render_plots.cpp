@@ -1,0 +1,296 @@
+/// \file render_plots.cpp
+/// \brief `terayee render RUN --plot spectrum|probes|shift|focus`: line plots of what the
+/// run recorded and of what `terayee measure` wrote into the run folder:
+///   spectrum  R, T and A against frequency (spectrum.csv), beside the transfer-matrix R and T
+///             of `terayee medium --csv` (--predicted), with the bands where the Ez wave's
+///             effective permeability of the scene's magnetic media is negative shaded;
+///   probes    each probe's recorded fields against time (one panel a field);
+///   shift     the incident and reflected beams' intensity along the line (shift-profiles.csv),
+///             with the geometric reflection point and the measured centroids marked;
+///   focus     the intensity through the focal spot across and along the axis, FWHM marked.
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <iostream>
+#include <map>
+#include <sstream>
+
+#include "io/diagnostics.h"
+#include "io/hdf5_file.h"
+#include "io/plot.h"
+#include "io/units.h"
+#include "io/scene_reader.h"
+#include "materials/ground_state.h"
+#include "materials/linear_response.h"
+#include "materials/magnet.h"
+#include "tools/commands.h"
+
+namespace fs = std::filesystem;
+
+namespace ty {
+namespace {
+
+/// A CSV file by columns: numeric columns in `num`, text columns in `text`.
+struct Table {
+  std::map<std::string, std::vector<double>> num;
+  std::map<std::string, std::vector<std::string>> text;
+  size_t rows = 0;
+  const std::vector<double>& col(const std::string& name, const std::string& file) const {
+    auto it = num.find(name);
+    if (it == num.end()) throw BadInput(fmt::format("{}: error: no column '{}'", file, name));
+    return it->second;
+  }
+};
+
+Table read_table(const std::string& file, const std::string& made_by) {
+  std::ifstream in(file);
+  if (!in) throw BadInput(fmt::format("{}: error: not found; {} writes it", file, made_by));
+  std::string line;
+  std::getline(in, line);
+  std::vector<std::string> names;
+  for (std::stringstream ss(line); std::getline(ss, line, ',');) names.push_back(line);
+  Table t;
+  while (std::getline(in, line)) {
+    if (line.empty()) continue;
+    std::stringstream ss(line);
+    std::string cell;
+    for (size_t c = 0; c < names.size() && std::getline(ss, cell, ','); ++c) {
+      char* end = nullptr;
+      const double v = std::strtod(cell.c_str(), &end);
+      if (end != cell.c_str() && *end == '\0') t.num[names[c]].push_back(v);
+      else if (cell == "nan" || cell == "-nan") t.num[names[c]].push_back(NAN);
+      else t.text[names[c]].push_back(cell);
+    }
+    ++t.rows;
+  }
+  return t;
+}
+
+nlohmann::json read_json_file(const std::string& file, const std::string& made_by) {
+  std::ifstream in(file);
+  if (!in) throw BadInput(fmt::format("{}: error: not found; {} writes it", file, made_by));
+  return nlohmann::json::parse(in);
+}
+
+std::vector<double> scaled(const std::vector<double>& v, double f) {
+  std::vector<double> out(v);
+  for (double& x : out) x *= f;
+  return out;
+}
+
+/// Bands (GHz) where Re mu_V of any magnetic medium of the scene is negative, within [f0, f1].
+std::vector<std::pair<double, double>> negative_mu_bands(const Scene& s, double f0, double f1, int normal) {
+  std::vector<std::pair<double, double>> out;
+  for (const Medium& med : s.media) {
+    if (!med.magnet) continue;
+    const MagnetModel M(*med.magnet, s.bias);
+    const GroundStates gs = find_ground_states(M);
+    auto muv = [&](double f) {
+      const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * f);
+      return voigt_permeability(mu, normal).real();
+    };
+    for (const Band& b : negative_bands(muv, f0, f1, 4000)) out.push_back({b.from / 1e9, b.to / 1e9});
+  }
+  return out;
+}
+
+std::string picture(const std::string& dir, const std::string& stem, const RenderOptions& o) {
+  fs::create_directories(dir);
+  return (fs::path(dir) / (stem + "." + o.format)).string();
+}
+
+void done(const std::string& path) {
+  std::cout << fmt::format("plot -> {} (data: {})\n", path, plot_data_path(path));
+}
+
+int plot_spectrum(const RenderOptions& o, const std::string& dir) {
+  const std::string file = o.run + "/spectrum.csv";
+  const Table t = read_table(file, "`terayee measure spectrum RUN --reference REF`");
+  const auto f = scaled(t.col("frequency_Hz", file), 1e-9);
+  PlotPanel p;
+  p.xlabel = "frequency (GHz)";
+  p.ylabel = "fraction of the incident power";
+  const std::pair<const char*, const char*> cols[3] = {
+      {"reflectance", "R measured"}, {"transmittance", "T measured"}, {"absorptance", "A measured"}};
+  for (int c = 0; c < 3; ++c)
+    if (t.num.count(cols[c].first)) p.series.push_back({cols[c].second, f, t.num.at(cols[c].first), PlotSeries::Style::line, c});
+  if (!o.predicted.empty()) {
+    const Table m = read_table(o.predicted, "`terayee medium ... --csv`");
+    const auto fm = scaled(m.col("frequency_Hz", o.predicted), 1e-9);
+    std::vector<double> R = m.col("r_plus_abs", o.predicted);
+    for (double& r : R) r *= r;
+    p.series.push_back({"R transfer matrix", fm, R, PlotSeries::Style::dashed, 0});
+    p.series.push_back({"T transfer matrix", fm, m.col("T_plus", o.predicted), PlotSeries::Style::dashed, 1});
+  }
+  const Scene s = read_scene(o.run + "/scene.yaml");
+  int normal = 0;  // the flux lines' normal (x unless a line says y)
+  const h5::File h = h5::File::open(o.run + "/fields.h5");
+  if (h.exists("/flux"))
+    for (const auto& name : h.members("/flux")) {
+      const auto n = h.read("/flux/" + name + "/normal");
+      if (n.size() == 2 && std::abs(n[1]) > std::abs(n[0])) normal = 1;
+    }
+  if (!f.empty()) p.shaded = negative_mu_bands(s, f.front() * 1e9, f.back() * 1e9, normal);
+  p.shaded_label = "Re μ_V < 0 (Ez wave)";
+  p.ymin = std::min(0.0, -0.02);
+  p.ymax = 1.05;
+  Plot plot;
+  plot.title = s.title + ": spectrum";
+  plot.panels = {p};
+  const std::string path = picture(dir, "spectrum", o);
+  write_plot(plot, path);
+  done(path);
+  return 0;
+}
+
+int plot_probes(const RenderOptions& o, const std::string& dir) {
+  const std::string file = o.run + "/fields.h5";
+  const h5::File h = h5::File::open(file);
+  if (!h.exists("/probes")) throw BadInput(fmt::format("{}: error: the run recorded no probes", file));
+  const Scene s = read_scene(o.run + "/scene.yaml");
+  for (const auto& name : h.members("/probes")) {
+    const std::string base = "/probes/" + name;
+    const auto t = scaled(h.read(base + "/time"), 1e12);
+    const auto at = h.read(base + "/at");
+    Plot plot;
+    plot.title = fmt::format("{}: probe '{}' at ({:.4g}, {:.4g}) mm", s.title, name, at[0] * 1e3, at[1] * 1e3);
+    for (const auto& field : h.members(base)) {
+      if (field == "time" || field == "at") continue;
+      PlotPanel p;
+      p.xlabel = "time (ps)";
+      p.ylabel = fmt::format("{} ({})", field, h.read_attribute(base + "/" + field, "units"));
+      p.series.push_back({field, t, h.read(base + "/" + field), PlotSeries::Style::line, static_cast<int>(plot.panels.size())});
+      plot.panels.push_back(p);
+    }
+    if (plot.panels.empty()) continue;
+    plot.height = std::max(600, 260 * static_cast<int>(plot.panels.size()));
+    const std::string path = picture(dir, "probe-" + name, o);
+    write_plot(plot, path);
+    done(path);
+  }
+  return 0;
+}
+
+int plot_shift(const RenderOptions& o, const std::string& dir) {
+  const nlohmann::json j = read_json_file(o.run + "/shift.json", "`terayee measure shift`");
+  const std::string file = o.run + "/shift-profiles.csv";
+  const Table t = read_table(file, "`terayee measure shift`");
+  const auto& beams = t.text.at("beam");
+  const auto& sv = t.col("s_m", file);
+  const auto& iv = t.col("intensity", file);
+  std::map<std::string, PlotSeries> series;
+  std::map<std::string, double> peak;
+  for (size_t q = 0; q < beams.size(); ++q) {
+    series[beams[q]].x.push_back(sv[q] * 1e3);
+    series[beams[q]].y.push_back(iv[q]);
+    peak[beams[q]] = std::max(peak[beams[q]], iv[q]);
+  }
+  PlotPanel p;
+  p.xlabel = "position along the line (mm)";
+  p.ylabel = "|E|² / its peak";
+  const bool reversed = j.contains("reversed");
+  const std::pair<const char*, const char*> names[3] = {{"incident", "incident (reference run)"},
+                                                        {"reflected", reversed ? "reflected, bias +" : "reflected"},
+                                                        {"reflected-reversed", "reflected, bias reversed"}};
+  int colour = 0;
+  for (auto [key, label] : names) {
+    if (!series.count(key)) continue;
+    PlotSeries s = series[key];
+    for (double& y : s.y) y /= std::max(peak[key], 1e-300);
+    s.label = label;
+    s.colour = colour++;
+    s.style = std::string(key) == "incident" ? PlotSeries::Style::dashed : PlotSeries::Style::line;
+    p.series.push_back(s);
+  }
+  p.marks.push_back(j["run"]["geometric"].get<double>() * 1e3);
+  p.marks.push_back(j["run"]["reflected-centroid"].get<double>() * 1e3);
+  if (reversed) p.marks.push_back(j["reversed"]["reflected-centroid"].get<double>() * 1e3);
+  std::string title = fmt::format("lateral shift {:.1f} ± {:.1f} µm", j["run"]["shift"].get<double>() * 1e6,
+                                  j["run"]["uncertainty"].get<double>() * 1e6);
+  if (reversed)
+    title = fmt::format("shifts {:.1f} µm (+), {:.1f} µm (reversed); non-reciprocal part {:.1f} µm",
+                        j["run"]["shift"].get<double>() * 1e6, j["reversed"]["shift"].get<double>() * 1e6,
+                        j["non-reciprocal"].get<double>() * 1e6);
+  p.title = title;
+  p.ymin = 0;
+  p.ymax = 1.1;
+  // below: the reflected beams' tops, around the geometric point, where the shift shows
+  PlotPanel zoom = p;
+  zoom.title = "near the geometric reflection point (dotted), and the reflected centroids (dotted)";
+  const double w = j["run"]["reflected-width"].get<double>() * 1e3;
+  zoom.xmin = p.marks[0] - 0.25 * w, zoom.xmax = p.marks[0] + 0.25 * w;
+  zoom.ymin = zoom.ymax = NAN;
+  std::erase_if(zoom.series, [](const PlotSeries& s) { return s.label.rfind("incident", 0) == 0; });  // elsewhere
+  for (auto& s : zoom.series) {  // only the points inside the window
+    PlotSeries in = s;
+    in.x.clear(), in.y.clear();
+    for (size_t q = 0; q < s.x.size(); ++q)
+      if (s.x[q] >= zoom.xmin && s.x[q] <= zoom.xmax) in.x.push_back(s.x[q]), in.y.push_back(s.y[q]);
+    s = in;
+  }
+  Plot plot;
+  plot.panels = {p, zoom};
+  plot.height = 850;
+  const std::string path = picture(dir, "shift", o);
+  write_plot(plot, path);
+  done(path);
+  return 0;
+}
+
+int plot_focus(const RenderOptions& o, const std::string& dir) {
+  const nlohmann::json j = read_json_file(o.run + "/focus.json", "`terayee measure focus`");
+  const std::string file = o.run + "/focus-profiles.csv";
+  const Table t = read_table(file, "`terayee measure focus`");
+  const auto& dirs = t.text.at("direction");
+  const auto& sv = t.col("s_m", file);
+  const auto& iv = t.col("intensity", file);
+  const double peak = j["peak-intensity"].get<double>();
+  // which coordinate each profile runs along: across/along the axis of focus.json
+  const auto pos = j["peak-position"];
+  Plot plot;
+  plot.title = fmt::format("focal spot at ({:.4g}, {:.4g}) mm, {:.6g} GHz", pos[0].get<double>() * 1e3,
+                           pos[1].get<double>() * 1e3, j["frequency"].get<double>() / 1e9);
+  for (const char* which : {"across", "along"}) {
+    PlotPanel p;
+    PlotSeries s;
+    s.label = fmt::format("|E|² {} the axis", which);
+    for (size_t q = 0; q < dirs.size(); ++q)
+      if (dirs[q] == which) s.x.push_back(sv[q] * 1e3), s.y.push_back(iv[q] / peak);
+    if (s.x.empty()) continue;
+    size_t k = 0;
+    for (size_t q = 0; q < s.y.size(); ++q)
+      if (s.y[q] > s.y[k]) k = q;
+    const double w = j[fmt::format("fwhm-{}-axis", which)].is_number() ? j[fmt::format("fwhm-{}-axis", which)].get<double>() : NAN;
+    p.xlabel = fmt::format("position {} the axis (mm)", which);
+    p.ylabel = "|E|² / peak";
+    if (std::isfinite(w)) {
+      p.marks = {s.x[k] - 0.5 * w * 1e3, s.x[k] + 0.5 * w * 1e3};
+      p.title = fmt::format("FWHM {} the axis {:.1f} µm (dotted)", which, w * 1e6);
+    }
+    p.series.push_back(s);
+    p.series.push_back({"half maximum", {s.x.front(), s.x.back()}, {0.5, 0.5}, PlotSeries::Style::dashed, 6});
+    p.ymin = 0;
+    p.ymax = 1.1;
+    plot.panels.push_back(p);
+  }
+  plot.height = 800;
+  const std::string path = picture(dir, "focus", o);
+  write_plot(plot, path);
+  done(path);
+  return 0;
+}
+
+}  // namespace
+
+int render_plot(const RenderOptions& o, const std::string& out_dir) {
+  if (o.plot == "spectrum") return plot_spectrum(o, out_dir);
+  if (o.plot == "probes") return plot_probes(o, out_dir);
+  if (o.plot == "shift") return plot_shift(o, out_dir);
+  if (o.plot == "focus") return plot_focus(o, out_dir);
+  throw BadInput(fmt::format("terayee render: error: no plot '{}'", o.plot));
+}
+
+}  // namespace ty
