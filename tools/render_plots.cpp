@@ -75,6 +75,25 @@ nlohmann::json read_json_file(const std::string& file, const std::string& made_b
   return nlohmann::json::parse(in);
 }
 
+/// What `terayee measure KIND` wrote: KIND.json and KIND-profiles.csv (tag, s_m, intensity).
+struct Profiles {
+  nlohmann::json summary;
+  std::vector<std::string> tag;
+  std::vector<double> s, intensity;
+};
+
+Profiles read_profiles(const std::string& run, const std::string& kind, const std::string& tag_column) {
+  const std::string made_by = "`terayee measure " + kind + "`", file = run + "/" + kind + "-profiles.csv";
+  Profiles p;
+  p.summary = read_json_file(run + "/" + kind + ".json", made_by);
+  const Table t = read_table(file, made_by);
+  if (!t.text.count(tag_column)) throw BadInput(fmt::format("{}: error: no column '{}'", file, tag_column));
+  p.tag = t.text.at(tag_column);
+  p.s = t.col("s_m", file);
+  p.intensity = t.col("intensity", file);
+  return p;
+}
+
 std::vector<double> scaled(const std::vector<double>& v, double f) {
   std::vector<double> out(v);
   for (double& x : out) x *= f;
@@ -175,12 +194,10 @@ int plot_probes(const RenderOptions& o, const std::string& dir) {
 }
 
 int plot_shift(const RenderOptions& o, const std::string& dir) {
-  const nlohmann::json j = read_json_file(o.run + "/shift.json", "`terayee measure shift`");
-  const std::string file = o.run + "/shift-profiles.csv";
-  const Table t = read_table(file, "`terayee measure shift`");
-  const auto& beams = t.text.at("beam");
-  const auto& sv = t.col("s_m", file);
-  const auto& iv = t.col("intensity", file);
+  const Profiles pr = read_profiles(o.run, "shift", "beam");
+  const nlohmann::json& j = pr.summary;
+  const auto& beams = pr.tag;
+  const auto &sv = pr.s, &iv = pr.intensity;
   std::map<std::string, PlotSeries> series;
   std::map<std::string, double> peak;
   for (size_t q = 0; q < beams.size(); ++q) {
@@ -241,12 +258,10 @@ int plot_shift(const RenderOptions& o, const std::string& dir) {
 }
 
 int plot_focus(const RenderOptions& o, const std::string& dir) {
-  const nlohmann::json j = read_json_file(o.run + "/focus.json", "`terayee measure focus`");
-  const std::string file = o.run + "/focus-profiles.csv";
-  const Table t = read_table(file, "`terayee measure focus`");
-  const auto& dirs = t.text.at("direction");
-  const auto& sv = t.col("s_m", file);
-  const auto& iv = t.col("intensity", file);
+  const Profiles pr = read_profiles(o.run, "focus", "direction");
+  const nlohmann::json& j = pr.summary;
+  const auto& dirs = pr.tag;
+  const auto &sv = pr.s, &iv = pr.intensity;
   const double peak = j["peak-intensity"].get<double>();
   // which coordinate each profile runs along: across/along the axis of focus.json
   const auto pos = j["peak-position"];

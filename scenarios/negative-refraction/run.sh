@@ -3,15 +3,10 @@
 # plate, and print it beside what `terayee medium` predicts for the same crystal.
 #   scenarios/negative-refraction/run.sh [--fine] [OUT]     (default OUT: runs/negative-refraction)
 # --fine: 12.5 um cells and 6 ns, the overnight-class setting (about 15 minutes on 2 cores).
-set -euo pipefail
-here="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
-root="$(cd "$here/../.." && pwd)"
-ty="$root/build/terayee"
-[ -x "$ty" ] || { echo "build terayee first: $root/tools/setup.sh" >&2; exit 1; }
+study=negative-refraction
+. "$(dirname "${BASH_SOURCE[0]}")/../study-setup.sh" "$@"
 sets=()
-if [ "${1:-}" = "--fine" ]; then sets=(--set "grid.cell=12.5 um" --set "time.stop=6 ns"); shift; fi
-out="${1:-$root/runs/negative-refraction}"
-scene="$here/negative-refraction.yaml"
+$fine && sets=(--set "grid.cell=12.5 um" --set "time.stop=6 ns")
 
 "$ty" run "$scene" -o "$out" "${sets[@]}"
 "$ty" medium "$scene" --medium mnf2 --from "262.5 GHz" --to "262.5 GHz" --count 1 --angle "30 deg" \

@@ -4,15 +4,10 @@
 # reciprocal (mean) parts, and beside them what `terayee medium` predicts for that beam.
 #   scenarios/shift-reversal/run.sh [--fine] [OUT]     (default OUT: runs/shift-reversal)
 # --fine: 12.5 um cells (about 15 minutes on 2 cores).
-set -euo pipefail
-here="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
-root="$(cd "$here/../.." && pwd)"
-ty="$root/build/terayee"
-[ -x "$ty" ] || { echo "build terayee first: $root/tools/setup.sh" >&2; exit 1; }
+study=shift-reversal
+. "$(dirname "${BASH_SOURCE[0]}")/../study-setup.sh" "$@"
 sets=()
-if [ "${1:-}" = "--fine" ]; then sets=(--set "grid.cell=12.5 um"); shift; fi
-out="${1:-$root/runs/shift-reversal}"
-scene="$here/shift-reversal.yaml"
+$fine && sets=(--set "grid.cell=12.5 um")
 reversed=(--set "bias=[0, 0, -1 T]")
 
 "$ty" run "$scene" -o "$out/plus" "${sets[@]}"

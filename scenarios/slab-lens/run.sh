@@ -3,15 +3,10 @@
 # the prediction from the source's angular spectrum through the plate's transfer matrix.
 #   scenarios/slab-lens/run.sh [--fine] [OUT]     (default OUT: runs/slab-lens)
 # --fine: 12.5 um cells, to see the focus and spot converge (about 10 minutes on 2 cores).
-set -euo pipefail
-here="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
-root="$(cd "$here/../.." && pwd)"
-ty="$root/build/terayee"
-[ -x "$ty" ] || { echo "build terayee first: $root/tools/setup.sh" >&2; exit 1; }
+study=slab-lens
+. "$(dirname "${BASH_SOURCE[0]}")/../study-setup.sh" "$@"
 sets=()
-if [ "${1:-}" = "--fine" ]; then sets=(--set "grid.cell=12.5 um"); shift; fi
-out="${1:-$root/runs/slab-lens}"
-scene="$here/slab-lens.yaml"
+$fine && sets=(--set "grid.cell=12.5 um")
 
 "$ty" run "$scene" -o "$out" "${sets[@]}"
 "$ty" medium "$scene" --medium mnf2 --from "262.5 GHz" --to "262.5 GHz" --count 1 --thickness "3 mm" \

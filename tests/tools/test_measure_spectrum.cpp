@@ -21,17 +21,25 @@ namespace {
 
 using ty::test::shell;
 
-}  // namespace
-
-TEST_CASE("measure spectrum: a dielectric slab's T and R follow the Airy formula") {
-  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/slab-airy.yaml";
-  const fs::path run = fs::temp_directory_path() / "terayee-test-slab", ref = fs::temp_directory_path() / "terayee-test-slab-ref";
+namespace {
+/// The scene, its reference run, and `measure spectrum` over the two.
+void run_with_reference(const std::string& scene, const fs::path& run, const fs::path& ref) {
   fs::remove_all(run);
   fs::remove_all(ref);
   const std::string bin = TERAYEE_BINARY;
   REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet") == 0);
   REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference --quiet") == 0);
   REQUIRE(shell(bin + " measure spectrum '" + run.string() + "' --reference '" + ref.string() + "'") == 0);
+}
+}  // namespace
+
+}  // namespace
+
+TEST_CASE("measure spectrum: a dielectric slab's T and R follow the Airy formula") {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/slab-airy.yaml";
+  const fs::path run = fs::temp_directory_path() / "terayee-test-slab", ref = fs::temp_directory_path() / "terayee-test-slab-ref";
+  const std::string bin = TERAYEE_BINARY;
+  run_with_reference(scene, run, ref);
   std::ifstream csv(run / "spectrum.csv");
   std::string line;
   std::getline(csv, line);
@@ -69,12 +77,8 @@ TEST_CASE("measure spectrum: an MnF2 slab's R and T match medium's transfer matr
   const fs::path run = fs::temp_directory_path() / "terayee-test-mnf2-slab",
                  ref = fs::temp_directory_path() / "terayee-test-mnf2-slab-ref",
                  csv = fs::temp_directory_path() / "terayee-test-mnf2-slab.csv";
-  fs::remove_all(run);
-  fs::remove_all(ref);
   const std::string bin = TERAYEE_BINARY;
-  REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet") == 0);
-  REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference --quiet") == 0);
-  REQUIRE(shell(bin + " measure spectrum '" + run.string() + "' --reference '" + ref.string() + "'") == 0);
+  run_with_reference(scene, run, ref);
   REQUIRE(shell(bin + " medium '" + scene + "' --medium mnf2 --from '240 GHz' --to '285 GHz' --count 91 --thickness "
                       "'200 um' --normal x --csv '" + csv.string() + "'") == 0);
   auto rows = [](const fs::path& p) {
