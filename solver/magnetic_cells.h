@@ -72,6 +72,24 @@ struct MagneticCells {
 
   long count() const { return static_cast<long>(ci.size()); }
   bool empty() const { return ci.empty(); }
+
+  /// The largest angle (rad) between a sublattice and its ground-state direction over the
+  /// cells inside (absorber = true) or outside the absorbing layers (npx, npy cells a side of
+  /// an nx x ny grid): growth inside them alone is the PML amplifying a backward wave.
+  double largest_tilt(bool absorber, int nx, int ny, int npx, int npy) const {
+    double worst = 0;
+    for (size_t k = 0; k < ci.size(); ++k) {
+      const bool in = ci[k] < npx || ci[k] >= nx - npx || cj[k] < npy || cj[k] >= ny - npy;
+      if (in != absorber) continue;
+      const MagneticState& g = ground[medium[k]];
+      for (int s = 0; s < 2; ++s) {
+        const Vec3 now(m[latest][3 * s][k], m[latest][3 * s + 1][k], m[latest][3 * s + 2][k]);
+        if (now.squaredNorm() == 0) continue;  // one sublattice
+        worst = std::max(worst, std::atan2(now.cross(g.m[s]).norm(), now.dot(g.m[s])));
+      }
+    }
+    return worst;
+  }
 };
 
 }  // namespace ty

@@ -74,11 +74,18 @@ void Simulation<R>::build_magnets() {
   // depth, in kLevels steps): a PML can amplify backward waves, which a hyperbolic or
   // negative-permeability medium carries (Becache, Fauqueux & Joly, J. Comput. Phys. 188,
   // 399 (2003)). Measured in the negative-refraction study (a hyperbolic medium through the
-  // side absorbers): without the ramp the absorber's cells tilted to 2e-3 by 2 ns and 0.07 rad
-  // by 4 ns; with a ramp to 0.002 still to 0.25 rad by 6 ns; to 0.005 no cell passes 3e-5 over
-  // 6 ns. The ramp reflects a little near a line (where the damping changes mu most): 0.0034
-  // in R off the band in the 32-cell absorber of the half-space test, 0.006 in a 16-cell one
-  // at 50 cells per wavelength (0.0007 without the ramp).
+  // side absorbers, 25 um cells): without the ramp the absorber's cells tilted to 2e-3 by
+  // 2 ns and 0.07 rad by 4 ns; with a ramp to 0.002 still to 0.25 rad by 6 ns; to 0.005 no
+  // cell passes 3e-5 over 6 ns. The growth follows the PML's conductivity (sigma_max, which
+  // scales as strength / cell): in the slab-lens study at 12.5 um cells 0.005 let the
+  // absorber's cells grow (16 cells: 1% of the cell-steps past 1e-4 rad by 4 ns; 32 cells:
+  // 1e-4 rad by 1.6 ns) at full strength, and stay at 1e-6 with 32 cells at half strength
+  // (the default's absorber, metre for metre). Raising
+  // the damping with sigma_max instead was tried: it reflects more (0.0084 off the band in the
+  // half-space test at 10 um cells, against 0.0034), so runs warn instead (run_command.cpp).
+  // The ramp reflects a little near a line (where the damping changes mu most): 0.0034 in R
+  // off the band in the 32-cell absorber of the half-space test, 0.006 in a 16-cell one at
+  // 50 cells per wavelength (0.0007 without the ramp).
   constexpr int kLevels = 8;
   constexpr double kAbsorberDamping = 0.005;
   auto level = [&](int i, int j) {  // how deep in the absorber, 0 (outside) .. kLevels

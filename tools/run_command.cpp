@@ -147,7 +147,20 @@ int run_with(const Scene& scene, const RunOptions& o) {
   if (!sim.magnets().empty()) {
     const double cell_steps = static_cast<double>(sim.magnets().count()) * static_cast<double>(N - first);
     const double tilted = cell_steps > 0 ? sim.midpoint_cell_steps() / cell_steps : 0.0;
-    s["magnetic-cells"] = {{"count", sim.magnets().count()}, {"midpoint-fraction", tilted}};
+    const double tilt_in = sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y);
+    const double tilt_out = sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y);
+    s["magnetic-cells"] = {{"count", sim.magnets().count()}, {"midpoint-fraction", tilted},
+                           {"largest-tilt-rad", tilt_out}, {"largest-tilt-in-absorber-rad", tilt_in}};
+    if (tilt_in > 1e-4 && tilt_in > 3 * tilt_out) {  // the studies at their defaults: below 1.2e-5 and below the rest
+      const std::string w = fmt::format(
+          "the magnetic cells inside the absorbing layers tilted to {:.3g} rad, {:.0f} times more than anywhere "
+          "else: the absorber is amplifying a backward wave (docs/magnets.md); give it a lower "
+          "conductivity, e.g. twice the cells at half the strength (grid.absorber), and check the results",
+          tilt_in, tilt_in / std::max(tilt_out, 1e-300));
+      log.warn(w);
+      warnings.push_back(w);
+      s["warnings"] = warnings;
+    }
     if (tilted > 0.01)
       log.info(fmt::format("{:.1f}% of the magnetic cell-steps were tilted past {:g} rad and took the midpoint rule, "
                            "several times slower than the small-signal step; a linear study can use a smaller "
