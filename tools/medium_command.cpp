@@ -170,17 +170,11 @@ int medium_command(const MediumOptions& o) {
     r_panel.ylabel = fmt::format("power fraction ({})", o.thickness > 0 ? "slab" : "half-space");
     mu_panel.series = {curves[0], curves[1], curves[2], curves[3]};
     r_panel.series = {curves[4], curves[5], curves[6]};
-    // the Ez wave's negative band: where Re mu_V < 0 between neighbouring samples
-    const auto& v = curves[2];
-    for (size_t q = 0; q < v.y.size();) {
-      if (!(v.y[q] < 0)) { ++q; continue; }
-      size_t e = q;
-      while (e + 1 < v.y.size() && v.y[e + 1] < 0) ++e;
-      const double lo = q > 0 ? 0.5 * (v.x[q - 1] + v.x[q]) : v.x[q];
-      const double hi = e + 1 < v.y.size() ? 0.5 * (v.x[e] + v.x[e + 1]) : v.x[e];
-      mu_panel.shaded.push_back({lo, hi});
-      r_panel.shaded.push_back({lo, hi});
-      q = e + 1;
+    // the Ez wave's negative bands, edges refined by bisection (linear_response.h)
+    const auto re_muv = [&](double f) { return voigt_permeability(mu_at(s, f), nn).real(); };
+    for (const Band& b : negative_bands(re_muv, o.from, o.to, 4000)) {
+      mu_panel.shaded.push_back({b.from / 1e9, b.to / 1e9});
+      r_panel.shaded.push_back({b.from / 1e9, b.to / 1e9});
     }
     mu_panel.shaded_label = r_panel.shaded_label = "Re μ_V < 0";
     // the permeability near a line spans decades: show the range that matters for the waves
