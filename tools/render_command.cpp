@@ -153,14 +153,13 @@ void write_layout(const std::string& path, const FramePainter& p, const FrameSty
 int render_snapshots(const RenderOptions& o, const std::string& out_dir) {
   const std::string file = o.run + "/fields.h5";
   const h5::File h = h5::File::open(file);
+  if (!h.exists("/snapshots/time")) throw BadInput(fmt::format("{}: error: the run recorded no snapshots", file));
   std::string field = o.field;
-  if (field.empty()) {  // the first recorded field
-    for (const char* c : {"Ez", "Hz", "Ex", "Ey", "Hx", "Hy"})
-      if (h.exists(std::string("/snapshots/") + c)) {
-        field = c;
-        break;
-      }
-    if (field.empty()) throw BadInput(fmt::format("{}: error: name the field with --field", file));
+  if (field.empty()) {  // a wave field if one was recorded, else the first one listed
+    for (const auto& name : h.members("/snapshots"))
+      if (name != "time" && (field.empty() || (is_component(name) && !is_component(field)))) field = name;
+    for (const char* c : {"Ez", "Hz"})
+      if (h.exists(std::string("/snapshots/") + c)) field = c;
   }
   SnapshotSource src(h, file, field);
   const size_t n = src.frames();

@@ -5,6 +5,7 @@
 #include <cairo.h>
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
@@ -290,4 +291,37 @@ TEST_CASE("colour maps: dusk rises in lightness at an even perceptual pace; tide
   const Rgb back = lab_to_rgb(rgb_to_lab({0.3, 0.6, 0.9}));
   CHECK(back.r == doctest::Approx(0.3).epsilon(1e-6));
   CHECK(back.b == doctest::Approx(0.9).epsilon(1e-6));
+}
+
+TEST_CASE("render: a still of a spectral map shows a steady plane wave's known |E|^2 and <S>") {
+  // E0 = 1 kV/m in vacuum: |Ez|^2 = 1e6 (V/m)^2 and <S> = E0^2 / (2 eta0) = 1327.2 W/m^2 everywhere
+  // ahead of the launch line (plane-wave facts of the trade; tests/data/cw-plane.yaml)
+  const fs::path run = fs::temp_directory_path() / "terayee-test-render-map";
+  fs::remove_all(run);
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/cw-plane.yaml";
+  REQUIRE(shell(kBinary + " run '" + scene + "' -o '" + run.string() + "' --quiet --threads 2") == 0);
+  const ColourMap& dusk = ColourMap::dusk();
+  auto centre_t = [&](const std::string& picture, const ColourMap& map) {
+    const auto L = read_json(fs::path(picture).replace_extension("").string() + "-layout.json");
+    Png img(picture);
+    REQUIRE(img.ok());
+    const int y = L["panel"]["y"].get<int>() + L["panel"]["height"].get<int>() / 2;
+    std::vector<double> t;
+    for (int x = L["panel"]["x"].get<int>() + 4; x < L["panel"]["x"].get<int>() + L["panel"]["width"].get<int>() - 4; ++x)
+      t.push_back(map.invert(img.at(x, y)));
+    return t;
+  };
+  REQUIRE(shell(kBinary + " render '" + run.string() + "' --map steady --frequency 1THz --field Ez --limits 0 2e6") == 0);
+  for (double t : centre_t((run / "pictures" / "steady-intensity-Ez-1000GHz.png").string(), dusk))
+    CHECK(t == doctest::Approx(0.5).epsilon(0.03));
+  REQUIRE(shell(kBinary + " render '" + run.string() + "' --map steady --frequency 1THz --field S --limits 0 2654.4") == 0);
+  for (double t : centre_t((run / "pictures" / "steady-real-S-1000GHz.png").string(), dusk))
+    CHECK(t == doctest::Approx(0.5).epsilon(0.03));
+  // the steady wave's real part swings through the whole diverging map along the row
+  REQUIRE(shell(kBinary + " render '" + run.string() + "' --map steady --frequency 1THz --field Ez --quantity real "
+                "--limits -1000 1000") == 0);
+  const auto t = centre_t((run / "pictures" / "steady-real-Ez-1000GHz.png").string(), ColourMap::tide());
+  CHECK(*std::max_element(t.begin(), t.end()) > 0.95);
+  CHECK(*std::min_element(t.begin(), t.end()) < 0.05);
+  fs::remove_all(run);
 }
