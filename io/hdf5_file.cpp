@@ -191,7 +191,8 @@ std::vector<hsize_t> File::shape(const std::string& path) const {
   return dims;
 }
 
-void File::read_frame(const std::string& path, hsize_t frame, std::vector<float>& out) const {
+template <class T>
+void File::read_frame_any(const std::string& path, hsize_t frame, std::vector<T>& out, hid_t type) const {
   Handle set(check(H5Dopen2(id(), path.c_str(), H5P_DEFAULT), "cannot open " + path), H5Dclose);
   Handle space(check(H5Dget_space(set.id()), "dataspace"), H5Sclose);
   hsize_t dims[3] = {0, 0, 0};
@@ -202,7 +203,15 @@ void File::read_frame(const std::string& path, hsize_t frame, std::vector<float>
   check(H5Sselect_hyperslab(space.id(), H5S_SELECT_SET, start, nullptr, count, nullptr), "hyperslab");
   Handle mem(check(H5Screate_simple(3, count, nullptr), "dataspace"), H5Sclose);
   out.resize(dims[1] * dims[2]);
-  check(H5Dread(set.id(), H5T_NATIVE_FLOAT, mem.id(), space.id(), H5P_DEFAULT, out.data()), "cannot read " + path);
+  check(H5Dread(set.id(), type, mem.id(), space.id(), H5P_DEFAULT, out.data()), "cannot read " + path);
+}
+
+void File::read_frame(const std::string& path, hsize_t frame, std::vector<float>& out) const {
+  read_frame_any(path, frame, out, H5T_NATIVE_FLOAT);
+}
+
+void File::read_frame(const std::string& path, hsize_t frame, std::vector<double>& out) const {
+  read_frame_any(path, frame, out, H5T_NATIVE_DOUBLE);
 }
 
 std::string File::read_attribute(const std::string& object, const std::string& name) const {

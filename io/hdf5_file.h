@@ -57,8 +57,10 @@ class File {
   std::vector<std::string> members(const std::string& group) const;
   /// The dimensions of a dataset.
   std::vector<hsize_t> shape(const std::string& path) const;
-  /// One frame [y][x] of a [frame][y][x] dataset, as float, into `out` (resized).
+  /// One frame [y][x] of a [frame][y][x] dataset (snapshots; a spectral map's frequency),
+  /// converted to float or double, into `out` (resized).
   void read_frame(const std::string& path, hsize_t frame, std::vector<float>& out) const;
+  void read_frame(const std::string& path, hsize_t frame, std::vector<double>& out) const;
   std::string read_attribute(const std::string& object, const std::string& name) const;
   bool exists(const std::string& path) const;
 
@@ -68,6 +70,8 @@ class File {
   template <class T>
   void write_any(const std::string& path, const std::vector<hsize_t>& shape, const T* data, hid_t type,
                  const std::string& units);
+  template <class T>
+  void read_frame_any(const std::string& path, hsize_t frame, std::vector<T>& out, hid_t type) const;
   template <class T>
   void frame_any(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const T* data, hid_t type);
 };

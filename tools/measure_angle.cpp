@@ -15,7 +15,7 @@
 #include <iostream>
 
 #include "io/diagnostics.h"
-#include "io/hdf5_file.h"
+#include "io/spectral_map_file.h"
 #include "io/units.h"
 #include "tools/commands.h"
 
@@ -23,13 +23,15 @@ namespace ty {
 
 int measure_angle(const std::string& run, const std::string& map, const std::vector<double>& region,
                   const std::string& normal, double incidence, bool has_incidence) {
-  const std::string file = run + "/fields.h5";
-  const h5::File h = h5::File::open(file);
-  const std::string base = "/spectral-maps/" + map;
-  for (const char* c : {"/Sx/real", "/Sy/real"})
-    if (!h.exists(base + c)) throw BadInput(fmt::format("{}: error: the map '{}' needs the fields Sx and Sy", file, map));
-  const auto x = h.read(base + "/x"), y = h.read(base + "/y");
-  const auto sx = h.read(base + "/Sx/real"), sy = h.read(base + "/Sy/real");
+  const SpectralMapFile m(run, map);
+  const std::string& file = m.file();
+  if (!m.has("Sx") || !m.has("Sy"))
+    throw BadInput(fmt::format("{}: error: the map '{}' needs the fields Sx and Sy", file, map));
+  const auto& x = m.x();
+  const auto& y = m.y();
+  std::vector<double> sx, sy;  // <S> = Re(1/2 E x H*) at the map's first frequency
+  for (const auto& v : m.field("Sx", 0)) sx.push_back(v.real());
+  for (const auto& v : m.field("Sy", 0)) sy.push_back(v.real());
   const size_t nx = x.size(), ny = y.size();
   const double cx = region[0], cy = region[1], hx = 0.5 * region[2], hy = 0.5 * region[3];
   double ax = 0, ay = 0, wsum = 0;

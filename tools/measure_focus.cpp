@@ -14,7 +14,7 @@
 #include <iostream>
 
 #include "io/diagnostics.h"
-#include "io/hdf5_file.h"
+#include "io/spectral_map_file.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -27,33 +27,9 @@ struct Map {
 };
 
 Map read_intensity(const std::string& run, const std::string& name, double freq) {
-  const std::string file = run + "/fields.h5";
-  const h5::File h = h5::File::open(file);
-  const std::string base = "/spectral-maps/" + name;
-  if (!h.exists(base + "/frequency")) throw BadInput(fmt::format("{}: error: no spectral map named '{}'", file, name));
-  Map m;
-  m.x = h.read(base + "/x");
-  m.y = h.read(base + "/y");
-  const auto fr = h.read(base + "/frequency");
-  size_t k = 0;
-  if (freq > 0) {
-    for (size_t q = 0; q < fr.size(); ++q)
-      if (std::abs(fr[q] - freq) < std::abs(fr[k] - freq)) k = q;
-    if (std::abs(fr[k] / freq - 1) > 1e-6)
-      throw BadInput(fmt::format("{}: error: the map '{}' has no frequency {:.6g} Hz", file, name, freq));
-  }
-  m.f = fr[k];
-  const size_t np = m.x.size() * m.y.size();
-  m.I.assign(np, 0.0);
-  bool any = false;
-  for (const char* c : {"Ex", "Ey", "Ez"}) {
-    if (!h.exists(base + "/" + c + "/real")) continue;
-    any = true;
-    const auto re = h.read(base + "/" + c + "/real"), im = h.read(base + "/" + c + "/imag");
-    for (size_t p = 0; p < np; ++p) m.I[p] += re[k * np + p] * re[k * np + p] + im[k * np + p] * im[k * np + p];
-  }
-  if (!any) throw BadInput(fmt::format("{}: error: the map '{}' holds no E component", file, name));
-  return m;
+  const SpectralMapFile map(run, name);
+  const size_t k = map.frequency_index(freq);
+  return {map.x(), map.y(), map.intensity(k), map.frequencies()[k]};
 }
 
 // vertex of the parabola through (-1, a), (0, b), (1, c), in units of the spacing

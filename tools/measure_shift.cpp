@@ -19,7 +19,7 @@
 #include <iostream>
 
 #include "io/diagnostics.h"
-#include "io/hdf5_file.h"
+#include "io/spectral_map_file.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -30,16 +30,12 @@ struct Cut {
   std::vector<std::complex<double>> E[3];    // the map's E components on the line
 };
 
-Cut read_cut(const std::string& run, const std::string& map, bool line_is_y, double at, double f0) {
-  const std::string file = run + "/fields.h5";
-  const h5::File h = h5::File::open(file);
-  const std::string base = "/spectral-maps/" + map;
-  if (!h.exists(base + "/frequency")) throw BadInput(fmt::format("{}: error: no spectral map named '{}'", file, map));
-  const auto x = h.read(base + "/x"), y = h.read(base + "/y"), fr = h.read(base + "/frequency");
-  size_t k = 0;
-  for (size_t q = 0; q < fr.size(); ++q)
-    if (f0 > 0 && std::abs(fr[q] - f0) < std::abs(fr[k] - f0)) k = q;
-  const size_t nx = x.size(), ny = y.size(), np = nx * ny;
+Cut read_cut(const std::string& run, const std::string& name, bool line_is_y, double at, double f0) {
+  const SpectralMapFile map(run, name);
+  const size_t k = map.frequency_index(f0);
+  const auto& x = map.x();
+  const auto& y = map.y();
+  const size_t nx = x.size();
   // nearest row (line y = at) or column (x = at)
   size_t idx = 0;
   const auto& axis = line_is_y ? y : x;
@@ -49,12 +45,9 @@ Cut read_cut(const std::string& run, const std::string& map, bool line_is_y, dou
   c.s = line_is_y ? x : y;
   const char* names[3] = {"Ex", "Ey", "Ez"};
   for (int comp = 0; comp < 3; ++comp) {
-    if (!h.exists(base + "/" + names[comp] + "/real")) continue;
-    const auto re = h.read(base + "/" + names[comp] + "/real"), im = h.read(base + "/" + names[comp] + "/imag");
-    for (size_t q = 0; q < c.s.size(); ++q) {
-      const size_t p = line_is_y ? idx * nx + q : q * nx + idx;
-      c.E[comp].emplace_back(re[k * np + p], im[k * np + p]);
-    }
+    if (!map.has(names[comp])) continue;
+    const auto E = map.field(names[comp], k);
+    for (size_t q = 0; q < c.s.size(); ++q) c.E[comp].push_back(E[line_is_y ? idx * nx + q : q * nx + idx]);
   }
   return c;
 }

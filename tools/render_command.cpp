@@ -20,6 +20,7 @@
 #include "io/frame_painter.h"
 #include "io/hdf5_file.h"
 #include "io/movie_writer.h"
+#include "io/spectral_map_file.h"
 #include "io/scene_reader.h"
 #include "tools/commands.h"
 
@@ -232,44 +233,30 @@ int render_snapshots(const RenderOptions& o, const std::string& out_dir) {
 }
 
 int render_map(const RenderOptions& o, const std::string& out_dir) {
-  const std::string file = o.run + "/fields.h5";
-  const h5::File h = h5::File::open(file);
-  const std::string base = "/spectral-maps/" + o.map;
-  if (!h.exists(base + "/frequency")) throw BadInput(fmt::format("{}: error: no spectral map named '{}'", file, o.map));
-  const auto x = h.read(base + "/x"), y = h.read(base + "/y"), fr = h.read(base + "/frequency");
-  size_t k = 0;
-  for (size_t q = 0; q < fr.size(); ++q)
-    if (o.frequency > 0 && std::abs(fr[q] - o.frequency) < std::abs(fr[k] - o.frequency)) k = q;
-  const size_t np = x.size() * y.size();
-  std::string field = o.field.empty() ? "intensity" : o.field;
-  std::string quantity = o.quantity;
-  if (quantity.empty()) quantity = is_component(field) ? "intensity" : "real";
-  std::vector<std::string> parts;
-  if (field == "intensity") {
-    for (const char* c : {"Ex", "Ey", "Ez"})
-      if (h.exists(base + "/" + c + "/real")) parts.push_back(c);
-    quantity = "intensity";
-  } else if (h.exists(base + "/" + field + "/real")) {
-    parts = {field};
-  } else if (field == "S" && h.exists(base + "/Sx/real") && h.exists(base + "/Sy/real")) {
-    parts = {"Sx", "Sy"};  // |S| from its components
-    quantity = "magnitude";
-  }
-  if (parts.empty()) throw BadInput(fmt::format("{}: error: the map '{}' holds no '{}'", file, o.map, field));
+  const SpectralMapFile map(o.run, o.map);
+  const size_t k = map.frequency_index(o.frequency);
+  const double f = map.frequencies()[k];
+  const size_t np = map.x().size() * map.y().size();
+  const std::string field = o.field.empty() ? "intensity" : o.field;
+  std::string quantity = o.quantity.empty() ? (is_component(field) ? "intensity" : "real") : o.quantity;
   std::vector<float> v(np, 0.0f);
-  std::string units = h.read_attribute(base + "/" + parts[0] + "/real", "units");
-  for (const auto& p : parts) {
-    const auto re = h.read(base + "/" + p + "/real"), im = h.read(base + "/" + p + "/imag");
-    for (size_t q = 0; q < np; ++q) {
-      const std::complex<double> c(re[k * np + q], im[k * np + q]);
-      v[q] += static_cast<float>(quantity == "intensity"   ? std::norm(c)
-                                 : quantity == "abs"       ? std::abs(c)
-                                 : quantity == "magnitude" ? c.real() * c.real()
-                                                           : c.real());
-    }
+  std::string units;
+  if (field == "intensity") {  // |E|^2 over the recorded E components
+    const auto I = map.intensity(k);
+    std::copy(I.begin(), I.end(), v.begin());
+    quantity = "intensity";
+    units = map.units(map.electric()[0]);
+  } else if (field == "S" && !map.has("S") && map.has("Sx") && map.has("Sy")) {  // |<S>| from its components
+    const auto sx = map.field("Sx", k), sy = map.field("Sy", k);
+    for (size_t q = 0; q < np; ++q) v[q] = static_cast<float>(std::hypot(sx[q].real(), sy[q].real()));
+    quantity = "magnitude";
+    units = map.units("Sx");
+  } else {
+    const auto F = map.field(field, k);
+    for (size_t q = 0; q < np; ++q)
+      v[q] = static_cast<float>(quantity == "intensity" ? std::norm(F[q]) : quantity == "abs" ? std::abs(F[q]) : F[q].real());
+    units = map.units(field);
   }
-  if (quantity == "magnitude")
-    for (auto& x : v) x = std::sqrt(x);
   const bool non_negative = quantity != "real" || field == "S";
   std::string label = field == "intensity" ? "|E|²" : quantity == "intensity" ? "|" + field + "|²"
                                                  : quantity == "abs"         ? "|" + field + "|"
@@ -281,14 +268,14 @@ int render_map(const RenderOptions& o, const std::string& out_dir) {
   FrameStyle st = base_style(o.run, o);
   st.field = label;
   st.units = units;
-  st.caption = fmt::format("{} of the steady wave at {:.6g} GHz (spectral map '{}')", label, fr[k] / 1e9, o.map);
+  st.caption = fmt::format("{} of the steady wave at {:.6g} GHz (spectral map '{}')", label, f / 1e9, o.map);
   set_limits(st, o, non_negative, percentile_abs(sample, o.percentile));
-  FramePainter painter(st, x, y);
+  FramePainter painter(st, map.x(), map.y());
   painter.paint(v.data(), "");
   fs::create_directories(out_dir);
   std::string tag = field == "intensity" ? "intensity" : quantity + "-" + field;
   const std::string path =
-      (fs::path(out_dir) / fmt::format("{}-{}-{:.6g}GHz.{}", o.map, tag, fr[k] / 1e9, o.format)).string();
+      (fs::path(out_dir) / fmt::format("{}-{}-{:.6g}GHz.{}", o.map, tag, f / 1e9, o.format)).string();
   painter.write(path, v.data(), "");
   write_layout(plot_layout_path(path), painter, st);
   std::cout << fmt::format("{} -> {} ({}x{} px), colours '{}' over [{:.4g}, {:.4g}] {}\n", label, path,
