@@ -64,14 +64,20 @@ Rgb diverging(Rgb c1, Rgb c2, double t) {
 Lab dusk_path(double u) {
   const double L = 10 + 86 * u;
   const double h = (300 - 205 * u) * kPi / 180;
+  // the wanted chroma, or the largest inside the sRGB gamut where that is less (found by
+  // bisection, so that the path stays smooth and its arc length means what it says)
+  auto inside = [&](double C) {
+    bool ok = false;
+    lab_to_rgb({L, C * std::cos(h), C * std::sin(h)}, &ok);
+    return ok;
+  };
   double C = 32 + 38 * u;
-  Lab lab{L, C * std::cos(h), C * std::sin(h)};
-  for (bool ok = false; C > 0; C -= 0.25) {  // largest chroma inside the sRGB gamut
-    lab = {L, C * std::cos(h), C * std::sin(h)};
-    lab_to_rgb(lab, &ok);
-    if (ok) break;
+  if (!inside(C)) {
+    double lo = 0, hi = C;
+    for (int k = 0; k < 50; ++k) (inside(0.5 * (lo + hi)) ? lo : hi) = 0.5 * (lo + hi);
+    C = lo;
   }
-  return lab;
+  return {L, C * std::cos(h), C * std::sin(h)};
 }
 
 }  // namespace

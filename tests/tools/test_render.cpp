@@ -275,7 +275,9 @@ TEST_CASE("colour maps: dusk rises in lightness at an even perceptual pace; tide
   double lo = 1e9, hi = 0, mean = 0;
   for (double d : steps) lo = std::min(lo, d), hi = std::max(hi, d), mean += d / steps.size();
   MESSAGE("dusk: CIELAB step between entries ", mean, " (", lo, " to ", hi, ")");
-  CHECK(hi < 2.0 * mean);  // 8-bit rounding of the stored colours makes the spread
+  // equal steps but where the sRGB gamut bends the path (a corner cut by the interpolation)
+  CHECK(hi < 1.15 * mean);
+  CHECK(lo > 0.7 * mean);
   CHECK(rgb_to_lab(dusk.at(0))[0] < 15);
   CHECK(rgb_to_lab(dusk.at(1))[0] > 90);
   // Diverging (Moreland 2009): the middle is the unsaturated point of Msh radius 88 (L* = 88),
