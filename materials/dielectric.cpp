@@ -4,7 +4,7 @@
 
 #include <algorithm>
 
-#include "io/units.h"
+#include "io/scene/units.h"
 
 namespace ty {
 

@@ -7,7 +7,7 @@
 ///   E^{n+1} = ca E^n + cb (c dt) curl(eta0 H)^{n+1/2},  ca = (1-q)/(1+q),  cb = 1/(eps_r (1+q)).
 /// A perfect conductor has ca = cb = 0, so its tangential E stays zero.
 #pragma once
-#include "io/scene.h"
+#include "io/scene/scene.h"
 
 namespace ty {
 

@@ -9,9 +9,9 @@
 #include <cmath>
 #include <stdexcept>
 
-#include "io/units.h"
+#include "io/scene/units.h"
 #include "materials/dielectric.h"
-#include "solver/incident.h"
+#include "solver/sources/incident.h"
 
 namespace ty {
 

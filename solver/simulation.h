@@ -16,15 +16,15 @@
 #include <string>
 #include <vector>
 
-#include "io/scene.h"
-#include "solver/aligned.h"
-#include "solver/cpml.h"
-#include "solver/flux.h"
-#include "solver/spectral_map.h"
-#include "solver/magnetic_cells.h"
-#include "solver/recorders.h"
-#include "solver/waveform.h"
-#include "solver/yee_grid.h"
+#include "io/scene/scene.h"
+#include "solver/grid/aligned.h"
+#include "solver/grid/cpml.h"
+#include "solver/recorders/flux.h"
+#include "solver/recorders/spectral_map.h"
+#include "solver/media/magnetic_cells.h"
+#include "solver/recorders/recorders.h"
+#include "solver/sources/waveform.h"
+#include "solver/grid/yee_grid.h"
 
 namespace ty {
 

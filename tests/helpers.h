@@ -11,9 +11,9 @@
 #include <string>
 #include <vector>
 
-#include "io/scene.h"
-#include "io/units.h"
-#include "solver/recorders.h"
+#include "io/scene/scene.h"
+#include "io/scene/units.h"
+#include "solver/recorders/recorders.h"
 
 namespace ty::test {
 

@@ -10,7 +10,7 @@
 #include <chrono>
 #include <iostream>
 
-#include "io/scene.h"
+#include "io/scene/scene.h"
 #include "solver/simulation.h"
 #include "tools/commands.h"
 

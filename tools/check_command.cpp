@@ -9,11 +9,11 @@
 #include <cmath>
 #include <iostream>
 
-#include "io/scene_reader.h"
-#include "io/units.h"
+#include "io/scene/scene_reader.h"
+#include "io/scene/units.h"
 #include "materials/dielectric.h"
-#include "materials/linear_response.h"
-#include "solver/yee_grid.h"
+#include "materials/magnetic/linear_response.h"
+#include "solver/grid/yee_grid.h"
 #include "tools/commands.h"
 
 namespace ty {

@@ -5,7 +5,7 @@
 #include <string>
 #include <vector>
 
-#include "io/scene.h"
+#include "io/scene/scene.h"
 
 namespace ty {
 

@@ -6,8 +6,8 @@
 
 #include <iostream>
 
-#include "io/diagnostics.h"
-#include "io/units.h"
+#include "io/scene/diagnostics.h"
+#include "io/scene/units.h"
 #include "tools/commands.h"
 
 namespace {

@@ -14,9 +14,9 @@
 #include <fstream>
 #include <iostream>
 
-#include "io/diagnostics.h"
-#include "io/spectral_map_file.h"
-#include "io/units.h"
+#include "io/scene/diagnostics.h"
+#include "io/run/spectral_map_file.h"
+#include "io/scene/units.h"
 #include "tools/commands.h"
 
 namespace ty {

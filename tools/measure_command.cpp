@@ -15,8 +15,8 @@
 #include <fstream>
 #include <iostream>
 
-#include "io/diagnostics.h"
-#include "io/hdf5_file.h"
+#include "io/scene/diagnostics.h"
+#include "io/run/hdf5_file.h"
 #include "tools/commands.h"
 
 namespace ty {

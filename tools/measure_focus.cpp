@@ -13,8 +13,8 @@
 #include <fstream>
 #include <iostream>
 
-#include "io/diagnostics.h"
-#include "io/spectral_map_file.h"
+#include "io/scene/diagnostics.h"
+#include "io/run/spectral_map_file.h"
 #include "tools/commands.h"
 
 namespace ty {

@@ -18,11 +18,11 @@
 #include <fstream>
 #include <iostream>
 
-#include "io/plot.h"
-#include "io/scene_reader.h"
-#include "io/units.h"
-#include "materials/angular_spectrum.h"
-#include "materials/refraction.h"
+#include "io/pictures/plot.h"
+#include "io/scene/scene_reader.h"
+#include "io/scene/units.h"
+#include "materials/layered/angular_spectrum.h"
+#include "materials/layered/refraction.h"
 #include "tools/commands.h"
 
 namespace ty {

@@ -16,12 +16,12 @@
 #include <fstream>
 #include <iostream>
 
-#include "io/diagnostics.h"
-#include "io/frame_painter.h"
-#include "io/hdf5_file.h"
-#include "io/movie_writer.h"
-#include "io/spectral_map_file.h"
-#include "io/scene_reader.h"
+#include "io/scene/diagnostics.h"
+#include "io/pictures/frame_painter.h"
+#include "io/run/hdf5_file.h"
+#include "io/pictures/movie_writer.h"
+#include "io/run/spectral_map_file.h"
+#include "io/scene/scene_reader.h"
 #include "tools/commands.h"
 
 namespace fs = std::filesystem;

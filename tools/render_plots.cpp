@@ -18,14 +18,14 @@
 #include <map>
 #include <sstream>
 
-#include "io/diagnostics.h"
-#include "io/hdf5_file.h"
-#include "io/plot.h"
-#include "io/units.h"
-#include "io/scene_reader.h"
-#include "materials/ground_state.h"
-#include "materials/linear_response.h"
-#include "materials/magnet.h"
+#include "io/scene/diagnostics.h"
+#include "io/run/hdf5_file.h"
+#include "io/pictures/plot.h"
+#include "io/scene/units.h"
+#include "io/scene/scene_reader.h"
+#include "materials/magnetic/ground_state.h"
+#include "materials/magnetic/linear_response.h"
+#include "materials/magnetic/magnet.h"
 #include "tools/commands.h"
 
 namespace fs = std::filesystem;

@@ -11,11 +11,11 @@
 #include <csignal>
 #include <iostream>
 
-#include "io/checkpoint.h"
-#include "io/log.h"
-#include "io/run_folder.h"
-#include "io/scene_reader.h"
-#include "io/scene_writer.h"
+#include "io/run/checkpoint.h"
+#include "io/run/log.h"
+#include "io/run/run_folder.h"
+#include "io/scene/scene_reader.h"
+#include "io/scene/scene_writer.h"
 #include "solver/simulation.h"
 #include "tools/commands.h"
 

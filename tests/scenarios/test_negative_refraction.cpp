@@ -30,7 +30,7 @@ TEST_CASE("negative-refraction study: power flows to the incidence side, within 
                       "'30 deg' --json '" + pred.string() + "'") == 0);
   const auto m = read_json((run / "angle.json").string());
   const auto p = read_json(pred.string());
-  const double measured = m["refraction-angle-rad"].get<double>() * 180 / M_PI;
+  const double measured = m["refraction-angle-rad"].get<double>() * 180 / ty::constants::pi;
   const double predicted = p["rows"][0]["refraction-angle-deg"].get<double>();
   MESSAGE("power flow " << measured << " deg from the normal, medium predicts " << predicted << " deg ("
                         << p["rows"][0]["character"].get<std::string>() << ")");

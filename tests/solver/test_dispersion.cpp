@@ -10,7 +10,7 @@
 /// relation at fixed frequency).
 #include <doctest/doctest.h>
 
-#include "solver/incident.h"
+#include "solver/sources/incident.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
 

@@ -9,7 +9,7 @@
 /// wavelength in the medium) and to stay under 0.5% from N = 32 on.
 #include <doctest/doctest.h>
 
-#include "solver/recorders.h"
+#include "solver/recorders/recorders.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
 

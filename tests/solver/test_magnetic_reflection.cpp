@@ -9,9 +9,9 @@
 /// bias: R = 0.1374 at 250 GHz, 0.2012 at 270 GHz.
 #include <doctest/doctest.h>
 
-#include "materials/linear_response.h"
-#include "materials/transfer_matrix.h"
-#include "solver/recorders.h"
+#include "materials/magnetic/linear_response.h"
+#include "materials/layered/transfer_matrix.h"
+#include "solver/recorders/recorders.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
 
@@ -67,7 +67,7 @@ std::vector<double> run(const Magnet& mag, std::array<double, 3> bias, bool with
 double predicted_R(const Magnet& mag, std::array<double, 3> bias, double f) {
   const MagnetModel M(mag, bias);
   const auto gs = find_ground_states(M);
-  const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * M_PI * f);
+  const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * f);
   const std::complex<double> muv = voigt_permeability(mu, 0);
   std::complex<double> n2 = std::sqrt(5.5 * muv);
   // the transmitted wave decays away from the interface, or, lossless, carries power away
@@ -149,8 +149,8 @@ TEST_CASE("coupled solver: transmittance of an MnF2 film and slab matches the tr
       const double T = std::norm(test::dft(through, dt, f) / test::dft(incident, dt, f));
       LayerStack s;
       s.normal = 0;
-      s.layers = {{5.5 * Mat3c::Identity(), Mat3c::Identity() + susceptibility(M, gs.ground, 2 * M_PI * f), d}};
-      const double P = stack_response(s, 2 * M_PI * f, 0.0).T[0];
+      s.layers = {{5.5 * Mat3c::Identity(), Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * f), d}};
+      const double P = stack_response(s, 2 * constants::pi * f, 0.0).T[0];
       worst = std::max(worst, std::abs(T - P));
       if (static_cast<int>(std::lround(f / 0.125e9)) % 40 == 0 || std::abs(f - 262.5e9) < 0.07e9)
         MESSAGE(std::to_string(d * 1e6) << " um, " << std::to_string(f / 1e9) << " GHz: T = " << T << ", transfer matrix " << P);
@@ -163,8 +163,8 @@ TEST_CASE("coupled solver: transmittance of an MnF2 film and slab matches the tr
     auto T_tmm = [&](double f) {
       LayerStack s;
       s.normal = 0;
-      s.layers = {{5.5 * Mat3c::Identity(), Mat3c::Identity() + susceptibility(M, gs.ground, 2 * M_PI * f), d}};
-      return stack_response(s, 2 * M_PI * f, 0.0).T[0];
+      s.layers = {{5.5 * Mat3c::Identity(), Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * f), d}};
+      return stack_response(s, 2 * constants::pi * f, 0.0).T[0];
     };
     auto features = [&](auto&& T) {
       std::vector<double> out;

@@ -4,6 +4,8 @@
 /// direction (a beam in a homogeneous medium travels straight; its Poynting vector is
 /// along its axis, Siegman, Lasers, ch. 17), within 0.5 deg, and the refraction is positive.
 #include <doctest/doctest.h>
+
+#include "io/scene/constants.h"
 #include <sys/wait.h>
 
 #include <cmath>
@@ -24,8 +26,8 @@ TEST_CASE("measure angle: a 20 deg beam in vacuum flows at 20 deg") {
                                    " > /dev/null 2>&1").c_str())) == 0);
   std::ifstream in(dir / "angle.json");
   const auto j = nlohmann::json::parse(in);
-  const double flow = j["refraction-angle-rad"].get<double>() * 180 / M_PI;
-  const double line = j["centre-line-refraction-angle-rad"].get<double>() * 180 / M_PI;
+  const double flow = j["refraction-angle-rad"].get<double>() * 180 / ty::constants::pi;
+  const double line = j["centre-line-refraction-angle-rad"].get<double>() * 180 / ty::constants::pi;
   MESSAGE("power flow " << flow << " deg, centre line " << line << " deg, asked 20 deg");
   // the intensity-weighted flow of a diverging beam in a box that clips its wings
   // unevenly is biased (measured 0.63 deg here); the centre line is not (0.42 deg, the

@@ -10,7 +10,7 @@
 #include <fstream>
 #include <nlohmann/json.hpp>
 
-#include "io/hdf5_file.h"
+#include "io/run/hdf5_file.h"
 
 namespace fs = std::filesystem;
 using namespace ty;

@@ -52,7 +52,7 @@ TEST_CASE("measure spectrum: a dielectric slab's T and R follow the Airy formula
     double f, R, T, A;
     char comma;
     ss >> f >> comma >> R >> comma >> T >> comma >> A;
-    const double k0 = 2 * M_PI * f / c;
+    const double k0 = 2 * ty::constants::pi * f / c;
     const std::complex<double> I(0, 1);
     const std::complex<double> t = 1.0 / (std::cos(n * k0 * d) - 0.5 * I * (n + 1 / n) * std::sin(n * k0 * d));
     if (c / (f * n) / cell >= 20) worst_t = std::max(worst_t, std::abs(T / std::norm(t) - 1));

@@ -38,7 +38,7 @@ TEST_CASE("terayee medium: Fresnel reflection and the Artmann shift of total int
   REQUIRE(shell(bin + " medium '" + scene + "' --medium glass --from '1 THz' --to '1 THz' --count 1 --angle '30 deg' --csv '" + csv + "'") == 0);
   auto v = first_row(csv);
   REQUIRE(v.size() == 24);
-  const double ct = std::cos(M_PI / 6), ct2 = std::sqrt(1 - std::pow(std::sin(M_PI / 6) / 2, 2));
+  const double ct = std::cos(ty::constants::pi / 6), ct2 = std::sqrt(1 - std::pow(std::sin(ty::constants::pi / 6) / 2, 2));
   const double rs = (ct - 2 * ct2) / (ct + 2 * ct2);
   CHECK(v[13] == doctest::Approx(std::abs(rs)).epsilon(1e-7));  // |r+| (the CSV holds 8 digits)
   CHECK(v[15] == doctest::Approx(std::abs(rs)).epsilon(1e-7));  // |r-|: reciprocal

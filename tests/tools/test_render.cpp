@@ -13,9 +13,9 @@
 #include <memory>
 #include <sstream>
 
-#include "io/colour_map.h"
-#include "io/hdf5_file.h"
-#include "io/plot.h"
+#include "io/pictures/colour_map.h"
+#include "io/run/hdf5_file.h"
+#include "io/pictures/plot.h"
 #include "tests/helpers.h"
 
 namespace fs = std::filesystem;
@@ -109,7 +109,7 @@ TEST_CASE("render: a frame decoded from PNG has the field's colours, the bodies'
 
   // the window's outline: a dark line through the middle of its long right side
   // (centre (0.6, 0) mm, 0.5 x 3.2 mm, turned 20 deg), but not in the middle of the body
-  const double c = std::cos(20 * M_PI / 180), s = std::sin(20 * M_PI / 180);
+  const double c = std::cos(20 * constants::pi / 180), s = std::sin(20 * constants::pi / 180);
   auto darkest_near = [&](double x, double y) {
     const auto [i, j] = pixel_of(L, x, y);
     double least = 1;

@@ -1,0 +1,14 @@
+/// \file log.cpp
+/// \brief Log lines to stderr and log.txt.
+#include "io/run/log.h"
+
+#include <iostream>
+
+namespace ty {
+
+void Log::info(const std::string& line) {
+  if (!quiet_) std::cerr << line << "\n";
+  if (file_) file_ << line << "\n" << std::flush;
+}
+
+}  // namespace ty

@@ -1,0 +1,228 @@
+/// \file run_folder.cpp
+/// \brief Writing a run folder; XDMF 3 for the snapshot time series (xdmf.org format
+/// description: 2DRectMesh topology, VXVY geometry, HyperSlab data items into HDF5).
+#include "io/run/run_folder.h"
+
+#include <fmt/format.h>
+
+#include <filesystem>
+#include <fstream>
+#include <iterator>
+
+#include "io/scene/diagnostics.h"
+
+#include "io/scene/scene_writer.h"
+
+namespace ty {
+
+namespace fs = std::filesystem;
+
+namespace {
+const char* kPartial = "fields.h5.partial";
+}
+
+RunFolder::RunFolder(const std::string& dir, const Scene& scene, bool resume)
+    : dir_(dir), scene_(scene), resume_(resume) {
+  const std::string resolved =
+      "# resolved by terayee: every default filled in, every value in SI\n" + resolved_scene_yaml(scene);
+  std::error_code ec;
+  if (resume) {
+    for (auto f : {kPartial, "checkpoint.h5", "scene.yaml"})
+      if (!fs::exists(path(f)))
+        throw BadInput(fmt::format("{}: error: there is no stopped run to resume here (no {})", dir_, f));
+    std::ifstream in(path("scene.yaml"));
+    const std::string old((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    if (old != resolved)
+      throw BadInput(fmt::format("{}: error: the scene differs from the one this run started with; resume with the "
+                                 "same scene and --set values",
+                                 dir_));
+    return;
+  }
+  fs::create_directories(dir_, ec);
+  if (!fs::is_directory(dir_)) throw std::runtime_error(fmt::format("cannot make the run folder '{}'", dir_));
+  for (auto f : {"fields.h5", "fields.xmf", "summary.json", kPartial, "checkpoint.h5"}) fs::remove(path(f), ec);
+  std::ofstream(path("scene.yaml")) << resolved;
+}
+
+RunFolder::~RunFolder() {
+  if (!done_) abandon();
+}
+
+void RunFolder::begin(const YeeGrid& g, const SnapshotPlan& plan, bool single, const std::vector<int>& medium_map,
+                      int map_nx, int map_ny) {
+  plan_ = plan;
+  single_ = single;
+  if (resume_) {  // the datasets exist; frames go on where the checkpoint left them
+    h5_ = std::make_unique<h5::File>(h5::File::open_rw(path(kPartial)));
+    return;
+  }
+  h5_ = std::make_unique<h5::File>(h5::File::create(path(kPartial)));
+  h5::File& f = *h5_;
+  const double cell[2] = {g.dx, g.dy};
+  f.write("/grid/cell", {2}, cell, "m");
+  f.write("/grid/medium", {static_cast<hsize_t>(map_ny), static_cast<hsize_t>(map_nx)}, medium_map.data(), "");
+  f.attribute("/grid/medium", "meaning", "index into the scene's media, -1 = vacuum; row 0 is the lowest y");
+  std::vector<double> cx(map_nx), cy(map_ny);
+  for (int i = 0; i < map_nx; ++i) cx[i] = (i + 0.5) * g.dx - scene_.origin_shift.x;
+  for (int j = 0; j < map_ny; ++j) cy[j] = (j + 0.5) * g.dy - scene_.origin_shift.y;
+  f.write("/grid/medium-x", {cx.size()}, cx.data(), "m");
+  f.write("/grid/medium-y", {cy.size()}, cy.data(), "m");
+  std::string names;
+  for (const auto& m : scene_.media) names += (names.empty() ? "" : ",") + m.name;
+  f.attribute("/grid/medium", "media", names);
+  f.attribute("/grid", "time-step", g.dt);
+  f.attribute("/", "title", scene_.title);
+  f.attribute("/", "terayee-version", TERAYEE_VERSION);
+  if (!plan.steps.empty()) {
+    f.write("/snapshots/time", {plan.times.size()}, plan.times.data(), "s");
+    for (const auto& sf : plan.fields) {
+      f.write("/grid/" + sf.name + "/x", {sf.x.size()}, sf.x.data(), "m");
+      f.write("/grid/" + sf.name + "/y", {sf.y.size()}, sf.y.data(), "m");
+      const std::string ds = "/snapshots/" + sf.name;
+      f.create_frames(ds, plan.steps.size(), sf.nj, sf.ni, single, sf.units);
+      f.attribute(ds, "time-offset", sf.time_offset);
+      f.attribute(ds, "layout", "[frame][y][x]; row 0 is the lowest y");
+    }
+  }
+}
+
+void RunFolder::frame(std::size_t k, double, std::size_t field, const float* data) {
+  const auto& sf = plan_.fields[field];
+  h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
+}
+
+void RunFolder::frame(std::size_t k, double, std::size_t field, const double* data) {
+  const auto& sf = plan_.fields[field];
+  h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
+}
+
+void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes,
+                       const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary) {
+  h5::File& f = *h5_;
+  for (const auto& m : maps) {
+    const std::string base = "/spectral-maps/" + m.name;
+    f.write(base + "/frequency", {m.freq.size()}, m.freq.data(), "Hz");
+    f.write(base + "/x", {m.x.size()}, m.x.data(), "m");
+    f.write(base + "/y", {m.y.size()}, m.y.data(), "m");
+    f.attribute(base, "positions", "the Ez nodes (cell corners); every component averaged to them");
+    f.attribute(base, "convention", "E(t) = Re[E exp(-i w t)], amplitude of the steady wave");
+    const size_t np = static_cast<size_t>(m.ni) * m.nj;
+    const std::vector<hsize_t> shape{m.freq.size(), static_cast<hsize_t>(m.nj), static_cast<hsize_t>(m.ni)};
+    for (const auto& name : m.fields) {
+      std::vector<double> re(m.freq.size() * np), im(m.freq.size() * np);
+      for (size_t fi = 0; fi < m.freq.size(); ++fi)
+        for (size_t p = 0; p < np; ++p) {
+          std::complex<double> v;
+          static const char* comps[6] = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz"};
+          int c = -1;
+          for (int q = 0; q < 6; ++q)
+            if (name == comps[q]) c = q;
+          if (c >= 0) {
+            v = m.field(fi, p, c);
+          } else {  // 1/2 E x H*: real part the time-averaged Poynting vector, imaginary the reactive part
+            std::complex<double> E[3], H[3];
+            for (int q = 0; q < 3; ++q) E[q] = m.field(fi, p, q), H[q] = m.field(fi, p, q + 3);
+            const std::complex<double> sx = 0.5 * (E[1] * std::conj(H[2]) - E[2] * std::conj(H[1]));
+            const std::complex<double> sy = 0.5 * (E[2] * std::conj(H[0]) - E[0] * std::conj(H[2]));
+            v = name == "Sx" ? sx : name == "Sy" ? sy : std::complex<double>(std::hypot(sx.real(), sy.real()), 0.0);
+          }
+          re[fi * np + p] = v.real();
+          im[fi * np + p] = v.imag();
+        }
+      f.write(base + "/" + name + "/real", shape, re.data(), field_units(name));
+      f.write(base + "/" + name + "/imag", shape, im.data(), field_units(name));
+    }
+  }
+  for (const auto& fl : fluxes) {
+    const std::string base = "/flux/" + fl.name;
+    const double T = fl.steps * dt;
+    const auto P = line_power(fl, [&](size_t a, size_t b, int c) { return fl.field(a, b, c, T); });
+    f.write(base + "/frequency", {fl.freq.size()}, fl.freq.data(), "Hz");
+    f.write(base + "/power", {P.size()}, P.data(), "W/m");
+    f.attribute(base + "/power", "meaning",
+                "net power through the line towards its normal, for a steady wave with the recorded spectrum's "
+                "amplitude ((2/T) normalisation, T the run's length)");
+    std::vector<double> re(fl.acc.size()), im(fl.acc.size()), px, py;
+    for (size_t k = 0; k < fl.acc.size(); ++k) re[k] = fl.acc[k].real() * 2 / T, im[k] = fl.acc[k].imag() * 2 / T;
+    const hsize_t np = fl.points.size();
+    f.write(base + "/fields/real", {fl.freq.size(), np, 6}, re.data(), "V/m (E), A/m (H)");
+    f.write(base + "/fields/imag", {fl.freq.size(), np, 6}, im.data(), "V/m (E), A/m (H)");
+    f.attribute(base + "/fields/real", "layout", "[frequency][point][Ex Ey Ez Hx Hy Hz]");
+    for (const auto& p : fl.points) px.push_back(p.x - scene_.origin_shift.x), py.push_back(p.y - scene_.origin_shift.y);
+    f.write(base + "/points/x", {np}, px.data(), "m");
+    f.write(base + "/points/y", {np}, py.data(), "m");
+    f.write(base + "/weights", {np}, fl.weight.data(), "m");
+    const double n[2] = {fl.normal.x, fl.normal.y};
+    f.write(base + "/normal", {2}, n, "");
+  }
+  for (const auto& p : probes) {
+    std::vector<double> t(p.count);
+    for (long k = 0; k < p.count; ++k) t[k] = (k + 1) * dt;
+    const std::string base = "/probes/" + p.name;
+    f.write(base + "/time", {t.size()}, t.data(), "s");
+    for (const auto& name : p.fields) {
+      const auto v = p.series(name);
+      f.write(base + "/" + name, {v.size()}, v.data(), field_units(name));
+    }
+    const double at[2] = {p.at.x - scene_.origin_shift.x, p.at.y - scene_.origin_shift.y};
+    f.write(base + "/at", {2}, at, "m");
+  }
+  h5_.reset();  // closes the file
+  fs::rename(path(kPartial), path("fields.h5"));
+  std::error_code ec;
+  fs::remove(path("checkpoint.h5"), ec);
+  write_xdmf();
+  std::ofstream(path("summary.json")) << summary.dump(2) << "\n";
+  done_ = true;
+}
+
+void RunFolder::flush() {
+  if (h5_) h5_->flush();
+}
+
+void RunFolder::keep() {
+  h5_.reset();
+  done_ = true;
+}
+
+void RunFolder::abandon() {
+  h5_.reset();
+  std::error_code ec;
+  fs::remove(path(kPartial), ec);
+  fs::remove(path("checkpoint.h5"), ec);
+  done_ = true;
+}
+
+void RunFolder::write_xdmf() const {
+  std::ofstream x(path("fields.xmf"));
+  x << "<?xml version=\"1.0\" ?>\n<Xdmf Version=\"3.0\">\n<Domain>\n";
+  const int prec = single_ ? 4 : 8;
+  for (const auto& sf : plan_.fields) {
+    x << fmt::format("<Grid Name=\"{}\" GridType=\"Collection\" CollectionType=\"Temporal\">\n", sf.name);
+    for (size_t k = 0; k < plan_.times.size(); ++k) {
+      x << fmt::format("  <Grid Name=\"{}-{}\" GridType=\"Uniform\">\n", sf.name, k);
+      x << fmt::format("    <Time Value=\"{:.9g}\"/>\n", plan_.times[k] + sf.time_offset);
+      x << fmt::format("    <Topology TopologyType=\"2DRectMesh\" Dimensions=\"{} {}\"/>\n", sf.nj, sf.ni);
+      x << "    <Geometry GeometryType=\"VXVY\">\n";
+      x << fmt::format(
+          "      <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" Format=\"HDF\">fields.h5:/grid/{}/x</DataItem>\n",
+          sf.ni, sf.name);
+      x << fmt::format(
+          "      <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" Format=\"HDF\">fields.h5:/grid/{}/y</DataItem>\n",
+          sf.nj, sf.name);
+      x << "    </Geometry>\n";
+      x << fmt::format("    <Attribute Name=\"{} ({})\" AttributeType=\"Scalar\" Center=\"Node\">\n", sf.name, sf.units);
+      x << fmt::format("      <DataItem ItemType=\"HyperSlab\" Dimensions=\"{} {}\" Type=\"HyperSlab\">\n", sf.nj, sf.ni);
+      x << fmt::format("        <DataItem Dimensions=\"3 3\" Format=\"XML\">{} 0 0 1 1 1 1 {} {}</DataItem>\n", k, sf.nj,
+                       sf.ni);
+      x << fmt::format(
+          "        <DataItem Dimensions=\"{} {} {}\" NumberType=\"Float\" Precision=\"{}\" Format=\"HDF\">fields.h5:/snapshots/{}</DataItem>\n",
+          plan_.times.size(), sf.nj, sf.ni, prec, sf.name);
+      x << "      </DataItem>\n    </Attribute>\n  </Grid>\n";
+    }
+    x << "</Grid>\n";
+  }
+  x << "</Domain>\n</Xdmf>\n";
+}
+
+}  // namespace ty

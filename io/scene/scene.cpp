@@ -1,0 +1,121 @@
+/// \file scene.cpp
+/// \brief Names of the scene's enumerations and the point-in-shape tests of bodies.
+#include "io/scene/scene.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace ty {
+
+const char* component_name(Component c) {
+  static const char* names[] = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz"};
+  return names[static_cast<int>(c)];
+}
+
+const char* boundary_name(Boundary b) {
+  switch (b) {
+    case Boundary::absorbing: return "absorbing";
+    case Boundary::periodic: return "periodic";
+    case Boundary::electric_wall: return "electric-wall";
+    case Boundary::magnetic_wall: return "magnetic-wall";
+  }
+  return "?";
+}
+
+double Magnet::exchange_field() const {
+  return sublattices.empty() ? 0.0 : lambda * sublattices[0].saturation;
+}
+
+Vec2 launch_point(const Source& s, Vec2 extent) {
+  const double c = std::cos(s.angle), sn = std::sin(s.angle);
+  if (s.line_axis == 'x')
+    return {s.line_at, s.kind == Source::Kind::beam ? s.focus.y + (s.line_at - s.focus.x) / c * sn : 0.5 * extent.y};
+  return {s.kind == Source::Kind::beam ? s.focus.x + (s.line_at - s.focus.y) / sn * c : 0.5 * extent.x, s.line_at};
+}
+
+Band2 source_band(const Source& s) {
+  switch (s.waveform.kind) {
+    case Waveform::Kind::cw: return {s.frequency, s.frequency};
+    case Waveform::Kind::pulse: {
+      // Gaussian field envelope of std dev fwhm / (2 sqrt(ln 2)): its spectrum falls to 1%
+      // at sqrt(2 ln 100) / (2 pi sigma_t) from the carrier
+      const double sigma_t = s.waveform.fwhm / (2.0 * std::sqrt(std::log(2.0)));
+      const double w = std::sqrt(2.0 * std::log(100.0)) / (2.0 * 3.14159265358979323846 * sigma_t);
+      return {std::max(0.0, s.frequency - w), s.frequency + w};
+    }
+    case Waveform::Kind::chirp:
+      return {std::min(s.waveform.from, s.waveform.to), std::max(s.waveform.from, s.waveform.to)};
+  }
+  return {s.frequency, s.frequency};
+}
+
+Scene reference_scene(const Scene& s) {
+  Scene r = s;
+  r.reference = true;
+  r.bodies.clear();
+  bool marked = false;
+  for (const auto& b : s.bodies) marked |= b.sample;
+  for (const auto& b : s.bodies) {
+    bool remove = b.sample;
+    if (!marked) {
+      bool holds = false;
+      for (const auto& src : s.sources) {
+        const Vec2 p = src.kind == Source::Kind::point ? src.at : launch_point(src, s.grid.extent);
+        holds |= b.shape.contains(p);
+      }
+      remove = !holds;
+    }
+    if (!remove) r.bodies.push_back(b);
+  }
+  return r;
+}
+
+bool Shape::contains(Vec2 p) const {
+  switch (kind) {
+    case Kind::rectangle: {
+      const double dx = p.x - centre.x, dy = p.y - centre.y;
+      const double c = std::cos(rotate), s = std::sin(rotate);
+      const double u = c * dx + s * dy, v = -s * dx + c * dy;  // into the rectangle's own frame
+      return std::abs(u) <= 0.5 * size.x && std::abs(v) <= 0.5 * size.y;
+    }
+    case Kind::circle: {
+      const double dx = p.x - centre.x, dy = p.y - centre.y;
+      return dx * dx + dy * dy <= radius * radius;
+    }
+    case Kind::polygon: {  // even-odd crossing rule
+      bool inside = false;
+      const size_t n = vertices.size();
+      for (size_t a = 0, b = n - 1; a < n; b = a++) {
+        const Vec2 &pa = vertices[a], &pb = vertices[b];
+        if ((pa.y > p.y) != (pb.y > p.y) && p.x < (pb.x - pa.x) * (p.y - pa.y) / (pb.y - pa.y) + pa.x) inside = !inside;
+      }
+      return inside;
+    }
+  }
+  return false;
+}
+
+void Shape::bounds(Vec2& lo, Vec2& hi) const {
+  switch (kind) {
+    case Kind::rectangle: {
+      const double c = std::abs(std::cos(rotate)), s = std::abs(std::sin(rotate));
+      const double hx = 0.5 * (c * size.x + s * size.y), hy = 0.5 * (s * size.x + c * size.y);
+      lo = {centre.x - hx, centre.y - hy};
+      hi = {centre.x + hx, centre.y + hy};
+      return;
+    }
+    case Kind::circle:
+      lo = {centre.x - radius, centre.y - radius};
+      hi = {centre.x + radius, centre.y + radius};
+      return;
+    case Kind::polygon:
+      lo = hi = vertices.empty() ? Vec2{} : vertices[0];
+      for (const auto& v : vertices) {
+        lo = {std::min(lo.x, v.x), std::min(lo.y, v.y)};
+        hi = {std::max(hi.x, v.x), std::max(hi.y, v.y)};
+      }
+      return;
+  }
+}
+
+}  // namespace ty

@@ -1,0 +1,183 @@
+/// \file scene.h
+/// \brief The plain description of a simulation, as read from a scene file: every value
+/// in SI, every default filled in. Nothing here knows YAML or the grid's memory layout.
+///
+/// Positions are in scene coordinates (x right, y up), already shifted so that the
+/// origin is the lower-left corner of `grid.extent`; `origin_shift` records the shift
+/// so that outputs can be written back in the user's coordinates.
+#pragma once
+#include <array>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "io/scene/diagnostics.h"
+
+namespace ty {
+
+struct Vec2 {
+  double x = 0, y = 0;
+};
+
+/// The six wave-field components, in the order the solver stores them.
+enum class Component : int { Ex = 0, Ey, Ez, Hx, Hy, Hz };
+const char* component_name(Component c);
+inline bool is_electric(Component c) { return static_cast<int>(c) < 3; }
+
+enum class Boundary { absorbing, periodic, electric_wall, magnetic_wall };
+const char* boundary_name(Boundary b);
+
+/// Convolutional PML grading (Roden & Gedney 2000): sigma = strength * sigma_opt * (rho/d)^grading,
+/// sigma_opt = 0.8 (grading+1) / (eta0 * cell); kappa = 1 + (kappa_max-1)(rho/d)^grading;
+/// alpha = alpha_max (1 - rho/d).
+struct Absorber {
+  int cells = 16;
+  double grading = 3.0;
+  double strength = 1.0;
+  double kappa_max = 1.0;
+  double alpha_max = 0.05;  ///< S/m
+};
+
+struct GridSpec {
+  Vec2 extent;            ///< size of the region of interest, m
+  double dx = 0, dy = 0;  ///< cell size, m
+  Boundary bx = Boundary::absorbing, by = Boundary::absorbing;
+  Absorber absorber;
+  bool origin_corner = false;
+};
+
+enum class Precision { double_, single };
+
+struct TimeSpec {
+  double stop = 0;       ///< s
+  double courant = 0.95; ///< fraction of the 2D stability limit
+  Precision precision = Precision::double_;
+  int threads = 0;       ///< 0 = auto
+};
+
+/// One sublattice of a magnetic medium.
+struct Sublattice {
+  double saturation = 0;  ///< mu0*Ms, T
+  double g = 2.0;         ///< Lande g
+  double damping = 0;     ///< Gilbert alpha
+};
+
+struct UniaxialAnisotropy {
+  std::array<double, 3> axis{0, 0, 1};  ///< unit vector, scene coordinates
+  double field = 0;                      ///< mu0*H_A, T; > 0 easy axis, < 0 hard axis
+};
+
+/// The `magnet` block: sublattice magnetizations moved by the Landau-Lifshitz-Gilbert
+/// equation (conventions in docs/magnets.md).
+struct Magnet {
+  std::vector<Sublattice> sublattices;        ///< 1 (ferromagnet, ferrite) or 2
+  double lambda = 0;                          ///< molecular-field constant, H_ex,1 = -lambda M2
+  std::vector<UniaxialAnisotropy> anisotropy;
+  std::array<double, 3> dzyaloshinskii{0, 0, 0};  ///< mu0*H_D, T
+  std::array<double, 3> order{0, 0, 0};           ///< sublattice 1's side; zero = not given
+  double exchange_field() const;                  ///< mu0*H_E = lambda * mu0*Ms1, T
+};
+
+struct Medium {
+  std::string name;
+  std::optional<Magnet> magnet;
+  std::array<double, 3> permittivity{1, 1, 1};  ///< relative, along x, y, z
+  double conductivity = 0;                      ///< S/m
+  bool perfect_conductor = false;
+  Mark where;
+};
+
+struct Shape {
+  enum class Kind { rectangle, circle, polygon } kind = Kind::rectangle;
+  Vec2 centre;
+  Vec2 size;          ///< rectangle
+  double rotate = 0;  ///< rectangle, rad, counter-clockwise
+  double radius = 0;  ///< circle
+  std::vector<Vec2> vertices;  ///< polygon
+  bool contains(Vec2 p) const;
+  void bounds(Vec2& lo, Vec2& hi) const;
+};
+
+struct Body {
+  int medium = 0;  ///< index into Scene::media
+  Shape shape;
+  bool sample = false;
+  Mark where;
+};
+
+struct Waveform {
+  enum class Kind { cw, pulse, chirp } kind = Kind::cw;
+  double ramp = 0;                 ///< cw: raised-cosine turn-on, s
+  double fwhm = 0, delay = 0;      ///< pulse: intensity FWHM and peak time, s
+  double from = 0, to = 0, length = 0;  ///< chirp: linear sweep, Hz, Hz, s
+};
+
+struct Source {
+  enum class Kind { point, beam, plane } kind = Kind::point;
+  Component component = Component::Ez;  ///< point: the current's component; beam/plane: Ez or Hz
+  double frequency = 0;                 ///< carrier, Hz (chirp: centre of the sweep)
+  double amplitude = 0;                 ///< point: A or V; beam/plane: peak E, V/m
+  Waveform waveform;
+  Vec2 at;                 ///< point
+  double spread = 0;       ///< point: Gaussian footprint (standard deviation), m
+  Vec2 focus;              ///< beam
+  double waist = 0;        ///< beam: 1/e field radius, m
+  double angle = 0;        ///< beam/plane: direction of travel from +x towards +y, rad
+  char line_axis = 'x';    ///< launch line {x: ...} or {y: ...}
+  double line_at = 0;      ///< its coordinate, m
+  Mark where;
+};
+
+struct Region {
+  bool given = false;
+  Vec2 centre, size;
+};
+
+struct Output {
+  enum class Kind { snapshots, probe, flux, spectral_map } kind = Kind::snapshots;
+  std::string name;
+  std::vector<std::string> fields;
+  double every = 0;  ///< snapshots: s
+  int stride = 1;
+  Region region;
+  Vec2 at;  ///< probe
+  Vec2 from, to;     ///< flux: the line, positive towards z x (to - from)
+  double band_from = 0, band_to = 0;  ///< flux: Hz
+  int count = 0;     ///< flux: frequencies
+  std::vector<double> frequencies;  ///< spectral-map: Hz
+  Mark where;
+};
+
+struct Scene {
+  std::string file;
+  std::string title;
+  GridSpec grid;
+  TimeSpec time;
+  std::array<double, 3> bias{0, 0, 0};  ///< mu0*H0, T
+  std::vector<Medium> media;
+  std::vector<Body> bodies;
+  std::vector<Source> sources;
+  std::vector<Output> outputs;
+  Vec2 origin_shift;  ///< user coordinates = internal coordinates - origin_shift
+  bool reference = false;  ///< the sample bodies were removed (a reference run)
+  std::vector<std::string> warnings;  ///< found while reading (rounded extents, ...)
+};
+
+/// Where a beam's axis meets its launch line (for a plane wave, the middle of the line
+/// within the extent), internal coordinates. The launch medium is taken there, delays are
+/// measured from there, and a body holding it holds the source.
+Vec2 launch_point(const Source& s, Vec2 extent);
+
+/// The frequencies a source's spectrum covers down to 1% of its peak amplitude, Hz
+/// (a cw source: its frequency; a chirp: its sweep).
+struct Band2 {
+  double lo = 0, hi = 0;
+};
+Band2 source_band(const Source& s);
+
+/// The scene of a reference run: without the bodies marked `sample: true`, or, where none
+/// is marked, without every body that holds no source (a point source inside it, or the
+/// point where a beam's axis or a plane wave's line meets its launch line).
+Scene reference_scene(const Scene& s);
+
+}  // namespace ty

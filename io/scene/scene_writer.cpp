@@ -1,0 +1,226 @@
+/// \file scene_writer.cpp
+/// \brief The resolved scene as YAML, through yaml-cpp's emitter.
+#include "io/scene/scene_writer.h"
+
+#include <fmt/format.h>
+#include <yaml-cpp/yaml.h>
+
+#include "io/scene/units.h"
+
+namespace ty {
+namespace {
+
+std::string q(double v, Kind k) { return format_si(v, k); }
+
+void vec3(YAML::Emitter& e, const std::array<double, 3>& v, Kind k) {
+  e << YAML::Flow << YAML::BeginSeq;
+  for (double c : v) e << (k == Kind::dimensionless ? fmt::format("{}", c) : q(c, k));
+  e << YAML::EndSeq;
+}
+
+/// The magnet block with every value explicit (the exchange as its constant lambda).
+void magnet(YAML::Emitter& e, const Magnet& g) {
+  e << YAML::Key << "magnet" << YAML::Value << YAML::Flow << YAML::BeginMap;
+  e << YAML::Key << "sublattices" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+  for (const auto& sl : g.sublattices)
+    e << YAML::Flow << YAML::BeginMap << YAML::Key << "saturation" << YAML::Value << q(sl.saturation, Kind::magnetic_field)
+      << YAML::Key << "g" << YAML::Value << sl.g << YAML::Key << "damping" << YAML::Value << sl.damping << YAML::EndMap;
+  e << YAML::EndSeq;
+  const bool two = g.sublattices.size() == 2;
+  if (two) e << YAML::Key << "exchange-constant" << YAML::Value << g.lambda;
+  if (!g.anisotropy.empty()) {
+    e << YAML::Key << "anisotropy" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+    for (const auto& a : g.anisotropy) {
+      e << YAML::Flow << YAML::BeginMap << YAML::Key << "axis" << YAML::Value;
+      vec3(e, a.axis, Kind::dimensionless);
+      e << YAML::Key << "field" << YAML::Value << q(a.field, Kind::magnetic_field) << YAML::EndMap;
+    }
+    e << YAML::EndSeq;
+  }
+  if (two) {
+    e << YAML::Key << "dzyaloshinskii" << YAML::Value;
+    vec3(e, g.dzyaloshinskii, Kind::magnetic_field);
+  }
+  if (g.order[0] != 0 || g.order[1] != 0 || g.order[2] != 0) {
+    e << YAML::Key << "order" << YAML::Value;
+    vec3(e, g.order, Kind::dimensionless);
+  }
+  e << YAML::EndMap;
+}
+
+void vec2(YAML::Emitter& e, Vec2 v, Kind k) {
+  e << YAML::Flow << YAML::BeginSeq << q(v.x, k) << q(v.y, k) << YAML::EndSeq;
+}
+
+void waveform(YAML::Emitter& e, const Waveform& w) {
+  e << YAML::Key << "waveform" << YAML::Value << YAML::Flow << YAML::BeginMap;
+  switch (w.kind) {
+    case Waveform::Kind::cw:
+      e << YAML::Key << "kind" << YAML::Value << "cw" << YAML::Key << "ramp" << YAML::Value << q(w.ramp, Kind::time);
+      break;
+    case Waveform::Kind::pulse:
+      e << YAML::Key << "kind" << YAML::Value << "pulse" << YAML::Key << "fwhm" << YAML::Value << q(w.fwhm, Kind::time)
+        << YAML::Key << "delay" << YAML::Value << q(w.delay, Kind::time);
+      break;
+    case Waveform::Kind::chirp:
+      e << YAML::Key << "kind" << YAML::Value << "chirp" << YAML::Key << "from" << YAML::Value
+        << q(w.from, Kind::frequency) << YAML::Key << "to" << YAML::Value << q(w.to, Kind::frequency) << YAML::Key
+        << "length" << YAML::Value << q(w.length, Kind::time);
+      break;
+  }
+  e << YAML::EndMap;
+}
+
+}  // namespace
+
+std::string resolved_scene_yaml(const Scene& s) {
+  const Vec2 o = s.origin_shift;
+  auto user = [&](Vec2 p) { return Vec2{p.x - o.x, p.y - o.y}; };
+  YAML::Emitter e;
+  auto region = [&](const Region& r) {
+    e << YAML::Key << "region" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
+    vec2(e, user(r.centre), Kind::length);
+    e << YAML::Key << "size" << YAML::Value;
+    vec2(e, r.size, Kind::length);
+    e << YAML::EndMap;
+  };
+  e << YAML::BeginMap;
+  e << YAML::Key << "title" << YAML::Value << YAML::DoubleQuoted << s.title;
+  e << YAML::Key << "grid" << YAML::Value << YAML::BeginMap;
+  e << YAML::Key << "extent" << YAML::Value;
+  vec2(e, s.grid.extent, Kind::length);
+  e << YAML::Key << "cell" << YAML::Value;
+  vec2(e, {s.grid.dx, s.grid.dy}, Kind::length);
+  e << YAML::Key << "boundaries" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "x" << YAML::Value
+    << boundary_name(s.grid.bx) << YAML::Key << "y" << YAML::Value << boundary_name(s.grid.by) << YAML::EndMap;
+  const Absorber& a = s.grid.absorber;
+  e << YAML::Key << "absorber" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "cells" << YAML::Value
+    << a.cells << YAML::Key << "grading" << YAML::Value << a.grading << YAML::Key << "strength" << YAML::Value
+    << a.strength << YAML::Key << "kappa" << YAML::Value << a.kappa_max << YAML::Key << "alpha" << YAML::Value
+    << q(a.alpha_max, Kind::conductivity) << YAML::EndMap;
+  e << YAML::Key << "origin" << YAML::Value << (s.grid.origin_corner ? "corner" : "centre");
+  e << YAML::EndMap;
+  e << YAML::Key << "time" << YAML::Value << YAML::BeginMap << YAML::Key << "stop" << YAML::Value
+    << q(s.time.stop, Kind::time) << YAML::Key << "courant" << YAML::Value << s.time.courant << YAML::Key
+    << "precision" << YAML::Value << (s.time.precision == Precision::single ? "single" : "double") << YAML::Key
+    << "threads" << YAML::Value;
+  if (s.time.threads > 0) e << s.time.threads; else e << "auto";
+  e << YAML::EndMap;
+  e << YAML::Key << "bias" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+  for (double b : s.bias) e << q(b, Kind::magnetic_field);
+  e << YAML::EndSeq;
+  e << YAML::Key << "media" << YAML::Value << YAML::BeginMap;
+  for (const auto& m : s.media) {
+    e << YAML::Key << m.name << YAML::Value << YAML::Flow << YAML::BeginMap;
+    e << YAML::Key << "permittivity" << YAML::Value << YAML::Flow << YAML::BeginSeq << m.permittivity[0]
+      << m.permittivity[1] << m.permittivity[2] << YAML::EndSeq;
+    e << YAML::Key << "conductivity" << YAML::Value << q(m.conductivity, Kind::conductivity);
+    e << YAML::Key << "perfect-conductor" << YAML::Value << m.perfect_conductor;
+    if (m.magnet) magnet(e, *m.magnet);
+    e << YAML::EndMap;
+  }
+  e << YAML::EndMap;
+  e << YAML::Key << "bodies" << YAML::Value << YAML::BeginSeq;
+  for (const auto& b : s.bodies) {
+    e << YAML::Flow << YAML::BeginMap << YAML::Key << "medium" << YAML::Value << s.media[b.medium].name;
+    const Shape& sh = b.shape;
+    switch (sh.kind) {
+      case Shape::Kind::rectangle:
+        e << YAML::Key << "rectangle" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
+        vec2(e, user(sh.centre), Kind::length);
+        e << YAML::Key << "size" << YAML::Value;
+        vec2(e, sh.size, Kind::length);
+        e << YAML::Key << "rotate" << YAML::Value << q(sh.rotate, Kind::angle) << YAML::EndMap;
+        break;
+      case Shape::Kind::circle:
+        e << YAML::Key << "circle" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
+        vec2(e, user(sh.centre), Kind::length);
+        e << YAML::Key << "radius" << YAML::Value << q(sh.radius, Kind::length) << YAML::EndMap;
+        break;
+      case Shape::Kind::polygon:
+        e << YAML::Key << "polygon" << YAML::Value << YAML::BeginSeq;
+        for (const auto& v : sh.vertices) vec2(e, user(v), Kind::length);
+        e << YAML::EndSeq;
+        break;
+    }
+    e << YAML::Key << "sample" << YAML::Value << b.sample << YAML::EndMap;
+  }
+  e << YAML::EndSeq;
+  e << YAML::Key << "sources" << YAML::Value << YAML::BeginSeq;
+  for (const auto& src : s.sources) {
+    e << YAML::BeginMap;
+    const char* kind = src.kind == Source::Kind::point ? "point" : src.kind == Source::Kind::beam ? "beam" : "plane";
+    e << YAML::Key << kind << YAML::Value << YAML::BeginMap;
+    if (src.kind == Source::Kind::point) {
+      e << YAML::Key << "at" << YAML::Value;
+      vec2(e, user(src.at), Kind::length);
+      e << YAML::Key << "component" << YAML::Value << component_name(src.component);
+      e << YAML::Key << "amplitude" << YAML::Value
+        << q(src.amplitude, is_electric(src.component) ? Kind::current : Kind::voltage);
+      e << YAML::Key << "spread" << YAML::Value << q(src.spread, Kind::length);
+    } else {
+      e << YAML::Key << "polarization" << YAML::Value << component_name(src.component);
+      e << YAML::Key << "amplitude" << YAML::Value << q(src.amplitude, Kind::electric_field);
+      const double shift = src.line_axis == 'x' ? o.x : o.y;
+      e << YAML::Key << "launch" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key
+        << std::string(1, src.line_axis) << YAML::Value << q(src.line_at - shift, Kind::length) << YAML::EndMap;
+      if (src.kind == Source::Kind::beam) {
+        e << YAML::Key << "waist" << YAML::Value << q(src.waist, Kind::length);
+        e << YAML::Key << "focus" << YAML::Value;
+        vec2(e, user(src.focus), Kind::length);
+        e << YAML::Key << "angle" << YAML::Value << q(src.angle, Kind::angle);
+      } else {
+        const double c = std::cos(src.angle), sn = std::sin(src.angle);
+        e << YAML::Key << "direction" << YAML::Value
+          << (std::abs(c) > std::abs(sn) ? (c > 0 ? "+x" : "-x") : (sn > 0 ? "+y" : "-y"));
+      }
+    }
+    e << YAML::Key << "frequency" << YAML::Value << q(src.frequency, Kind::frequency);
+    waveform(e, src.waveform);
+    e << YAML::EndMap << YAML::EndMap;
+  }
+  e << YAML::EndSeq;
+  e << YAML::Key << "outputs" << YAML::Value << YAML::BeginSeq;
+  for (const auto& out : s.outputs) {
+    e << YAML::BeginMap;
+    if (out.kind == Output::Kind::snapshots) {
+      e << YAML::Key << "snapshots" << YAML::Value << YAML::BeginMap;
+      e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
+      e << YAML::Key << "every" << YAML::Value << q(out.every, Kind::time);
+      e << YAML::Key << "stride" << YAML::Value << out.stride;
+      if (out.region.given) region(out.region);
+    } else if (out.kind == Output::Kind::flux) {  // the line as its two ends: the same line and normal
+      e << YAML::Key << "flux" << YAML::Value << YAML::BeginMap;
+      e << YAML::Key << "name" << YAML::Value << out.name;
+      e << YAML::Key << "line" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value;
+      vec2(e, user(out.from), Kind::length);
+      e << YAML::Key << "to" << YAML::Value;
+      vec2(e, user(out.to), Kind::length);
+      e << YAML::EndMap;
+      e << YAML::Key << "band" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value
+        << q(out.band_from, Kind::frequency) << YAML::Key << "to" << YAML::Value << q(out.band_to, Kind::frequency)
+        << YAML::Key << "count" << YAML::Value << out.count << YAML::EndMap;
+    } else if (out.kind == Output::Kind::spectral_map) {
+      e << YAML::Key << "spectral-map" << YAML::Value << YAML::BeginMap;
+      e << YAML::Key << "name" << YAML::Value << out.name;
+      e << YAML::Key << "frequencies" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+      for (double f : out.frequencies) e << q(f, Kind::frequency);
+      e << YAML::EndSeq;
+      e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
+      e << YAML::Key << "stride" << YAML::Value << out.stride;
+      if (out.region.given) region(out.region);
+    } else {
+      e << YAML::Key << "probe" << YAML::Value << YAML::BeginMap;
+      e << YAML::Key << "name" << YAML::Value << out.name;
+      e << YAML::Key << "at" << YAML::Value;
+      vec2(e, user(out.at), Kind::length);
+      e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
+    }
+    e << YAML::EndMap << YAML::EndMap;
+  }
+  e << YAML::EndSeq;
+  e << YAML::EndMap;
+  return std::string(e.c_str()) + "\n";
+}
+
+}  // namespace ty

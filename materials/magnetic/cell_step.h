@@ -1,0 +1,116 @@
+/// \file cell_step.h
+/// \brief One time step of the magnetic cells of one medium, as the solver calls it: the
+/// exact small-signal step (llg_linear.h) for every cell whose sublattices stay within a
+/// small tilt of the ground state, and the implicit midpoint rule of the full nonlinear
+/// equations (llg_cell.h) for the cells tilted further.
+///
+/// The small-signal step leaves out terms of relative size |x_s| (the tilt, in rad); up to
+/// `tilt` = 1e-4 rad that is below the midpoint rule's own error at the production step
+/// (phase 6e-5, llg_cell.h), so the switch costs no accuracy, and it keeps the common case
+/// (waves of up to ~10 kV/m in a fluoride away from its lines) at the price of one 4x4
+/// matrix-vector product per cell. Cells are taken in blocks of eight: the midpoint rule runs
+/// for a block only when one of its cells needs it, starting from the small-signal result as
+/// its predictor, and each cell keeps the result its own tilt calls for, so the outcome does
+/// not depend on the block boundaries.
+#pragma once
+#include <algorithm>
+#include <array>
+
+#include "materials/magnetic/llg_cell.h"
+#include "materials/magnetic/llg_linear.h"
+
+namespace ty {
+
+struct CellStep {
+  static constexpr double kTilt = 1e-4;  ///< rad, see above
+  LinearStep linear;
+  LlgCoefficients midpoint;
+  double r[3] = {0, 0, 0};  ///< the cell's own reaction weights (0 for a prescribed field)
+  double tilt2 = kTilt * kTilt;
+
+  /// f_max: the highest linear resonance (Hz), which sets the midpoint rule's sub-steps; r the
+  /// cell's own reaction weights, self its self field (llg_linear.h).
+  static CellStep from(const MagnetModel& model, const MagneticState& ground, double dt, double f_max,
+                       const std::array<double, 3>& r, const std::array<double, 3>& self = {0, 0, 0},
+                       double tilt = kTilt) {
+    CellStep p;
+    p.linear = LinearStep::from(model, ground, dt, r, self);
+    p.midpoint = LlgCoefficients::from(model, dt, f_max);
+    const Vec3 mg = model.net(ground.m);
+    for (int c = 0; c < 3; ++c) p.midpoint.self[c] = self[c], p.midpoint.m_ground[c] = mg[c];
+    for (int c = 0; c < 3; ++c) p.r[c] = r[c];
+    p.tilt2 = tilt * tilt;
+    return p;
+  }
+};
+
+template <int N>
+inline long step_cells_n(const CellStep& p, long count, const double* const* m, double* const* mn,
+                         const double* const* b0, const double* const* b1, double* const* dM, double* x2) {
+  constexpr int W = 8;
+  linear_cells<N>(p.linear, count, m, b0, b1, mn, dM, x2);
+  long tilted = 0;
+  for (long k0 = 0; k0 < count; k0 += W) {
+    const int nl = static_cast<int>(std::min<long>(W, count - k0));
+    bool any = false;
+    for (int l = 0; l < nl; ++l) any |= x2[k0 + l] > p.tilt2;
+    if (!any) continue;
+    // the midpoint rule for the block, from the small-signal step as its predictor; each
+    // cell then keeps the result its own tilt calls for
+    const double* mi[6];
+    double* mo[6];
+    const double* gp[6];
+    double guess[6][W], keep[6][W], kd[3][W];
+    for (int c = 0; c < 6; ++c) {
+      mi[c] = m[c] + k0, mo[c] = mn[c] + k0, gp[c] = guess[c];
+      for (int l = 0; l < nl; ++l) keep[c][l] = mo[c][l], guess[c][l] = mo[c][l] - mi[c][l], mo[c][l] = mi[c][l];
+    }
+    const double* bo[3] = {b0[0] + k0, b0[1] + k0, b0[2] + k0};
+    const double* bn[3] = {b1[0] + k0, b1[1] + k0, b1[2] + k0};
+    double* dp[3] = {dM[0] + k0, dM[1] + k0, dM[2] + k0};
+    for (int c = 0; c < 3; ++c)
+      for (int l = 0; l < nl; ++l) kd[c][l] = dp[c][l];
+    llg_cells(p.midpoint, nl, mo, gp, bo, bn, p.r, dp);
+    for (int l = 0; l < nl; ++l) {
+      if (x2[k0 + l] > p.tilt2) {
+        ++tilted;
+        continue;
+      }
+      for (int c = 0; c < 6; ++c) mo[c][l] = keep[c][l];
+      for (int c = 0; c < 3; ++c) dp[c][l] = kd[c][l];
+    }
+  }
+  return tilted;
+}
+
+/// Advances cells [0, count) of one medium over one step. m[6] in, mn[6] out: m1 xyz, m2 xyz
+/// (unit vectors; m2 = 0 for one sublattice); b0[3], b1[3]: the wave field at the cell at the
+/// step's start and end (T, bias excluded); dM[3] out: the change of mu0 M over the step (T);
+/// scratch: count doubles. Returns how many cells took the midpoint rule.
+inline long step_cells(const CellStep& p, long count, const double* const* m, double* const* mn,
+                       const double* const* b0, const double* const* b1, double* const* dM, double* scratch) {
+  return p.linear.n == 2 ? step_cells_n<2>(p, count, m, mn, b0, b1, dM, scratch)
+                         : step_cells_n<1>(p, count, m, mn, b0, b1, dM, scratch);
+}
+
+/// One cell, for tests and small uses: m[s][c] (unit vectors), b0, b1 as above, dM out.
+inline void step_cell(const CellStep& p, const double* b0, const double* b1, double (*m)[3], double* dM) {
+  double mm[6], out[6], bo[3], bn[3];
+  for (int c = 0; c < 3; ++c) {
+    mm[c] = m[0][c], mm[3 + c] = p.linear.n == 2 ? m[1][c] : 0.0;
+    bo[c] = b0[c], bn[c] = b1[c];
+  }
+  const double* mp[6] = {&mm[0], &mm[1], &mm[2], &mm[3], &mm[4], &mm[5]};
+  double* op[6] = {&out[0], &out[1], &out[2], &out[3], &out[4], &out[5]};
+  const double* bop[3] = {&bo[0], &bo[1], &bo[2]};
+  const double* bnp[3] = {&bn[0], &bn[1], &bn[2]};
+  double* dp[3] = {&dM[0], &dM[1], &dM[2]};
+  double x2;
+  step_cells(p, 1, mp, op, bop, bnp, dp, &x2);
+  for (int c = 0; c < 3; ++c) {
+    m[0][c] = out[c];
+    if (p.linear.n == 2) m[1][c] = out[3 + c];
+  }
+}
+
+}  // namespace ty

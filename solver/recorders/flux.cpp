@@ -1,0 +1,31 @@
+/// \file flux.cpp
+/// \brief Points and weights of a flux line.
+#include "solver/recorders/flux.h"
+
+#include <cmath>
+
+namespace ty {
+
+FluxRecorder make_flux(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
+  FluxRecorder r;
+  r.name = o.name;
+  const double dx = o.to.x - o.from.x, dy = o.to.y - o.from.y, len = std::hypot(dx, dy);
+  r.normal = {-dy / len, dx / len};  // z x (to - from)
+  const int n = std::max(1, static_cast<int>(std::ceil(len / std::min(g.dx, g.dy))));
+  for (int k = 0; k < n; ++k) {  // midpoints of n equal pieces
+    const double s = (k + 0.5) / n;
+    r.points.push_back({o.from.x + s * dx, o.from.y + s * dy});
+    r.weight.push_back(len / n);
+    std::array<PointStencil, 6> st;
+    for (int c = 0; c < 6; ++c) st[c] = point_stencil(g, static_cast<Component>(c), r.points.back());
+    r.stencil.push_back(st);
+  }
+  for (int k = 0; k < o.count; ++k)
+    r.freq.push_back(o.count == 1 ? o.band_from : o.band_from + (o.band_to - o.band_from) * k / (o.count - 1));
+  r.every = dft_every(s, std::max(o.band_from, o.band_to), g.dt, total_steps);
+  r.acc.assign(r.freq.size() * r.points.size() * 6, 0.0);
+  r.value.assign(r.points.size() * 6, 0.0);
+  return r;
+}
+
+}  // namespace ty

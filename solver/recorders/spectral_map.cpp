@@ -1,0 +1,52 @@
+/// \file spectral_map.cpp
+/// \brief Region, windows and storage of a spectral map.
+#include "solver/recorders/spectral_map.h"
+
+#include <algorithm>
+#include <cmath>
+
+#include "solver/recorders/recorders.h"
+
+namespace ty {
+
+SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
+  SpectralMap m;
+  m.name = o.name;
+  m.fields = o.fields;
+  m.stride = o.stride;
+  Vec2 lo{0, 0}, hi{s.grid.extent.x, s.grid.extent.y};
+  if (o.region.given) {
+    lo = {o.region.centre.x - 0.5 * o.region.size.x, o.region.centre.y - 0.5 * o.region.size.y};
+    hi = {o.region.centre.x + 0.5 * o.region.size.x, o.region.centre.y + 0.5 * o.region.size.y};
+  }
+  const double eps = 1e-9;
+  // Ez nodes with room for the neighbours the averages read (i-1, j-1)
+  const int ia = std::max(1, static_cast<int>(std::ceil(g.fi(Component::Ez, lo.x) - eps)));
+  const int ib = std::min(g.nx - 1, static_cast<int>(std::floor(g.fi(Component::Ez, hi.x) + eps)));
+  const int ja = std::max(1, static_cast<int>(std::ceil(g.fj(Component::Ez, lo.y) - eps)));
+  const int jb = std::min(g.ny - 1, static_cast<int>(std::floor(g.fj(Component::Ez, hi.y) + eps)));
+  m.i0 = ia, m.j0 = ja;
+  m.ni = std::max(0, (ib - ia) / o.stride + 1);
+  m.nj = std::max(0, (jb - ja) / o.stride + 1);
+  for (int a = 0; a < m.ni; ++a) m.x.push_back(g.x(Component::Ez, ia + a * o.stride) - s.origin_shift.x);
+  for (int b = 0; b < m.nj; ++b) m.y.push_back(g.y(Component::Ez, ja + b * o.stride) - s.origin_shift.y);
+  m.freq = o.frequencies;
+  const double half = 0.5 * total_steps * g.dt;
+  double f_max = 0;
+  for (double f : m.freq) f_max = std::max(f_max, f);
+  m.every = dft_every(s, f_max, g.dt, static_cast<long>(half / g.dt));
+  const long every = m.every;
+  for (double f : m.freq) {
+    const double periods = std::floor(half * f);
+    const double win = periods >= 1 ? periods / f : total_steps * g.dt;
+    const long steps = std::clamp(every * std::lround(win / (every * g.dt)), every, total_steps / every * every);
+    m.first_step.push_back(total_steps - steps);
+    m.window.push_back(steps * g.dt);
+  }
+  m.start = m.first_step.empty() ? total_steps : *std::min_element(m.first_step.begin(), m.first_step.end());
+  m.acc.assign(m.freq.size() * static_cast<std::size_t>(m.ni) * m.nj * 6, 0.0);
+  m.value.assign(static_cast<std::size_t>(m.ni) * m.nj * 6, 0.0);
+  return m;
+}
+
+}  // namespace ty
