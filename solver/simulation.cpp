@@ -346,9 +346,9 @@ void Simulation<R>::build_recorders() {
     } else if (o.kind == Output::Kind::spectral_map) {
       maps_.push_back(make_spectral_map(scene_, o, g_, total_steps_));
       bytes_ += maps_.back().acc.size() * sizeof(std::complex<double>);
-    } else if (o.kind == Output::Kind::flux) {
-      fluxes_.push_back(make_flux(scene_, o, g_, total_steps_));
-      bytes_ += fluxes_.back().acc.size() * sizeof(std::complex<double>);
+    } else if (o.kind == Output::Kind::power_spectrum) {
+      power_spectra_.push_back(make_power_spectrum(scene_, o, g_, total_steps_));
+      bytes_ += power_spectra_.back().acc.size() * sizeof(std::complex<double>);
     } else {
       snap_ = plan_snapshots(scene_, o, g_, total_steps_);
       size_t most = 0;
@@ -565,7 +565,7 @@ void Simulation<R>::record() {
     }
     p.count = k + 1;
   }
-  for (auto& fl : fluxes_) {
+  for (auto& fl : power_spectra_) {
     fl.steps = n_;
     if ((total_steps_ - 1 - k) % fl.every != 0) continue;  // not a sampling step
     const size_t np = fl.points.size(), nf = fl.freq.size();

@@ -19,7 +19,7 @@
 #include "io/scene/scene.h"
 #include "solver/grid/aligned.h"
 #include "solver/grid/cpml.h"
-#include "solver/recorders/flux.h"
+#include "solver/recorders/power_spectrum.h"
 #include "solver/recorders/spectral_map.h"
 #include "solver/media/magnetic_cells.h"
 #include "solver/recorders/recorders.h"
@@ -90,8 +90,8 @@ class Simulation {
       for (int c = 0; c < 3; ++c) f("magnets/dM" + q + std::to_string(c), mag_.dM[p][c].data(), mag_.dM[p][c].size());
     }
     for (auto& p : probes_) f("probes/" + p.name, p.raw.data(), p.raw.size());
-    for (auto& fl : fluxes_)  // complex sums as pairs of doubles
-      f("flux/" + fl.name, reinterpret_cast<double*>(fl.acc.data()), 2 * fl.acc.size());
+    for (auto& fl : power_spectra_)  // complex sums as pairs of doubles
+      f("power-spectra/" + fl.name, reinterpret_cast<double*>(fl.acc.data()), 2 * fl.acc.size());
     for (auto& p : probes_)
       for (size_t k = 0; k < p.magnetic.size(); ++k)
         f("probes/" + p.name + "-" + p.magnetic[k], p.magnetic_series[k].data(), p.magnetic_series[k].size());
@@ -99,14 +99,14 @@ class Simulation {
     f("clock/steps", &n_, 1);
     f("clock/frames", &next_frame_, 1);
     for (auto& p : probes_) p.count = n_;
-    for (auto& fl : fluxes_) fl.steps = n_;
+    for (auto& fl : power_spectra_) fl.steps = n_;
     mag_.latest = static_cast<int>(n_ & 1);
   }
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
   bool find_nonfinite(int& i, int& j, Component& c) const;
 
   std::vector<ProbeRecorder>& probes() { return probes_; }
-  const std::vector<FluxRecorder>& fluxes() const { return fluxes_; }
+  const std::vector<PowerSpectrumRecorder>& power_spectra() const { return power_spectra_; }
   const std::vector<SpectralMap>& spectral_maps() const { return maps_; }
   const SnapshotPlan& snapshot_plan() const { return snap_; }
   void set_snapshot_sink(SnapshotSink* sink) { sink_ = sink; }
@@ -166,7 +166,7 @@ class Simulation {
   bool periodic_x_ = false, periodic_y_ = false, magnetic_x_ = false, magnetic_y_ = false;
   // recorders
   std::vector<ProbeRecorder> probes_;
-  std::vector<FluxRecorder> fluxes_;
+  std::vector<PowerSpectrumRecorder> power_spectra_;
   std::vector<SpectralMap> maps_;
   SnapshotPlan snap_;
   long next_frame_ = 0;

@@ -29,14 +29,14 @@ inline Magnet mnf2(double alpha = 0) {
 }
 
 /// An empty vacuum scene of nx x ny cells of size d, no absorber unless the boundary says so.
-inline Scene box_scene(int nx, int ny, double d, Boundary bx, Boundary by, double courant, double stop) {
+inline Scene box_scene(int nx, int ny, double d, Boundary bx, Boundary by, double step_fraction, double stop) {
   Scene s;
   s.title = "test";
   s.grid.dx = s.grid.dy = d;
   s.grid.extent = {nx * d, ny * d};
   s.grid.bx = bx;
   s.grid.by = by;
-  s.time.courant = courant;
+  s.time.step_fraction = step_fraction;
   s.time.stop = stop;
   s.time.threads = 2;
   return s;

@@ -24,7 +24,7 @@ Scene bench_scene(int n, bool dielectric, bool magnetic = false) {
   s.grid.extent = {n * s.grid.dx, n * s.grid.dy};
   s.grid.bx = s.grid.by = dielectric ? Boundary::absorbing : Boundary::periodic;
   s.time.stop = 1e-9;
-  s.time.courant = 0.9;
+  s.time.step_fraction = 0.9;
   Source src;  // a point source keeps the fields non-trivial
   src.kind = Source::Kind::point;
   src.component = Component::Ez;

@@ -137,7 +137,7 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
   std::cout << fmt::format("scene: {}\n", s.title.empty() ? path : s.title);
   std::cout << fmt::format("  grid: {} x {} cells of {:.4g} x {:.4g} um ({} x {} in the extent; boundaries x {}, y {})\n",
                            nx, ny, G.dx * 1e6, G.dy * 1e6, ex, ey, boundary_name(G.bx), boundary_name(G.by));
-  std::cout << fmt::format("  time: step {:.5g} fs (courant {}), {} steps to {:.5g} ps\n", dt * 1e15, s.time.courant,
+  std::cout << fmt::format("  time: step {:.5g} fs (step-fraction {}), {} steps to {:.5g} ps\n", dt * 1e15, s.time.step_fraction,
                            steps, s.time.stop * 1e12);
   std::cout << fmt::format("  memory: about {:.1f} MB of fields ({} precision)\n", mem / 1e6,
                            real == 4 ? "single" : "double");

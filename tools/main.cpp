@@ -77,13 +77,13 @@ int main(int argc, char** argv) {
   auto* m = app.add_subcommand("measure", "Numbers from a run folder");
   m->require_subcommand(1);
   std::string m_run, m_ref, m_reflected, m_transmitted;
-  auto* ms = m->add_subcommand("spectrum", "Reflectance, transmittance and absorptance from flux lines");
+  auto* ms = m->add_subcommand("spectrum", "Reflectance, transmittance and absorptance from power-spectrum lines");
   ms->add_option("run", m_run, "Run folder")->required()->check(CLI::ExistingDirectory);
   ms->add_option("--reference", m_ref, "Run folder of the reference run (terayee run --reference)")
       ->required()
       ->check(CLI::ExistingDirectory);
-  ms->add_option("--reflected", m_reflected, "Flux line before the sample (default: the one named 'reflected')");
-  ms->add_option("--transmitted", m_transmitted, "Flux line behind the sample (default: the one named 'transmitted')");
+  ms->add_option("--reflected", m_reflected, "Power-spectrum line before the sample (default: the one named 'reflected')");
+  ms->add_option("--transmitted", m_transmitted, "Power-spectrum line behind the sample (default: the one named 'transmitted')");
 
   std::string f_run, f_map, f_ref, f_freq, f_axis = "x", f_face;
   auto* mf = m->add_subcommand("focus", "The focal spot in a spectral map");

@@ -1,6 +1,6 @@
 /// \file measure_command.cpp
 /// \brief `terayee measure spectrum RUN --reference REF`: reflectance, transmittance and
-/// absorptance against frequency from the flux lines of a run and of its reference run
+/// absorptance against frequency from the power-spectrum lines of a run and of its reference run
 /// (the same scene without the sample, `terayee run --reference`).
 ///   T(f) = P_sample(transmitted line) / P_reference(transmitted line)
 ///   R(f) = -P[E_sample - E_reference, H_sample - H_reference](reflected line) / P_reference(reflected line)
@@ -22,7 +22,7 @@
 namespace ty {
 namespace {
 
-struct FluxData {
+struct PowerSpectrumData {
   std::vector<double> freq, weight, normal, re, im;
   size_t points = 0;
   std::complex<double> at(size_t f, size_t p, int c) const {
@@ -31,13 +31,13 @@ struct FluxData {
   }
 };
 
-FluxData read_flux(const std::string& run, const std::string& name) {
+PowerSpectrumData read_flux(const std::string& run, const std::string& name) {
   const std::string file = run + "/fields.h5";
   const h5::File h = h5::File::open(file);
-  const std::string base = "/flux/" + name;
+  const std::string base = "/power-spectra/" + name;
   if (!h.exists(base + "/frequency"))
-    throw BadInput(fmt::format("{}: error: the run has no flux line named '{}'", file, name));
-  FluxData d;
+    throw BadInput(fmt::format("{}: error: the run has no power-spectrum line named '{}'", file, name));
+  PowerSpectrumData d;
   d.freq = h.read(base + "/frequency");
   d.weight = h.read(base + "/weights");
   d.normal = h.read(base + "/normal");
@@ -47,7 +47,7 @@ FluxData read_flux(const std::string& run, const std::string& name) {
   return d;
 }
 
-std::vector<double> power(const FluxData& a, const FluxData* b) {  // of a, or of a - b
+std::vector<double> power(const PowerSpectrumData& a, const PowerSpectrumData* b) {  // of a, or of a - b
   std::vector<double> P(a.freq.size(), 0.0);
   for (size_t f = 0; f < a.freq.size(); ++f)
     for (size_t p = 0; p < a.points; ++p) {
@@ -65,7 +65,7 @@ std::vector<double> power(const FluxData& a, const FluxData* b) {  // of a, or o
 
 bool has_flux(const std::string& run, const std::string& name) {
   const h5::File h = h5::File::open(run + "/fields.h5");
-  return h.exists("/flux/" + name + "/frequency");
+  return h.exists("/power-spectra/" + name + "/frequency");
 }
 
 }  // namespace
@@ -74,12 +74,12 @@ int measure_spectrum(const std::string& run, const std::string& ref, std::string
   if (reflected.empty() && has_flux(run, "reflected")) reflected = "reflected";
   if (transmitted.empty() && has_flux(run, "transmitted")) transmitted = "transmitted";
   if (reflected.empty() && transmitted.empty())
-    throw BadInput(fmt::format("{}: error: name the flux lines with --reflected and/or --transmitted (no lines "
+    throw BadInput(fmt::format("{}: error: name the power-spectrum lines with --reflected and/or --transmitted (no lines "
                                "named 'reflected' or 'transmitted')",
                                run));
   std::vector<double> freq, R, T;
   if (!reflected.empty()) {
-    const FluxData s = read_flux(run, reflected), r = read_flux(ref, reflected);
+    const PowerSpectrumData s = read_flux(run, reflected), r = read_flux(ref, reflected);
     if (s.freq != r.freq || s.points != r.points)
       throw BadInput(fmt::format("{}: error: the reference run's line '{}' differs from the run's", ref, reflected));
     const auto inc = power(r, nullptr), scat = power(s, &r);
@@ -87,12 +87,12 @@ int measure_spectrum(const std::string& run, const std::string& ref, std::string
     for (size_t k = 0; k < inc.size(); ++k) R.push_back(-scat[k] / inc[k]);
   }
   if (!transmitted.empty()) {
-    const FluxData s = read_flux(run, transmitted), r = read_flux(ref, transmitted);
+    const PowerSpectrumData s = read_flux(run, transmitted), r = read_flux(ref, transmitted);
     if (s.freq != r.freq || s.points != r.points)
       throw BadInput(fmt::format("{}: error: the reference run's line '{}' differs from the run's", ref, transmitted));
     const auto inc = power(r, nullptr), out = power(s, nullptr);
     if (!freq.empty() && freq != s.freq)
-      throw BadInput(fmt::format("{}: error: the two flux lines have different bands", run));
+      throw BadInput(fmt::format("{}: error: the two power-spectrum lines have different bands", run));
     freq = s.freq;
     for (size_t k = 0; k < inc.size(); ++k) T.push_back(out[k] / inc[k]);
   }

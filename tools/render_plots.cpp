@@ -145,11 +145,11 @@ int plot_spectrum(const RenderOptions& o, const std::string& dir) {
     p.series.push_back({"T transfer matrix", fm, m.col("T_plus", o.predicted), PlotSeries::Style::dashed, 1});
   }
   const Scene s = read_scene(o.run + "/scene.yaml");
-  int normal = 0;  // the flux lines' normal (x unless a line says y)
+  int normal = 0;  // the power-spectrum lines' normal (x unless a line says y)
   const h5::File h = h5::File::open(o.run + "/fields.h5");
-  if (h.exists("/flux"))
-    for (const auto& name : h.members("/flux")) {
-      const auto n = h.read("/flux/" + name + "/normal");
+  if (h.exists("/power-spectra"))
+    for (const auto& name : h.members("/power-spectra")) {
+      const auto n = h.read("/power-spectra/" + name + "/normal");
       if (n.size() == 2 && std::abs(n[1]) > std::abs(n[0])) normal = 1;
     }
   if (!f.empty()) p.shaded = negative_mu_bands(s, f.front() * 1e9, f.back() * 1e9, normal);

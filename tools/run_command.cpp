@@ -100,7 +100,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
       const double x = g.x(c, i) - scene.origin_shift.x, y = g.y(c, j) - scene.origin_shift.y;
       log.info(fmt::format("error: the field {} became non-finite by step {} (t = {:.4g} ps) at node ({}, {}), "
                            "x = {:.4g} mm, y = {:.4g} mm. Check the medium there; rerun with a smaller "
-                           "time.courant (e.g. --set time.courant=0.5) to see whether it is a stability problem.",
+                           "time.step-fraction (e.g. --set time.step-fraction=0.5) to see whether it is a stability problem.",
                            component_name(c), n + 1, (n + 1) * g.dt * 1e12, i, j, x * 1e3, y * 1e3));
       return 1;
     }
@@ -167,7 +167,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
                            "amplitude (the response scales with it)",
                            100 * tilted, CellStep::kTilt));
   }
-  folder.finish(sim.probes(), sim.fluxes(), sim.spectral_maps(), g.dt, s);
+  folder.finish(sim.probes(), sim.power_spectra(), sim.spectral_maps(), g.dt, s);
   log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", N, hms(wall),
                        s["cell-updates-per-s"].get<double>(), o.out));
   return 0;

@@ -96,7 +96,7 @@ void RunFolder::frame(std::size_t k, double, std::size_t field, const double* da
   h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
 }
 
-void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes,
+void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
                        const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary) {
   h5::File& f = *h5_;
   for (const auto& m : maps) {
@@ -133,8 +133,8 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
       f.write(base + "/" + name + "/imag", shape, im.data(), field_units(name));
     }
   }
-  for (const auto& fl : fluxes) {
-    const std::string base = "/flux/" + fl.name;
+  for (const auto& fl : power_spectra) {
+    const std::string base = "/power-spectra/" + fl.name;
     const double T = fl.steps * dt;
     const auto P = line_power(fl, [&](size_t a, size_t b, int c) { return fl.field(a, b, c, T); });
     f.write(base + "/frequency", {fl.freq.size()}, fl.freq.data(), "Hz");

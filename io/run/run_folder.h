@@ -12,7 +12,7 @@
 
 #include "io/run/hdf5_file.h"
 #include "io/scene/scene.h"
-#include "solver/recorders/flux.h"
+#include "solver/recorders/power_spectrum.h"
 #include "solver/recorders/recorders.h"
 #include "solver/recorders/spectral_map.h"
 #include "solver/grid/yee_grid.h"
@@ -39,7 +39,7 @@ class RunFolder : public SnapshotSink {
   void frame(std::size_t frame, double time, std::size_t field, const float* data) override;
   void frame(std::size_t frame, double time, std::size_t field, const double* data) override;
   /// Writes the probes, closes the HDF5 file, renames it, writes fields.xmf and summary.json.
-  void finish(const std::vector<ProbeRecorder>& probes, const std::vector<FluxRecorder>& fluxes,
+  void finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
               const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary);
   /// Removes the partial files of a run that did not complete.
   void abandon();

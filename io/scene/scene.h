@@ -50,7 +50,7 @@ enum class Precision { double_, single };
 
 struct TimeSpec {
   double stop = 0;       ///< s
-  double courant = 0.95; ///< fraction of the 2D stability limit
+  double step_fraction = 0.95; ///< the time step as a fraction of the 2D stability limit
   Precision precision = Precision::double_;
   int threads = 0;       ///< 0 = auto
 };
@@ -134,16 +134,16 @@ struct Region {
 };
 
 struct Output {
-  enum class Kind { snapshots, probe, flux, spectral_map } kind = Kind::snapshots;
+  enum class Kind { snapshots, probe, power_spectrum, spectral_map } kind = Kind::snapshots;
   std::string name;
   std::vector<std::string> fields;
   double every = 0;  ///< snapshots: s
   int stride = 1;
   Region region;
   Vec2 at;  ///< probe
-  Vec2 from, to;     ///< flux: the line, positive towards z x (to - from)
-  double band_from = 0, band_to = 0;  ///< flux: Hz
-  int count = 0;     ///< flux: frequencies
+  Vec2 from, to;     ///< power spectrum: the line, positive towards z x (to - from)
+  double band_from = 0, band_to = 0;  ///< power spectrum: Hz
+  int count = 0;     ///< power spectrum: frequencies
   std::vector<double> frequencies;  ///< spectral-map: Hz
   Mark where;
 };

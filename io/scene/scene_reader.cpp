@@ -571,14 +571,16 @@ class SceneBuilder {
   }
 
   void read_time(const YAML::Node& t) {
-    r_.allow(t, {"stop", "courant", "precision", "threads"}, "time");
+    if (t["courant"]) r_.error(t["courant"], "'time.courant' is now called 'time.step-fraction' (same meaning)");
+    r_.allow(t, {"stop", "step-fraction", "courant", "precision", "threads"}, "time");
     r_.require(t, "stop", "time");
     if (t["stop"])
       if (auto v = r_.positive(t["stop"], "time.stop", Kind::time, 0, common_period_)) scene_.time.stop = *v;
-    if (t["courant"])
-      if (auto v = r_.quantity(t["courant"], "time.courant", Kind::dimensionless)) {
-        if (!(*v > 0 && *v < 1)) r_.error(t["courant"], fmt::format("'time.courant' must lie in (0, 1), got {}", *v));
-        scene_.time.courant = *v;
+    if (t["step-fraction"])
+      if (auto v = r_.quantity(t["step-fraction"], "time.step-fraction", Kind::dimensionless)) {
+        if (!(*v > 0 && *v < 1))
+          r_.error(t["step-fraction"], fmt::format("'time.step-fraction' must lie in (0, 1), got {}", *v));
+        scene_.time.step_fraction = *v;
       }
     if (t["precision"])
       if (auto v = r_.choice<Precision>(t["precision"], "time.precision",
@@ -860,7 +862,7 @@ class SceneBuilder {
     }
   }
 
-  /// The `name` of a probe, flux or spectral map: required, plain, unique among its kind.
+  /// The `name` of a probe, power spectrum or spectral map: required, plain, unique among its kind.
   bool read_output_name(const YAML::Node& o, Output& out, const char* what) {
     if (!o["name"]) {
       r_.error(o, fmt::format("a {} needs the key 'name'", what));
@@ -897,37 +899,37 @@ class SceneBuilder {
     return true;
   }
 
-  void read_flux(const YAML::Node& o, Output& out) {
-    out.kind = Output::Kind::flux;
-    if (!r_.is_map(o, "flux")) return;
-    r_.allow(o, {"name", "line", "band"}, "a flux output");
-    bool ok = read_output_name(o, out, "flux output");
+  void read_power_spectrum(const YAML::Node& o, Output& out) {
+    out.kind = Output::Kind::power_spectrum;
+    if (!r_.is_map(o, "power-spectrum")) return;
+    r_.allow(o, {"name", "line", "band"}, "a power-spectrum output");
+    bool ok = read_output_name(o, out, "power-spectrum output");
     const GridSpec& G = scene_.grid;
     if (!o["line"]) {
-      r_.error(o, "a flux output needs the key 'line': {x: ...}, {y: ...} or {from: [...], to: [...]}");
+      r_.error(o, "a power-spectrum output needs the key 'line': {x: ...}, {y: ...} or {from: [...], to: [...]}");
       ok = false;
     } else if (r_.is_map(o["line"], "line")) {
       const YAML::Node& l = o["line"];
-      r_.allow(l, {"x", "y", "from", "to"}, "a flux line");
+      r_.allow(l, {"x", "y", "from", "to"}, "a power-spectrum line");
       if (l["x"] && l.size() == 1) {
         if (auto v = r_.quantity(l["x"], "line.x", Kind::length, cell())) {
           const double x = *v + scene_.origin_shift.x;
           out.from = {x, G.extent.y}, out.to = {x, 0};  // positive towards +x
-          if (grid_ok_ && (x < 0 || x > G.extent.x)) r_.error(l["x"], "the flux line lies outside the grid's extent"), ok = false;
+          if (grid_ok_ && (x < 0 || x > G.extent.x)) r_.error(l["x"], "the power-spectrum line lies outside the grid's extent"), ok = false;
         } else ok = false;
       } else if (l["y"] && l.size() == 1) {
         if (auto v = r_.quantity(l["y"], "line.y", Kind::length, cell())) {
           const double y = *v + scene_.origin_shift.y;
           out.from = {0, y}, out.to = {G.extent.x, y};  // positive towards +y
-          if (grid_ok_ && (y < 0 || y > G.extent.y)) r_.error(l["y"], "the flux line lies outside the grid's extent"), ok = false;
+          if (grid_ok_ && (y < 0 || y > G.extent.y)) r_.error(l["y"], "the power-spectrum line lies outside the grid's extent"), ok = false;
         } else ok = false;
       } else if (l["from"] && l["to"] && l.size() == 2) {
         auto a = r_.vec2(l["from"], "from", Kind::length, cell()), b = r_.vec2(l["to"], "to", Kind::length, cell());
         if (a && b) {
           out.from = to_internal(*a), out.to = to_internal(*b);
           if (grid_ok_ && (!inside_extent(out.from) || !inside_extent(out.to)))
-            r_.error(l, "the flux line must lie inside the grid's extent"), ok = false;
-          if (std::hypot(out.to.x - out.from.x, out.to.y - out.from.y) <= 0) r_.error(l, "the flux line has no length"), ok = false;
+            r_.error(l, "the power-spectrum line must lie inside the grid's extent"), ok = false;
+          if (std::hypot(out.to.x - out.from.x, out.to.y - out.from.y) <= 0) r_.error(l, "the power-spectrum line has no length"), ok = false;
         } else ok = false;
       } else {
         r_.error(l, "'line' must be {x: ...}, {y: ...} or {from: [...], to: [...]}");
@@ -935,7 +937,7 @@ class SceneBuilder {
       }
     }
     if (!o["band"]) {
-      r_.error(o, "a flux output needs the key 'band': {from: ..., to: ..., count: ...}");
+      r_.error(o, "a power-spectrum output needs the key 'band': {from: ..., to: ..., count: ...}");
       ok = false;
     } else if (r_.is_map(o["band"], "band")) {
       const YAML::Node& b = o["band"];
@@ -988,7 +990,7 @@ class SceneBuilder {
 
   void read_output(const YAML::Node& item) {
     if (!item.IsMap() || item.size() != 1) {
-      r_.error(item, "each output is one of 'snapshots' or 'probe' with its keys below it");
+      r_.error(item, "each output is one of 'snapshots', 'probe', 'power-spectrum' or 'spectral-map' with its keys below it");
       return;
     }
     const std::string kind = item.begin()->first.as<std::string>("");
@@ -997,14 +999,18 @@ class SceneBuilder {
     const YAML::Node o = item.begin()->second;  // a copy: the iterator is a temporary
     if (kind == "snapshots") out.kind = Output::Kind::snapshots;
     else if (kind == "probe") out.kind = Output::Kind::probe;
-    else if (kind == "flux") {
-      read_flux(o, out);
+    else if (kind == "power-spectrum") {
+      read_power_spectrum(o, out);
       return;
     } else if (kind == "spectral-map") {
       read_spectral_map(o, out);
       return;
+    } else if (kind == "flux") {
+      r_.error(item.begin()->first, "the output 'flux' is now called 'power-spectrum' (same keys)");
+      return;
     } else {
-      r_.error(item.begin()->first, fmt::format("unknown output '{}' (snapshots, probe or flux)", kind));
+      r_.error(item.begin()->first,
+               fmt::format("unknown output '{}' (snapshots, probe, power-spectrum or spectral-map)", kind));
       return;
     }
     if (!r_.is_map(o, kind)) return;

@@ -101,7 +101,7 @@ std::string resolved_scene_yaml(const Scene& s) {
   e << YAML::Key << "origin" << YAML::Value << (s.grid.origin_corner ? "corner" : "centre");
   e << YAML::EndMap;
   e << YAML::Key << "time" << YAML::Value << YAML::BeginMap << YAML::Key << "stop" << YAML::Value
-    << q(s.time.stop, Kind::time) << YAML::Key << "courant" << YAML::Value << s.time.courant << YAML::Key
+    << q(s.time.stop, Kind::time) << YAML::Key << "step-fraction" << YAML::Value << s.time.step_fraction << YAML::Key
     << "precision" << YAML::Value << (s.time.precision == Precision::single ? "single" : "double") << YAML::Key
     << "threads" << YAML::Value;
   if (s.time.threads > 0) e << s.time.threads; else e << "auto";
@@ -189,8 +189,8 @@ std::string resolved_scene_yaml(const Scene& s) {
       e << YAML::Key << "every" << YAML::Value << q(out.every, Kind::time);
       e << YAML::Key << "stride" << YAML::Value << out.stride;
       if (out.region.given) region(out.region);
-    } else if (out.kind == Output::Kind::flux) {  // the line as its two ends: the same line and normal
-      e << YAML::Key << "flux" << YAML::Value << YAML::BeginMap;
+    } else if (out.kind == Output::Kind::power_spectrum) {  // the line as its two ends: the same line and normal
+      e << YAML::Key << "power-spectrum" << YAML::Value << YAML::BeginMap;
       e << YAML::Key << "name" << YAML::Value << out.name;
       e << YAML::Key << "line" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value;
       vec2(e, user(out.from), Kind::length);

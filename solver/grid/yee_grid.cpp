@@ -29,7 +29,7 @@ YeeGrid grid_for(const Scene& s, int align_elements) {
   const int npy = G.by == Boundary::absorbing ? G.absorber.cells : 0;
   YeeGrid g;
   g.init(ext_x + 2 * npx, ext_y + 2 * npy, npx, npy, G.dx, G.dy, align_elements);
-  g.dt = s.time.courant * courant_limit_dt(G.dx, G.dy);
+  g.dt = s.time.step_fraction * courant_limit_dt(G.dx, G.dy);
   return g;
 }
 

@@ -47,7 +47,7 @@ struct YeeGrid {
 };
 
 /// The grid a scene asks for: the extent in whole cells plus the absorbing layers, and
-/// the time step (`courant` times the Courant limit); rows aligned to `align_elements`.
+/// the time step (`step_fraction` times the Courant limit); rows aligned to `align_elements`.
 YeeGrid grid_for(const Scene& s, int align_elements);
 /// Steps to reach the scene's stop time on grid g.
 long steps_for(const Scene& s, const YeeGrid& g);

@@ -18,7 +18,7 @@
 
 namespace ty {
 
-/// Steps between the samples of a running DFT (flux lines, spectral maps): every step would
+/// Steps between the samples of a running DFT (power-spectrum lines, spectral maps): every step would
 /// be wasted work, since the fields hold nothing above the sources' bands. Sampling every M
 /// steps (the last step always among them) with M dt <= 1/(8 f_max), f_max the highest of
 /// the recorder's frequencies and the sources' band edges, aliases nothing below 7 f_max

@@ -51,8 +51,8 @@ TEST_CASE("one-sided Gaussian beam: no backward wave, requested waist and direct
   for (Component pol : {Component::Ez, Component::Hz}) {
     MESSAGE("polarization " << std::string(component_name(pol)));
     const int nx = 420, ny = 400;
-    const double courant = constants::c0 / (kPeriodSteps * kFreq * kCell) * std::sqrt(2.0);
-    Scene s = test::box_scene(nx, ny, kCell, Boundary::absorbing, Boundary::absorbing, courant, 1e-9);
+    const double step_fraction = constants::c0 / (kPeriodSteps * kFreq * kCell) * std::sqrt(2.0);
+    Scene s = test::box_scene(nx, ny, kCell, Boundary::absorbing, Boundary::absorbing, step_fraction, 1e-9);
     const double angle = 12 * constants::pi / 180, waist = 60 * kCell;  // 2 wavelengths
     Source b;
     b.kind = Source::Kind::beam;

@@ -4,7 +4,7 @@
 /// sec. 6.3), moved by the grid's dispersion to
 ///   sin(pi f dt) / (c dt) = sqrt(sin^2(m pi dx / 2a)/dx^2 + sin^2(n pi dy / 2b)/dy^2)
 /// (Taflove & Hagness, 3rd ed., eq. 4.15 with k = (m pi/a, n pi/b)); TM (Ez) modes have
-/// m, n >= 1, TE (Hz) modes allow one index to be 0. The undriven cavity at courant 0.99
+/// m, n >= 1, TE (Hz) modes allow one index to be 0. The undriven cavity at step-fraction 0.99
 /// keeps its field energy over 10^5 steps: the leapfrog invariant
 ///   W^n = sum eps0 |E^n|^2 + mu0 H^{n-1/2} . H^{n+1/2}
 /// (the discrete energy of the Yee scheme; e.g. Taflove & Hagness, 3rd ed., sec. 4.7 on

@@ -70,7 +70,7 @@ TEST_CASE("measure spectrum: a dielectric slab's T and R follow the Airy formula
 
 TEST_CASE("measure spectrum: an MnF2 slab's R and T match medium's transfer matrix over its lines") {
   // MnF2 (references.md values, from memory there), 200 um, easy axis and a 0.3 T bias along z:
-  // the lines sit at 253 and 270 GHz. The run's reflectance and transmittance from the flux
+  // the lines sit at 253 and 270 GHz. The run's reflectance and transmittance from the power-spectrum
   // lines and a reference run, against `terayee medium --thickness` (the 4x4 transfer matrix
   // of the same crystal's linear response), within 0.02 over 240-285 GHz.
   const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/mnf2-slab.yaml";

@@ -212,7 +212,7 @@ TEST_CASE("the resolved scene keeps every magnet parameter (a run's scene.yaml r
   CHECK(mb.dzyaloshinskii[1] == doctest::Approx(0.1));
 }
 
-TEST_CASE("the resolved scene keeps flux lines and spectral maps (a run's scene.yaml reads back to the same outputs)") {
+TEST_CASE("the resolved scene keeps power-spectrum lines and spectral maps (a run's scene.yaml reads back to the same outputs)") {
   for (const char* file : {"/tests/data/mnf2-slab.yaml", "/scenarios/slab-lens/slab-lens.yaml"}) {
     const Scene a = read_scene(std::string(TERAYEE_SOURCE_DIR) + file);
     const Scene b = read_scene_text(resolved_scene_yaml(a), "resolved.yaml");

@@ -33,7 +33,7 @@ std::vector<double> record(int n, const Vec2& src_from_centre, const Vec2& probe
 
 TEST_CASE("CPML of 16 cells reflects less than -60 dB of a broadband pulse") {
   const double d = 10e-6;
-  const long steps = 1400;  // c t = 940 cells at courant 0.95
+  const long steps = 1400;  // c t = 940 cells at step-fraction 0.95
   for (Component c : {Component::Ez, Component::Hz}) {
     // small box: 80 cells across; source 20 cells left of centre, probe 5 cells from the
     // absorber on the right and 10 from the top (near a corner, where it is hardest)

@@ -1,5 +1,5 @@
-/// \file flux.h
-/// \brief The flux recorder: a running discrete Fourier transform of all six field
+/// \file power_spectrum.h
+/// \brief The power-spectrum recorder: a running discrete Fourier transform of all six field
 /// components at points along a line, from which the net power through the line per
 /// frequency follows (and, given a reference run, the scattered part).
 ///
@@ -20,7 +20,7 @@
 
 namespace ty {
 
-struct FluxRecorder {
+struct PowerSpectrumRecorder {
   std::string name;
   Vec2 normal;  ///< z x (to - from), unit
   std::vector<double> freq;                     ///< Hz
@@ -38,12 +38,12 @@ struct FluxRecorder {
 };
 
 /// Points one cell apart (or closer) along the output's line.
-FluxRecorder make_flux(const Scene& s, const Output& o, const YeeGrid& g, long total_steps);
+PowerSpectrumRecorder make_power_spectrum(const Scene& s, const Output& o, const YeeGrid& g, long total_steps);
 
 /// Net power per frequency through the line, W/m, from the (optionally differenced)
 /// transformed fields E, H (H in A/m) given as a function of (f, point, component).
 template <class Field>
-std::vector<double> line_power(const FluxRecorder& r, Field&& field) {
+std::vector<double> line_power(const PowerSpectrumRecorder& r, Field&& field) {
   std::vector<double> P(r.freq.size(), 0.0);
   for (std::size_t f = 0; f < r.freq.size(); ++f)
     for (std::size_t p = 0; p < r.points.size(); ++p) {

@@ -1,13 +1,13 @@
-/// \file flux.cpp
-/// \brief Points and weights of a flux line.
-#include "solver/recorders/flux.h"
+/// \file power_spectrum.cpp
+/// \brief Points and weights of a power-spectrum line.
+#include "solver/recorders/power_spectrum.h"
 
 #include <cmath>
 
 namespace ty {
 
-FluxRecorder make_flux(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
-  FluxRecorder r;
+PowerSpectrumRecorder make_power_spectrum(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
+  PowerSpectrumRecorder r;
   r.name = o.name;
   const double dx = o.to.x - o.from.x, dy = o.to.y - o.from.y, len = std::hypot(dx, dy);
   r.normal = {-dy / len, dx / len};  // z x (to - from)
