@@ -1,6 +1,7 @@
 /// \file simulation.cpp
 /// \brief Building a simulation from a Scene, and the fused row-by-row Yee step.
 #include "solver/simulation.h"
+#include "solver/threads/thread_count.h"
 
 #include <fmt/format.h>
 #include <omp.h>
@@ -52,7 +53,8 @@ Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   periodic_y_ = G.by == Boundary::periodic;
   magnetic_x_ = G.bx == Boundary::magnetic_wall;
   magnetic_y_ = G.by == Boundary::magnetic_wall;
-  threads_ = threads > 0 ? threads : scene.time.threads > 0 ? scene.time.threads : omp_get_max_threads();
+  const int chosen = threads > 0 ? threads : scene.time.threads;  // 0: fitted to the work below
+  threads_ = chosen > 0 ? chosen : usable_cores();
 
   for (auto& a : f_) a.resize(g_.size());
   bytes_ += 6 * g_.size() * sizeof(R);
@@ -62,6 +64,8 @@ Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   build_pml(cb);
   build_sources(cb);
   build_recorders();
+  // a magnetic cell costs about 7 vacuum cells (docs/magnets.md): 1 + 6 more
+  if (chosen <= 0) threads_ = threads_for_work(double(g_.nx) * g_.ny + 6.0 * mag_.count(), threads_);
 }
 
 template <class R>

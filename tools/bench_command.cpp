@@ -1,8 +1,11 @@
 /// \file bench_command.cpp
-/// \brief `terayee bench`: cell-updates per second of the Yee step on a square vacuum
-/// grid with periodic sides, and on a dielectric grid (a disc of eps = 4 covering a
-/// quarter of the width) inside 16-cell absorbers. Median of several timed samples.
-/// The last line is machine-readable: cell_updates_per_s=<vacuum rate>.
+/// \brief `terayee bench [--case C]`: cell-updates per second of the full step on a square
+/// grid, for each case: vacuum (periodic sides), dielectric (a disc of eps = 4 inside
+/// 16-cell absorbers), absorber (CPML auxiliaries on both axes in every cell), magnetic
+/// (every cell MnF2 under 0.5 T, 20 um cells), recorders (vacuum with two 1001-frequency
+/// power-spectrum lines, a whole-grid spectral map and four probes); each with its cost
+/// relative to a vacuum cell. Median of several timed samples. The last line is
+/// machine-readable: cell_updates_per_s=<rate of the last case printed>.
 #include <fmt/format.h>
 #include <omp.h>
 
@@ -10,6 +13,7 @@
 #include <chrono>
 #include <iostream>
 
+#include "io/scene/diagnostics.h"
 #include "io/scene/scene.h"
 #include "solver/simulation.h"
 #include "tools/commands.h"
@@ -120,26 +124,71 @@ double measure_magnetic_rate(const Scene& scene, int medium, int threads, double
                                                    : rate_of<double>(s, threads, seconds, 3);
 }
 
-int bench_command(int size, int threads, const std::string& precision, double seconds) {
+namespace {
+
+const char* const kCases[] = {"vacuum", "dielectric", "absorber", "magnetic", "recorders"};
+
+/// The scene of one bench case on an n x n grid.
+Scene case_scene(const std::string& name, int n) {
+  if (name == "vacuum") return bench_scene(n, false);
+  if (name == "magnetic") return bench_scene(n, false, true);
+  Scene s = bench_scene(n, name == "dielectric");
+  if (name == "absorber") {  // the whole grid absorbing: every cell carries CPML auxiliaries on both axes
+    s.grid.bx = s.grid.by = Boundary::absorbing;
+    s.grid.absorber.cells = std::max(1, n / 2 - 1);
+  }
+  if (name == "recorders") {  // a vacuum grid with the recorders a study keeps: two power-spectrum lines
+    // of 1001 frequencies, a spectral map at 3 frequencies over the whole grid, 4 probes
+    for (int k = 0; k < 2; ++k) {
+      Output o;
+      o.kind = Output::Kind::power_spectrum;
+      o.name = k == 0 ? "reflected" : "transmitted";
+      const double x = (k == 0 ? 0.2 : 0.8) * s.grid.extent.x;
+      o.from = {x, 0};
+      o.to = {x, s.grid.extent.y};
+      o.band_from = 0.3e12, o.band_to = 0.7e12, o.count = 1001;
+      s.outputs.push_back(o);
+    }
+    Output map;
+    map.kind = Output::Kind::spectral_map;
+    map.name = "map";
+    map.frequencies = {0.4e12, 0.5e12, 0.6e12};
+    s.outputs.push_back(map);
+    for (int k = 0; k < 4; ++k) {
+      Output p;
+      p.kind = Output::Kind::probe;
+      p.name = fmt::format("p{}", k);
+      p.fields = {"Ez", "Hx", "Hy"};
+      p.at = {(0.2 + 0.2 * k) * s.grid.extent.x, 0.5 * s.grid.extent.y};
+      s.outputs.push_back(p);
+    }
+  }
+  return s;
+}
+
+double case_rate(const Scene& s, int threads, bool single, double seconds, int samples) {
+  return single ? rate_of<float>(s, threads, seconds, samples) : rate_of<double>(s, threads, seconds, samples);
+}
+
+}  // namespace
+
+int bench_command(int size, int threads, const std::string& precision, double seconds, const std::string& which) {
   const bool single = precision == "single";
   const int nt = threads > 0 ? threads : omp_get_max_threads();
+  std::vector<std::string> cases;
+  for (const char* c : kCases)
+    if (which == "all" || which == c) cases.emplace_back(c);
+  if (cases.empty()) throw BadInput(fmt::format("terayee bench: error: unknown case '{}'", which));
   std::cout << fmt::format("# terayee bench: {}x{} cells, {} precision, {} threads, median of 5 samples\n", size, size,
                            precision, nt);
-  const double vac = measure_vacuum_rate(size, nt, single, seconds, 5);
-  std::cout << fmt::format("vacuum (periodic sides):            {:.4g} cell-updates/s\n", vac);
-  const Scene d = bench_scene(size, true);
-  const double die = single ? rate_of<float>(d, nt, seconds, 5) : rate_of<double>(d, nt, seconds, 5);
-  std::cout << fmt::format("dielectric disc inside absorbers:   {:.4g} cell-updates/s (all cells counted)\n", die);
-  const int mn = std::min(size, 256);
-  const Scene mg = bench_scene(mn, false, true);
-  const double mag = single ? rate_of<float>(mg, nt, seconds, 3) : rate_of<double>(mg, nt, seconds, 3);
-  const double vac_small = measure_vacuum_rate(mn, nt, single, seconds, 3);
-  std::cout << fmt::format("MnF2 magnetic cells ({}x{}, 0.5 T): {:.4g} cell-updates/s, {:.1f}x the cost of a vacuum cell\n",
-                           mn, mn, mag, vac_small / mag);
-  std::cout << fmt::format("vacuum_cell_updates_per_s={:.6g} dielectric_cell_updates_per_s={:.6g} "
-                           "magnetic_cell_updates_per_s={:.6g}\n",
-                           vac, die, mag);
-  std::cout << fmt::format("cell_updates_per_s={:.6g}\n", vac);
+  const double vac = case_rate(case_scene("vacuum", size), nt, single, seconds, 5);
+  double last = vac;
+  for (const auto& c : cases) {
+    const double r = c == "vacuum" ? vac : case_rate(case_scene(c, size), nt, single, seconds, 5);
+    std::cout << fmt::format("{:<11} {:.4g} cell-updates/s, {:.2f}x the cost of a vacuum cell\n", c, r, vac / r);
+    last = r;
+  }
+  std::cout << fmt::format("cell_updates_per_s={:.6g}\n", last);
   return 0;
 }
 

@@ -58,7 +58,7 @@ int render_command(const RenderOptions& o);
 int render_plot(const RenderOptions& o, const std::string& out_dir);
 /// The layout file written beside a still: FILE.png -> FILE-layout.json.
 std::string plot_layout_path(const std::string& picture);
-int bench_command(int size, int threads, const std::string& precision, double seconds);
+int bench_command(int size, int threads, const std::string& precision, double seconds, const std::string& which);
 
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench
 /// and by check's run-time estimate).

@@ -8,6 +8,7 @@
 
 #include "io/scene/diagnostics.h"
 #include "io/scene/units.h"
+#include "solver/threads/wait_policy.h"
 #include "tools/commands.h"
 
 namespace {
@@ -24,6 +25,7 @@ double quantity_option(const std::string& text, ty::Kind k, const std::string& w
 }  // namespace
 
 int main(int argc, char** argv) {
+  ty::bound_thread_waits(argv);  // before any parallel region
   CLI::App app{"terayee: 2D FDTD simulation of terahertz waves in dielectric and magnetically ordered media"};
   app.set_version_flag("--version", std::string("terayee ") + TERAYEE_VERSION);
   app.require_subcommand(1);
@@ -149,8 +151,10 @@ int main(int argc, char** argv) {
 
   int size = 1024, threads = 0;
   double seconds = 0.5;
-  std::string precision = "double";
+  std::string precision = "double", bench_case = "all";
   auto* b = app.add_subcommand("bench", "Measure cell-updates per second");
+  b->add_option("--case", bench_case, "vacuum, dielectric, absorber, magnetic, recorders or all")
+      ->check(CLI::IsMember({"vacuum", "dielectric", "absorber", "magnetic", "recorders", "all"}));
   b->add_option("--size", size, "Cells per side of the square grid")->check(CLI::Range(16, 16384));
   b->add_option("--threads", threads, "OpenMP threads (default: all)")->check(CLI::PositiveNumber);
   b->add_option("--precision", precision, "double or single")->check(CLI::IsMember({"double", "single"}));
@@ -215,7 +219,7 @@ int main(int argc, char** argv) {
       }
       return ty::render_command(ro);
     }
-    if (*b) return ty::bench_command(size, threads, precision, seconds);
+    if (*b) return ty::bench_command(size, threads, precision, seconds, bench_case);
   } catch (const ty::BadInput& e) {
     std::cerr << e.what() << "\n";
     return 2;
