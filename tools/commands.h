@@ -58,6 +58,25 @@ int render_command(const RenderOptions& o);
 int render_plot(const RenderOptions& o, const std::string& out_dir);
 /// The layout file written beside a still: FILE.png -> FILE-layout.json.
 std::string plot_layout_path(const std::string& picture);
+/// `terayee sweep` (tools/sweep_command.cpp).
+struct SweepOptions {
+  std::string scene, out;
+  std::vector<std::string> vary;      ///< KEY=VALUES, one axis each
+  bool zip = false;                   ///< the axes in step instead of every combination
+  std::vector<std::string> sets;      ///< fixed overrides for every point
+  std::vector<std::string> measures;  ///< "KIND ARGS" of `terayee measure`, `auto` for the reference
+  int jobs = 1;                       ///< points at a time
+  int threads = 0;                    ///< per point (0: the usable cores divided by jobs)
+  int refine = 0;                     ///< levels of cell refinement (0: none)
+  int point = -1;                     ///< run this point only (a job-array task)
+  bool no_runs = false;               ///< gather only
+  std::string job_script;             ///< "print" or "submit": a Slurm job array instead of local runs
+  std::string slurm_time;             ///< the array tasks' time limit, e.g. 12:00:00
+  std::string collect_only;           ///< --collect DIR
+};
+int sweep_command(SweepOptions o);
+int write_job_script(const SweepOptions& o, int points);
+
 int bench_command(int size, int threads, const std::string& precision, double seconds, const std::string& which);
 
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench

@@ -149,6 +149,28 @@ int main(int argc, char** argv) {
       ->check(CLI::IsMember({"spectrum", "probes", "shift", "focus"}));
   rd->add_option("--predicted", ro.predicted, "With --plot spectrum: a CSV written by `terayee medium --csv`");
 
+  ty::SweepOptions sw;
+  std::string sw_submit;
+  bool sw_print = false;
+  auto* sp = app.add_subcommand("sweep", "A study of many runs: vary scene values, measure each point, one table");
+  sp->add_option("scene", sw.scene, "Scene file (YAML)")->check(CLI::ExistingFile);
+  sp->add_option("-o,--out", sw.out, "Folder of the sweep (points/, references/, results.csv)");
+  sp->add_option("--vary", sw.vary, "KEY=VALUES: a --set path and a list a,b,c, a range FROM:TO:COUNT or @FILE (repeatable)");
+  sp->add_flag("--zip", sw.zip, "Vary the keys in step instead of every combination");
+  sp->add_option("--set", sw.sets, "A fixed override for every point: key.path=value (repeatable)");
+  sp->add_option("--measure", sw.measures, "\"KIND ARGS\" of terayee measure for each point; 'auto' stands for the "
+                                           "point's reference run (repeatable)");
+  sp->add_option("--jobs", sw.jobs, "Points run at a time (the cores are divided between them)")->check(CLI::Range(1, 1024));
+  sp->add_option("--threads", sw.threads, "Threads per point (default: usable cores / jobs)")->check(CLI::PositiveNumber);
+  sp->add_option("--refine", sw.refine, "Also run at the cell, cell/2, ...: N levels, and extrapolate every number")
+      ->check(CLI::Range(2, 6));
+  sp->add_option("--point", sw.point, "Run only this point (what a job-array task does)")->check(CLI::NonNegativeNumber);
+  sp->add_flag("--print-job-script", sw_print, "Write DIR/job.sh, a Slurm job array of the points, and stop");
+  sp->add_option("--submit", sw_submit, "slurm: write the job array and submit it with sbatch")->check(CLI::IsMember({"slurm"}));
+  sp->add_option("--time-limit", sw.slurm_time, "The array tasks' time limit for Slurm, e.g. 12:00:00");
+  sp->add_option("--collect", sw.collect_only, "Gather a sweep's results (after its array tasks ended)")
+      ->check(CLI::ExistingDirectory);
+
   int size = 1024, threads = 0;
   double seconds = 0.5;
   std::string precision = "double", bench_case = "all";
@@ -218,6 +240,14 @@ int main(int argc, char** argv) {
         ro.limits.push_back(v);
       }
       return ty::render_command(ro);
+    }
+    if (*sp) {
+      if (sw.collect_only.empty() && (sw.scene.empty() || sw.out.empty()))
+        throw ty::BadInput("terayee sweep: needs SCENE and -o DIR (or --collect DIR)");
+      if (!sw_submit.empty()) sw.job_script = "submit";
+      else if (sw_print) sw.job_script = "print";
+      if (!sw.collect_only.empty()) sw.no_runs = true;
+      return ty::sweep_command(sw);
     }
     if (*b) return ty::bench_command(size, threads, precision, seconds, bench_case);
   } catch (const ty::BadInput& e) {

@@ -1,0 +1,66 @@
+/// \file test_sweep.cpp
+/// \brief `terayee sweep` end to end on a short Airy-slab scene: three points, one shared
+/// reference run, the results table, resume by skipping finished points, and the Slurm
+/// job-array script's content (sbatch's documented #SBATCH --array/--cpus-per-task form).
+#include <doctest/doctest.h>
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include "tests/helpers.h"
+
+namespace fs = std::filesystem;
+using ty::test::shell;
+
+namespace {
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+}  // namespace
+
+TEST_CASE("sweep: three points, one reference, one table; a second call runs nothing") {
+  const fs::path dir = fs::temp_directory_path() / "terayee-test-sweep";
+  fs::remove_all(dir);
+  const std::string base = std::string(TERAYEE_BINARY) + " sweep " + TERAYEE_SOURCE_DIR +
+                           "/tests/data/slab-airy.yaml -o " + dir.string() +
+                           " --vary 'media.slab.permittivity=2:4:3' --set 'time.stop=20 ps'"
+                           " --measure 'spectrum --reference auto' --jobs 2";
+  REQUIRE(shell("( " + base + " 2> " + dir.string() + ".log )") == 0);
+  const auto csv = slurp(dir / "results.csv");
+  CHECK(csv.find("0000_media.slab.permittivity=2,done,2,") != std::string::npos);
+  CHECK(csv.find("0002_media.slab.permittivity=4,done,4,") != std::string::npos);
+  // the slab is the sample: every point shares one reference run (the permittivity of a
+  // medium that no remaining body holds changes nothing)
+  int refs = 0;
+  for (const auto& e : fs::directory_iterator(dir / "references")) refs += e.is_directory();
+  CHECK(refs == 1);
+  CHECK(fs::exists(dir / "points" / "0001_media.slab.permittivity=3" / "spectrum.json"));
+  REQUIRE(shell("( " + base + " 2> " + dir.string() + ".log )") == 0);
+  CHECK(slurp(dir.string() + ".log").find("(0 to run)") != std::string::npos);
+  fs::remove(dir.string() + ".log");
+  // another sweep into the same folder is refused (exit 2), nothing is overwritten
+  CHECK(shell(std::string(TERAYEE_BINARY) + " sweep " + TERAYEE_SOURCE_DIR + "/tests/data/slab-airy.yaml -o " +
+              dir.string() + " --vary 'media.slab.permittivity=5,6' > /dev/null 2>&1") == 2);
+  fs::remove_all(dir);
+}
+
+TEST_CASE("sweep --print-job-script: one Slurm array task per point with the cores asked for") {
+  const fs::path dir = fs::temp_directory_path() / "terayee-test-sweep-slurm";
+  fs::remove_all(dir);
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " sweep " + TERAYEE_SOURCE_DIR + "/tests/data/slab-airy.yaml -o " +
+                dir.string() + " --vary 'sources.0.plane.frequency=0.5THz:0.7THz:5' --threads 8 --time-limit 02:00:00 --print-job-script"
+                               " > /dev/null 2>&1") == 0);
+  const auto job = slurp(dir / "job.sh");
+  CHECK(job.rfind("#!/bin/bash\n", 0) == 0);
+  CHECK(job.find("#SBATCH --array=0-4\n") != std::string::npos);
+  CHECK(job.find("#SBATCH --cpus-per-task=8\n") != std::string::npos);
+  CHECK(job.find("#SBATCH --time=02:00:00\n") != std::string::npos);
+  CHECK(job.find("--point \"$SLURM_ARRAY_TASK_ID\"") != std::string::npos);
+  CHECK(job.find("--vary 'sources.0.plane.frequency=0.5THz:0.7THz:5'") != std::string::npos);
+  CHECK(fs::is_empty(dir / "points"));  // nothing ran
+  fs::remove_all(dir);
+}
