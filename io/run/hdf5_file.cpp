@@ -34,24 +34,31 @@ Handle::~Handle() {
 
 File File::create(const std::string& path) {
   File f;
-  f.h_ = Handle(check(H5Fcreate(path.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, H5P_DEFAULT), "cannot create " + path),
+  f.name_ = path;
+  // The 1.8 file format: attributes of any size (dense attribute storage, HDF5 User's
+  // Guide, "Attributes"), and no open-for-writing flag that a killed run would leave set.
+  Handle fapl(check(H5Pcreate(H5P_FILE_ACCESS), "plist"), H5Pclose);
+  H5Pset_libver_bounds(fapl.id(), H5F_LIBVER_V18, H5F_LIBVER_V18);
+  f.h_ = Handle(check(H5Fcreate(path.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, fapl.id()), "cannot create " + path),
                 H5Fclose);
   return f;
 }
 
 File File::open(const std::string& path) {
   File f;
+  f.name_ = path;
   f.h_ = Handle(check(H5Fopen(path.c_str(), H5F_ACC_RDONLY, H5P_DEFAULT), "cannot open " + path), H5Fclose);
   return f;
 }
 
 File File::open_rw(const std::string& path) {
   File f;
+  f.name_ = path;
   f.h_ = Handle(check(H5Fopen(path.c_str(), H5F_ACC_RDWR, H5P_DEFAULT), "cannot open " + path), H5Fclose);
   return f;
 }
 
-void File::flush() { H5Fflush(id(), H5F_SCOPE_GLOBAL); }
+void File::flush() { check(H5Fflush(id(), H5F_SCOPE_GLOBAL), "cannot write " + name_); }
 
 bool File::exists(const std::string& path) const {
   size_t pos = 0;
@@ -96,6 +103,11 @@ void File::write(const std::string& p, const std::vector<hsize_t>& s, const long
   write_any(p, s, d, H5T_NATIVE_LONG, u);
 }
 
+void File::write_text(const std::string& path, const std::string& text) {
+  const std::vector<hsize_t> shape{text.size()};
+  write_any(path, shape, text.data(), H5T_NATIVE_CHAR, "");
+}
+
 void File::create_frames(const std::string& path, hsize_t frames, hsize_t ny, hsize_t nx, bool single,
                          const std::string& units) {
   make_groups(path);
@@ -104,6 +116,11 @@ void File::create_frames(const std::string& path, hsize_t frames, hsize_t ny, hs
   Handle space(check(H5Screate_simple(3, dims, nullptr), "dataspace"), H5Sclose);
   Handle plist(check(H5Pcreate(H5P_DATASET_CREATE), "plist"), H5Pclose);
   if (frames > 0 && ny > 0 && nx > 0) H5Pset_chunk(plist.id(), 3, chunk);
+  // Every chunk is placed now, so writing a frame later changes only raw data, never the
+  // file's metadata: a run killed between two checkpoints leaves a file that still opens.
+  // (Every frame is written before a run completes, so no fill value is needed.)
+  H5Pset_alloc_time(plist.id(), H5D_ALLOC_TIME_EARLY);
+  H5Pset_fill_time(plist.id(), H5D_FILL_TIME_NEVER);
   Handle set(check(H5Dcreate2(id(), path.c_str(), single ? H5T_NATIVE_FLOAT : H5T_NATIVE_DOUBLE, space.id(),
                               H5P_DEFAULT, plist.id(), H5P_DEFAULT),
                    "cannot create " + path),
@@ -224,10 +241,7 @@ std::string File::read_attribute(const std::string& object, const std::string& n
     H5Aread(a.id(), H5T_NATIVE_DOUBLE, &v);
     return fmt::format("{}", v);
   }
-  std::string s(H5Tget_size(type.id()), '\0');
-  H5Aread(a.id(), type.id(), s.data());
-  while (!s.empty() && s.back() == '\0') s.pop_back();
-  return s;
+  return read_string_attribute(object, name, hsize_t(1) << 30);
 }
 
 }  // namespace ty::h5
