@@ -42,6 +42,10 @@ int main(int argc, char** argv) {
       ->check(CLI::NonNegativeNumber);
   r->add_option("--stop-at-step", run.stop_at_step, "Stop after this step, leaving a checkpoint to resume from")
       ->check(CLI::PositiveNumber);
+  r->add_option("--checkpoint-steps", run.checkpoint_steps, "Also write a checkpoint every this many steps (0: no)")
+      ->check(CLI::NonNegativeNumber);
+  r->add_flag("--overwrite", run.overwrite,
+              "Replace the results of an earlier run in the run folder (without it, a folder that is not empty is refused)");
 
   std::string check_scene;
   std::vector<std::string> check_sets;
