@@ -60,8 +60,8 @@ struct Runner {
       medium = m < 0 ? "vacuum" : "medium '" + scene.media.at(m).name + "'";
     }
     folder.abandon();
-    log.info(fmt::format(
-        "error: the field {} became non-finite by step {} (t = {:.4g} ps) at node ({}, {}), x = {:.4g} mm, "
+    log.error(fmt::format(
+        "the field {} became non-finite by step {} (t = {:.4g} ps) at node ({}, {}), x = {:.4g} mm, "
         "y = {:.4g} mm, in {}. {} To see whether it is a stability problem, run again with a smaller time step, "
         "e.g. --set time.step-fraction=0.5 --overwrite (a checkpoint belongs to its own time step).",
         component_name(c), step, step * g.dt * 1e12, i, j, x * 1e3, y * 1e3, medium,

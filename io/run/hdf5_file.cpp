@@ -16,7 +16,13 @@ hid_t check(hid_t id, const std::string& what) {
 }
 
 struct Quiet {  // HDF5 prints its own error stack otherwise
-  Quiet() { H5Eset_auto2(H5E_DEFAULT, nullptr, nullptr); }
+  Quiet() {
+    // Every file is closed by its Handle. A file whose close failed (a full disk) stays
+    // in the library, and HDF5 1.10's exit-time cleanup crashes retrying it; without
+    // that cleanup the process just ends and the system closes the descriptor.
+    H5dont_atexit();
+    H5Eset_auto2(H5E_DEFAULT, nullptr, nullptr);
+  }
 };
 const Quiet quiet;
 
@@ -83,9 +89,9 @@ void File::write_any(const std::string& path, const std::vector<hsize_t>& shape,
   make_groups(path);
   Handle space(check(H5Screate_simple(static_cast<int>(shape.size()), shape.data(), nullptr), "dataspace"), H5Sclose);
   Handle set(check(H5Dcreate2(id(), path.c_str(), type, space.id(), H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT),
-                   "cannot create " + path),
+                   "cannot create " + path + " in " + name_),
              H5Dclose);
-  check(H5Dwrite(set.id(), type, H5S_ALL, H5S_ALL, H5P_DEFAULT, data), "cannot write " + path);
+  check(H5Dwrite(set.id(), type, H5S_ALL, H5S_ALL, H5P_DEFAULT, data), "cannot write " + path + " in " + name_);
   attribute(path, "units", units);
 }
 
@@ -123,7 +129,7 @@ void File::create_frames(const std::string& path, hsize_t frames, hsize_t ny, hs
   H5Pset_fill_time(plist.id(), H5D_FILL_TIME_NEVER);
   Handle set(check(H5Dcreate2(id(), path.c_str(), single ? H5T_NATIVE_FLOAT : H5T_NATIVE_DOUBLE, space.id(),
                               H5P_DEFAULT, plist.id(), H5P_DEFAULT),
-                   "cannot create " + path),
+                   "cannot create " + path + " in " + name_),
              H5Dclose);
   attribute(path, "units", units);
 }
@@ -135,7 +141,7 @@ void File::frame_any(const std::string& path, hsize_t frame, hsize_t ny, hsize_t
   const hsize_t start[3] = {frame, 0, 0}, count[3] = {1, ny, nx};
   H5Sselect_hyperslab(fs.id(), H5S_SELECT_SET, start, nullptr, count, nullptr);
   Handle ms(check(H5Screate_simple(3, count, nullptr), "dataspace"), H5Sclose);
-  check(H5Dwrite(set.id(), type, ms.id(), fs.id(), H5P_DEFAULT, data), "cannot write a frame of " + path);
+  check(H5Dwrite(set.id(), type, ms.id(), fs.id(), H5P_DEFAULT, data), "cannot write a frame of " + path + " in " + name_);
 }
 
 void File::write_frame(const std::string& p, hsize_t f, hsize_t ny, hsize_t nx, const float* d) {

@@ -168,3 +168,22 @@ TEST_CASE("a movie named '-x.mp4' is that file, not an ffmpeg option") {
   CHECK(std::string(box + 4, 4) == "ftyp");  // an MP4 starts with its ftyp box (ISO/IEC 14496-12, 4.3)
   fs::remove_all(dir);
 }
+
+TEST_CASE("a field that becomes non-finite stops the run with its step, node, medium and field; exit 1") {
+  // A source near the largest double (IEEE 754: about 1.797e308) overflows to infinity once
+  // the fields add up, a few hundred steps in.
+  const fs::path dir = fresh("terayee-test-nonfinite");
+  std::string out;
+  CHECK(terayee_run(dir, " --set time.stop=30ps --set 'sources.0.beam.amplitude=1.79e308 V/m' --checkpoint-steps 100",
+                    out) == 1);
+  INFO(out);
+  CHECK(out.find("error: the field E") != std::string::npos);
+  CHECK(out.find("became non-finite by step") != std::string::npos);
+  CHECK(out.find("in vacuum") != std::string::npos);  // the beam blows up before the window
+  CHECK(out.find("--set time.step-fraction=") != std::string::npos);
+  CHECK(out.find("last good checkpoint") != std::string::npos);
+  CHECK(fs::exists(dir / "checkpoint.h5"));  // written from a finite state, kept
+  CHECK(fs::exists(dir / "fields.h5.partial"));
+  CHECK_FALSE(fs::exists(dir / "fields.h5"));
+  fs::remove_all(dir);
+}
