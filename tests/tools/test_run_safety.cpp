@@ -187,3 +187,50 @@ TEST_CASE("a field that becomes non-finite stops the run with its step, node, me
   CHECK_FALSE(fs::exists(dir / "fields.h5"));
   fs::remove_all(dir);
 }
+
+TEST_CASE("a run folder from disk is input: render refuses damaged snapshot shapes naming the dataset") {
+  const fs::path dir = fresh("terayee-test-damaged-run");
+  REQUIRE(terayee_run(dir, "") == 0);
+  const auto render = [&](std::string& out) {
+    const std::string cmd = std::string(TERAYEE_BINARY) + " render '" + dir.string() + "' --field Ez --time 4ps --out '" +
+                            (dir / "still").string() + "' 2>&1";
+    FILE* p = popen(cmd.c_str(), "r");
+    std::array<char, 4096> buf;
+    out.clear();
+    while (size_t n = fread(buf.data(), 1, buf.size(), p)) out.append(buf.data(), n);
+    const int status = pclose(p);
+    return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  };
+  std::string out;
+  {  // coordinates that no longer match the frames: an empty x axis
+    h5::File f = h5::File::open_rw((dir / "fields.h5").string());
+    H5Ldelete(f.id(), "/grid/Ez/x", H5P_DEFAULT);
+    f.write("/grid/Ez/x", {0}, static_cast<const double*>(nullptr), "m");
+  }
+  CHECK(render(out) == 2);
+  CHECK(out.find("/snapshots/Ez: its shape is not") != std::string::npos);
+  {  // a time axis of another rank
+    h5::File f = h5::File::open_rw((dir / "fields.h5").string());
+    H5Ldelete(f.id(), "/snapshots/time", H5P_DEFAULT);
+    const double t[4] = {0, 1, 2, 3};
+    f.write("/snapshots/time", {2, 2}, t, "s");
+  }
+  CHECK(render(out) == 2);
+  CHECK(out.find("/snapshots/time: has 2 dimensions, expected 1") != std::string::npos);
+  fs::remove_all(dir);
+}
+
+TEST_CASE("a second Ctrl-C while the checkpoint is written does not cut it short") {
+  const fs::path dir = fresh("terayee-test-double-int");
+  // two SIGINTs 20 ms apart, 2 s into a long run: the checkpoint is complete and resumes
+  const std::string cmd = "sh -c '" + std::string(TERAYEE_BINARY) + " run \"" + kScene + "\" -o \"" + dir.string() +
+                          "\" --threads 2 --set time.stop=20ns --quiet & p=$!; sleep 2; kill -INT $p; sleep 0.02; "
+                          "kill -INT $p; wait $p'";
+  const int status = std::system(cmd.c_str());
+  CHECK(WEXITSTATUS(status) == 128 + 2);
+  REQUIRE(fs::exists(dir / "checkpoint.h5"));
+  CHECK_FALSE(fs::exists(dir / "checkpoint.h5.tmp"));
+  const auto steps = h5::File::open((dir / "checkpoint.h5").string()).read_checked("/clock/steps", {1});
+  CHECK(steps[0] > 0);
+  fs::remove_all(dir);
+}
