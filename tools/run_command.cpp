@@ -5,13 +5,13 @@
 /// Exit status: 0 done or stopped as asked, 128 + signal when stopped by a signal, 1 a
 /// field that became non-finite or a write error, 2 bad input.
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 #include <unistd.h>
 
 #include <chrono>
 #include <cmath>
 #include <filesystem>
 #include <iostream>
+#include <nlohmann/json.hpp>
 #include <stdexcept>
 
 #include "io/run/checkpoint.h"
@@ -104,9 +104,9 @@ struct Runner {
       sim.advance();
       kill_point(KillPoint::step, n + 1);
       if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
-      const bool by_time = o.checkpoint_minutes > 0 && std::chrono::duration<double>(std::chrono::steady_clock::now() -
-                                                                                      last_checkpoint)
-                                                               .count() > 60 * o.checkpoint_minutes;
+      const bool by_time = o.checkpoint_minutes > 0 &&
+                           std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >
+                               60 * o.checkpoint_minutes;
       if ((by_time || (o.checkpoint_steps > 0 && (n + 1) % o.checkpoint_steps == 0)) && n + 1 < N) {
         if (const int rc = save(n + 1)) return rc;
         last_checkpoint = std::chrono::steady_clock::now();
@@ -120,9 +120,8 @@ struct Runner {
       const long done_here = n + 1 - first;
       const double rate = el > 0 ? static_cast<double>(g.cells()) * done_here / el : 0;
       const int pct = static_cast<int>(100.0 * (n + 1) / N);
-      const std::string line =
-          fmt::format("{:3d}%  t = {:.4g} ps  elapsed {}  eta {}  {:.3g} cell-updates/s", pct, (n + 1) * g.dt * 1e12,
-                      hms(el), hms(el * (N - n - 1) / done_here), rate);
+      const std::string line = fmt::format("{:3d}%  t = {:.4g} ps  elapsed {}  eta {}  {:.3g} cell-updates/s", pct,
+                                           (n + 1) * g.dt * 1e12, hms(el), hms(el * (N - n - 1) / done_here), rate);
       if (tty) {
         std::cerr << "\r" << line << std::flush;
       } else if (!o.quiet && pct / 5 != last_plain) {
@@ -176,8 +175,10 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
     const double tilted = cell_steps > 0 ? sim.midpoint_cell_steps() / cell_steps : 0.0;
     const double tilt_in = sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y);
     const double tilt_out = sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y);
-    s["magnetic-cells"] = {{"count", sim.magnets().count()}, {"midpoint-fraction", tilted},
-                           {"largest-tilt-rad", tilt_out}, {"largest-tilt-in-absorber-rad", tilt_in}};
+    s["magnetic-cells"] = {{"count", sim.magnets().count()},
+                           {"midpoint-fraction", tilted},
+                           {"largest-tilt-rad", tilt_out},
+                           {"largest-tilt-in-absorber-rad", tilt_in}};
     if (tilt_in > 1e-4 && tilt_in > 3 * tilt_out) {  // the studies at their defaults: below 1.2e-5 and below the rest
       const std::string w = fmt::format(
           "the magnetic cells inside the absorbing layers tilted to {:.3g} rad, {:.0f} times more than anywhere "
@@ -189,17 +190,17 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
       s["warnings"] = warnings;
     }
     if (tilted > 0.01)
-      log.info(fmt::format("{:.1f}% of the magnetic cell-steps were tilted past {:g} rad and took the midpoint rule, "
-                           "several times slower than the small-signal step; a linear study can use a smaller "
-                           "amplitude (the response scales with it)",
-                           100 * tilted, CellStep::kTilt));
+      log.info(
+          fmt::format("{:.1f}% of the magnetic cell-steps were tilted past {:g} rad and took the midpoint rule, "
+                      "several times slower than the small-signal step; a linear study can use a smaller "
+                      "amplitude (the response scales with it)",
+                      100 * tilted, CellStep::kTilt));
   }
   return s;
 }
 
 template <class R>
 int run_with(const Scene& scene, const RunOptions& o) {
-  StopSignals signals;  // before anything slow, so an early Ctrl-C is not lost
   Log log;
   RunFolder folder(o.out, scene, o.resume, o.overwrite);
   log.open(folder.path("log.txt"), o.resume);
@@ -212,10 +213,11 @@ int run_with(const Scene& scene, const RunOptions& o) {
   const YeeGrid& g = sim.grid();
   for (const auto& w : sim.warnings()) log.warn(w);
   for (const auto& n : sim.notes()) log.info(n);
-  log.info(fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
-                       "{} threads, {} precision, {:.1f} MB",
-                       g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(),
-                       sim.threads(), sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
+  log.info(
+      fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
+                  "{} threads, {} precision, {:.1f} MB",
+                  g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(), sim.threads(),
+                  sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
   Runner<R> run{scene, o, log, folder, sim, resolved_scene_yaml(scene), folder.path("checkpoint.h5")};
   if (folder.resuming()) {
     load_checkpoint(run.checkpoint, sim, run.resolved);
@@ -246,6 +248,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
 }  // namespace
 
 int run_command(const RunOptions& o) {
+  StopSignals signals;  // first, so an early Ctrl-C is not lost
   if (o.resume && o.overwrite)
     throw BadInput("terayee run: error: --resume goes on with a run, --overwrite replaces it: give one of them");
   namespace fs = std::filesystem;

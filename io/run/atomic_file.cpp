@@ -10,6 +10,7 @@
 #include <cstdio>
 #include <cstring>
 #include <filesystem>
+#include <fstream>
 #include <stdexcept>
 
 namespace ty {
@@ -67,6 +68,15 @@ void write_atomically(const std::string& path, const std::function<void(const st
     throw;
   }
   commit_file(tmp, path);
+}
+
+void write_text_atomically(const std::string& path, const std::string& text) {
+  write_atomically(path, [&](const std::string& tmp) {
+    std::ofstream out(tmp);
+    out << text;
+    out.close();
+    if (!out) throw std::runtime_error(fmt::format("cannot write '{}'", path));
+  });
 }
 
 }  // namespace ty

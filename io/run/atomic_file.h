@@ -22,6 +22,9 @@ void commit_file(const std::string& tmp, const std::string& path);
 /// temporary file is removed and the exception goes on; `path` is untouched.
 void write_atomically(const std::string& path, const std::function<void(const std::string& tmp)>& write);
 
+/// Writes `text` as the whole of `path`, atomically (for JSON, CSV, YAML and XML files).
+void write_text_atomically(const std::string& path, const std::string& text);
+
 /// Removes a left-over temporary file (no error when there is none).
 void discard_temporary(const std::string& tmp);
 

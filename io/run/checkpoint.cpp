@@ -24,9 +24,10 @@ namespace {
 constexpr hsize_t kMaxScene = hsize_t(1) << 30;  // 1 GiB of YAML is no scene
 
 [[noreturn]] void corrupt(const std::string& path, const std::string& dataset, const std::string& what) {
-  throw BadInput(fmt::format("{}: error: {}: {}; the checkpoint is damaged (rerun without --resume, with "
-                             "--overwrite, to start again)",
-                             path, dataset, what));
+  throw BadInput(
+      fmt::format("{}: error: {}: {}; the checkpoint is damaged (rerun without --resume, with "
+                  "--overwrite, to start again)",
+                  path, dataset, what));
 }
 
 /// The clock must name a step this run can be at, and the snapshot frames taken by then.
@@ -63,9 +64,10 @@ void load_checkpoint(const std::string& path, Sim& sim, const std::string& scene
   if (!std::filesystem::exists(path)) throw BadInput(fmt::format("{}: error: there is no checkpoint to resume", path));
   const h5::File f = h5::File::open(path);
   if (f.read_text("/scene", std::max<hsize_t>(kMaxScene, scene_yaml.size())) != scene_yaml)
-    throw BadInput(fmt::format("{}: error: the checkpoint was written for another scene (or other --set values); "
-                               "resume with the scene and settings the run started with",
-                               path));
+    throw BadInput(
+        fmt::format("{}: error: the checkpoint was written for another scene (or other --set values); "
+                    "resume with the scene and settings the run started with",
+                    path));
   // Everything is read and checked before anything of `sim` changes.
   std::vector<std::vector<double>> values;
   double steps = -1, frames = -1;

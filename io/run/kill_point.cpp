@@ -22,7 +22,9 @@ Target parse() {
   const struct {
     const char* name;
     KillPoint where;
-  } names[] = {{"step:", KillPoint::step}, {"checkpoint:", KillPoint::checkpoint}, {"result", KillPoint::result},
+  } names[] = {{"step:", KillPoint::step},
+               {"checkpoint:", KillPoint::checkpoint},
+               {"result", KillPoint::result},
                {"renamed", KillPoint::renamed}};
   for (const auto& p : names)
     if (std::strncmp(v, p.name, std::strlen(p.name)) == 0) {

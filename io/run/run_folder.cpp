@@ -27,15 +27,6 @@ const char* kPartial = "fields.h5.partial";
 const char* kOwn[] = {"fields.h5", "fields.xmf", "summary.json", "fields.h5.partial", "checkpoint.h5", "log.txt",
                       "scene.yaml"};
 
-void write_text_file(const std::string& path, const std::string& text) {
-  write_atomically(path, [&](const std::string& tmp) {
-    std::ofstream out(tmp);
-    out << text;
-    out.close();
-    if (!out) throw std::runtime_error(fmt::format("cannot write '{}'", path));
-  });
-}
-
 std::string slurp(const std::string& path) {
   std::ifstream in(path);
   return std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
@@ -73,7 +64,7 @@ RunFolder::RunFolder(const std::string& dir, const Scene& scene, bool resume, bo
   }
   fs::create_directories(dir_, ec);
   if (!fs::is_directory(dir_)) throw std::runtime_error(fmt::format("cannot make the run folder '{}'", dir_));
-  write_text_file(path("scene.yaml"), resolved);
+  write_text_atomically(path("scene.yaml"), resolved);
 }
 
 RunFolder::~RunFolder() {
@@ -212,7 +203,7 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
   commit_file(tmp, result);
   kill_point(KillPoint::renamed);
   write_xdmf();
-  write_text_file(path("summary.json"), summary.dump(2) + "\n");
+  write_text_atomically(path("summary.json"), summary.dump(2) + "\n");
   // Only now, with every result in place, the state of the stopped run goes.
   std::error_code ec;
   fs::remove(path("checkpoint.h5"), ec);
@@ -268,7 +259,7 @@ void RunFolder::write_xdmf() const {
     x << "</Grid>\n";
   }
   x << "</Domain>\n</Xdmf>\n";
-  write_text_file(path("fields.xmf"), x.str());
+  write_text_atomically(path("fields.xmf"), x.str());
 }
 
 }  // namespace ty

@@ -54,8 +54,8 @@ fs::path fresh(const std::string& name) {
 
 void same_bits(const fs::path& a, const fs::path& b) {
   const auto fa = h5::File::open((a / "fields.h5").string()), fb = h5::File::open((b / "fields.h5").string());
-  for (const char* d : {"/snapshots/Ez", "/snapshots/Hx", "/snapshots/Hy", "/snapshots/time", "/probes/behind-window/Ez",
-                        "/probes/behind-window/Sx", "/grid/medium"}) {
+  for (const char* d : {"/snapshots/Ez", "/snapshots/Hx", "/snapshots/Hy", "/snapshots/time",
+                        "/probes/behind-window/Ez", "/probes/behind-window/Sx", "/grid/medium"}) {
     INFO(d);
     const auto x = fa.read(d), y = fb.read(d);
     REQUIRE(x.size() == y.size());
@@ -76,7 +76,7 @@ TEST_CASE("a run folder that is not empty is refused unless --resume or --overwr
   CHECK(fs::exists(dir / "fields.h5"));  // the earlier results are untouched
   CHECK(terayee_run(dir, " --resume --overwrite") == 2);
   CHECK(terayee_run(dir, " --overwrite") == 0);
-  CHECK(fs::exists(dir / "notes.txt"));  // only the files a run writes are replaced
+  CHECK(fs::exists(dir / "notes.txt"));       // only the files a run writes are replaced
   CHECK(terayee_run(dir, " --resume") == 0);  // a completed run: nothing to do
   fs::remove_all(dir);
 }
@@ -192,8 +192,8 @@ TEST_CASE("a run folder from disk is input: render refuses damaged snapshot shap
   const fs::path dir = fresh("terayee-test-damaged-run");
   REQUIRE(terayee_run(dir, "") == 0);
   const auto render = [&](std::string& out) {
-    const std::string cmd = std::string(TERAYEE_BINARY) + " render '" + dir.string() + "' --field Ez --time 4ps --out '" +
-                            (dir / "still").string() + "' 2>&1";
+    const std::string cmd = std::string(TERAYEE_BINARY) + " render '" + dir.string() +
+                            "' --field Ez --time 4ps --out '" + (dir / "still").string() + "' 2>&1";
     FILE* p = popen(cmd.c_str(), "r");
     std::array<char, 4096> buf;
     out.clear();

@@ -59,3 +59,13 @@ TEST_CASE("write_atomically replaces a file whole and leaves no temporary file")
   }
   fs::remove_all(dir);
 }
+
+TEST_CASE("write_text_atomically writes the whole text") {
+  const fs::path path = fs::temp_directory_path() / "terayee-test-atomic-text.json";
+  write_text_atomically(path.string(), "{\"a\": 1}\n");
+  CHECK(slurp(path) == "{\"a\": 1}\n");
+  CHECK_FALSE(fs::exists(path.string() + ".tmp"));
+  CHECK_THROWS_AS(write_text_atomically((fs::temp_directory_path() / "no-such-dir" / "x.json").string(), "x"),
+                  std::runtime_error);
+  fs::remove(path);
+}

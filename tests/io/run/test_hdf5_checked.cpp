@@ -32,8 +32,8 @@ TEST_CASE("checked HDF5 readers check every shape before reading and name the da
     h5::File f = h5::File::create(path);
     const double v[6] = {1, 2, 3, 4, 5, 6};
     f.write("/a", {2, 3}, v, "m");
-    f.write_text("/long", std::string(100000, 'y'));            // 100 KB of text
-    f.attribute("/", "title", std::string(70000, 't'));         // above the 64 KB compact limit
+    f.write_text("/long", std::string(100000, 'y'));     // 100 KB of text
+    f.attribute("/", "title", std::string(70000, 't'));  // above the 64 KB compact limit
     // a variable-length string attribute, as other programs write them
     h5::Handle type(H5Tcopy(H5T_C_S1), H5Tclose);
     H5Tset_size(type.id(), H5T_VARIABLE);
