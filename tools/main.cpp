@@ -1,6 +1,6 @@
 /// \file main.cpp
 /// \brief The terayee command line: run, check, medium, measure, render, bench. Exit status 0 success,
-/// 1 run-time failure, 2 bad input or usage.
+/// 1 run-time failure, 2 bad input or usage, 128 + signal a run stopped by a signal (docs/runs.md).
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
 
