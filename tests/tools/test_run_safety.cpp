@@ -81,7 +81,7 @@ TEST_CASE("a run folder that is not empty is refused unless --resume or --overwr
   fs::remove_all(dir);
 }
 
-TEST_CASE("stops write a checkpoint; asked for: exit 0, by a signal: 128 + signal; a failed resume keeps it") {
+TEST_CASE("stops write a checkpoint (asked for: exit 0, by a signal: 128 + signal) and a failed resume keeps it") {
   const fs::path dir = fresh("terayee-test-stops");
   CHECK(terayee_run(dir, " --stop-at-step 40") == 0);
   CHECK(fs::exists(dir / "checkpoint.h5"));
@@ -169,7 +169,7 @@ TEST_CASE("a movie named '-x.mp4' is that file, not an ffmpeg option") {
   fs::remove_all(dir);
 }
 
-TEST_CASE("a field that becomes non-finite stops the run with its step, node, medium and field; exit 1") {
+TEST_CASE("a field that becomes non-finite stops the run with its step, node, medium and field (exit 1)") {
   // A source near the largest double (IEEE 754: about 1.797e308) overflows to infinity once
   // the fields add up, a few hundred steps in.
   const fs::path dir = fresh("terayee-test-nonfinite");
