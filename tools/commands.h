@@ -19,6 +19,8 @@ struct RunOptions {
   bool reference = false;         ///< run without the sample bodies
   double checkpoint_minutes = 30; ///< wall time between checkpoints (0: only when stopped)
   long stop_at_step = 0;          ///< stop (with a checkpoint) after this step (0: no)
+  long checkpoint_steps = 0;      ///< also a checkpoint every this many steps (0: no)
+  bool overwrite = false;         ///< replace the results in a run folder that is not empty
 };
 
 int run_command(const RunOptions& o);

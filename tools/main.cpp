@@ -1,6 +1,6 @@
 /// \file main.cpp
 /// \brief The terayee command line: run, check, medium, measure, render, bench. Exit status 0 success,
-/// 1 run-time failure, 2 bad input or usage.
+/// 1 run-time failure, 2 bad input or usage, 128 + signal a run stopped by a signal (docs/runs.md).
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
 
@@ -44,6 +44,10 @@ int main(int argc, char** argv) {
       ->check(CLI::NonNegativeNumber);
   r->add_option("--stop-at-step", run.stop_at_step, "Stop after this step, leaving a checkpoint to resume from")
       ->check(CLI::PositiveNumber);
+  r->add_option("--checkpoint-steps", run.checkpoint_steps, "Also write a checkpoint every this many steps (0: no)")
+      ->check(CLI::NonNegativeNumber);
+  r->add_flag("--overwrite", run.overwrite,
+              "Replace the results of an earlier run in the run folder (without it, a folder that is not empty is refused)");
 
   std::string check_scene;
   std::vector<std::string> check_sets;

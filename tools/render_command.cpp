@@ -51,9 +51,21 @@ class SnapshotSource {
       parts_ = {field_};
       units_ = h.read_attribute("/snapshots/" + field_, "units");
     }
-    x_ = h.read("/grid/" + parts_[0] + "/x");
-    y_ = h.read("/grid/" + parts_[0] + "/y");
-    t_ = h.read("/snapshots/time");
+    // A run folder from disk is input: every shape is checked before it is read, and each
+    // field's frames must match its own coordinates (indexes come from those lengths).
+    const auto len = [&](const std::string& d) { return h.checked_shape(d, 1, hsize_t(1) << 24)[0]; };
+    t_ = h.read_checked("/snapshots/time", {len("/snapshots/time")});
+    for (const auto& p : parts_) {
+      const std::string gx = "/grid/" + p + "/x", gy = "/grid/" + p + "/y", ds = "/snapshots/" + p;
+      const std::vector<hsize_t> want{t_.size(), len(gy), len(gx)};
+      if (want[1] == 0 || want[2] == 0 || h.checked_shape(ds, 3, hsize_t(1) << 36) != want)
+        throw BadInput(fmt::format("{}: error: {}: its shape is not [{}][{}][{}] (frames of /snapshots/time, "
+                                   "lengths of {} and {}, none empty)",
+                                   file, ds, want[0], want[1], want[2], gy, gx));
+      shapes_.push_back(want);
+    }
+    x_ = h.read_checked("/grid/" + parts_[0] + "/x", {shapes_[0][2]});
+    y_ = h.read_checked("/grid/" + parts_[0] + "/y", {shapes_[0][1]});
     const std::string off = h.read_attribute("/snapshots/" + parts_[0], "time-offset");
     for (double& t : t_) t += std::stod(off);
   }
@@ -70,7 +82,7 @@ class SnapshotSource {
     const size_t nx = x_.size(), ny = y_.size();
     for (auto& v : out) v *= v;
     for (size_t p = 1; p < parts_.size(); ++p) {
-      const auto shape = h_.shape("/snapshots/" + parts_[p]);
+      const auto& shape = shapes_[p];  // checked: no dimension is 0
       h_.read_frame("/snapshots/" + parts_[p], k, scratch_);
       for (size_t j = 0; j < ny; ++j)
         for (size_t i = 0; i < nx; ++i) {
@@ -85,6 +97,7 @@ class SnapshotSource {
   std::string field_, units_;
   std::vector<std::string> parts_;
   std::vector<double> x_, y_, t_;
+  std::vector<std::vector<hsize_t>> shapes_;  ///< [frame][y][x] of each part
   std::vector<float> scratch_;
 };
 

@@ -1,19 +1,25 @@
 /// \file run_command.cpp
 /// \brief `terayee run SCENE -o RUN`: reads and checks the scene, steps the simulation
-/// with a progress line, and writes the run folder. Ctrl-C stops the run cleanly
-/// (nothing is left that looks like a result).
+/// with a progress line, and writes the run folder. A stop (Ctrl-C, SIGTERM, SIGHUP,
+/// --stop-at-step) writes a checkpoint first; nothing is left that looks like a result.
+/// Exit status: 0 done or stopped as asked, 128 + signal when stopped by a signal, 1 a
+/// field that became non-finite or a write error, 2 bad input.
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 #include <unistd.h>
 
 #include <chrono>
 #include <cmath>
-#include <csignal>
+#include <filesystem>
 #include <iostream>
+#include <nlohmann/json.hpp>
+#include <stdexcept>
 
 #include "io/run/checkpoint.h"
+#include "io/run/kill_point.h"
 #include "io/run/log.h"
 #include "io/run/run_folder.h"
+#include "io/run/stop_signals.h"
+#include "io/scene/diagnostics.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/scene_writer.h"
 #include "solver/simulation.h"
@@ -22,106 +28,126 @@
 namespace ty {
 namespace {
 
-volatile std::sig_atomic_t g_stop = 0;
-void on_signal(int) { g_stop = 1; }
-
 std::string hms(double s) {
   const long t = std::lround(std::max(0.0, s));
   return fmt::format("{:02d}:{:02d}:{:02d}", t / 3600, (t / 60) % 60, t % 60);
 }
 
+std::string resume_line(const Scene& scene, const RunOptions& o) {
+  return fmt::format("terayee run {} -o {} --resume{}", scene.file, o.out,
+                     o.sets.empty() ? "" : " (and the same --set values)");
+}
+
+/// The run's bookkeeping around the simulation: checkpoints, stops and failures.
 template <class R>
-int run_with(const Scene& scene, const RunOptions& o) {
-  Log log;
-  RunFolder folder(o.out, scene, o.resume);
-  log.open(folder.path("log.txt"), o.resume);
-  log.quiet(o.quiet);
-  log.info(fmt::format("terayee {}: {}{}", TERAYEE_VERSION, scene.title.empty() ? scene.file : scene.title,
-                       scene.reference ? " (reference run: sample bodies removed)" : ""));
-  for (const auto& w : scene.warnings) log.warn(w);
+struct Runner {
+  const Scene& scene;
+  const RunOptions& o;
+  Log& log;
+  RunFolder& folder;
+  Simulation<R>& sim;
+  std::string resolved, checkpoint;
+  long saved_at = -1;  ///< step of the last checkpoint written or loaded (-1: none)
 
-  Simulation<R> sim(scene, o.threads);
-  const YeeGrid& g = sim.grid();
-  for (const auto& w : sim.warnings()) log.warn(w);
-  for (const auto& n : sim.notes()) log.info(n);
-  log.info(fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
-                       "{} threads, {} precision, {:.1f} MB",
-                       g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(),
-                       sim.threads(), sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
-  folder.begin(g, sim.snapshot_plan(), sizeof(R) == 4, sim.medium_map(), sim.map_nx(), sim.map_ny());
-  sim.set_snapshot_sink(&folder);
-  const std::string resolved = resolved_scene_yaml(scene);
-  const std::string checkpoint = folder.path("checkpoint.h5");
-  if (o.resume) {
-    load_checkpoint(checkpoint, sim, resolved);
-    log.info(fmt::format("resumed at step {} of {}", sim.steps_done(), sim.total_steps()));
-  }
-  auto stop_here = [&](long done, const char* why) {
-    folder.flush();
-    save_checkpoint(checkpoint, sim, resolved);
-    folder.keep();
-    log.info(fmt::format("{} at step {} of {}; the state is in {}. Go on with: terayee run {} -o {} --resume{}", why,
-                         done, sim.total_steps(), checkpoint, scene.file, o.out,
-                         o.sets.empty() ? "" : " (and the same --set values)"));
+  /// A field that became non-finite: the step, the node, its medium, and what to do.
+  int nonfinite(long step, int i, int j, Component c) {
+    const YeeGrid& g = sim.grid();
+    const double x = g.x(c, i) - scene.origin_shift.x, y = g.y(c, j) - scene.origin_shift.y;
+    const int mi = i - g.npml_x, mj = j - g.npml_y;
+    std::string medium = "the absorbing layer";
+    if (mi >= 0 && mj >= 0 && mi < sim.map_nx() && mj < sim.map_ny()) {
+      const int m = sim.medium_map()[static_cast<size_t>(mj) * sim.map_nx() + mi];
+      medium = m < 0 ? "vacuum" : "medium '" + scene.media.at(m).name + "'";
+    }
+    folder.abandon();
+    log.error(fmt::format(
+        "the field {} became non-finite by step {} (t = {:.4g} ps) at node ({}, {}), x = {:.4g} mm, "
+        "y = {:.4g} mm, in {}. {} To see whether it is a stability problem, run again with a smaller time step, "
+        "e.g. --set time.step-fraction=0.5 --overwrite (a checkpoint belongs to its own time step).",
+        component_name(c), step, step * g.dt * 1e12, i, j, x * 1e3, y * 1e3, medium,
+        saved_at >= 0 ? fmt::format("The last good checkpoint (step {}) is kept in {}.", saved_at, checkpoint)
+                      : std::string("No checkpoint had been written.")));
     return 1;
-  };
+  }
 
-  g_stop = 0;
-  auto old_int = std::signal(SIGINT, on_signal);
-  auto old_term = std::signal(SIGTERM, on_signal);
-  const bool tty = isatty(STDERR_FILENO) && !o.quiet;
-  const auto t0 = std::chrono::steady_clock::now();
-  auto last_checkpoint = t0;
-  const long N = sim.total_steps();
-  const long first = sim.steps_done();
-  const long every = std::max(1L, N / 100);
-  int last_plain = -1;
-  double rate = 0;
-  for (long n = first; n < N; ++n) {
-    sim.advance();
-    if (g_stop || (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N)) {
-      std::signal(SIGINT, old_int);
-      std::signal(SIGTERM, old_term);
-      return stop_here(n + 1, g_stop ? "stopped" : "stopped as asked");
-    }
-    if (o.checkpoint_minutes > 0 &&
-        std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >
-            60 * o.checkpoint_minutes) {
-      folder.flush();
-      save_checkpoint(checkpoint, sim, resolved);
-      last_checkpoint = std::chrono::steady_clock::now();
-      log.info(fmt::format("checkpoint at step {}", n + 1));
-    }
-    if ((n + 1) % every != 0 && n + 1 != N) continue;
+  /// Writes a checkpoint unless the state holds a NaN (then that is reported: returns 1).
+  int save(long step) {
     int i, j;
     Component c;
-    if (sim.find_nonfinite(i, j, c)) {
-      folder.abandon();
-      const double x = g.x(c, i) - scene.origin_shift.x, y = g.y(c, j) - scene.origin_shift.y;
-      log.info(fmt::format("error: the field {} became non-finite by step {} (t = {:.4g} ps) at node ({}, {}), "
-                           "x = {:.4g} mm, y = {:.4g} mm. Check the medium there; rerun with a smaller "
-                           "time.step-fraction (e.g. --set time.step-fraction=0.5) to see whether it is a stability problem.",
-                           component_name(c), n + 1, (n + 1) * g.dt * 1e12, i, j, x * 1e3, y * 1e3));
-      return 1;
-    }
-    const double el = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
-    const long done_here = n + 1 - first;
-    rate = el > 0 ? static_cast<double>(g.cells()) * done_here / el : 0;
-    const int pct = static_cast<int>(100.0 * (n + 1) / N);
-    const std::string line =
-        fmt::format("{:3d}%  t = {:.4g} ps  elapsed {}  eta {}  {:.3g} cell-updates/s", pct, (n + 1) * g.dt * 1e12,
-                    hms(el), hms(el * (N - n - 1) / done_here), rate);
-    if (tty) {
-      std::cerr << "\r" << line << std::flush;
-    } else if (!o.quiet && pct / 5 != last_plain) {
-      last_plain = pct / 5;
-      std::cerr << line << "\n";
-    }
+    if (sim.find_nonfinite(i, j, c)) return nonfinite(step, i, j, c);
+    StopSignals::Hold hold;
+    folder.flush();
+    save_checkpoint(checkpoint, sim, resolved);
+    saved_at = step;
+    return 0;
   }
-  if (tty) std::cerr << "\n";
-  std::signal(SIGINT, old_int);
-  std::signal(SIGTERM, old_term);
-  const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+
+  int stop(long step, int sig) {
+    if (const int rc = save(step)) return rc;
+    folder.keep();
+    log.info(fmt::format("{} at step {} of {}; the state is in {}. Go on with: {}",
+                         sig ? fmt::format("stopped by signal {}", sig) : std::string("stopped as asked"), step,
+                         sim.total_steps(), checkpoint, resume_line(scene, o)));
+    return sig ? 128 + sig : 0;
+  }
+
+  /// Steps to the end; returns -1 when done, else the exit status.
+  int loop() {
+    const YeeGrid& g = sim.grid();
+    const bool tty = isatty(STDERR_FILENO) && !o.quiet;
+    const auto t0 = std::chrono::steady_clock::now();
+    auto last_checkpoint = t0;
+    const long N = sim.total_steps(), first = sim.steps_done(), every = std::max(1L, N / 100);
+    int last_plain = -1;
+    for (long n = first; n < N; ++n) {
+      if (const int sig = StopSignals::received()) return stop(n, sig);
+      sim.advance();
+      kill_point(KillPoint::step, n + 1);
+      if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
+      const bool by_time = o.checkpoint_minutes > 0 &&
+                           std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >
+                               60 * o.checkpoint_minutes;
+      if ((by_time || (o.checkpoint_steps > 0 && (n + 1) % o.checkpoint_steps == 0)) && n + 1 < N) {
+        if (const int rc = save(n + 1)) return rc;
+        last_checkpoint = std::chrono::steady_clock::now();
+        log.info(fmt::format("checkpoint at step {}", n + 1));
+      }
+      if ((n + 1) % every != 0 && n + 1 != N) continue;
+      int i, j;
+      Component c;
+      if (sim.find_nonfinite(i, j, c)) return nonfinite(n + 1, i, j, c);
+      const double el = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+      const long done_here = n + 1 - first;
+      const double rate = el > 0 ? static_cast<double>(g.cells()) * done_here / el : 0;
+      const int pct = static_cast<int>(100.0 * (n + 1) / N);
+      const std::string line = fmt::format("{:3d}%  t = {:.4g} ps  elapsed {}  eta {}  {:.3g} cell-updates/s", pct,
+                                           (n + 1) * g.dt * 1e12, hms(el), hms(el * (N - n - 1) / done_here), rate);
+      if (tty) {
+        std::cerr << "\r" << line << std::flush;
+      } else if (!o.quiet && pct / 5 != last_plain) {
+        last_plain = pct / 5;
+        std::cerr << line << "\n";
+      }
+    }
+    if (tty) std::cerr << "\n";
+    return -1;
+  }
+
+  /// A write error (a full disk): what happened, and that the last checkpoint is intact.
+  [[noreturn]] void write_failed(const std::exception& e) {
+    folder.abandon();
+    throw std::runtime_error(fmt::format(
+        "{} (is the disk full?). {}", e.what(),
+        saved_at >= 0 ? fmt::format("The checkpoint of step {} is intact: make room and go on with {}", saved_at,
+                                    resume_line(scene, o))
+                      : std::string("No checkpoint had been written; make room and run again with --overwrite.")));
+  }
+};
+
+template <class R>
+nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, long first, double wall) {
+  const YeeGrid& g = sim.grid();
+  const long N = sim.total_steps();
   nlohmann::json s;
   s["terayee-version"] = TERAYEE_VERSION;
   s["title"] = scene.title;
@@ -149,8 +175,10 @@ int run_with(const Scene& scene, const RunOptions& o) {
     const double tilted = cell_steps > 0 ? sim.midpoint_cell_steps() / cell_steps : 0.0;
     const double tilt_in = sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y);
     const double tilt_out = sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y);
-    s["magnetic-cells"] = {{"count", sim.magnets().count()}, {"midpoint-fraction", tilted},
-                           {"largest-tilt-rad", tilt_out}, {"largest-tilt-in-absorber-rad", tilt_in}};
+    s["magnetic-cells"] = {{"count", sim.magnets().count()},
+                           {"midpoint-fraction", tilted},
+                           {"largest-tilt-rad", tilt_out},
+                           {"largest-tilt-in-absorber-rad", tilt_in}};
     if (tilt_in > 1e-4 && tilt_in > 3 * tilt_out) {  // the studies at their defaults: below 1.2e-5 and below the rest
       const std::string w = fmt::format(
           "the magnetic cells inside the absorbing layers tilted to {:.3g} rad, {:.0f} times more than anywhere "
@@ -162,20 +190,72 @@ int run_with(const Scene& scene, const RunOptions& o) {
       s["warnings"] = warnings;
     }
     if (tilted > 0.01)
-      log.info(fmt::format("{:.1f}% of the magnetic cell-steps were tilted past {:g} rad and took the midpoint rule, "
-                           "several times slower than the small-signal step; a linear study can use a smaller "
-                           "amplitude (the response scales with it)",
-                           100 * tilted, CellStep::kTilt));
+      log.info(
+          fmt::format("{:.1f}% of the magnetic cell-steps were tilted past {:g} rad and took the midpoint rule, "
+                      "several times slower than the small-signal step; a linear study can use a smaller "
+                      "amplitude (the response scales with it)",
+                      100 * tilted, CellStep::kTilt));
   }
-  folder.finish(sim.probes(), sim.power_spectra(), sim.spectral_maps(), g.dt, s);
-  log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", N, hms(wall),
-                       s["cell-updates-per-s"].get<double>(), o.out));
+  return s;
+}
+
+template <class R>
+int run_with(const Scene& scene, const RunOptions& o) {
+  Log log;
+  RunFolder folder(o.out, scene, o.resume, o.overwrite);
+  log.open(folder.path("log.txt"), o.resume);
+  log.quiet(o.quiet);
+  log.info(fmt::format("terayee {}: {}{}", TERAYEE_VERSION, scene.title.empty() ? scene.file : scene.title,
+                       scene.reference ? " (reference run: sample bodies removed)" : ""));
+  for (const auto& w : scene.warnings) log.warn(w);
+
+  Simulation<R> sim(scene, o.threads);
+  const YeeGrid& g = sim.grid();
+  for (const auto& w : sim.warnings()) log.warn(w);
+  for (const auto& n : sim.notes()) log.info(n);
+  log.info(
+      fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
+                  "{} threads, {} precision, {:.1f} MB",
+                  g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(), sim.threads(),
+                  sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
+  Runner<R> run{scene, o, log, folder, sim, resolved_scene_yaml(scene), folder.path("checkpoint.h5")};
+  if (folder.resuming()) {
+    load_checkpoint(run.checkpoint, sim, run.resolved);
+    run.saved_at = sim.steps_done();
+    log.info(fmt::format("resumed at step {} of {}", sim.steps_done(), sim.total_steps()));
+  } else if (o.resume) {
+    log.info("no checkpoint was written before the run stopped: starting again from step 0");
+  }
+  folder.begin(g, sim.snapshot_plan(), sizeof(R) == 4, sim.medium_map(), sim.map_nx(), sim.map_ny());
+  sim.set_snapshot_sink(&folder);
+  const long first = sim.steps_done();
+  const auto t0 = std::chrono::steady_clock::now();
+  try {
+    if (const int rc = run.loop(); rc >= 0) return rc;
+    const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+    const nlohmann::json s = make_summary(scene, sim, log, first, wall);
+    folder.finish(sim.probes(), sim.power_spectra(), sim.spectral_maps(), g.dt, s);
+    log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", sim.total_steps(), hms(wall),
+                         s["cell-updates-per-s"].get<double>(), o.out));
+  } catch (const BadInput&) {
+    throw;
+  } catch (const std::exception& e) {
+    run.write_failed(e);
+  }
   return 0;
 }
 
 }  // namespace
 
 int run_command(const RunOptions& o) {
+  StopSignals signals;  // first, so an early Ctrl-C is not lost
+  if (o.resume && o.overwrite)
+    throw BadInput("terayee run: error: --resume goes on with a run, --overwrite replaces it: give one of them");
+  namespace fs = std::filesystem;
+  if (o.resume && fs::exists(fs::path(o.out) / "summary.json") && !fs::exists(fs::path(o.out) / "checkpoint.h5")) {
+    std::cerr << fmt::format("terayee run: {} holds a completed run; there is nothing to resume\n", o.out);
+    return 0;
+  }
   const Scene read = read_scene(o.scene, o.sets);
   const Scene scene = o.reference ? reference_scene(read) : read;
   if (scene.time.precision == Precision::single) return run_with<float>(scene, o);

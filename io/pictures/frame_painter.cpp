@@ -4,6 +4,8 @@
 /// drawn with cairo's simple text API in a sans-serif face (DejaVu Sans on Debian).
 #include "io/pictures/frame_painter.h"
 
+#include "io/run/atomic_file.h"
+
 #include "io/scene/constants.h"
 
 #include <cairo-pdf.h>
@@ -143,7 +145,7 @@ int FramePainter::stride() const { return cairo_image_surface_get_stride(raster_
 void FramePainter::write(const std::string& path, const float* values, const std::string& time_label) const {
   namespace fs = std::filesystem;
   const std::string ext = fs::path(path).extension().string();
-  const std::string tmp = path + ".partial";
+  const std::string tmp = temporary_name(path);
   cairo_status_t st = CAIRO_STATUS_SUCCESS;
   if (ext == ".png") {
     st = cairo_surface_write_to_png(raster_, tmp.c_str());
@@ -160,11 +162,10 @@ void FramePainter::write(const std::string& path, const float* values, const std
     throw std::runtime_error(fmt::format("'{}': pictures are .png, .pdf or .svg", path));
   }
   if (st != CAIRO_STATUS_SUCCESS) {
-    std::error_code ec;
-    fs::remove(tmp, ec);
+    discard_temporary(tmp);
     throw std::runtime_error(fmt::format("cannot write '{}': {}", path, cairo_status_to_string(st)));
   }
-  fs::rename(tmp, path);
+  commit_file(tmp, path);
 }
 
 void FramePainter::draw(cairo_t* cr, const float* values, const std::string& time_label) const {

@@ -5,6 +5,8 @@
 /// the curves. PLplot keeps one global stream; plots are drawn one at a time.
 #include "io/pictures/plot.h"
 
+#include "io/run/atomic_file.h"
+
 #include <fmt/format.h>
 #include <plplot.h>
 
@@ -151,7 +153,7 @@ void write_plot(const Plot& plot, const std::string& path) {
   const char* device = ext == ".png" ? "pngcairo" : ext == ".pdf" ? "pdfcairo" : ext == ".svg" ? "svgcairo" : nullptr;
   if (!device) throw std::runtime_error(fmt::format("'{}': plots are .png, .pdf or .svg", path));
   if (plot.panels.empty()) throw std::runtime_error("a plot needs at least one panel");
-  const std::string tmp = path + ".partial", data = plot_data_path(path), data_tmp = data + ".partial";
+  const std::string tmp = temporary_name(path), data = plot_data_path(path), data_tmp = temporary_name(data);
   {
     std::ofstream csv(data_tmp);
     csv << "panel,series,x,y\n";
@@ -159,7 +161,11 @@ void write_plot(const Plot& plot, const std::string& path) {
       for (const auto& s : plot.panels[p].series)
         for (size_t q = 0; q < s.x.size() && q < s.y.size(); ++q)
           csv << fmt::format("{},{},{:.10g},{:.10g}\n", p, csv_field(s.label), s.x[q], s.y[q]);
-    if (!csv) throw std::runtime_error(fmt::format("cannot write '{}'", data));
+    csv.close();
+    if (!csv) {
+      discard_temporary(data_tmp);
+      throw std::runtime_error(fmt::format("cannot write '{}'", data));
+    }
   }
   plsdev(device);
   plsfnam(tmp.c_str());
@@ -172,11 +178,11 @@ void write_plot(const Plot& plot, const std::string& path) {
   plend();
   std::error_code ec;
   if (!fs::exists(tmp) || fs::file_size(tmp, ec) == 0) {
-    fs::remove(tmp, ec), fs::remove(data_tmp, ec);
+    discard_temporary(tmp), discard_temporary(data_tmp);
     throw std::runtime_error(fmt::format("PLplot wrote nothing to '{}'", path));
   }
-  fs::rename(tmp, path);
-  fs::rename(data_tmp, data);
+  commit_file(tmp, path);
+  commit_file(data_tmp, data);
 }
 
 }  // namespace ty

@@ -16,7 +16,13 @@ hid_t check(hid_t id, const std::string& what) {
 }
 
 struct Quiet {  // HDF5 prints its own error stack otherwise
-  Quiet() { H5Eset_auto2(H5E_DEFAULT, nullptr, nullptr); }
+  Quiet() {
+    // Every file is closed by its Handle. A file whose close failed (a full disk) stays
+    // in the library, and HDF5 1.10's exit-time cleanup crashes retrying it; without
+    // that cleanup the process just ends and the system closes the descriptor.
+    H5dont_atexit();
+    H5Eset_auto2(H5E_DEFAULT, nullptr, nullptr);
+  }
 };
 const Quiet quiet;
 
@@ -34,24 +40,31 @@ Handle::~Handle() {
 
 File File::create(const std::string& path) {
   File f;
-  f.h_ = Handle(check(H5Fcreate(path.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, H5P_DEFAULT), "cannot create " + path),
+  f.name_ = path;
+  // The 1.8 file format: attributes of any size (dense attribute storage, HDF5 User's
+  // Guide, "Attributes"), and no open-for-writing flag that a killed run would leave set.
+  Handle fapl(check(H5Pcreate(H5P_FILE_ACCESS), "plist"), H5Pclose);
+  H5Pset_libver_bounds(fapl.id(), H5F_LIBVER_V18, H5F_LIBVER_V18);
+  f.h_ = Handle(check(H5Fcreate(path.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, fapl.id()), "cannot create " + path),
                 H5Fclose);
   return f;
 }
 
 File File::open(const std::string& path) {
   File f;
+  f.name_ = path;
   f.h_ = Handle(check(H5Fopen(path.c_str(), H5F_ACC_RDONLY, H5P_DEFAULT), "cannot open " + path), H5Fclose);
   return f;
 }
 
 File File::open_rw(const std::string& path) {
   File f;
+  f.name_ = path;
   f.h_ = Handle(check(H5Fopen(path.c_str(), H5F_ACC_RDWR, H5P_DEFAULT), "cannot open " + path), H5Fclose);
   return f;
 }
 
-void File::flush() { H5Fflush(id(), H5F_SCOPE_GLOBAL); }
+void File::flush() { check(H5Fflush(id(), H5F_SCOPE_GLOBAL), "cannot write " + name_); }
 
 bool File::exists(const std::string& path) const {
   size_t pos = 0;
@@ -76,9 +89,9 @@ void File::write_any(const std::string& path, const std::vector<hsize_t>& shape,
   make_groups(path);
   Handle space(check(H5Screate_simple(static_cast<int>(shape.size()), shape.data(), nullptr), "dataspace"), H5Sclose);
   Handle set(check(H5Dcreate2(id(), path.c_str(), type, space.id(), H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT),
-                   "cannot create " + path),
+                   "cannot create " + path + " in " + name_),
              H5Dclose);
-  check(H5Dwrite(set.id(), type, H5S_ALL, H5S_ALL, H5P_DEFAULT, data), "cannot write " + path);
+  check(H5Dwrite(set.id(), type, H5S_ALL, H5S_ALL, H5P_DEFAULT, data), "cannot write " + path + " in " + name_);
   attribute(path, "units", units);
 }
 
@@ -96,6 +109,11 @@ void File::write(const std::string& p, const std::vector<hsize_t>& s, const long
   write_any(p, s, d, H5T_NATIVE_LONG, u);
 }
 
+void File::write_text(const std::string& path, const std::string& text) {
+  const std::vector<hsize_t> shape{text.size()};
+  write_any(path, shape, text.data(), H5T_NATIVE_CHAR, "");
+}
+
 void File::create_frames(const std::string& path, hsize_t frames, hsize_t ny, hsize_t nx, bool single,
                          const std::string& units) {
   make_groups(path);
@@ -104,9 +122,14 @@ void File::create_frames(const std::string& path, hsize_t frames, hsize_t ny, hs
   Handle space(check(H5Screate_simple(3, dims, nullptr), "dataspace"), H5Sclose);
   Handle plist(check(H5Pcreate(H5P_DATASET_CREATE), "plist"), H5Pclose);
   if (frames > 0 && ny > 0 && nx > 0) H5Pset_chunk(plist.id(), 3, chunk);
+  // Every chunk is placed now, so writing a frame later changes only raw data, never the
+  // file's metadata: a run killed between two checkpoints leaves a file that still opens.
+  // (Every frame is written before a run completes, so no fill value is needed.)
+  H5Pset_alloc_time(plist.id(), H5D_ALLOC_TIME_EARLY);
+  H5Pset_fill_time(plist.id(), H5D_FILL_TIME_NEVER);
   Handle set(check(H5Dcreate2(id(), path.c_str(), single ? H5T_NATIVE_FLOAT : H5T_NATIVE_DOUBLE, space.id(),
                               H5P_DEFAULT, plist.id(), H5P_DEFAULT),
-                   "cannot create " + path),
+                   "cannot create " + path + " in " + name_),
              H5Dclose);
   attribute(path, "units", units);
 }
@@ -118,7 +141,7 @@ void File::frame_any(const std::string& path, hsize_t frame, hsize_t ny, hsize_t
   const hsize_t start[3] = {frame, 0, 0}, count[3] = {1, ny, nx};
   H5Sselect_hyperslab(fs.id(), H5S_SELECT_SET, start, nullptr, count, nullptr);
   Handle ms(check(H5Screate_simple(3, count, nullptr), "dataspace"), H5Sclose);
-  check(H5Dwrite(set.id(), type, ms.id(), fs.id(), H5P_DEFAULT, data), "cannot write a frame of " + path);
+  check(H5Dwrite(set.id(), type, ms.id(), fs.id(), H5P_DEFAULT, data), "cannot write a frame of " + path + " in " + name_);
 }
 
 void File::write_frame(const std::string& p, hsize_t f, hsize_t ny, hsize_t nx, const float* d) {
@@ -224,10 +247,7 @@ std::string File::read_attribute(const std::string& object, const std::string& n
     H5Aread(a.id(), H5T_NATIVE_DOUBLE, &v);
     return fmt::format("{}", v);
   }
-  std::string s(H5Tget_size(type.id()), '\0');
-  H5Aread(a.id(), type.id(), s.data());
-  while (!s.empty() && s.back() == '\0') s.pop_back();
-  return s;
+  return read_string_attribute(object, name, hsize_t(1) << 30);
 }
 
 }  // namespace ty::h5

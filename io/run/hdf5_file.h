@@ -63,9 +63,28 @@ class File {
   void read_frame(const std::string& path, hsize_t frame, std::vector<double>& out) const;
   std::string read_attribute(const std::string& object, const std::string& name) const;
   bool exists(const std::string& path) const;
+  const std::string& file_name() const { return name_; }
+
+  /// Text of any length as a one-dimensional dataset of bytes (an attribute is limited
+  /// to 64 KB in a default-format file, HDF5 User's Guide, "Attributes").
+  void write_text(const std::string& path, const std::string& text);
+
+  /// Checked readers for files from disk (hdf5_checked.cpp): each checks the dataset
+  /// before reading it and throws BadInput ("FILE: error: DATASET: ...", exit 2).
+  /// The shape of `path`, which must exist and have `rank` dimensions and at most
+  /// `max_elements` values.
+  std::vector<hsize_t> checked_shape(const std::string& path, int rank, hsize_t max_elements) const;
+  /// A whole dataset of exactly the shape `expected`, as doubles.
+  std::vector<double> read_checked(const std::string& path, const std::vector<hsize_t>& expected) const;
+  /// A text dataset (write_text) of at most `max_bytes`.
+  std::string read_text(const std::string& path, hsize_t max_bytes) const;
+  /// A string attribute, fixed or variable length, of at most `max_bytes`.
+  std::string read_string_attribute(const std::string& object, const std::string& name, hsize_t max_bytes) const;
 
  private:
   Handle h_;
+  std::string name_;
+  [[noreturn]] void bad(const std::string& path, const std::string& what) const;
   void make_groups(const std::string& path);
   template <class T>
   void write_any(const std::string& path, const std::vector<hsize_t>& shape, const T* data, hid_t type,

@@ -11,4 +11,9 @@ void Log::info(const std::string& line) {
   if (file_) file_ << line << "\n" << std::flush;
 }
 
+void Log::error(const std::string& line) {
+  std::cerr << "error: " << line << "\n";
+  if (file_) file_ << "error: " << line << "\n" << std::flush;
+}
+
 }  // namespace ty

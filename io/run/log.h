@@ -14,6 +14,8 @@ class Log {
   void quiet(bool q) { quiet_ = q; }
   void info(const std::string& line);
   void warn(const std::string& line) { info("warning: " + line); }
+  /// An error: on the terminal even when quiet, and in the file.
+  void error(const std::string& line);
 
  private:
   std::ofstream file_;

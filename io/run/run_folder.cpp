@@ -8,6 +8,10 @@
 #include <filesystem>
 #include <fstream>
 #include <iterator>
+#include <sstream>
+
+#include "io/run/atomic_file.h"
+#include "io/run/kill_point.h"
 
 #include "io/scene/diagnostics.h"
 
@@ -19,29 +23,48 @@ namespace fs = std::filesystem;
 
 namespace {
 const char* kPartial = "fields.h5.partial";
-}
+/// The files a run writes; --overwrite removes these and nothing else.
+const char* kOwn[] = {"fields.h5", "fields.xmf", "summary.json", "fields.h5.partial", "checkpoint.h5", "log.txt",
+                      "scene.yaml"};
 
-RunFolder::RunFolder(const std::string& dir, const Scene& scene, bool resume)
-    : dir_(dir), scene_(scene), resume_(resume) {
+std::string slurp(const std::string& path) {
+  std::ifstream in(path);
+  return std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+}
+}  // namespace
+
+RunFolder::RunFolder(const std::string& dir, const Scene& scene, bool resume, bool overwrite)
+    : dir_(dir), scene_(scene) {
   const std::string resolved =
       "# resolved by terayee: every default filled in, every value in SI\n" + resolved_scene_yaml(scene);
   std::error_code ec;
+  for (auto f : {kPartial, "checkpoint.h5", "fields.h5", "fields.xmf", "summary.json", "scene.yaml"})
+    discard_temporary(temporary_name(path(f)));  // left by a kill: our own, never complete
   if (resume) {
-    for (auto f : {kPartial, "checkpoint.h5", "scene.yaml"})
-      if (!fs::exists(path(f)))
-        throw BadInput(fmt::format("{}: error: there is no stopped run to resume here (no {})", dir_, f));
-    std::ifstream in(path("scene.yaml"));
-    const std::string old((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
-    if (old != resolved)
+    if (!fs::exists(path("scene.yaml")))
+      throw BadInput(fmt::format("{}: error: there is no stopped run to resume here (no scene.yaml)", dir_));
+    if (slurp(path("scene.yaml")) != resolved)
       throw BadInput(fmt::format("{}: error: the scene differs from the one this run started with; resume with the "
                                  "same scene and --set values",
                                  dir_));
+    // Killed before its first checkpoint: start again from step 0 in the same folder.
+    resume_ = fs::exists(path("checkpoint.h5"));
+    if (resume_ && !fs::exists(path(kPartial)))
+      throw BadInput(fmt::format("{}: error: {} is missing; the checkpoint cannot be resumed without it "
+                                 "(start again with --overwrite)",
+                                 dir_, kPartial));
     return;
+  }
+  if (fs::exists(dir_) && !fs::is_empty(dir_, ec)) {
+    if (!overwrite)
+      throw BadInput(fmt::format("{}: error: the run folder is not empty; go on with a stopped run with --resume, "
+                                 "or replace its results with --overwrite",
+                                 dir_));
+    for (auto f : kOwn) fs::remove(path(f), ec);
   }
   fs::create_directories(dir_, ec);
   if (!fs::is_directory(dir_)) throw std::runtime_error(fmt::format("cannot make the run folder '{}'", dir_));
-  for (auto f : {"fields.h5", "fields.xmf", "summary.json", kPartial, "checkpoint.h5"}) fs::remove(path(f), ec);
-  std::ofstream(path("scene.yaml")) << resolved;
+  write_text_atomically(path("scene.yaml"), resolved);
 }
 
 RunFolder::~RunFolder() {
@@ -84,6 +107,7 @@ void RunFolder::begin(const YeeGrid& g, const SnapshotPlan& plan, bool single, c
       f.attribute(ds, "layout", "[frame][y][x]; row 0 is the lowest y");
     }
   }
+  f.flush();
 }
 
 void RunFolder::frame(std::size_t k, double, std::size_t field, const float* data) {
@@ -98,6 +122,12 @@ void RunFolder::frame(std::size_t k, double, std::size_t field, const double* da
 
 void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
                        const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary) {
+  // The closing datasets go into a copy, so the partial file stays as the checkpoint
+  // knows it until fields.h5 is in place (a kill here leaves a run that resumes).
+  h5_.reset();
+  const std::string result = path("fields.h5"), tmp = temporary_name(result);
+  fs::copy_file(path(kPartial), tmp, fs::copy_options::overwrite_existing);
+  h5_ = std::make_unique<h5::File>(h5::File::open_rw(tmp));
   h5::File& f = *h5_;
   for (const auto& m : maps) {
     const std::string base = "/spectral-maps/" + m.name;
@@ -167,12 +197,17 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
     const double at[2] = {p.at.x - scene_.origin_shift.x, p.at.y - scene_.origin_shift.y};
     f.write(base + "/at", {2}, at, "m");
   }
+  f.flush();
   h5_.reset();  // closes the file
-  fs::rename(path(kPartial), path("fields.h5"));
+  kill_point(KillPoint::result);
+  commit_file(tmp, result);
+  kill_point(KillPoint::renamed);
+  write_xdmf();
+  write_text_atomically(path("summary.json"), summary.dump(2) + "\n");
+  // Only now, with every result in place, the state of the stopped run goes.
   std::error_code ec;
   fs::remove(path("checkpoint.h5"), ec);
-  write_xdmf();
-  std::ofstream(path("summary.json")) << summary.dump(2) << "\n";
+  fs::remove(path(kPartial), ec);
   done_ = true;
 }
 
@@ -188,13 +223,14 @@ void RunFolder::keep() {
 void RunFolder::abandon() {
   h5_.reset();
   std::error_code ec;
-  fs::remove(path(kPartial), ec);
-  fs::remove(path("checkpoint.h5"), ec);
+  discard_temporary(temporary_name(path("fields.h5")));
+  // Partial results are kept for the checkpoint they go with; without one they are no use.
+  if (!fs::exists(path("checkpoint.h5"))) fs::remove(path(kPartial), ec);
   done_ = true;
 }
 
 void RunFolder::write_xdmf() const {
-  std::ofstream x(path("fields.xmf"));
+  std::ostringstream x;
   x << "<?xml version=\"1.0\" ?>\n<Xdmf Version=\"3.0\">\n<Domain>\n";
   const int prec = single_ ? 4 : 8;
   for (const auto& sf : plan_.fields) {
@@ -223,6 +259,7 @@ void RunFolder::write_xdmf() const {
     x << "</Grid>\n";
   }
   x << "</Domain>\n</Xdmf>\n";
+  write_text_atomically(path("fields.xmf"), x.str());
 }
 
 }  // namespace ty

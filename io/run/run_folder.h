@@ -1,8 +1,9 @@
 /// \file run_folder.h
 /// \brief The run folder of scene-format.md: scene.yaml, fields.h5, fields.xmf,
-/// summary.json and log.txt. Results are written under temporary names and renamed
-/// only when the run completes, so an interrupted or failed run never leaves files
-/// that look like results.
+/// summary.json and log.txt. Results are written under temporary names and put in
+/// place (io/run/atomic_file.h) only when the run completes, so an interrupted or
+/// failed run never leaves files that look like results; the checkpoint and the
+/// partial results it goes with are removed only after every result is in place.
 #pragma once
 #include <memory>
 #include <string>
@@ -21,9 +22,11 @@ namespace ty {
 
 class RunFolder : public SnapshotSink {
  public:
-  /// Makes the folder (if needed), removes old results there, writes scene.yaml. With
-  /// `resume`, the folder must hold a stopped run of the same resolved scene instead.
-  RunFolder(const std::string& dir, const Scene& scene, bool resume = false);
+  /// Makes the folder (if needed) and writes scene.yaml. A folder that is not empty is
+  /// refused (BadInput) unless `overwrite` (then the files a run writes are removed,
+  /// nothing else). With `resume`, the folder must hold a stopped run of the same
+  /// resolved scene instead; one stopped before its first checkpoint starts again.
+  RunFolder(const std::string& dir, const Scene& scene, bool resume = false, bool overwrite = false);
   ~RunFolder() override;
 
   const std::string& dir() const { return dir_; }
@@ -41,8 +44,11 @@ class RunFolder : public SnapshotSink {
   /// Writes the probes, closes the HDF5 file, renames it, writes fields.xmf and summary.json.
   void finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
               const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary);
-  /// Removes the partial files of a run that did not complete.
+  /// Closes a run that did not complete. The checkpoint is never removed, nor the
+  /// partial results that go with it; without a checkpoint they are removed.
   void abandon();
+  /// Whether a checkpoint is to be loaded (resume asked and one was found).
+  bool resuming() const { return resume_; }
 
  private:
   std::string dir_;

@@ -10,14 +10,20 @@
 #include "io/scene/diagnostics.h"
 
 namespace ty {
+namespace {
+constexpr hsize_t kMaxAxis = hsize_t(1) << 24;    // points along one axis
+constexpr hsize_t kMaxValues = hsize_t(1) << 34;  // values in one dataset (128 GiB of doubles)
+}  // namespace
 
 SpectralMapFile::SpectralMapFile(const std::string& run, const std::string& name)
     : h_(h5::File::open(run + "/fields.h5")), file_(run + "/fields.h5"), name_(name), base_("/spectral-maps/" + name) {
   if (!h_.exists(base_ + "/frequency"))
     throw BadInput(fmt::format("{}: error: the run has no spectral map named '{}'", file_, name));
-  x_ = h_.read(base_ + "/x");
-  y_ = h_.read(base_ + "/y");
-  f_ = h_.read(base_ + "/frequency");
+  // A run folder from disk is input: every shape is checked before it is read.
+  const auto len = [&](const std::string& d) { return h_.checked_shape(base_ + d, 1, kMaxAxis)[0]; };
+  x_ = h_.read_checked(base_ + "/x", {len("/x")});
+  y_ = h_.read_checked(base_ + "/y", {len("/y")});
+  f_ = h_.read_checked(base_ + "/frequency", {len("/frequency")});
 }
 
 size_t SpectralMapFile::frequency_index(double f) const {
@@ -35,6 +41,15 @@ bool SpectralMapFile::has(const std::string& field) const { return h_.exists(bas
 
 std::vector<std::complex<double>> SpectralMapFile::field(const std::string& field, size_t k) const {
   if (!has(field)) throw BadInput(fmt::format("{}: error: the map '{}' holds no '{}'", file_, name_, field));
+  // real and imag must both be [frequency][y][x] of this map's axes
+  const std::vector<hsize_t> shape{f_.size(), y_.size(), x_.size()};
+  for (const char* part : {"/real", "/imag"}) {
+    const std::string d = base_ + "/" + field + part;
+    if (h_.checked_shape(d, 3, kMaxValues) != shape)
+      throw BadInput(fmt::format("{}: error: {}: its shape is not [{}][{}][{}] (frequency, y, x of the map)", file_, d,
+                                 f_.size(), y_.size(), x_.size()));
+  }
+  if (k >= f_.size()) throw BadInput(fmt::format("{}: error: the map '{}' has no frequency {}", file_, name_, k));
   std::vector<double> re, im;
   h_.read_frame(base_ + "/" + field + "/real", k, re);
   h_.read_frame(base_ + "/" + field + "/imag", k, im);

@@ -9,7 +9,7 @@ study=negative-refraction
 sets=()
 $fine && sets=(--set "grid.cell=12.5 um" --set "grid.absorber.cells=32" --set "grid.absorber.strength=0.5" --set "time.stop=6 ns")
 
-"$ty" run "$scene" -o "$out" "${sets[@]}"
+"$ty" run "$scene" --overwrite -o "$out" "${sets[@]}"
 "$ty" medium "$scene" --medium mnf2 --from "262.5 GHz" --to "262.5 GHz" --count 1 --angle "30 deg" \
   --json "$out/prediction.json" > "$out/prediction.txt"
 # inside the plate, 0.5 to 2.5 mm deep, where the refracted beam runs

@@ -11,9 +11,9 @@ sets=()
 $fine && sets=(--set "grid.cell=12.5 um" --set "grid.absorber.cells=32" --set "grid.absorber.strength=0.5")
 reversed=(--set "bias=[0, 0, -1 T]")
 
-"$ty" run "$scene" -o "$out/plus" "${sets[@]}"
-"$ty" run "$scene" -o "$out/minus" "${sets[@]}" "${reversed[@]}"
-"$ty" run "$scene" -o "$out/reference" --reference "${sets[@]}"
+"$ty" run "$scene" --overwrite -o "$out/plus" "${sets[@]}"
+"$ty" run "$scene" --overwrite -o "$out/minus" "${sets[@]}" "${reversed[@]}"
+"$ty" run "$scene" --overwrite -o "$out/reference" --reference "${sets[@]}"
 # the strip y = -0.4 mm lies 0.9 mm before the crystal's face at y = 0.5 mm
 "$ty" measure shift "$out/plus" --reference "$out/reference" --map cut --line "y=-0.4 mm" --interface "0.5 mm" \
   --angle "45 deg" --reversed "$out/minus" --reversed-reference "$out/reference" | tee "$out/shift.txt"

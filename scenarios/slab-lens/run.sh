@@ -9,7 +9,7 @@ study=slab-lens
 sets=()
 $fine && sets=(--set "grid.cell=12.5 um" --set "grid.absorber.cells=32" --set "grid.absorber.strength=0.5")
 
-"$ty" run "$scene" -o "$out" "${sets[@]}"
+"$ty" run "$scene" --overwrite -o "$out" "${sets[@]}"
 "$ty" medium "$scene" --medium mnf2 --from "262.5 GHz" --to "262.5 GHz" --count 1 --thickness "3 mm" \
   --source-distance "0.25 mm" --image-range "4 mm" --json "$out/prediction.json" > "$out/prediction.txt"
 # the plate's far face is at y = 1 mm

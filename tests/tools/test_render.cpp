@@ -147,7 +147,7 @@ TEST_CASE("render: the movie is H.264 in yuv420p with every frame, at the frame'
   const std::string movie = (run / "movie.mp4").string();
   REQUIRE(shell(kBinary + " render '" + run.string() + "' --field Ez --movie '" + movie + "' --fps 10 --size 500") == 0);
   REQUIRE(fs::exists(movie));
-  CHECK_FALSE(fs::exists(movie + ".partial"));
+  CHECK_FALSE(fs::exists(movie + ".tmp"));
   const auto j = nlohmann::json::parse(capture("ffprobe -v error -select_streams v:0 -count_frames -show_entries "
                                                "stream=codec_name,pix_fmt,width,height,nb_read_frames -of json '" +
                                                movie + "'"));
