@@ -127,7 +127,7 @@ FrameStyle base_style(const std::string& run, const RenderOptions& o) {
 
 void set_limits(FrameStyle& st, const RenderOptions& o, bool non_negative, double robust) {
   if (!o.colours.empty())
-    st.colours = o.colours == "sequential" ? ColourMap::Kind::sequential : ColourMap::Kind::diverging;
+    st.colours = ColourMap::kind_named(o.colours);
   else
     st.colours = non_negative ? ColourMap::Kind::sequential : ColourMap::Kind::diverging;
   if (o.limits.size() == 2) {
@@ -299,6 +299,7 @@ int render_command(const RenderOptions& o) {
     throw BadInput("terayee render: error: --movie FILE must end in .mp4");
   if (!o.limits.empty() && o.limits.size() != 2) throw BadInput("terayee render: error: --limits takes LO HI");
   if (!(o.percentile > 0 && o.percentile <= 100)) throw BadInput("terayee render: error: --percentile is in (0, 100]");
+  if (!o.colours.empty()) ColourMap::kind_named(o.colours);  // an unknown or old name fails before any work
   const std::string out_dir = o.out.empty() ? o.run + "/pictures" : o.out;
   if (!o.plot.empty()) return render_plot(o, out_dir);
   if (!o.map.empty()) return render_map(o, out_dir);
