@@ -165,7 +165,11 @@ int render_snapshots(const RenderOptions& o, const std::string& out_dir) {
   SnapshotSource src(h, file, field);
   const size_t n = src.frames();
   std::vector<size_t> pick;
-  if (std::isfinite(o.time)) {  // one still: the frame nearest the time
+  if (std::isfinite(o.time)) {  // one still: the frame nearest the time, within half an interval
+    const double half = n > 1 ? 0.5 * std::abs(src.time(1) - src.time(0)) : 0.0;
+    if (n == 0 || o.time < src.time(0) - half * (1 + 1e-9) || o.time > src.time(n - 1) + half * (1 + 1e-9))
+      throw BadInput(fmt::format("{}: error: --time {:.6g} ps lies outside the snapshots ({:.6g} to {:.6g} ps)", file,
+                                 o.time * 1e12, n ? src.time(0) * 1e12 : NAN, n ? src.time(n - 1) * 1e12 : NAN));
     size_t k = 0;
     for (size_t q = 0; q < n; ++q)
       if (std::abs(src.time(q) - o.time) < std::abs(src.time(k) - o.time)) k = q;

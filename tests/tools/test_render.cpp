@@ -164,6 +164,10 @@ TEST_CASE("render: the movie is H.264 in yuv420p with every frame, at the frame'
   // bad input: a movie that is not .mp4 is refused with status 2 and leaves nothing
   CHECK(shell(kBinary + " render '" + run.string() + "' --movie '" + (run / "m.avi").string() + "'") == 2);
   CHECK_FALSE(fs::exists(run / "m.avi"));
+  // a still at a time the run did not record (its snapshots end at 20 ps), an old map name
+  CHECK(shell(kBinary + " render '" + run.string() + "' --time 1ns --out '" + (run / "late").string() + "'") == 2);
+  CHECK_FALSE(fs::exists(run / "late"));
+  CHECK(shell(kBinary + " render '" + run.string() + "' --colours tide --out '" + (run / "old").string() + "'") == 2);
 }
 
 TEST_CASE("plots: a known curve decodes at the requested size and its data file holds the curve") {
