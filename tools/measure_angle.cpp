@@ -5,11 +5,11 @@
 /// incidence angle (--incidence, same convention: positive towards t = z x n), and the
 /// direction of the beam's centre line.
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <cmath>
 #include <fstream>
 #include <iostream>
+#include <nlohmann/json.hpp>
 
 #include "io/analysis/spectral_map_cut.h"
 #include "io/scene/constants.h"
@@ -34,8 +34,8 @@ int measure_angle(const std::string& run, const std::string& map, const std::vec
   j["power-flow-angle-rad"] = a.flow;
   j["refraction-angle-rad"] = a.refraction;
   j["centre-line-refraction-angle-rad"] = a.line_refraction;
-  std::cout << fmt::format("power flow in the region: {:.4f} deg from +x; {:.4f} deg from the normal {}\n", a.flow * 180 / constants::pi,
-                           a.refraction * 180 / constants::pi, normal);
+  std::cout << fmt::format("power flow in the region: {:.4f} deg from +x; {:.4f} deg from the normal {}\n",
+                           a.flow * 180 / constants::pi, a.refraction * 180 / constants::pi, normal);
   std::cout << fmt::format("beam centre line: {:.4f} deg from the normal\n", a.line_refraction * 180 / constants::pi);
   if (has_incidence) {
     const bool negative = a.refraction * incidence < 0;

@@ -4,10 +4,10 @@
 /// reference power is the incident power). Prints a table and writes RUN/spectrum.csv and
 /// .json.
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <fstream>
 #include <iostream>
+#include <nlohmann/json.hpp>
 
 #include "io/analysis/spectrum.h"
 #include "io/scene/diagnostics.h"
@@ -19,26 +19,30 @@ int measure_spectrum(const std::string& run, const std::string& ref, std::string
   if (reflected.empty() && has_power_spectrum_line(run, "reflected")) reflected = "reflected";
   if (transmitted.empty() && has_power_spectrum_line(run, "transmitted")) transmitted = "transmitted";
   if (reflected.empty() && transmitted.empty())
-    throw BadInput(fmt::format("{}: error: name the power-spectrum lines with --reflected and/or --transmitted (no lines "
-                               "named 'reflected' or 'transmitted')",
-                               run));
+    throw BadInput(
+        fmt::format("{}: error: name the power-spectrum lines with --reflected and/or --transmitted (no lines "
+                    "named 'reflected' or 'transmitted')",
+                    run));
   auto pair = [&](const std::string& name) {
     return LinePair{read_power_spectrum_line(run, name), read_power_spectrum_line(ref, name)};
   };
   LinePair r, t;
   if (!reflected.empty()) r = pair(reflected);
   if (!transmitted.empty()) t = pair(transmitted);
-  const SpectrumResult s = reflectance_transmittance(reflected.empty() ? nullptr : &r, transmitted.empty() ? nullptr : &t);
+  const SpectrumResult s =
+      reflectance_transmittance(reflected.empty() ? nullptr : &r, transmitted.empty() ? nullptr : &t);
   const auto &freq = s.freq, &R = s.R, &T = s.T;
   const bool both = s.has_both();
   if (!R.empty() && s.R_incident_line != reflected)
-    std::cout << fmt::format("the reference run's power through '{}' is negligible: R is normalised to the incident "
-                             "power through '{}'\n",
-                             reflected, s.R_incident_line);
+    std::cout << fmt::format(
+        "the reference run's power through '{}' is negligible: R is normalised to the incident "
+        "power through '{}'\n",
+        reflected, s.R_incident_line);
   if (!T.empty() && s.T_incident_line != transmitted)
-    std::cout << fmt::format("the reference run's power through '{}' is negligible: T is normalised to the incident "
-                             "power through '{}'\n",
-                             transmitted, s.T_incident_line);
+    std::cout << fmt::format(
+        "the reference run's power through '{}' is negligible: T is normalised to the incident "
+        "power through '{}'\n",
+        transmitted, s.T_incident_line);
   std::ofstream csv(run + "/spectrum.csv");
   csv << "frequency_Hz" << (R.empty() ? "" : ",reflectance") << (T.empty() ? "" : ",transmittance")
       << (both ? ",absorptance" : "") << "\n";
@@ -55,8 +59,10 @@ int measure_spectrum(const std::string& run, const std::string& ref, std::string
     csv << fmt::format("{:.10g}", freq[k]);
     nlohmann::json e;
     e["frequency"] = freq[k];
-    if (!R.empty()) row += fmt::format("  {:11.6f}", R[k]), csv << fmt::format(",{:.10g}", R[k]), e["reflectance"] = R[k];
-    if (!T.empty()) row += fmt::format("  {:13.6f}", T[k]), csv << fmt::format(",{:.10g}", T[k]), e["transmittance"] = T[k];
+    if (!R.empty())
+      row += fmt::format("  {:11.6f}", R[k]), csv << fmt::format(",{:.10g}", R[k]), e["reflectance"] = R[k];
+    if (!T.empty())
+      row += fmt::format("  {:13.6f}", T[k]), csv << fmt::format(",{:.10g}", T[k]), e["transmittance"] = T[k];
     if (both) {
       const double A = 1 - R[k] - T[k];
       row += fmt::format("  {:11.6f}", A), csv << fmt::format(",{:.10g}", A), e["absorptance"] = A;

@@ -5,10 +5,10 @@
 /// coordinate along the axis). Table, CSV, JSON, and focus-profiles.csv: the intensity
 /// through the peak across and along the axis.
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <fstream>
 #include <iostream>
+#include <nlohmann/json.hpp>
 
 #include "io/analysis/spectral_map_cut.h"
 #include "tools/commands.h"

@@ -18,10 +18,10 @@ struct IntensityMap {
 };
 
 struct Focus {
-  double x = 0, y = 0;          ///< refined peak position, m
-  double peak = 0;              ///< the largest sample, (V/m)^2
-  double fwhm_x = 0, fwhm_y = 0;  ///< along x (the row) and along y (the column); NaN where the spot reaches the edge
-  size_t i = 0, j = 0;          ///< the node of the largest sample
+  double x = 0, y = 0;              ///< refined peak position, m
+  double peak = 0;                  ///< the largest sample, (V/m)^2
+  double fwhm_x = 0, fwhm_y = 0;    ///< along x (the row) and along y (the column); NaN where the spot reaches the edge
+  size_t i = 0, j = 0;              ///< the node of the largest sample
   std::vector<double> row, column;  ///< the intensity through that node along x and along y
 };
 

@@ -34,9 +34,12 @@ Table read_table(const std::string& file, const std::string& made_by) {
     for (size_t c = 0; c < names.size() && std::getline(ss, cell, ','); ++c) {
       char* end = nullptr;
       const double v = std::strtod(cell.c_str(), &end);
-      if (end != cell.c_str() && *end == '\0') t.num[names[c]].push_back(v);
-      else if (cell == "nan" || cell == "-nan") t.num[names[c]].push_back(NAN);
-      else t.text[names[c]].push_back(cell);
+      if (end != cell.c_str() && *end == '\0')
+        t.num[names[c]].push_back(v);
+      else if (cell == "nan" || cell == "-nan")
+        t.num[names[c]].push_back(NAN);
+      else
+        t.text[names[c]].push_back(cell);
     }
     ++t.rows;
   }

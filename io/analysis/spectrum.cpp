@@ -46,11 +46,12 @@ const Incident& incident_for(const Incident& own, const Incident& other, double 
   const double floor = kNegligiblePower * peak(use->power);
   for (size_t k = 0; k < use->power.size(); ++k)
     if (!(std::abs(use->power[k]) >= floor))
-      throw BadInput(fmt::format("{}: error: {}: the incident power through line '{}' at {:.6g} GHz is negligible "
-                                 "({:.3g} of its peak over the band): narrow the line's band to where the source "
-                                 "radiates",
-                                 use->line->reference.file, ratio, use->line->reference.name,
-                                 use->line->reference.freq[k] / 1e9, std::abs(use->power[k]) / peak(use->power)));
+      throw BadInput(
+          fmt::format("{}: error: {}: the incident power through line '{}' at {:.6g} GHz is negligible "
+                      "({:.3g} of its peak over the band): narrow the line's band to where the source "
+                      "radiates",
+                      use->line->reference.file, ratio, use->line->reference.name, use->line->reference.freq[k] / 1e9,
+                      std::abs(use->power[k]) / peak(use->power)));
   return *use;
 }
 

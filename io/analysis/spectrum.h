@@ -28,7 +28,7 @@ struct LinePair {
 };
 
 struct SpectrumResult {
-  std::vector<double> freq, R, T;  ///< R or T empty when its line was not given
+  std::vector<double> freq, R, T;                ///< R or T empty when its line was not given
   std::string R_incident_line, T_incident_line;  ///< whose reference power normalised them
   bool has_both() const { return !R.empty() && !T.empty(); }
 };

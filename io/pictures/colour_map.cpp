@@ -21,8 +21,8 @@ constexpr double kDeg = constants::pi / 180;
 
 // --- "diverging": one straight-lightness, bowed-chroma path per side, same (L*, C*) on both ---
 constexpr double kCentreL = 95, kEndL = 38;  // L* at zero and at the ends
-constexpr double kEndC = 24;     // C* at the ends: the largest the teal hue holds in sRGB at L* = 38
-constexpr double kBulge = 50;    // C*(u) = kBulge u (1 - u) + kEndC u: more colour mid-side, in gamut
+constexpr double kEndC = 24;                 // C* at the ends: the largest the teal hue holds in sRGB at L* = 38
+constexpr double kBulge = 50;                // C*(u) = kBulge u (1 - u) + kEndC u: more colour mid-side, in gamut
 constexpr double kNegativeHue = 200 * kDeg, kPositiveHue = 55 * kDeg;  // teal, copper orange
 
 // --- "sequential": L* linear, hue turning from violet through blue, teal and green to yellow ---
@@ -75,8 +75,10 @@ Lab diverging_path(double s) {
 }
 
 ColourMap::ColourMap(Kind kind) : name_(kind == Kind::diverging ? "diverging" : "sequential"), kind_(kind) {
-  if (kind == Kind::diverging) table_ = equal_steps([](double v) { return diverging_path(2 * v - 1); });
-  else table_ = equal_steps(sequential_path);
+  if (kind == Kind::diverging)
+    table_ = equal_steps([](double v) { return diverging_path(2 * v - 1); });
+  else
+    table_ = equal_steps(sequential_path);
   for (int k = 0; k < kSize; ++k) {
     auto byte = [](double v) { return static_cast<uint32_t>(std::lround(std::clamp(v, 0.0, 1.0) * 255)); };
     packed_[k] = 0xff000000u | byte(table_[k].r) << 16 | byte(table_[k].g) << 8 | byte(table_[k].b);

@@ -19,7 +19,9 @@ constexpr Matrix kTritanopia = {
 }  // namespace
 
 Rgb simulate_deficiency(Rgb c, Deficiency d) {
-  const Matrix& m = d == Deficiency::protanopia ? kProtanopia : d == Deficiency::deuteranopia ? kDeuteranopia : kTritanopia;
+  const Matrix& m = d == Deficiency::protanopia     ? kProtanopia
+                    : d == Deficiency::deuteranopia ? kDeuteranopia
+                                                    : kTritanopia;
   const double lin[3] = {srgb_to_linear(c.r), srgb_to_linear(c.g), srgb_to_linear(c.b)};
   double out[3];
   for (int i = 0; i < 3; ++i)

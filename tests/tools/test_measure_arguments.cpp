@@ -63,7 +63,8 @@ struct Outcome {
 
 Outcome terayee(const std::string& args) {
   const fs::path err = fs::temp_directory_path() / "terayee-test-arguments.err";
-  const int s = std::system((std::string(TERAYEE_BINARY) + " " + args + " > /dev/null 2> '" + err.string() + "'").c_str());
+  const int s =
+      std::system((std::string(TERAYEE_BINARY) + " " + args + " > /dev/null 2> '" + err.string() + "'").c_str());
   std::ifstream in(err);
   std::stringstream ss;
   ss << in.rdbuf();
@@ -107,11 +108,13 @@ TEST_CASE("measure refuses arguments outside what the run holds") {
 
   // angle: the region must lie inside the map
   CHECK(terayee("measure angle " + r + " --map cut --region 0mm 0mm 8mm 8mm --normal x").status == 0);
-  check_refused("measure angle " + r + " --map cut --region 0mm 0mm 30mm 8mm --normal x", "is not inside the map 'cut'");
+  check_refused("measure angle " + r + " --map cut --region 0mm 0mm 30mm 8mm --normal x",
+                "is not inside the map 'cut'");
   check_refused("measure angle " + r + " --map cut --region 15mm 0mm 2mm 2mm --normal x", "is not inside the map");
 
   // spectrum: line names the run does not have
-  check_refused("measure spectrum " + r + " --reference " + r + " --reflected front", "no power-spectrum line named 'front'");
+  check_refused("measure spectrum " + r + " --reference " + r + " --reflected front",
+                "no power-spectrum line named 'front'");
   fs::remove_all(run);
   fs::remove_all(coarse);
 }

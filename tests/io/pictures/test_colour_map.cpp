@@ -97,7 +97,8 @@ TEST_CASE("colour maps: the diverging map has equal Delta E steps and the same l
   // nothing like a blue-to-red map: the ends' hues (200 and 55 deg) are 145 deg apart and
   // neither is a blue (~ 270-310 deg) or a red (~ 20-40 deg)
   const Lab a = lab_at(div, 0), b = lab_at(div, n - 1);
-  const double ha = std::atan2(a[2], a[1]) * 180 / 3.14159265358979, hb = std::atan2(b[2], b[1]) * 180 / 3.14159265358979;
+  const double ha = std::atan2(a[2], a[1]) * 180 / 3.14159265358979,
+               hb = std::atan2(b[2], b[1]) * 180 / 3.14159265358979;
   CHECK(ha + 360 == doctest::Approx(200).epsilon(0.005));
   CHECK(hb == doctest::Approx(55).epsilon(0.005));
 }
@@ -107,7 +108,7 @@ TEST_CASE("colour vision: the Machado 2009 matrices, and the diverging map read 
   const Rgb pr = simulate_deficiency({1, 0, 0}, Deficiency::protanopia);
   CHECK(pr.r == doctest::Approx(linear_to_srgb(0.152286)).epsilon(1e-9));
   CHECK(pr.g == doctest::Approx(linear_to_srgb(0.114503)).epsilon(1e-9));
-  CHECK(pr.b == 0);  // -0.003882, clamped
+  CHECK(pr.b == 0);                                                       // -0.003882, clamped
   const Rgb tb = simulate_deficiency({0, 0, 1}, Deficiency::tritanopia);  // the third column
   CHECK(tb.g == doctest::Approx(linear_to_srgb(0.147602)).epsilon(1e-9));
   CHECK(tb.b == doctest::Approx(linear_to_srgb(0.303900)).epsilon(1e-9));
@@ -123,9 +124,10 @@ TEST_CASE("colour vision: the Machado 2009 matrices, and the diverging map read 
     // Sharma, Digital Color Imaging Handbook, sec. 1.7), and so do the two sides at half scale
     const double ends = delta_e(seen(0), seen(n - 1)), half = delta_e(seen(n / 4), seen(n - 1 - n / 4));
     bool monotone = true;
-    for (int k = 1; k < mid; ++k) monotone = monotone && seen(k)[0] > seen(k - 1)[0] && seen(n - 1 - k)[0] > seen(n - k)[0];
-    MESSAGE(std::string(to_string(d)), ": the ends ", ends, " apart, the quarter points ", half, "; L* monotonic on each side: ",
-            monotone);
+    for (int k = 1; k < mid; ++k)
+      monotone = monotone && seen(k)[0] > seen(k - 1)[0] && seen(n - 1 - k)[0] > seen(n - k)[0];
+    MESSAGE(std::string(to_string(d)), ": the ends ", ends, " apart, the quarter points ", half,
+            "; L* monotonic on each side: ", monotone);
     CHECK(ends > 20);
     CHECK(half > 10);
     CHECK(monotone);

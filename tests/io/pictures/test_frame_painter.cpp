@@ -64,7 +64,8 @@ TEST_CASE("frame painter: the colour bar is as tall as the panel, thin or square
   for (auto [w, h] : {std::pair{10e-3, 1e-3}, std::pair{4e-3, 4e-3}}) {
     const Painted p = paint_field(w, h, 800);
     const auto [first, last] = coloured_rows(p.column);
-    MESSAGE("panel rows ", p.L.panel_y, " to ", p.L.panel_y + p.L.panel_h - 1, "; coloured bar rows ", first, " to ", last);
+    MESSAGE("panel rows ", p.L.panel_y, " to ", p.L.panel_y + p.L.panel_h - 1, "; coloured bar rows ", first, " to ",
+            last);
     REQUIRE(first >= 0);
     CHECK(first >= p.L.panel_y);
     CHECK(first <= p.L.panel_y + 2);
