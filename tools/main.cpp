@@ -143,8 +143,7 @@ int main(int argc, char** argv) {
       ->expected(2);
   rd->add_option("--percentile", ro.percentile, "Robust limits: this percentile of |field| over all frames");
   rd->add_flag("--rescale", ro.rescale, "Scale the colours to each frame on its own");
-  rd->add_option("--colours", ro.colours, "diverging or sequential (default: by the field)")
-      ->check(CLI::IsMember({"diverging", "sequential"}));
+  rd->add_option("--colours", ro.colours, "diverging or sequential (default: by the field)");
   rd->add_flag("--show-absorber", ro.show_absorber, "Show the absorbing layers (shaded) where recorded");
   rd->add_option("--size", ro.size, "The field panel's longer side, px")->check(CLI::Range(100, 8000));
   rd->add_option("--format", ro.format, "Stills and plots: png, pdf or svg");

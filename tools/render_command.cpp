@@ -140,7 +140,7 @@ FrameStyle base_style(const std::string& run, const RenderOptions& o) {
 
 void set_limits(FrameStyle& st, const RenderOptions& o, bool non_negative, double robust) {
   if (!o.colours.empty())
-    st.colours = o.colours == "sequential" ? ColourMap::Kind::sequential : ColourMap::Kind::diverging;
+    st.colours = ColourMap::kind_named(o.colours);
   else
     st.colours = non_negative ? ColourMap::Kind::sequential : ColourMap::Kind::diverging;
   if (o.limits.size() == 2) {
@@ -178,7 +178,11 @@ int render_snapshots(const RenderOptions& o, const std::string& out_dir) {
   SnapshotSource src(h, file, field);
   const size_t n = src.frames();
   std::vector<size_t> pick;
-  if (std::isfinite(o.time)) {  // one still: the frame nearest the time
+  if (std::isfinite(o.time)) {  // one still: the frame nearest the time, within half an interval
+    const double half = n > 1 ? 0.5 * std::abs(src.time(1) - src.time(0)) : 0.0;
+    if (n == 0 || o.time < src.time(0) - half * (1 + 1e-9) || o.time > src.time(n - 1) + half * (1 + 1e-9))
+      throw BadInput(fmt::format("{}: error: --time {:.6g} ps lies outside the snapshots ({:.6g} to {:.6g} ps)", file,
+                                 o.time * 1e12, n ? src.time(0) * 1e12 : NAN, n ? src.time(n - 1) * 1e12 : NAN));
     size_t k = 0;
     for (size_t q = 0; q < n; ++q)
       if (std::abs(src.time(q) - o.time) < std::abs(src.time(k) - o.time)) k = q;
@@ -312,6 +316,7 @@ int render_command(const RenderOptions& o) {
     throw BadInput("terayee render: error: --movie FILE must end in .mp4");
   if (!o.limits.empty() && o.limits.size() != 2) throw BadInput("terayee render: error: --limits takes LO HI");
   if (!(o.percentile > 0 && o.percentile <= 100)) throw BadInput("terayee render: error: --percentile is in (0, 100]");
+  if (!o.colours.empty()) ColourMap::kind_named(o.colours);  // an unknown or old name fails before any work
   const std::string out_dir = o.out.empty() ? o.run + "/pictures" : o.out;
   if (!o.plot.empty()) return render_plot(o, out_dir);
   if (!o.map.empty()) return render_map(o, out_dir);

@@ -18,14 +18,14 @@
 #include <map>
 #include <sstream>
 
-#include "io/scene/diagnostics.h"
-#include "io/run/hdf5_file.h"
+#include "io/analysis/measurement_files.h"
+#include "io/analysis/negative_permeability.h"
+#include "io/analysis/power_spectrum_line.h"
 #include "io/pictures/plot.h"
-#include "io/scene/units.h"
+#include "io/run/hdf5_file.h"
+#include "io/scene/diagnostics.h"
 #include "io/scene/scene_reader.h"
-#include "materials/magnetic/ground_state.h"
-#include "materials/magnetic/linear_response.h"
-#include "materials/magnetic/magnet.h"
+#include "io/scene/units.h"
 #include "tools/commands.h"
 
 namespace fs = std::filesystem;
@@ -33,86 +33,9 @@ namespace fs = std::filesystem;
 namespace ty {
 namespace {
 
-/// A CSV file by columns: numeric columns in `num`, text columns in `text`.
-struct Table {
-  std::map<std::string, std::vector<double>> num;
-  std::map<std::string, std::vector<std::string>> text;
-  size_t rows = 0;
-  const std::vector<double>& col(const std::string& name, const std::string& file) const {
-    auto it = num.find(name);
-    if (it == num.end()) throw BadInput(fmt::format("{}: error: no column '{}'", file, name));
-    return it->second;
-  }
-};
-
-Table read_table(const std::string& file, const std::string& made_by) {
-  std::ifstream in(file);
-  if (!in) throw BadInput(fmt::format("{}: error: not found; {} writes it", file, made_by));
-  std::string line;
-  std::getline(in, line);
-  std::vector<std::string> names;
-  for (std::stringstream ss(line); std::getline(ss, line, ',');) names.push_back(line);
-  Table t;
-  while (std::getline(in, line)) {
-    if (line.empty()) continue;
-    std::stringstream ss(line);
-    std::string cell;
-    for (size_t c = 0; c < names.size() && std::getline(ss, cell, ','); ++c) {
-      char* end = nullptr;
-      const double v = std::strtod(cell.c_str(), &end);
-      if (end != cell.c_str() && *end == '\0') t.num[names[c]].push_back(v);
-      else if (cell == "nan" || cell == "-nan") t.num[names[c]].push_back(NAN);
-      else t.text[names[c]].push_back(cell);
-    }
-    ++t.rows;
-  }
-  return t;
-}
-
-nlohmann::json read_json_file(const std::string& file, const std::string& made_by) {
-  std::ifstream in(file);
-  if (!in) throw BadInput(fmt::format("{}: error: not found; {} writes it", file, made_by));
-  return nlohmann::json::parse(in);
-}
-
-/// What `terayee measure KIND` wrote: KIND.json and KIND-profiles.csv (tag, s_m, intensity).
-struct Profiles {
-  nlohmann::json summary;
-  std::vector<std::string> tag;
-  std::vector<double> s, intensity;
-};
-
-Profiles read_profiles(const std::string& run, const std::string& kind, const std::string& tag_column) {
-  const std::string made_by = "`terayee measure " + kind + "`", file = run + "/" + kind + "-profiles.csv";
-  Profiles p;
-  p.summary = read_json_file(run + "/" + kind + ".json", made_by);
-  const Table t = read_table(file, made_by);
-  if (!t.text.count(tag_column)) throw BadInput(fmt::format("{}: error: no column '{}'", file, tag_column));
-  p.tag = t.text.at(tag_column);
-  p.s = t.col("s_m", file);
-  p.intensity = t.col("intensity", file);
-  return p;
-}
-
 std::vector<double> scaled(const std::vector<double>& v, double f) {
   std::vector<double> out(v);
   for (double& x : out) x *= f;
-  return out;
-}
-
-/// Bands (GHz) where Re mu_V of any magnetic medium of the scene is negative, within [f0, f1].
-std::vector<std::pair<double, double>> negative_mu_bands(const Scene& s, double f0, double f1, int normal) {
-  std::vector<std::pair<double, double>> out;
-  for (const Medium& med : s.media) {
-    if (!med.magnet) continue;
-    const MagnetModel M(*med.magnet, s.bias);
-    const GroundStates gs = find_ground_states(M);
-    auto muv = [&](double f) {
-      const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * f);
-      return voigt_permeability(mu, normal).real();
-    };
-    for (const Band& b : negative_bands(muv, f0, f1, 4000)) out.push_back({b.from / 1e9, b.to / 1e9});
-  }
   return out;
 }
 
@@ -145,13 +68,7 @@ int plot_spectrum(const RenderOptions& o, const std::string& dir) {
     p.series.push_back({"T transfer matrix", fm, m.col("T_plus", o.predicted), PlotSeries::Style::dashed, 1});
   }
   const Scene s = read_scene(o.run + "/scene.yaml");
-  int normal = 0;  // the power-spectrum lines' normal (x unless a line says y)
-  const h5::File h = h5::File::open(o.run + "/fields.h5");
-  if (h.exists("/power-spectra"))
-    for (const auto& name : h.members("/power-spectra")) {
-      const auto n = h.read("/power-spectra/" + name + "/normal");
-      if (n.size() == 2 && std::abs(n[1]) > std::abs(n[0])) normal = 1;
-    }
+  const int normal = power_spectrum_normal_axis(o.run);  // x unless a line says y
   if (!f.empty()) p.shaded = negative_mu_bands(s, f.front() * 1e9, f.back() * 1e9, normal);
   p.shaded_label = "Re μ_V < 0 (Ez wave)";
   p.ymin = std::min(0.0, -0.02);

@@ -1,30 +1,36 @@
 /// \file colour_map.h
-/// \brief The two colour maps of terayee's pictures, both perceptually uniform:
-///   "tide"  diverging blue - white - red for signed fields (limits symmetric about zero),
-///           Moreland's Msh interpolation (K. Moreland, "Diverging Color Maps for Scientific
-///           Visualization", ISVC 2009, sec. 4), between his blue and red end points;
-///   "dusk"  sequential dark violet - blue - teal - green - pale yellow for intensities and
-///           magnitudes: CIELAB lightness L* rising linearly from 10 to 96 while the hue turns
-///           (the linear-lightness design of Kindlmann, Reinhard & Creem, IEEE Vis 2002, and
-///           Moreland 2016), re-spaced so that equal steps in value are equal CIELAB distances.
-/// Each map is tabulated once at 256 entries, packed as opaque cairo ARGB32 pixels.
+/// \brief The two colour maps of terayee's pictures, both perceptually uniform in CIELAB
+/// (equal steps in value are equal Delta E*ab steps):
+///   "diverging"   for signed fields (limits symmetric about zero): dark teal - near-white -
+///                 copper orange. Lightness L* falls linearly from 95 at zero to 38 at both
+///                 ends, so |value| reads as darkness alike on both sides; the sign is the hue,
+///                 teal (h = 200 deg) for negative, orange (h = 55 deg) for positive. The two
+///                 hues lie on opposite sides of both opponent axes (a* and b*), so a viewer
+///                 missing either axis (red-green or blue-yellow deficiency) still tells the
+///                 signs apart (checked with Machado et al. 2009, colour_vision.h).
+///   "sequential"  for intensities and magnitudes: dark violet - blue - teal - green - pale
+///                 yellow, L* rising linearly from 10 to 96 while the hue turns (the
+///                 linear-lightness design of Kindlmann, Reinhard & Creem, IEEE Vis 2002).
+/// Each map's path is sampled finely and re-spaced to equal CIELAB arc length, then tabulated
+/// at 256 entries, packed as opaque cairo ARGB32 pixels.
 #pragma once
 #include <array>
 #include <cstdint>
 #include <string>
 
-namespace ty {
+#include "io/pictures/colour_space.h"
 
-struct Rgb {
-  double r = 0, g = 0, b = 0;  ///< sRGB, 0..1
-};
+namespace ty {
 
 class ColourMap {
  public:
   enum class Kind { diverging, sequential };
-  static const ColourMap& tide();  ///< diverging
-  static const ColourMap& dusk();  ///< sequential
-  static const ColourMap& of(Kind k) { return k == Kind::diverging ? tide() : dusk(); }
+  static const ColourMap& diverging();
+  static const ColourMap& sequential();
+  static const ColourMap& of(Kind k) { return k == Kind::diverging ? diverging() : sequential(); }
+  /// The map a user named ("diverging" or "sequential"); BadInput otherwise, naming the new
+  /// name where an old one ("tide", "dusk") was given.
+  static Kind kind_named(const std::string& name);
 
   const std::string& name() const { return name_; }
   Kind kind() const { return kind_; }
@@ -42,15 +48,14 @@ class ColourMap {
   static constexpr int kSize = 256;
 
  private:
-  ColourMap(std::string name, Kind kind);
+  explicit ColourMap(Kind kind);
   std::string name_;
   Kind kind_;
   std::array<Rgb, kSize> table_;
   std::array<uint32_t, kSize> packed_;
 };
 
-/// CIELAB (D65 white) of an sRGB colour, and back (out-of-gamut values are clamped).
-std::array<double, 3> rgb_to_lab(Rgb c);
-Rgb lab_to_rgb(const std::array<double, 3>& lab, bool* in_gamut = nullptr);
+/// The diverging map's design path in CIELAB, s in [-1, 1] (0: the centre), before re-spacing.
+Lab diverging_path(double s);
 
 }  // namespace ty

@@ -325,7 +325,8 @@ void FramePainter::draw_axes(cairo_t* cr) const {
 void FramePainter::draw_colour_bar(cairo_t* cr) const {
   const auto& L = layout_;
   const ColourMap& map = ColourMap::of(style_.colours);
-  const int h = std::max(L.panel_h, 240), x = L.panel_x + L.panel_w + 22, w = 18, y = L.panel_y;
+  // the bar spans the panel exactly, however thin the panel (a thin panel gets fewer ticks)
+  const int h = L.panel_h, x = L.panel_x + L.panel_w + 22, w = 18, y = L.panel_y;
   for (int r = 0; r < h; ++r) {
     const Rgb c = map.at(1.0 - (r + 0.5) / h);
     cairo_set_source_rgb(cr, c.r, c.g, c.b);
@@ -340,7 +341,7 @@ void FramePainter::draw_colour_bar(cairo_t* cr) const {
   const double big = std::max(std::abs(style_.lo), std::abs(style_.hi));
   const int e3 = big > 0 ? 3 * static_cast<int>(std::floor(std::log10(big) / 3)) : 0;
   const double f = std::pow(10.0, e3);
-  const auto ticks = nice_ticks(style_.lo / f, style_.hi / f, std::max(3, h / 60));
+  const auto ticks = nice_ticks(style_.lo / f, style_.hi / f, std::max(2, h / 60));
   const double step = ticks.size() > 1 ? ticks[1] - ticks[0] : 1;
   font(cr, 12);
   for (double t : ticks) {
@@ -355,11 +356,17 @@ void FramePainter::draw_colour_bar(cairo_t* cr) const {
   if (e3 != 0) label += fmt::format(" (10{}{}{})", superscript(e3), units.empty() ? "" : " ", units);
   else if (!units.empty()) label += " (" + units + ")";
   font(cr, 13);
-  cairo_save(cr);
-  cairo_translate(cr, L.width - 16, y + 0.5 * h);
-  cairo_rotate(cr, -constants::pi / 2);
-  text(cr, 0, 0, label, 0.5, 0.5);
-  cairo_restore(cr);
+  cairo_text_extents_t e;
+  cairo_text_extents(cr, label.c_str(), &e);
+  if (e.width + 8 <= h) {  // beside the bar, turned, when the bar is long enough
+    cairo_save(cr);
+    cairo_translate(cr, L.width - 16, y + 0.5 * h);
+    cairo_rotate(cr, -constants::pi / 2);
+    text(cr, 0, 0, label, 0.5, 0.5);
+    cairo_restore(cr);
+  } else {  // under a short bar, level
+    text(cr, L.width - 6, y + h + 12, label, 1, 0);
+  }
 }
 
 }  // namespace ty

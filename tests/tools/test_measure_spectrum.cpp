@@ -11,6 +11,7 @@
 #include <complex>
 #include <filesystem>
 #include <fstream>
+#include <nlohmann/json.hpp>
 #include <sstream>
 
 #include "tests/helpers.h"
@@ -128,4 +129,78 @@ TEST_CASE("measure spectrum: an MnF2 slab's R and T match medium's transfer matr
   fs::remove_all(run);
   fs::remove_all(ref);
   fs::remove(csv);
+}
+
+namespace {
+
+/// The Airy slab of the first case with extra --set options, its reference run, and the
+/// exit status of `measure spectrum` over the two (its stderr in `err`).
+int slab_spectrum(const std::string& sets, const fs::path& run, const fs::path& ref, std::string& err) {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/slab-airy.yaml", bin = TERAYEE_BINARY;
+  fs::remove_all(run);
+  fs::remove_all(ref);
+  REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet" + sets) == 0);
+  REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference --quiet" + sets) == 0);
+  const fs::path e = run.string() + ".err";
+  const int s = std::system((bin + " measure spectrum '" + run.string() + "' --reference '" + ref.string() +
+                             "' > /dev/null 2> '" + e.string() + "'").c_str());
+  std::ifstream in(e);
+  std::stringstream ss;
+  ss << in.rdbuf();
+  err = ss.str();
+  return WIFEXITED(s) ? WEXITSTATUS(s) : -1;
+}
+
+}  // namespace
+
+TEST_CASE("measure spectrum: a reflected line behind the one-sided launch line gives the Airy R") {
+  // The plane wave's launch line at x = 0.3 mm sends nothing backwards, so a reflected line at
+  // 0.2 mm sees only the reflected wave; the reference run's power there is round-off (the
+  // ratio to it once gave R = -1e10). R is then normalised to the incident power through the
+  // transmitted line (the same plane wave in vacuum) and must follow Airy's R = 1 - |t|^2 of
+  // the lossless slab (Born & Wolf sec. 7.6) as the in-front line does: within 1% where resolved.
+  const fs::path run = fs::temp_directory_path() / "terayee-test-slab-behind",
+                 ref = fs::temp_directory_path() / "terayee-test-slab-behind-ref";
+  std::string err;
+  REQUIRE(slab_spectrum(" --set outputs.0.power-spectrum.line.x=0.2mm", run, ref, err) == 0);
+  std::ifstream js(run / "spectrum.json");
+  const auto j = nlohmann::json::parse(js);
+  CHECK(j["reflectance-incident-line"] == "transmitted");
+  CHECK(j["transmittance-incident-line"] == "transmitted");
+  const double n = std::sqrt(5.5), d = 100e-6, c = 299792458.0, cell = 2.5e-6;
+  double worst = 0;
+  int rows = 0;
+  for (const auto& e : j["spectrum"]) {
+    const double f = e["frequency"], R = e["reflectance"];
+    const double k0 = 2 * ty::constants::pi * f / c;
+    const std::complex<double> I(0, 1);
+    const std::complex<double> t = 1.0 / (std::cos(n * k0 * d) - 0.5 * I * (n + 1 / n) * std::sin(n * k0 * d));
+    if (c / (f * n) / cell >= 20) worst = std::max(worst, std::abs(R - (1 - std::norm(t))));
+    ++rows;
+  }
+  MESSAGE("reflected line behind the source: worst |R - R_Airy| " << worst << " over " << rows << " frequencies");
+  CHECK(rows == 81);
+  CHECK(worst < 0.01);
+  fs::remove_all(run);
+  fs::remove_all(ref);
+}
+
+TEST_CASE("measure spectrum: refused where no line carries the incident power, or the band leaves the source's") {
+  const fs::path run = fs::temp_directory_path() / "terayee-test-slab-refused",
+                 ref = fs::temp_directory_path() / "terayee-test-slab-refused-ref";
+  std::string err;
+  // both lines behind the source: neither reference power is the incident wave's
+  CHECK(slab_spectrum(" --set outputs.0.power-spectrum.line.x=0.2mm --set outputs.1.power-spectrum.line.x=0.1mm", run,
+                      ref, err) == 2);
+  MESSAGE(err);
+  CHECK(err.find("is negligible") != std::string::npos);
+  CHECK(err.find("no incident power to normalise to") != std::string::npos);
+  // a band reaching 3 THz, where the 1 ps pulse about 0.6 THz radiates ~exp(-160) of its peak
+  CHECK(slab_spectrum(" --set outputs.0.power-spectrum.band.to=3THz --set outputs.1.power-spectrum.band.to=3THz", run,
+                      ref, err) == 2);
+  MESSAGE(err);
+  CHECK(err.find("narrow the line's band") != std::string::npos);
+  fs::remove_all(run);
+  fs::remove_all(ref);
+  fs::remove(run.string() + ".err");
 }

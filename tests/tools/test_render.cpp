@@ -1,7 +1,7 @@
 /// \file test_render.cpp
 /// \brief `terayee render`: frames decoded back from PNG (size, the colour of known positive and
-/// negative values, body outlines, the time label), the movie as ffprobe sees it, plots of
-/// known curves with the data beside them, and the colour maps against their published design.
+/// negative values, body outlines, the time label), the movie as ffprobe sees it, and plots of
+/// known curves with the data beside them (the colour maps: tests/io/pictures).
 #include <cairo.h>
 #include <doctest/doctest.h>
 
@@ -96,9 +96,9 @@ TEST_CASE("render: a frame decoded from PNG has the field's colours, the bodies'
   CHECK(a.width() % 2 == 0);
   CHECK(a.height() % 2 == 0);
 
-  // +500 of [-1000, 1000] sits at 3/4 of the diverging map, -500 at 1/4; the red end is positive
-  // (a diverging map puts the signs on the two hues: common practice, Moreland 2009)
-  const ColourMap& map = ColourMap::tide();
+  // +500 of [-1000, 1000] sits at 3/4 of the diverging map, -500 at 1/4; the orange end is
+  // positive, the teal end negative (a diverging map puts the signs on its two hues)
+  const ColourMap& map = ColourMap::diverging();
   const auto [px, py] = pixel_of(L, -2.0e-3, 1.0e-3);
   const auto [nx, ny] = pixel_of(L, 2.4e-3, 1.0e-3);
   const Rgb pos = a.at(px, py), neg = a.at(nx, ny);
@@ -164,6 +164,10 @@ TEST_CASE("render: the movie is H.264 in yuv420p with every frame, at the frame'
   // bad input: a movie that is not .mp4 is refused with status 2 and leaves nothing
   CHECK(shell(kBinary + " render '" + run.string() + "' --movie '" + (run / "m.avi").string() + "'") == 2);
   CHECK_FALSE(fs::exists(run / "m.avi"));
+  // a still at a time the run did not record (its snapshots end at 20 ps), an old map name
+  CHECK(shell(kBinary + " render '" + run.string() + "' --time 1ns --out '" + (run / "late").string() + "'") == 2);
+  CHECK_FALSE(fs::exists(run / "late"));
+  CHECK(shell(kBinary + " render '" + run.string() + "' --colours tide --out '" + (run / "old").string() + "'") == 2);
 }
 
 TEST_CASE("plots: a known curve decodes at the requested size and its data file holds the curve") {
@@ -255,46 +259,6 @@ TEST_CASE("plots: medium --plot draws the table it prints; render --plot probes 
   CHECK(diff <= 1e-8 * big);
 }
 
-TEST_CASE("colour maps: dusk rises in lightness at an even perceptual pace; tide is white in the middle") {
-  // Sequential: CIELAB L* rises monotonically and consecutive entries are equally distant
-  // (the linear-lightness design, Kindlmann, Reinhard & Creem 2002)
-  const ColourMap& dusk = ColourMap::dusk();
-  std::vector<double> steps;
-  double lastL = -1;
-  bool monotone = true;
-  for (int k = 0; k < ColourMap::kSize; ++k) {
-    const auto lab = rgb_to_lab(dusk.at((k + 0.5) / ColourMap::kSize));
-    monotone = monotone && lab[0] > lastL;
-    lastL = lab[0];
-    if (k > 0) {
-      const auto prev = rgb_to_lab(dusk.at((k - 0.5) / ColourMap::kSize));
-      steps.push_back(std::hypot(lab[0] - prev[0], lab[1] - prev[1], lab[2] - prev[2]));
-    }
-  }
-  CHECK(monotone);
-  double lo = 1e9, hi = 0, mean = 0;
-  for (double d : steps) lo = std::min(lo, d), hi = std::max(hi, d), mean += d / steps.size();
-  MESSAGE("dusk: CIELAB step between entries ", mean, " (", lo, " to ", hi, ")");
-  // equal steps but where the sRGB gamut bends the path (a corner cut by the interpolation)
-  CHECK(hi < 1.15 * mean);
-  CHECK(lo > 0.7 * mean);
-  CHECK(rgb_to_lab(dusk.at(0))[0] < 15);
-  CHECK(rgb_to_lab(dusk.at(1))[0] > 90);
-  // Diverging (Moreland 2009): the middle is the unsaturated point of Msh radius 88 (L* = 88),
-  // and the two halves fall off in lightness alike
-  const ColourMap& tide = ColourMap::tide();
-  const auto mid = rgb_to_lab(tide.at(0.5));
-  CHECK(mid[0] == doctest::Approx(88).epsilon(0.02));
-  CHECK(std::hypot(mid[1], mid[2]) < 3);
-  for (double t : {0.1, 0.25, 0.4})
-    CHECK(rgb_to_lab(tide.at(t))[0] == doctest::Approx(rgb_to_lab(tide.at(1 - t))[0]).epsilon(0.06));
-  // sRGB <-> CIELAB round trip and a known value: sRGB white is L* = 100 (CIE 1976)
-  CHECK(rgb_to_lab({1, 1, 1})[0] == doctest::Approx(100).epsilon(1e-4));
-  const Rgb back = lab_to_rgb(rgb_to_lab({0.3, 0.6, 0.9}));
-  CHECK(back.r == doctest::Approx(0.3).epsilon(1e-6));
-  CHECK(back.b == doctest::Approx(0.9).epsilon(1e-6));
-}
-
 TEST_CASE("render: a still of a spectral map shows a steady plane wave's known |E|^2 and <S>") {
   // E0 = 1 kV/m in vacuum: |Ez|^2 = 1e6 (V/m)^2 and <S> = E0^2 / (2 eta0) = 1327.2 W/m^2 everywhere
   // ahead of the launch line (plane-wave facts of the trade; tests/data/cw-plane.yaml)
@@ -302,7 +266,7 @@ TEST_CASE("render: a still of a spectral map shows a steady plane wave's known |
   fs::remove_all(run);
   const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/cw-plane.yaml";
   REQUIRE(shell(kBinary + " run '" + scene + "' -o '" + run.string() + "' --quiet --threads 2") == 0);
-  const ColourMap& dusk = ColourMap::dusk();
+  const ColourMap& seq = ColourMap::sequential();
   auto centre_t = [&](const std::string& picture, const ColourMap& map) {
     const auto L = read_json(fs::path(picture).replace_extension("").string() + "-layout.json");
     Png img(picture);
@@ -314,15 +278,15 @@ TEST_CASE("render: a still of a spectral map shows a steady plane wave's known |
     return t;
   };
   REQUIRE(shell(kBinary + " render '" + run.string() + "' --map steady --frequency 1THz --field Ez --limits 0 2e6") == 0);
-  for (double t : centre_t((run / "pictures" / "steady-intensity-Ez-1000GHz.png").string(), dusk))
+  for (double t : centre_t((run / "pictures" / "steady-intensity-Ez-1000GHz.png").string(), seq))
     CHECK(t == doctest::Approx(0.5).epsilon(0.03));
   REQUIRE(shell(kBinary + " render '" + run.string() + "' --map steady --frequency 1THz --field S --limits 0 2654.4") == 0);
-  for (double t : centre_t((run / "pictures" / "steady-real-S-1000GHz.png").string(), dusk))
+  for (double t : centre_t((run / "pictures" / "steady-real-S-1000GHz.png").string(), seq))
     CHECK(t == doctest::Approx(0.5).epsilon(0.03));
   // the steady wave's real part swings through the whole diverging map along the row
   REQUIRE(shell(kBinary + " render '" + run.string() + "' --map steady --frequency 1THz --field Ez --quantity real "
                 "--limits -1000 1000") == 0);
-  const auto t = centre_t((run / "pictures" / "steady-real-Ez-1000GHz.png").string(), ColourMap::tide());
+  const auto t = centre_t((run / "pictures" / "steady-real-Ez-1000GHz.png").string(), ColourMap::diverging());
   CHECK(*std::max_element(t.begin(), t.end()) > 0.95);
   CHECK(*std::min_element(t.begin(), t.end()) < 0.05);
   fs::remove_all(run);
