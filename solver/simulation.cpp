@@ -66,7 +66,7 @@ void Simulation<R>::h_row(int j) {
   R* __restrict ex = f_[0].data() + o;
   R* __restrict ey = f_[1].data() + o;
   R* __restrict ez = f_[2].data() + o;
-  walls_.before_h_row(fields().data(), j, g_);
+  walls_.before_h_row(ey, ez, nx);
   const R* __restrict exn = ex + s;
   const R* __restrict ezn = ez + s;
   const R sx = sx_, sy = sy_;
@@ -76,7 +76,7 @@ void Simulation<R>::h_row(int j) {
     hy[i] += sx * (ez[i + 1] - ez[i]);
     hz[i] -= sx * (ey[i + 1] - ey[i]) - sy * (exn[i] - ex[i]);
   }
-  pml_h_row(j);
+  if (in_absorber(j)) pml_h_row(j);
   for (int q = inj_h_row_[j]; q < inj_h_row_[j + 1]; ++q) {
     const Injection& e = inj_h_[q];
     f_[e.comp][e.index] += static_cast<R>(emitter_value_[e.slot]);
@@ -123,7 +123,7 @@ void Simulation<R>::e_row(int j) {
         ez[i] = ca * ez[i] + kx * (hy[i] - hy[i - 1]) - ky * (hx[i] - hxp[i]);
     }
   }
-  pml_e_row(j);
+  if (in_absorber(j)) pml_e_row(j);
   for (int q = inj_e_row_[j]; q < inj_e_row_[j + 1]; ++q) {
     const Injection& e = inj_e_[q];
     f_[e.comp][e.index] += static_cast<R>(emitter_value_[e.slot]);

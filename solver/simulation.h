@@ -182,8 +182,13 @@ class Simulation {
   // H and E updates of row j (Roden & Gedney 2000)
   void build_pml(const std::vector<double> (&cb)[3]);
   void pml_h_row(int j);
+  bool in_absorber(int j) const { return px_.count() > 0 || pml_row_of_[j] >= 0; }
   void pml_e_row(int j);
   void build_sources(const std::vector<double> (&cb)[3]);
+  /// A point source's Gaussian footprint of injections.
+  void add_point_source(const Source& src, int signal, const std::vector<double> (&cb)[3]);
+  /// A beam's or plane wave's one-sided total-field/scattered-field sheet.
+  void add_launch_sheet(const Source& src, int signal, const std::vector<double> (&cb)[3]);
   void build_recorders();
   void build_magnets();
   void step_fused();

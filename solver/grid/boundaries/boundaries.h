@@ -54,9 +54,10 @@ struct Boundaries {
     if (periodic_y)
       for (int c = 0; c < 3; ++c) periodic::copy_row(F[c] + g.row_begin(0), F[c] + g.row_begin(g.ny), g.stride);
   }
+  /// ey, ez: row j's pointers at column 0.
   template <class R>
-  void before_h_row(R* const* F, int j, const YeeGrid& g) const {
-    if (periodic_x) periodic::e_ghosts_x(F[1] + g.at(0, j), F[2] + g.at(0, j), g.nx);
+  void before_h_row(R* ey, R* ez, int nx) const {
+    if (periodic_x) periodic::e_ghosts_x(ey, ez, nx);
   }
   template <class R>
   void after_h_row(R* const* F, int j, const YeeGrid& g) const {
