@@ -1,7 +1,12 @@
 /// \file simulation.h
-/// \brief A simulation built from a Scene: the Yee grid with its fields, the media as
-/// run-length coefficient rows, the convolutional PML strips, the sources as lists of
-/// per-row injections, the recorders, and the time step that advances them all.
+/// \brief A simulation built from a Scene: it orders the construction of its rooms, runs
+/// the row sweep and lists its state. The rooms, each in its own file:
+///   the grid's edges         solver/grid/boundaries/ (one hook interface, a file per kind)
+///   the absorber (CPML)      solver/grid/absorber_hooks.cpp (build, and the rows' corrections)
+///   media (coefficient runs) solver/media/coefficient_runs.cpp
+///   magnetic cells and step  solver/media/magnetic_step.cpp (magnetic_cells.h)
+///   sources (injections)     solver/sources/build_sources.cpp
+///   recorders                solver/recorders/ (each builds, records and lists its state)
 ///
 /// One step (leapfrog, Yee 1966), row by row in a single pass over memory: for row j,
 /// H(j) from E(j), E(j+1) (plus the PML correction and the row's magnetic injections),
@@ -18,13 +23,12 @@
 
 #include "io/scene/scene.h"
 #include "solver/grid/aligned.h"
+#include "solver/grid/boundaries/boundaries.h"
 #include "solver/grid/cpml.h"
-#include "solver/recorders/power_spectrum.h"
-#include "solver/recorders/spectral_map.h"
+#include "solver/grid/yee_grid.h"
 #include "solver/media/magnetic_cells.h"
 #include "solver/recorders/recorders.h"
 #include "solver/sources/waveform.h"
-#include "solver/grid/yee_grid.h"
 
 namespace ty {
 
@@ -89,15 +93,11 @@ class Simulation {
       for (int c = 0; c < 6; ++c) f("magnets/m" + q + std::to_string(c), mag_.m[p][c].data(), mag_.m[p][c].size());
       for (int c = 0; c < 3; ++c) f("magnets/dM" + q + std::to_string(c), mag_.dM[p][c].data(), mag_.dM[p][c].size());
     }
-    for (auto& p : probes_) f("probes/" + p.name, p.raw.data(), p.raw.size());
-    for (auto& fl : power_spectra_)  // complex sums as pairs of doubles
-      f("power-spectra/" + fl.name, reinterpret_cast<double*>(fl.acc.data()), 2 * fl.acc.size());
-    for (auto& p : probes_)
-      for (size_t k = 0; k < p.magnetic.size(); ++k)
-        f("probes/" + p.name + "-" + p.magnetic[k], p.magnetic_series[k].data(), p.magnetic_series[k].size());
-    for (auto& m : maps_) f("spectral-maps/" + m.name, reinterpret_cast<double*>(m.acc.data()), 2 * m.acc.size());
+    for (auto& p : probes_) p.visit_state(f);
+    for (auto& fl : power_spectra_) fl.visit_state(f);
+    for (auto& m : maps_) m.visit_state(f);
+    snaps_.visit_state(f);
     f("clock/steps", &n_, 1);
-    f("clock/frames", &next_frame_, 1);
     for (auto& p : probes_) p.count = n_;
     for (auto& fl : power_spectra_) fl.steps = n_;
     mag_.latest = static_cast<int>(n_ & 1);
@@ -108,7 +108,7 @@ class Simulation {
   std::vector<ProbeRecorder>& probes() { return probes_; }
   const std::vector<PowerSpectrumRecorder>& power_spectra() const { return power_spectra_; }
   const std::vector<SpectralMap>& spectral_maps() const { return maps_; }
-  const SnapshotPlan& snapshot_plan() const { return snap_; }
+  const SnapshotPlan& snapshot_plan() const { return snaps_.plan; }
   void set_snapshot_sink(SnapshotSink* sink) { sink_ = sink; }
   /// Medium index of each cell of the extent ([row][column], -1 = vacuum).
   const std::vector<int>& medium_map() const { return medium_map_; }
@@ -162,16 +162,13 @@ class Simulation {
   std::vector<double> emitter_value_;
   std::vector<Injection> inj_h_, inj_e_;
   std::vector<int> inj_h_row_, inj_e_row_;  // offsets per row, size ny+1
-  // walls
-  bool periodic_x_ = false, periodic_y_ = false, magnetic_x_ = false, magnetic_y_ = false;
+  Boundaries walls_;
   // recorders
   std::vector<ProbeRecorder> probes_;
   std::vector<PowerSpectrumRecorder> power_spectra_;
   std::vector<SpectralMap> maps_;
-  SnapshotPlan snap_;
-  long next_frame_ = 0;
+  SnapshotRecorder<R> snaps_;
   SnapshotSink* sink_ = nullptr;
-  std::vector<R> frame_buf_;
   std::vector<int> medium_map_;
   int map_nx_ = 0, map_ny_ = 0;
   MagneticCells mag_;
@@ -181,8 +178,17 @@ class Simulation {
   std::vector<std::string> warnings_, notes_;
 
   void build_media(std::vector<double> (&cb)[3]);
+  // the absorber's hooks (absorber_hooks.cpp): its strips, and the CPML correction of the
+  // H and E updates of row j (Roden & Gedney 2000)
   void build_pml(const std::vector<double> (&cb)[3]);
+  void pml_h_row(int j);
+  bool in_absorber(int j) const { return px_.count() > 0 || pml_row_of_[j] >= 0; }
+  void pml_e_row(int j);
   void build_sources(const std::vector<double> (&cb)[3]);
+  /// A point source's Gaussian footprint of injections.
+  void add_point_source(const Source& src, int signal, const std::vector<double> (&cb)[3]);
+  /// A beam's or plane wave's one-sided total-field/scattered-field sheet.
+  void add_launch_sheet(const Source& src, int signal, const std::vector<double> (&cb)[3]);
   void build_recorders();
   void build_magnets();
   void step_fused();
@@ -199,8 +205,9 @@ class Simulation {
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);
   void compute_emitters();
   void h_row(int j);
-  /// Magnetic walls and periodic ghost columns of H row j, after everything that adds to H.
-  void h_boundaries(int j);
+  std::array<R*, 6> fields() { return {f_[0].data(), f_[1].data(), f_[2].data(), f_[3].data(), f_[4].data(), f_[5].data()}; }
+  /// The edges' hook after everything that adds to H row j (boundaries.h).
+  void h_boundaries(int j) { walls_.after_h_row(fields().data(), j, g_); }
   void e_row(int j);
   void record();
 };

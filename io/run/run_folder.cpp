@@ -16,6 +16,7 @@
 #include "io/scene/diagnostics.h"
 
 #include "io/scene/scene_writer.h"
+#include "solver/grid/poynting.h"
 
 namespace ty {
 
@@ -152,9 +153,8 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
           } else {  // 1/2 E x H*: real part the time-averaged Poynting vector, imaginary the reactive part
             std::complex<double> E[3], H[3];
             for (int q = 0; q < 3; ++q) E[q] = m.field(fi, p, q), H[q] = m.field(fi, p, q + 3);
-            const std::complex<double> sx = 0.5 * (E[1] * std::conj(H[2]) - E[2] * std::conj(H[1]));
-            const std::complex<double> sy = 0.5 * (E[2] * std::conj(H[0]) - E[0] * std::conj(H[2]));
-            v = name == "Sx" ? sx : name == "Sy" ? sy : std::complex<double>(std::hypot(sx.real(), sy.real()), 0.0);
+            const auto S = poynting(E, H);
+            v = name == "Sx" ? S[0] : name == "Sy" ? S[1] : std::complex<double>(std::hypot(S[0].real(), S[1].real()), 0.0);
           }
           re[fi * np + p] = v.real();
           im[fi * np + p] = v.imag();
@@ -190,6 +190,7 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
     for (long k = 0; k < p.count; ++k) t[k] = (k + 1) * dt;
     const std::string base = "/probes/" + p.name;
     f.write(base + "/time", {t.size()}, t.data(), "s");
+    f.attribute(base + "/time", "meaning", "the E times (k+1) dt of every series; H and magnetic fields are the mean of their half steps around them");
     for (const auto& name : p.fields) {
       const auto v = p.series(name);
       f.write(base + "/" + name, {v.size()}, v.data(), field_units(name));

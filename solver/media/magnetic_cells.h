@@ -11,7 +11,10 @@
 /// Hx and Hy nodes, 1 to Hz), so that the coupling energy mu0 M . (G h) = mu0 (G^T M) . h
 /// is the same seen from either side: an H node at a body's edge takes half of its one
 /// magnetic neighbour's change. Gather G and scatter P = G^T are exact transposes; a node
-/// outside the grid (the ghost line past a non-periodic edge) is in neither.
+/// outside the grid (the ghost line past a non-periodic edge) is in neither. Across a
+/// periodic seam both use the wrapped node: the scatter writes Hx(0) for the last column's
+/// right face and the gather reads it through the ghost column nx, which the periodic
+/// boundary keeps equal to Hx(0) (solver/grid/boundaries/periodic.h).
 ///
 /// Time: M and H at half steps. Faraday's law advances B = mu0 (H + M) (h* = H - c dt curl E),
 /// then each cell's magnetization moves from n-1/2 to n+1/2 with the field taken as

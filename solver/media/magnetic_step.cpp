@@ -19,6 +19,17 @@ namespace ty {
 using constants::c0;
 
 namespace {
+/// mu0 H at the cell (i, j) from the row pointers of its H nodes (hy_up: Hy of the row
+/// above): G of magnetic_cells.h, (Hx(i) + Hx(i+1))/2, (Hy(i, j) + Hy(i, j+1))/2, Hz(i),
+/// in T (mu0 H = (eta0 H) / c). The one copy of the gather; the scatter is its transpose.
+template <class R>
+inline void gather(const R* hx, const R* hy, const R* hy_up, const R* hz, long i, double& bx, double& by,
+                   double& bz) {
+  constexpr double inv_c = 1.0 / c0;
+  bx = 0.5 * (static_cast<double>(hx[i]) + static_cast<double>(hx[i + 1])) * inv_c;
+  by = 0.5 * (static_cast<double>(hy[i]) + static_cast<double>(hy_up[i])) * inv_c;
+  bz = static_cast<double>(hz[i]) * inv_c;
+}
 // per cell of a row: b(n-1/2) and b(n+1/2) of the step, the tilt, and b(n-1/2) as
 // gathered before Faraday's law for three rows (two in turn, and the block's last)
 constexpr long kRowScratch = 16;
@@ -57,7 +68,7 @@ void Simulation<R>::build_magnets() {
   std::vector<int> slot(static_cast<size_t>(nx) * ny, -1);
   for (int j = 0; j < ny; ++j)
     for (int i = 0; i < nx; ++i) {
-      if ((magnetic_y_ && j == ny - 1) || (magnetic_x_ && i == nx - 1)) continue;
+      if (!walls_.cell_allowed(i, j, nx, ny)) continue;
       const int med = medium_at(s, {g_.x(Component::Hz, i), g_.y(Component::Hz, j)});
       if (med >= 0) slot[static_cast<size_t>(j) * nx + i] = slot_of_medium[med];
     }
@@ -65,9 +76,7 @@ void Simulation<R>::build_magnets() {
   // H node on the face holds the mean of its two sides; the cell's field is its inner side,
   // G h less 1/4 of the cell's own M per such face along the face's normal (magnetic_cells.h).
   auto outside = [&](int i, int j) {  // a neighbouring cell of the grid that is not magnetic
-    if (periodic_x_) i = (i % nx + nx) % nx;
-    if (periodic_y_) j = (j % ny + ny) % ny;
-    if (i < 0 || i >= nx || j < 0 || j >= ny) return false;  // the body runs on through the absorber
+    if (!walls_.neighbour(i, j, nx, ny)) return false;  // the body runs on through the absorber
     return slot[static_cast<size_t>(j) * nx + i] < 0;
   };
   // Inside the absorbing layers the damping rises to kAbsorberDamping (as the cube of the
@@ -136,9 +145,7 @@ void Simulation<R>::build_magnets() {
       M.longest_row = std::max(M.longest_row, static_cast<int>(b.k0 + (b.i1 - b.i0) - a.k0));
     }
   auto cell = [&](int i, int j) -> int {  // neighbouring cell, wrapped on periodic sides; n if none
-    if (periodic_x_) i = (i % nx + nx) % nx;
-    if (periodic_y_) j = (j % ny + ny) % ny;
-    if (i < 0 || i >= nx || j < 0 || j >= ny) return static_cast<int>(n);
+    if (!walls_.neighbour(i, j, nx, ny)) return static_cast<int>(n);
     const int c = M.cell_of[static_cast<size_t>(j) * nx + i];
     return c < 0 ? static_cast<int>(n) : c;
   };
@@ -162,7 +169,7 @@ void Simulation<R>::build_magnets() {
 template <class R>
 const R* Simulation<R>::hy_above(int j) const {
   // Hy(i, j+1): the next row, row 0 across a periodic top, else the zero ghost row
-  return f_[4].data() + (j + 1 < g_.ny ? g_.at(0, j + 1) : periodic_y_ ? g_.at(0, 0) : g_.at(0, g_.ny));
+  return f_[4].data() + (j + 1 < g_.ny ? g_.at(0, j + 1) : walls_.periodic_y ? g_.at(0, 0) : g_.at(0, g_.ny));
 }
 
 template <class R>
@@ -171,7 +178,6 @@ void Simulation<R>::gather_row(int j, double* b) const {
   const int r0 = M.row_runs[j], r1 = M.row_runs[j + 1];
   if (r0 == r1) return;
   const long w = M.longest_row, first = M.runs[r0].k0;
-  const double inv_c = 1.0 / c0;  // mu0 H = (eta0 H) / c
   const long o = g_.at(0, j);
   const R* hx = f_[3].data() + o;  // its ghost column nx holds Hx(0) on periodic sides, else 0
   const R* hy = f_[4].data() + o;
@@ -183,9 +189,7 @@ void Simulation<R>::gather_row(int j, double* b) const {
 #pragma omp simd
     for (int i = run.i0; i < run.i1; ++i) {
       const int q = i - run.i0;
-      b0[q] = 0.5 * (static_cast<double>(hx[i]) + static_cast<double>(hx[i + 1])) * inv_c;
-      b1[q] = 0.5 * (static_cast<double>(hy[i]) + static_cast<double>(hy_up[i])) * inv_c;
-      b2[q] = static_cast<double>(hz[i]) * inv_c;
+      gather(hx, hy, hy_up, hz, i, b0[q], b1[q], b2[q]);
     }
   }
 }
@@ -200,7 +204,6 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
   double* b0[3] = {scratch, scratch + w, scratch + 2 * w};
   double* b1[3] = {scratch + 3 * w, scratch + 4 * w, scratch + 5 * w};
   double* x2 = scratch + 6 * w;
-  const double inv_c = 1.0 / c0;  // mu0 H = (eta0 H) / c
   const long o = g_.at(0, j);
   R* hx = f_[3].data() + o;  // its ghost column nx holds Hx(0) on periodic sides, else 0
   const R* hy = f_[4].data() + o;
@@ -222,9 +225,8 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
       const long i = i0 + q;
       const double sy = 0.25 * (dyp[D[q]] + dyp[U[q]]);
       b0[0][q] = o0[q], b0[1][q] = o1[q], b0[2][q] = o2[q];
-      b1[0][q] = 0.5 * (static_cast<double>(hx[i]) + static_cast<double>(hx[i + 1])) * inv_c;
-      b1[1][q] = 0.5 * (static_cast<double>(hy[i]) + static_cast<double>(hy_up[i])) * inv_c - sy;
-      b1[2][q] = static_cast<double>(hz[i]) * inv_c;
+      gather(hx, hy, hy_up, hz, i, b1[0][q], b1[1][q], b1[2][q]);
+      b1[1][q] -= sy;
     }
     const double* xp = dxp + k0;
 #pragma omp simd
@@ -233,7 +235,9 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
     }
     for (long q : {0L, len - 1}) {  // the run's ends find their neighbours along x through the list
       const double sx = 0.25 * (dxp[q > 0 ? k0 + q - 1 : M.left[k0]] + dxp[q < len - 1 ? k0 + q + 1 : M.right[k0 + q]]);
-      b1[0][q] = 0.5 * (static_cast<double>(hx[i0 + q]) + static_cast<double>(hx[i0 + q + 1])) * inv_c - sx;
+      double by, bz;
+      gather(hx, hy, hy_up, hz, i0 + q, b1[0][q], by, bz);
+      b1[0][q] -= sx;
     }
     const double* mi[6];
     double* mo[6];
@@ -257,7 +261,7 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
     hx[run.i0] -= static_cast<R>(c0 * 0.5 * (dx[first_k] + dx[M.left[first_k]]));
     if (M.right[last] < none) continue;  // the next magnetic cell writes the shared node
     if (run.i1 < g_.nx) hx[run.i1] -= static_cast<R>(c0 * 0.5 * (dx[last] + dx[none]));
-    else if (periodic_x_) hx[0] -= static_cast<R>(c0 * 0.5 * (dx[last] + dx[none]));
+    else if (walls_.periodic_x) hx[0] -= static_cast<R>(c0 * 0.5 * (dx[last] + dx[none]));
   }
 }
 
@@ -279,7 +283,7 @@ void Simulation<R>::scatter_hy(int j) {
       hy[i] -= static_cast<R>(c0 * 0.5 * (dy[k] + dy[D[k]]));
     }
   }
-  const int below = j > 0 ? j - 1 : periodic_y_ ? g_.ny - 1 : -1;
+  const int below = j > 0 ? j - 1 : walls_.periodic_y ? g_.ny - 1 : -1;
   if (below < 0) return;
   for (int r = M.row_runs[below]; r < M.row_runs[below + 1]; ++r) {
     const MagneticCells::Run& run = M.runs[r];
@@ -303,10 +307,9 @@ void Simulation<R>::step_magnetic() {
   // Every value is computed the same way whatever the thread count (same bits).
   compute_emitters();
   const int ny = g_.ny;
-  const long s = g_.stride;
   MagneticCells& M = mag_;
-  if (periodic_y_)
-    for (int c = 0; c < 3; ++c) std::copy_n(f_[c].data() + g_.row_begin(0), s, f_[c].data() + g_.row_begin(ny));
+  const auto F = fields();
+  walls_.before_sweep(F.data(), g_);
 #pragma omp parallel num_threads(threads_)
   {
     int j0, j1;
@@ -339,8 +342,7 @@ void Simulation<R>::step_magnetic() {
       h_boundaries(j0);
     }
 #pragma omp barrier
-    if (periodic_y_ && j0 == 0 && j1 > 0)
-      for (int c = 3; c < 6; ++c) std::copy_n(f_[c].data() + g_.row_begin(ny - 1), s, f_[c].data() + g_.row_begin(-1));
+    if (j0 == 0 && j1 > 0) walls_.before_first_e_row(F.data(), g_);
     if (j1 > j0) e_row(j0);
   }
   ++n_;

@@ -11,12 +11,15 @@
 /// stands for and n = z x (to - from)/|to - from|, in W/m.
 #pragma once
 #include <array>
+#include <cmath>
 #include <complex>
 #include <string>
 #include <vector>
 
 #include "io/scene/scene.h"
-#include "solver/recorders/recorders.h"
+#include "io/scene/units.h"
+#include "solver/grid/poynting.h"
+#include "solver/recorders/sampling.h"
 
 namespace ty {
 
@@ -35,6 +38,35 @@ struct PowerSpectrumRecorder {
   std::complex<double> field(std::size_t f, std::size_t p, int c, double run_time) const {
     return acc[(f * points.size() + p) * 6 + c] * (2.0 / run_time);
   }
+
+  /// After step k of total: on a sampling step, adds each component at its own time
+  /// (E at (k+1) dt, H at (k+1/2) dt) to the sums; the frequencies split over the threads.
+  template <class R>
+  void record(long k, long total, const R* const* F, double dt, int threads) {
+    steps = k + 1;
+    if ((total - 1 - k) % every != 0) return;  // not a sampling step
+    const size_t np = points.size();
+    for (size_t p = 0; p < np; ++p)
+      for (int c = 0; c < 6; ++c) value[p * 6 + c] = c < 3 ? stencil[p][c](F[c]) : stencil[p][c](F[c]) / constants::eta0;
+    const double te = (k + 1) * dt, th = (k + 0.5) * dt, w_dt = dt * every;
+    std::complex<double>* sums = acc.data();
+    const double* val = value.data();
+    const double* fr = freq.data();
+#pragma omp parallel for schedule(static) num_threads(threads)
+    for (long fi = 0; fi < static_cast<long>(freq.size()); ++fi) {
+      const double w = 2 * constants::pi * fr[fi];
+      const std::complex<double> pe = std::polar(w_dt, w * te), ph = std::polar(w_dt, w * th);
+      std::complex<double>* a = sums + static_cast<size_t>(fi) * np * 6;
+      for (size_t p = 0; p < np; ++p) {
+        for (int c = 0; c < 3; ++c) a[p * 6 + c] += val[p * 6 + c] * pe;
+        for (int c = 3; c < 6; ++c) a[p * 6 + c] += val[p * 6 + c] * ph;
+      }
+    }
+  }
+  template <class Fn>
+  void visit_state(Fn&& f) {  // complex sums as pairs of doubles
+    f("power-spectra/" + name, reinterpret_cast<double*>(acc.data()), 2 * acc.size());
+  }
 };
 
 /// Points one cell apart (or closer) along the output's line.
@@ -49,9 +81,8 @@ std::vector<double> line_power(const PowerSpectrumRecorder& r, Field&& field) {
     for (std::size_t p = 0; p < r.points.size(); ++p) {
       std::complex<double> E[3], H[3];
       for (int c = 0; c < 3; ++c) E[c] = field(f, p, c), H[c] = field(f, p, c + 3);
-      const std::complex<double> sx = E[1] * std::conj(H[2]) - E[2] * std::conj(H[1]);
-      const std::complex<double> sy = E[2] * std::conj(H[0]) - E[0] * std::conj(H[2]);
-      P[f] += r.weight[p] * 0.5 * (sx.real() * r.normal.x + sy.real() * r.normal.y);
+      const auto S = poynting(E, H);
+      P[f] += r.weight[p] * (S[0].real() * r.normal.x + S[1].real() * r.normal.y);
     }
   return P;
 }

@@ -15,6 +15,8 @@
 #include <vector>
 
 #include "io/scene/scene.h"
+#include "io/scene/units.h"
+#include "solver/grid/node_average.h"
 #include "solver/grid/yee_grid.h"
 
 namespace ty {
@@ -33,6 +35,39 @@ struct SpectralMap {
   std::vector<double> value;         ///< this step's six averaged values per point (scratch)
   std::complex<double> field(std::size_t f, std::size_t p, int c) const {
     return acc[(f * static_cast<std::size_t>(ni) * nj + p) * 6 + c] * (2.0 / window[f]);
+  }
+
+  /// After step k of total: on a sampling step inside a window, adds each averaged
+  /// component at its own time (E at (k+1) dt, H at (k+1/2) dt); the points split over the
+  /// threads.
+  template <class R>
+  void record(long k, long total, const R* const* F, const YeeGrid& g, int threads) {
+    if (k < start || (total - 1 - k) % every != 0) return;
+    const size_t np = static_cast<size_t>(ni) * nj;
+    const EzNodeAverage average{g.stride};
+    for (int b = 0; b < nj; ++b)
+      for (int a = 0; a < ni; ++a) {
+        double* v = &value[(static_cast<size_t>(b) * ni + a) * 6];
+        average(F, g.at(i0 + a * stride, j0 + b * stride), v);
+        for (int c = 3; c < 6; ++c) v[c] /= constants::eta0;
+      }
+    const double te = (k + 1) * g.dt, th = (k + 0.5) * g.dt, w_dt = g.dt * every;
+    for (size_t fi = 0; fi < freq.size(); ++fi) {
+      if (k < first_step[fi]) continue;
+      const double w = 2 * constants::pi * freq[fi];
+      const std::complex<double> pe = std::polar(w_dt, w * te), ph = std::polar(w_dt, w * th);
+      std::complex<double>* sums = acc.data() + fi * np * 6;
+      const double* val = value.data();
+#pragma omp parallel for schedule(static) num_threads(threads)
+      for (long p = 0; p < static_cast<long>(np); ++p) {
+        for (int c = 0; c < 3; ++c) sums[p * 6 + c] += val[p * 6 + c] * pe;
+        for (int c = 3; c < 6; ++c) sums[p * 6 + c] += val[p * 6 + c] * ph;
+      }
+    }
+  }
+  template <class Fn>
+  void visit_state(Fn&& f) {  // complex sums as pairs of doubles
+    f("spectral-maps/" + name, reinterpret_cast<double*>(acc.data()), 2 * acc.size());
   }
 };
 

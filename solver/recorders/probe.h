@@ -1,0 +1,61 @@
+/// \file probe.h
+/// \brief The probe: every field at one point, every step, in arrays sized before the run.
+///
+/// Time alignment: after step k (0-based) the grid holds E at t = (k+1) dt, and H and the
+/// magnetizations at (k+1/2) dt. A probe's series all lie on the E times (k+1) dt (the
+/// run folder's /probes/<name>/time): H and the magnetic fields are the mean of their two
+/// neighbouring half steps (second-order accurate; the last value extrapolated linearly),
+/// so Poynting products are taken at one time.
+#pragma once
+#include <array>
+#include <string>
+#include <vector>
+
+#include "solver/recorders/sampling.h"
+
+namespace ty {
+
+struct ProbeRecorder {
+  std::string name;
+  Vec2 at;  ///< internal coordinates
+  std::vector<std::string> fields;
+  std::array<PointStencil, 6> stencil;
+  std::vector<double> raw;  ///< per recorded step: the six components as stored (E in V/m, eta0*H)
+  long count = 0;
+  /// Magnetic fields (Mx, Lx, ...): bilinear over the four nearest cell centres (cells that
+  /// are not magnetic count as zero), sampled at the magnetization's time, (k+1/2) dt.
+  std::vector<std::string> magnetic;
+  std::array<int, 4> cells{-1, -1, -1, -1};
+  std::array<double, 4> cell_weight{};
+  std::vector<std::vector<double>> magnetic_series;
+
+  /// Step k's values; value(field, cell) gives a magnetic field's value in a list cell.
+  template <class R, class MagneticValue>
+  void record(long k, const R* const* F, MagneticValue&& value) {
+    for (int c = 0; c < 6; ++c) raw[static_cast<size_t>(k) * 6 + c] = stencil[c](F[c]);
+    for (size_t f = 0; f < magnetic.size(); ++f) {
+      double v = 0;
+      for (int q = 0; q < 4; ++q)
+        if (cells[q] >= 0) v += cell_weight[q] * value(magnetic[f], cells[q]);
+      magnetic_series[f][k] = v;
+    }
+    count = k + 1;
+  }
+  /// The series of one field in SI (E in V/m, H in A/m, S in W/m^2, M in T) at the E times.
+  std::vector<double> series(const std::string& field) const;
+  template <class F>
+  void visit_state(F&& f) {
+    f("probes/" + name, raw.data(), raw.size());
+    for (size_t k = 0; k < magnetic.size(); ++k)
+      f("probes/" + name + "-" + magnetic[k], magnetic_series[k].data(), magnetic_series[k].size());
+  }
+};
+
+/// x(k+1/2) -> x(k+1): the mean of samples k and k+1, the last one extrapolated linearly.
+double to_e_time(const double* x, long k, long n);
+
+/// A probe for a scene's probe output on grid g; cell_of maps grid cells to magnetic cells
+/// (empty when there are none).
+ProbeRecorder make_probe(const Output& o, const YeeGrid& g, long total_steps, const std::vector<int>& cell_of);
+
+}  // namespace ty
