@@ -16,6 +16,7 @@
 #include "io/run/run_folder.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/scene_writer.h"
+#include "io/scene/validation.h"
 #include "solver/simulation.h"
 #include "tools/commands.h"
 
@@ -176,7 +177,9 @@ int run_with(const Scene& scene, const RunOptions& o) {
 }  // namespace
 
 int run_command(const RunOptions& o) {
-  const Scene read = read_scene(o.scene, o.sets);
+  Scene read = read_scene(o.scene, o.sets);
+  const std::vector<std::string> found = validate_scene(read, machine_memory_bytes());  // before anything is sized
+  read.warnings.insert(read.warnings.end(), found.begin(), found.end());
   const Scene scene = o.reference ? reference_scene(read) : read;
   if (scene.time.precision == Precision::single) return run_with<float>(scene, o);
   return run_with<double>(scene, o);
