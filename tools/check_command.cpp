@@ -11,6 +11,7 @@
 
 #include "io/scene/scene_reader.h"
 #include "io/scene/units.h"
+#include "io/scene/validation.h"
 #include "materials/dielectric.h"
 #include "materials/magnetic/linear_response.h"
 #include "solver/grid/yee_grid.h"
@@ -20,11 +21,13 @@ namespace ty {
 namespace {
 
 double clean(double v) { return std::abs(v) < 1e-12 ? 0.0 : v; }
+/// For a fixed-point print with six decimals: what would print as -0.000000 is zero.
+double clean6(double v) { return std::abs(v) < 5e-7 ? 0.0 : v; }
 
 std::string direction(const Vec3& m) {
   const double theta = std::acos(std::clamp(m.z(), -1.0, 1.0)) * 180 / constants::pi;
-  const double phi = std::atan2(m.y(), m.x()) * 180 / constants::pi;
-  const std::string v = fmt::format("({:+.6f}, {:+.6f}, {:+.6f})", clean(m.x()), clean(m.y()), clean(m.z()));
+  const double phi = clean6(std::atan2(m.y(), m.x()) * 180 / constants::pi);
+  const std::string v = fmt::format("({:+.6f}, {:+.6f}, {:+.6f})", clean6(m.x()), clean6(m.y()), clean6(m.z()));
   if (std::hypot(m.x(), m.y()) < 1e-9) return fmt::format("{} = polar {:.4f} deg", v, theta);
   return fmt::format("{} = polar {:.4f} deg, azimuth {:.4f} deg", v, theta, phi);
 }
@@ -125,7 +128,9 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
 }  // namespace
 
 int check_command(const std::string& path, const std::vector<std::string>& sets) {
-  const Scene s = read_scene(path, sets);
+  Scene s = read_scene(path, sets);
+  const std::vector<std::string> found = validate_scene(s, machine_memory_bytes());  // before anything is sized
+  s.warnings.insert(s.warnings.end(), found.begin(), found.end());
   const GridSpec& G = s.grid;
   const YeeGrid g = grid_for(s, 8);
   const int npx = g.npml_x, npy = g.npml_y, ex = g.nx - 2 * npx, ey = g.ny - 2 * npy;
@@ -133,13 +138,13 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
   const double dt = g.dt;
   const long steps = steps_for(s, g);
   const size_t real = s.time.precision == Precision::single ? 4 : 8;
-  const double mem = 6.0 * nx * ny * real + 6.0 * (2.0 * (npx + 1) * ny + 2.0 * (npy + 1) * nx) * real;
+  const double mem = run_sizes(s).memory_bytes();
   std::cout << fmt::format("scene: {}\n", s.title.empty() ? path : s.title);
   std::cout << fmt::format("  grid: {} x {} cells of {:.4g} x {:.4g} um ({} x {} in the extent; boundaries x {}, y {})\n",
                            nx, ny, G.dx * 1e6, G.dy * 1e6, ex, ey, boundary_name(G.bx), boundary_name(G.by));
   std::cout << fmt::format("  time: step {:.5g} fs (step-fraction {}), {} steps to {:.5g} ps\n", dt * 1e15, s.time.step_fraction,
                            steps, s.time.stop * 1e12);
-  std::cout << fmt::format("  memory: about {:.1f} MB of fields ({} precision)\n", mem / 1e6,
+  std::cout << fmt::format("  memory: about {:.1f} MB (fields, magnetic cells and recorders; {} precision)\n", mem / 1e6,
                            real == 4 ? "single" : "double");
   int warnings = 0;
   for (const auto& w : s.warnings) {
@@ -190,8 +195,8 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
     std::cout << fmt::format("  {} magnetic cells of '{}' at {:.3g} cell-updates/s ({:.0f}x a vacuum cell)\n",
                              magnetic[k], s.media[k].name, r, rate / r);
   }
-  std::cout << fmt::format("  estimated run time: {:.3g} s on {} threads (vacuum {:.3g} cell-updates/s measured here)\n",
-                           est, threads, rate);
+  std::cout << fmt::format("  estimated run time: {:.3g} s on {} thread{} (vacuum {:.3g} cell-updates/s measured here)\n",
+                           est, threads, threads == 1 ? "" : "s", rate);
   std::cout << fmt::format("check passed with {} warning{}\n", warnings, warnings == 1 ? "" : "s");
   return 0;
 }

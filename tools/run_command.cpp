@@ -22,6 +22,7 @@
 #include "io/scene/diagnostics.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/scene_writer.h"
+#include "io/scene/validation.h"
 #include "solver/simulation.h"
 #include "tools/commands.h"
 
@@ -256,7 +257,9 @@ int run_command(const RunOptions& o) {
     std::cerr << fmt::format("terayee run: {} holds a completed run; there is nothing to resume\n", o.out);
     return 0;
   }
-  const Scene read = read_scene(o.scene, o.sets);
+  Scene read = read_scene(o.scene, o.sets);
+  const std::vector<std::string> found = validate_scene(read, machine_memory_bytes());  // before anything is sized
+  read.warnings.insert(read.warnings.end(), found.begin(), found.end());
   const Scene scene = o.reference ? reference_scene(read) : read;
   if (scene.time.precision == Precision::single) return run_with<float>(scene, o);
   return run_with<double>(scene, o);

@@ -44,6 +44,7 @@ struct GridSpec {
   Boundary bx = Boundary::absorbing, by = Boundary::absorbing;
   Absorber absorber;
   bool origin_corner = false;
+  Mark where;  ///< the `grid` section
 };
 
 enum class Precision { double_, single };
@@ -53,6 +54,7 @@ struct TimeSpec {
   double step_fraction = 0.95; ///< the time step as a fraction of the 2D stability limit
   Precision precision = Precision::double_;
   int threads = 0;       ///< 0 = auto
+  Mark where;            ///< `time.stop`
 };
 
 /// One sublattice of a magnetic medium.

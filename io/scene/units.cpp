@@ -22,7 +22,7 @@ using namespace constants;
 // Conversion factors. Wavenumber: f = c * nu~ with nu~ in 1/cm. Energy: f = E/h.
 // Magnetic fields are quoted as mu0*H in tesla: 1 Oe <-> 1e-4 T, 1 G <-> 1e-4 T,
 // 1 A/m <-> mu0 T.
-const std::array<UnitDef, 40> kUnits = {{
+const std::array<UnitDef, 43> kUnits = {{
     {"m", Kind::length, 1.0},
     {"cm", Kind::length, 1e-2},
     {"mm", Kind::length, 1e-3},
@@ -31,7 +31,10 @@ const std::array<UnitDef, 40> kUnits = {{
     {"\xCE\xBCm", Kind::length, 1e-6},  // μm (Greek mu)
     {"nm", Kind::length, 1e-9},
     {"s", Kind::time, 1.0},
+    {"ms", Kind::time, 1e-3},
     {"us", Kind::time, 1e-6},
+    {"\xC2\xB5s", Kind::time, 1e-6},  // µs (micro sign)
+    {"\xCE\xBCs", Kind::time, 1e-6},  // μs (Greek mu)
     {"ns", Kind::time, 1e-9},
     {"ps", Kind::time, 1e-12},
     {"fs", Kind::time, 1e-15},
@@ -94,7 +97,7 @@ std::string_view kind_units(Kind k) {
   switch (k) {
     case Kind::dimensionless: return "a bare number";
     case Kind::length: return "m, cm, mm, um (µm), nm or cells";
-    case Kind::time: return "s, us, ns, ps, fs or periods";
+    case Kind::time: return "s, ms, us, ns, ps, fs or periods";
     case Kind::frequency: return "Hz, kHz, MHz, GHz, THz, cm^-1 or meV";
     case Kind::magnetic_field: return "T, mT, Oe, kOe, G, kG or A/m";
     case Kind::angle: return "deg or rad";

@@ -7,6 +7,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <stdexcept>
 #include <tuple>
 
 #include "io/scene/units.h"
@@ -98,9 +99,8 @@ void Simulation<R>::add_launch_sheet(const Source& src, int sig, const std::vect
   double n = 1;
   if (m >= 0) {
     const Medium& med = s.media[m];
-    if (med.perfect_conductor)
-      throw BadInput(fmt::format("{}:{}:{}: error: the launch line starts inside the perfect conductor '{}'",
-                                 src.where.file, src.where.line, src.where.column, med.name));
+    if (med.perfect_conductor)  // rejected by validate_scene (io/scene/validation.cpp)
+      throw std::logic_error("a launch line inside a perfect conductor reached the solver");
     if (src.component == Component::Ez) {
       n = std::sqrt(med.permittivity[2]);
     } else {

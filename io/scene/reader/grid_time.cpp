@@ -1,0 +1,206 @@
+/// \file grid_time.cpp
+/// \brief The `grid` and `time` sections, and the prescan of the sources' frequencies that
+/// `cells-per-wavelength` and `periods` need before the grid is read.
+#include <algorithm>
+#include <cmath>
+#include <set>
+
+#include "io/scene/reader/reader.h"
+
+namespace ty::reader {
+
+using constants::c0;
+
+void SceneBuilder::prescan_sources(const YAML::Node& list) {
+  Diagnostics quiet;  // errors are reported by read_source
+  Reader q(quiet, "");
+  std::set<double> freqs;
+  for (const auto& item : list) {
+    double f = 0;
+    if (item.IsMap() && item.size() == 1) {
+      const YAML::Node body = item.begin()->second;
+      if (body.IsMap() && body["frequency"]) {
+        if (auto v = q.quantity(body["frequency"], "frequency", Kind::frequency)) f = *v;
+      }
+      Source s;
+      s.frequency = f;
+      if (body.IsMap() && body["waveform"] && body["waveform"].IsMap()) {
+        const auto& w = body["waveform"];
+        const std::string kind = w["kind"] ? w["kind"].as<std::string>("") : "";
+        if (kind == "pulse" && w["fwhm"]) {
+          s.waveform.kind = Waveform::Kind::pulse;
+          if (auto v = q.quantity(w["fwhm"], "fwhm", Kind::time)) s.waveform.fwhm = *v;
+          if (!(s.waveform.fwhm > 0)) s.waveform.kind = Waveform::Kind::cw;
+        } else if (kind == "chirp") {
+          s.waveform.kind = Waveform::Kind::chirp;
+          if (w["from"])
+            if (auto v = q.quantity(w["from"], "from", Kind::frequency)) s.waveform.from = *v;
+          if (w["to"])
+            if (auto v = q.quantity(w["to"], "to", Kind::frequency)) s.waveform.to = *v;
+          if (f == 0) s.frequency = f = 0.5 * (s.waveform.from + s.waveform.to);
+        }
+      }
+      if (f > 0) f_top_ = std::max(f_top_, source_band(s).hi);
+    }
+    freq_.push_back(f);
+    if (f > 0) freqs.insert(f);
+  }
+  if (freqs.size() == 1) common_period_ = 1.0 / *freqs.begin();
+}
+
+void SceneBuilder::read_grid(const YAML::Node& g) {
+  r_.allow(g, {"extent", "cell", "cells-per-wavelength", "boundaries", "absorber", "origin"}, "grid");
+  GridSpec& G = scene_.grid;
+  r_.require(g, "extent", "grid");
+  G.where = r_.mark(g["extent"] ? g["extent"] : g);
+  bool ok = true;
+  if (g["extent"]) {
+    if (auto e = r_.vec2(g["extent"], "extent", Kind::length)) {
+      G.extent = *e;
+      if (!(e->x > 0 && e->y > 0)) {
+        r_.error(g["extent"], "'extent' must have two positive sizes");
+        ok = false;
+      }
+    } else {
+      ok = false;
+    }
+  }
+  ok = read_cell(g) && ok;
+  read_boundaries(g);
+  if (!ok) return;
+  // whole numbers of cells: the extent is rounded and the user told
+  const double nx = std::max(1.0, std::round(G.extent.x / G.dx)), ny = std::max(1.0, std::round(G.extent.y / G.dy));
+  if (std::abs(nx * G.dx - G.extent.x) > 1e-6 * G.dx || std::abs(ny * G.dy - G.extent.y) > 1e-6 * G.dy)
+    scene_.warnings.push_back(fmt::format("grid: extent rounded to whole cells: {} x {} cells = {:.6g} m x {:.6g} m",
+                                          nx, ny, nx * G.dx, ny * G.dy));
+  G.extent = {nx * G.dx, ny * G.dy};
+  if (!G.origin_corner) scene_.origin_shift = {0.5 * G.extent.x, 0.5 * G.extent.y};
+  grid_ok_ = true;
+}
+
+/// `cell` ([dx, dy] or one size) or `cells-per-wavelength` (at the highest frequency of
+/// any source, in the densest medium); false when neither gives a cell.
+bool SceneBuilder::read_cell(const YAML::Node& g) {
+  GridSpec& G = scene_.grid;
+  bool ok = true;
+  if (g["cell"] && g["cells-per-wavelength"]) {
+    r_.error(g["cells-per-wavelength"], "grid: give either 'cell' or 'cells-per-wavelength', not both");
+    ok = false;
+  } else if (const auto& c = g["cell"]) {
+    bool read = false;
+    if (c.IsSequence()) {
+      if (auto v = r_.vec2(c, "cell", Kind::length)) {
+        G.dx = v->x;
+        G.dy = v->y;
+        read = true;
+      }
+    } else if (auto v = r_.quantity(c, "cell", Kind::length)) {
+      G.dx = G.dy = *v;
+      read = true;
+    }
+    if (!read) {
+      ok = false;
+    } else if (!(G.dx > 0 && G.dy > 0)) {
+      r_.error(c, "'cell' must be a positive length");
+      ok = false;
+    }
+  } else if (const auto& n = g["cells-per-wavelength"]) {
+    if (auto v = r_.quantity(n, "cells-per-wavelength", Kind::dimensionless)) {
+      if (!(*v >= 2)) {
+        r_.error(n, "'cells-per-wavelength' must be at least 2");
+        ok = false;
+      } else if (f_top_ <= 0) {
+        r_.error(n, "'cells-per-wavelength' needs a source with a frequency");
+        ok = false;
+      } else {
+        double n_max = 1.0;
+        for (const auto& m : scene_.media)
+          if (!m.perfect_conductor)
+            for (double e : m.permittivity) n_max = std::max(n_max, std::sqrt(e));
+        G.dx = G.dy = c0 / (f_top_ * n_max) / *v;
+      }
+    } else {
+      ok = false;
+    }
+  } else {
+    r_.error(g, "grid needs 'cell' or 'cells-per-wavelength'");
+    ok = false;
+  }
+  return ok;
+}
+
+void SceneBuilder::read_boundaries(const YAML::Node& g) {
+  GridSpec& G = scene_.grid;
+  if (const auto& b = g["boundaries"]) {
+    if (r_.is_map(b, "boundaries")) {
+      r_.allow(b, {"x", "y"}, "boundaries");
+      const std::initializer_list<std::pair<std::string_view, Boundary>> opts = {
+          {"absorbing", Boundary::absorbing},
+          {"periodic", Boundary::periodic},
+          {"electric-wall", Boundary::electric_wall},
+          {"magnetic-wall", Boundary::magnetic_wall}};
+      if (b["x"])
+        if (auto v = r_.choice<Boundary>(b["x"], "boundaries.x", opts)) G.bx = *v;
+      if (b["y"])
+        if (auto v = r_.choice<Boundary>(b["y"], "boundaries.y", opts)) G.by = *v;
+    }
+  }
+  if (const auto& a = g["absorber"]) {
+    if (r_.is_map(a, "absorber")) {
+      r_.allow(a, {"cells", "grading", "strength", "kappa", "alpha"}, "absorber");
+      Absorber& A = G.absorber;
+      if (a["cells"])
+        if (auto v = r_.integer(a["cells"], "absorber.cells", 1, 200)) A.cells = *v;
+      if (a["grading"])
+        if (auto v = r_.quantity(a["grading"], "absorber.grading", Kind::dimensionless)) {
+          if (*v < 1 || *v > 6) r_.error(a["grading"], "'absorber.grading' must lie between 1 and 6");
+          A.grading = *v;
+        }
+      if (a["strength"])
+        if (auto v = r_.quantity(a["strength"], "absorber.strength", Kind::dimensionless)) {
+          if (!(*v > 0)) r_.error(a["strength"], "'absorber.strength' must be positive");
+          A.strength = *v;
+        }
+      if (a["kappa"])
+        if (auto v = r_.quantity(a["kappa"], "absorber.kappa", Kind::dimensionless)) {
+          if (!(*v >= 1)) r_.error(a["kappa"], "'absorber.kappa' must be at least 1");
+          A.kappa_max = *v;
+        }
+      if (a["alpha"])
+        if (auto v = r_.quantity(a["alpha"], "absorber.alpha", Kind::conductivity)) {
+          if (*v < 0) r_.error(a["alpha"], "'absorber.alpha' must not be negative");
+          A.alpha_max = *v;
+        }
+    }
+  }
+  if (const auto& o = g["origin"]) {
+    if (auto v = r_.choice<bool>(o, "origin", {{"centre", false}, {"corner", true}})) G.origin_corner = *v;
+  }
+}
+
+void SceneBuilder::read_time(const YAML::Node& t) {
+  if (t["courant"]) r_.error(t["courant"], "'time.courant' is now called 'time.step-fraction' (same meaning)");
+  r_.allow(t, {"stop", "step-fraction", "courant", "precision", "threads"}, "time");
+  r_.require(t, "stop", "time");
+  scene_.time.where = r_.mark(t["stop"] ? t["stop"] : t);
+  if (t["stop"])
+    if (auto v = r_.positive(t["stop"], "time.stop", Kind::time, 0, common_period_)) scene_.time.stop = *v;
+  if (t["step-fraction"])
+    if (auto v = r_.quantity(t["step-fraction"], "time.step-fraction", Kind::dimensionless)) {
+      if (!(*v > 0 && *v < 1))
+        r_.error(t["step-fraction"], fmt::format("'time.step-fraction' must lie in (0, 1), got {}", *v));
+      scene_.time.step_fraction = *v;
+    }
+  if (t["precision"])
+    if (auto v = r_.choice<Precision>(t["precision"], "time.precision",
+                                      {{"double", Precision::double_}, {"single", Precision::single}}))
+      scene_.time.precision = *v;
+  if (t["threads"]) {
+    if (t["threads"].IsScalar() && t["threads"].Scalar() == "auto")
+      scene_.time.threads = 0;
+    else if (auto v = r_.integer(t["threads"], "time.threads", 1, 4096))
+      scene_.time.threads = *v;
+  }
+}
+
+}  // namespace ty::reader

@@ -1,0 +1,180 @@
+/// \file media.cpp
+/// \brief The `media` section: permittivity, conductivity, perfect conductors and the `magnet`
+/// block (sublattices, exchange, anisotropy, Dzyaloshinskii field, order).
+#include <algorithm>
+#include <cmath>
+
+#include "io/scene/reader/reader.h"
+
+namespace ty::reader {
+
+void SceneBuilder::read_media(const YAML::Node& m) {
+  if (!r_.is_map(m, "media")) return;
+  for (const auto& kv : m) {
+    Medium med;
+    med.name = kv.first.as<std::string>("");
+    med.where = r_.mark(kv.first);
+    for (const auto& other : scene_.media)
+      if (other.name == med.name) r_.error(kv.first, fmt::format("medium '{}' is defined twice", med.name));
+    const YAML::Node& v = kv.second;
+    const std::string where = fmt::format("medium '{}'", med.name);
+    if (!r_.is_map(v, where)) continue;
+    r_.allow(v, {"permittivity", "conductivity", "perfect-conductor", "magnet"}, where);
+    if (v["magnet"]) med.magnet = read_magnet(v["magnet"], where);
+    if (med.magnet && v["perfect-conductor"] && v["perfect-conductor"].Scalar() == "true")
+      r_.error(v["perfect-conductor"], fmt::format("{}: a perfect conductor cannot also be a magnet", where));
+    if (const auto& p = v["permittivity"]) {
+      if (p.IsSequence()) {
+        if (auto e = r_.vec3(p, "permittivity", Kind::dimensionless)) med.permittivity = *e;
+      } else if (auto e = r_.quantity(p, "permittivity", Kind::dimensionless)) {
+        med.permittivity = {*e, *e, *e};
+      }
+      for (double e : med.permittivity)
+        if (!(e >= 1.0)) {
+          r_.error(p, fmt::format("{}: permittivity must be at least 1 (a value below 1 would make the local "
+                                  "speed of light exceed the time step's limit), got {}",
+                                  where, e));
+          break;
+        }
+    }
+    if (const auto& s = v["conductivity"]) {
+      if (auto c = r_.quantity(s, "conductivity", Kind::conductivity)) {
+        if (*c < 0) r_.error(s, fmt::format("{}: conductivity must not be negative", where));
+        med.conductivity = *c;
+      }
+    }
+    if (const auto& pc = v["perfect-conductor"]) {
+      if (auto b = r_.boolean(pc, "perfect-conductor")) med.perfect_conductor = *b;
+    }
+    scene_.media.push_back(med);
+  }
+}
+
+std::optional<std::array<double, 3>> SceneBuilder::unit_vector(const YAML::Node& n, std::string_view key) {
+  auto v = r_.vec3(n, key, Kind::dimensionless);
+  if (!v) return std::nullopt;
+  const double norm = std::sqrt((*v)[0] * (*v)[0] + (*v)[1] * (*v)[1] + (*v)[2] * (*v)[2]);
+  if (!(norm > 0)) {
+    r_.error(n, fmt::format("'{}' must be a non-zero direction", key));
+    return std::nullopt;
+  }
+  return std::array<double, 3>{(*v)[0] / norm, (*v)[1] / norm, (*v)[2] / norm};
+}
+
+std::optional<Magnet> SceneBuilder::read_magnet(const YAML::Node& m, const std::string& where) {
+  const std::string here = where + ": magnet";
+  if (!r_.is_map(m, "magnet")) return std::nullopt;
+  r_.allow(m, {"sublattices", "exchange", "exchange-constant", "anisotropy", "dzyaloshinskii", "order"}, here);
+  Magnet g;
+  bool ok = true;
+  const YAML::Node& subs = m["sublattices"];
+  if (!subs) {
+    r_.error(m,
+             fmt::format("{} needs 'sublattices' (one for a ferromagnet, two for an antiferro- or ferrimagnet)", here));
+    return std::nullopt;
+  }
+  if (!r_.is_seq(subs, "sublattices")) return std::nullopt;
+  if (subs.size() < 1 || subs.size() > 2) {
+    r_.error(subs, fmt::format("{}: 'sublattices' must list one or two sublattices, got {}", here, subs.size()));
+    return std::nullopt;
+  }
+  for (const auto& sl : subs) {
+    Sublattice s;
+    if (!r_.is_map(sl, "sublattice")) {
+      ok = false;
+      continue;
+    }
+    r_.allow(sl, {"saturation", "g", "damping"}, "a sublattice");
+    if (!sl["saturation"]) {
+      r_.error(sl, "a sublattice needs 'saturation' (mu0*Ms, e.g. 0.75 T)");
+      ok = false;
+    } else if (auto v = r_.positive(sl["saturation"], "saturation", Kind::magnetic_field)) {
+      s.saturation = *v;
+    } else {
+      ok = false;
+    }
+    if (sl["g"])
+      if (auto v = r_.positive(sl["g"], "g", Kind::dimensionless)) s.g = *v;
+    if (sl["damping"])
+      if (auto v = r_.quantity(sl["damping"], "damping", Kind::dimensionless)) {
+        if (*v < 0 || *v >= 1) r_.error(sl["damping"], "'damping' (Gilbert alpha) must lie in [0, 1)");
+        s.damping = *v;
+      }
+    g.sublattices.push_back(s);
+  }
+  const bool two = subs.size() == 2;
+  if (!two) {
+    for (auto k : {"exchange", "exchange-constant", "dzyaloshinskii"})
+      if (m[k]) r_.error(m[k], fmt::format("{}: '{}' needs two sublattices", here, k));
+  } else if (!read_exchange(m, here, ok, g)) {
+    ok = false;
+  }
+  if (const auto& a = m["anisotropy"]) ok = read_anisotropy(a, here, g) && ok;
+  if (two && m["dzyaloshinskii"])
+    if (auto v = r_.vec3(m["dzyaloshinskii"], "dzyaloshinskii", Kind::magnetic_field)) g.dzyaloshinskii = *v;
+  if (m["order"]) {
+    if (auto v = unit_vector(m["order"], "order"))
+      g.order = *v;
+    else
+      ok = false;
+  }
+  if (!ok) return std::nullopt;
+  return g;
+}
+
+/// The exchange of two sublattices: `exchange` (mu0*H_E = lambda*mu0*Ms, equal moments) or
+/// `exchange-constant` (lambda). Both given is one error, and the constant is kept so that
+/// the rest of the scene is checked as if the medium were magnetic.
+bool SceneBuilder::read_exchange(const YAML::Node& m, const std::string& here, bool sublattices_ok, Magnet& g) {
+  if (m["exchange"] && m["exchange-constant"])
+    r_.error(m["exchange-constant"], fmt::format("{}: give 'exchange' or 'exchange-constant', not both", here));
+  if (m["exchange-constant"]) {
+    if (auto v = r_.quantity(m["exchange-constant"], "exchange-constant", Kind::dimensionless)) g.lambda = *v;
+    return true;
+  }
+  if (m["exchange"]) {
+    if (auto v = r_.quantity(m["exchange"], "exchange", Kind::magnetic_field)) {
+      if (sublattices_ok && g.sublattices[0].saturation != g.sublattices[1].saturation)
+        r_.error(m["exchange"], fmt::format("{}: 'exchange' (mu0*H_E = lambda*mu0*Ms) is defined for equal moments; "
+                                            "for unequal ones give 'exchange-constant' (lambda)",
+                                            here));
+      else if (sublattices_ok)
+        g.lambda = *v / g.sublattices[0].saturation;
+    }
+    return true;
+  }
+  r_.error(m, fmt::format("{}: two sublattices need 'exchange' (mu0*H_E, T) or 'exchange-constant' (lambda)", here));
+  return false;
+}
+
+/// Up to four uniaxial terms, each an `axis` (normalised) and a `field` (mu0*H_A).
+bool SceneBuilder::read_anisotropy(const YAML::Node& a, const std::string& here, Magnet& g) {
+  bool ok = true;
+  if (r_.is_seq(a, "anisotropy"))
+    for (const auto& t : a) {
+      if (!r_.is_map(t, "anisotropy term")) continue;
+      r_.allow(t, {"axis", "field"}, "an anisotropy term");
+      UniaxialAnisotropy u;
+      if (!t["axis"] || !t["field"]) {
+        r_.error(t, "an anisotropy term needs 'axis' and 'field'");
+        ok = false;
+        continue;
+      }
+      if (auto v = unit_vector(t["axis"], "axis"))
+        u.axis = *v;
+      else
+        ok = false;
+      if (auto v = r_.quantity(t["field"], "field", Kind::magnetic_field))
+        u.field = *v;
+      else
+        ok = false;
+      g.anisotropy.push_back(u);
+    }
+  if (g.anisotropy.size() > 4) {
+    r_.error(a, fmt::format("{}: at most four anisotropy terms are supported", here));
+    ok = false;
+  }
+  return ok;
+}
+
+}  // namespace ty::reader
