@@ -10,6 +10,7 @@
 #include <fstream>
 #include <iostream>
 
+#include "io/run/atomic_file.h"
 #include "io/scene/diagnostics.h"
 #include "tools/commands.h"
 #include "tools/sweep_jobs.h"
@@ -51,12 +52,7 @@ int write_job_script(const SweepOptions& o, int points) {
   text += "export OMP_NUM_THREADS=\"$SLURM_CPUS_PER_TASK\"\n";
   text += "exec " + cmd + "\n";
   const fs::path path = dir / "job.sh";
-  {
-    std::ofstream out(path.string() + ".tmp");
-    out << text;
-    if (!out.flush()) throw std::runtime_error("cannot write " + path.string());
-  }
-  fs::rename(path.string() + ".tmp", path);
+  write_text_atomically(path.string(), text);
   fs::permissions(path, fs::perms::owner_exec | fs::perms::group_exec, fs::perm_options::add);
   std::cout << "wrote " << path.string() << "\n";
   if (o.job_script != "submit") return 0;

@@ -11,6 +11,7 @@
 #include <stdexcept>
 
 #include "io/analysis/sweep/richardson.h"
+#include "io/run/atomic_file.h"
 
 namespace ty {
 
@@ -55,15 +56,8 @@ void write_refinement(const std::string& dir, const std::vector<ResultRow>& rows
       j.push_back(x);
     }
   }
-  for (const auto& [name, text] : {std::pair<std::string, std::string>{"refinement.csv", csv}, {"refinement.json", j.dump(2) + "\n"}}) {
-    const std::string path = dir + "/" + name, tmp = path + ".tmp";
-    {
-      std::ofstream out(tmp, std::ios::trunc);
-      out << text;
-      if (!out.flush()) throw std::runtime_error("cannot write " + tmp);
-    }
-    std::filesystem::rename(tmp, path);
-  }
+  write_text_atomically(dir + "/refinement.csv", csv);
+  write_text_atomically(dir + "/refinement.json", j.dump(2) + "\n");
 }
 
 }  // namespace ty

@@ -10,6 +10,8 @@
 #include <set>
 #include <stdexcept>
 
+#include "io/run/atomic_file.h"
+
 namespace ty {
 namespace {
 
@@ -24,16 +26,6 @@ std::string text_of(const nlohmann::json& v) {
   if (v.is_string()) return v.get<std::string>();
   if (v.is_number_float()) return fmt::format("{:.10g}", v.get<double>());
   return v.dump();
-}
-
-void write_replacing(const std::string& path, const std::string& text) {
-  const std::string tmp = path + ".tmp";
-  {
-    std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
-    out << text;
-    if (!out.flush()) throw std::runtime_error("cannot write " + tmp);
-  }
-  std::filesystem::rename(tmp, path);
 }
 
 }  // namespace
@@ -90,8 +82,8 @@ void write_results(const std::string& dir, const std::vector<std::string>& swept
     j["points"].push_back(p);
     csv += "\n";
   }
-  write_replacing(dir + "/results.csv", csv);
-  write_replacing(dir + "/results.json", j.dump(2) + "\n");
+  write_text_atomically(dir + "/results.csv", csv);
+  write_text_atomically(dir + "/results.json", j.dump(2) + "\n");
 }
 
 }  // namespace ty
