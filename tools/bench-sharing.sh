@@ -7,7 +7,7 @@ set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 scene="${1:-$root/tests/data/mnf2-slab.yaml}"
 shift || true
-bin="$root/build/terayee"
+bin="${TERAYEE_BIN:-$root/build/terayee}"
 work="$(mktemp -d)"
 trap 'rm -rf "$work"' EXIT
 run() { "$bin" run "$scene" -o "$work/$1" --quiet "${@:2}" >/dev/null 2>&1; }
