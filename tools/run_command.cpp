@@ -216,9 +216,9 @@ int run_with(const Scene& scene, const RunOptions& o) {
   for (const auto& n : sim.notes()) log.info(n);
   log.info(
       fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
-                  "{} threads, {} precision, {:.1f} MB",
+                  "{} thread{}, {} precision, {:.1f} MB",
                   g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(), sim.threads(),
-                  sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
+                  sim.threads() == 1 ? "" : "s", sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
   Runner<R> run{scene, o, log, folder, sim, resolved_scene_yaml(scene), folder.path("checkpoint.h5")};
   if (folder.resuming()) {
     load_checkpoint(run.checkpoint, sim, run.resolved);
