@@ -57,6 +57,7 @@ std::vector<std::string> run_args(const SweepOptions& o, const std::vector<std::
   if (reference) a.push_back("--reference");
   for (const auto& s : sets) a.insert(a.end(), {"--set", s});
   if (fs::exists(out / "checkpoint.h5")) a.push_back("--resume");
+  else if (fs::exists(out) && !fs::is_empty(out)) a.push_back("--overwrite");  // a point that failed before it saved
   return a;
 }
 
@@ -186,11 +187,11 @@ int sweep_command(SweepOptions o) {
 
   const int jobs = std::max(1, o.jobs);
   const int threads = o.threads > 0 ? o.threads : std::max(1, usable_cores() / jobs);
+  if (o.point >= static_cast<int>(p.points.size()))
+    throw BadInput(fmt::format("terayee sweep: --point {} but the sweep has {} points", o.point, p.points.size()));
   std::vector<size_t> todo;
   for (size_t k = 0; k < p.points.size(); ++k)
     if ((o.point < 0 || static_cast<int>(k) == o.point) && !finished(dir / "points" / p.points[k].name)) todo.push_back(k);
-  if (o.point >= static_cast<int>(p.points.size()))
-    throw BadInput(fmt::format("terayee sweep: --point {} but the sweep has {} points", o.point, p.points.size()));
 
   std::vector<Job> runs;
   if (!o.no_runs) {

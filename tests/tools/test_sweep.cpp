@@ -42,6 +42,13 @@ TEST_CASE("sweep: three points, one reference, one table; a second call runs not
   REQUIRE(shell("( " + base + " 2> " + dir.string() + ".log )") == 0);
   CHECK(slurp(dir.string() + ".log").find("(0 to run)") != std::string::npos);
   fs::remove(dir.string() + ".log");
+  // a point that failed before its first checkpoint leaves a non-empty folder: the next call
+  // runs it again (--overwrite) instead of being refused by `run`'s folder rule
+  const fs::path p1 = dir / "points" / "0001_media.slab.permittivity=3";
+  fs::remove(p1 / "summary.json");
+  fs::remove(p1 / "checkpoint.h5");
+  REQUIRE(shell(base) == 0);
+  CHECK(fs::exists(p1 / "summary.json"));
   // another sweep into the same folder is refused (exit 2), nothing is overwritten
   CHECK(shell(std::string(TERAYEE_BINARY) + " sweep " + TERAYEE_SOURCE_DIR + "/tests/data/slab-airy.yaml -o " +
               dir.string() + " --vary 'media.slab.permittivity=5,6' > /dev/null 2>&1") == 2);
