@@ -22,6 +22,8 @@ Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   const GridSpec& G = scene.grid;
   g_ = grid_for(scene, static_cast<int>(64 / sizeof(R)));
   total_steps_ = steps_for(scene, g_);
+  StopPlan plan;
+  if (scene.time.auto_stop.on) total_steps_ = (plan = plan_stop(scene, g_.dt, total_steps_)).total;
   sx_ = static_cast<R>(c0 * g_.dt / g_.dx);
   sy_ = static_cast<R>(c0 * g_.dt / g_.dy);
   walls_ = Boundaries::of(G);
@@ -35,23 +37,32 @@ Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   build_magnets();
   build_pml(cb);
   build_sources(cb);
-  build_recorders();
+  build_recorders(plan);
+  stop_ = StopRule(scene.time.auto_stop, plan, power_spectra_, maps_);
   // a magnetic cell costs about 7 vacuum cells (docs/magnets.md): 1 + 6 more
   if (chosen <= 0) threads_ = threads_for_work(double(g_.nx) * g_.ny + 6.0 * mag_.count(), threads_);
 }
 
 template <class R>
-void Simulation<R>::build_recorders() {
+void Simulation<R>::build_recorders(const StopPlan& plan) {
   const std::vector<int> no_cells;
+  // a run of fixed length: maps over the second half, power spectra over the whole run
+  // (pulses) or its second half (cw); one that stops by itself: blocks (cw) or everything
+  const bool self = scene_.time.auto_stop.on;
+  const WindowRule on_own = plan.cw ? WindowRule::blocks : WindowRule::whole_run;
+  const int every = self ? plan.every : 0;
+  const long block = self ? plan.check : 0;
   for (const Output& o : scene_.outputs) {
     if (o.kind == Output::Kind::probe) {
       probes_.push_back(make_probe(o, g_, total_steps_, mag_.empty() ? no_cells : mag_.cell_of));
       bytes_ += probes_.back().raw.size() * sizeof(double);
     } else if (o.kind == Output::Kind::spectral_map) {
-      maps_.push_back(make_spectral_map(scene_, o, g_, total_steps_));
+      maps_.push_back(
+          make_spectral_map(scene_, o, g_, total_steps_, self ? on_own : WindowRule::last_half, every, block));
       bytes_ += maps_.back().acc.size() * sizeof(std::complex<double>);
     } else if (o.kind == Output::Kind::power_spectrum) {
-      power_spectra_.push_back(make_power_spectrum(scene_, o, g_, total_steps_));
+      power_spectra_.push_back(make_power_spectrum(scene_, o, g_, total_steps_,
+                                                   self ? on_own : power_spectrum_rule(scene_), every, block));
       bytes_ += power_spectra_.back().acc.size() * sizeof(std::complex<double>);
     } else {
       snaps_.build(scene_, o, g_, total_steps_);
@@ -168,7 +179,7 @@ void Simulation<R>::record() {
   const R* const F[6] = {Fm[0], Fm[1], Fm[2], Fm[3], Fm[4], Fm[5]};
   auto value = [this](const std::string& field, long cell) { return magnetic_value(field, cell); };
   for (auto& p : probes_) p.record(k, F, value);
-  for (auto& fl : power_spectra_) fl.record(k, total_steps_, F, g_.dt, threads_);
+  for (auto& fl : power_spectra_) fl.record(k, total_steps_, F, threads_);
   for (auto& m : maps_) m.record(k, total_steps_, F, g_, threads_);
   const std::vector<int> no_cells;
   snaps_.record(k, F, g_, mag_.empty() ? no_cells : mag_.cell_of, value, sink_);
@@ -178,6 +189,12 @@ template <class R>
 void Simulation<R>::advance() {
   step();
   record();
+}
+
+template <class R>
+bool Simulation<R>::settled() {
+  if (!stop_.due(n_)) return false;
+  return stop_.settled(n_, g_.dt, field_energy() + magnetic_energy(), power_spectra_, maps_);
 }
 
 template <class R>

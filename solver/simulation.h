@@ -29,6 +29,7 @@
 #include "solver/media/magnetic_cells.h"
 #include "solver/recorders/recorders.h"
 #include "solver/sources/waveform.h"
+#include "solver/stop_rule.h"
 
 namespace ty {
 
@@ -56,6 +57,10 @@ class Simulation {
   void step();
   /// One time step, then the recorders.
   void advance();
+  /// `stop: auto`: whether the run is done now (looked at every stop_rule().plan().check
+  /// steps; false between checks and for runs of fixed length).
+  bool settled();
+  const StopRule& stop_rule() const { return stop_; }
 
   R* field(Component c) { return f_[static_cast<int>(c)].data(); }
   const R* field(Component c) const { return f_[static_cast<int>(c)].data(); }
@@ -97,9 +102,11 @@ class Simulation {
     for (auto& fl : power_spectra_) fl.visit_state(f);
     for (auto& m : maps_) m.visit_state(f);
     snaps_.visit_state(f);
+    stop_.visit_state(f);
     f("clock/steps", &n_, 1);
     for (auto& p : probes_) p.count = n_;
     for (auto& fl : power_spectra_) fl.steps = n_;
+    for (auto& m : maps_) m.steps = n_;
     mag_.latest = static_cast<int>(n_ & 1);
   }
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
@@ -169,6 +176,7 @@ class Simulation {
   std::vector<SpectralMap> maps_;
   SnapshotRecorder<R> snaps_;
   SnapshotSink* sink_ = nullptr;
+  StopRule stop_;
   std::vector<int> medium_map_;
   int map_nx_ = 0, map_ny_ = 0;
   MagneticCells mag_;
@@ -189,7 +197,7 @@ class Simulation {
   void add_point_source(const Source& src, int signal, const std::vector<double> (&cb)[3]);
   /// A beam's or plane wave's one-sided total-field/scattered-field sheet.
   void add_launch_sheet(const Source& src, int signal, const std::vector<double> (&cb)[3]);
-  void build_recorders();
+  void build_recorders(const StopPlan& plan);
   void build_magnets();
   void step_fused();
   void step_magnetic();

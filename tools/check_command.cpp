@@ -15,6 +15,7 @@
 #include "materials/dielectric.h"
 #include "materials/magnetic/linear_response.h"
 #include "solver/grid/yee_grid.h"
+#include "solver/stop_rule.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -66,6 +67,7 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
     }
     std::vector<double> f;  // distinct lines (degenerate pairs listed once)
     std::string fl;
+    const std::vector<DampedMode> modes = damped_modes(M, gs.ground);
     for (double x : resonances(M, gs.ground)) {
       if (!f.empty() && std::abs(x / f.back() - 1) < 1e-9) {
         fl += " (twice)";
@@ -73,8 +75,15 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
       }
       f.push_back(x);
       fl += fmt::format("{}{:.4f} GHz", fl.empty() ? "" : ", ", x / 1e9);
+      // the ring-down of the damped mode nearest this line: a guess for a pulsed run's `stop`
+      const DampedMode* near = nullptr;
+      for (const auto& m : modes)
+        if (!near || std::abs(m.frequency - x) < std::abs(near->frequency - x)) near = &m;
+      if (near && near->decay > 0) fl += fmt::format(" (rings down by 1/e in {})", format_si(1.0 / near->decay, Kind::time));
     }
     std::cout << "    resonances: " << (fl.empty() ? "none" : fl) << "\n";
+    if (!f.empty())
+      std::cout << "      (a pulsed run that should hold its lines needs several ring-downs; 'stop: auto' decides by itself)\n";
     double lo = f_lo, hi = f_hi;
     if (!f.empty()) lo = std::min(lo, 0.8 * f.front()), hi = std::max(hi, 1.2 * f.back());
     if (!(hi > lo)) continue;
@@ -144,6 +153,14 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
                            nx, ny, G.dx * 1e6, G.dy * 1e6, ex, ey, boundary_name(G.bx), boundary_name(G.by));
   std::cout << fmt::format("  time: step {:.5g} fs (step-fraction {}), {} steps to {:.5g} ps\n", dt * 1e15, s.time.step_fraction,
                            steps, s.time.stop * 1e12);
+  if (s.time.auto_stop.on) {
+    const StopPlan p = plan_stop(s, dt, steps);
+    std::cout << fmt::format("  stop: auto ({}), looked at every {} steps ({:.4g} ps); the limit, {} steps ({:.5g} ps), "
+                             "is rounded down to whole checks\n",
+                             p.cw ? "cw: when two blocks of the spectra agree within the tolerance"
+                                  : "pulsed: when the energy and the spectra have settled",
+                             p.check, p.check * dt * 1e12, p.total, p.total * dt * 1e12);
+  }
   std::cout << fmt::format("  memory: about {:.1f} MB (fields, magnetic cells and recorders; {} precision)\n", mem / 1e6,
                            real == 4 ? "single" : "double");
   int warnings = 0;

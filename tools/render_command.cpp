@@ -46,8 +46,13 @@ class SnapshotSource {
       if (parts_.empty()) throw BadInput(fmt::format("{}: error: 'intensity' needs a recorded E component", file));
       units_ = "(V/m)^2";
     } else {
-      if (!h.exists("/snapshots/" + field_))
-        throw BadInput(fmt::format("{}: error: no snapshots of '{}' in the run", file, field_));
+      if (!h.exists("/snapshots/" + field_)) {
+        std::string recorded;
+        for (const auto& m : h.members("/snapshots"))
+          if (m != "time") recorded += (recorded.empty() ? "" : ", ") + m;
+        throw BadInput(fmt::format("{}: error: no snapshots of '{}' in the run; it recorded {} (--field)", file,
+                                   field_, recorded.empty() ? "none" : recorded));
+      }
       parts_ = {field_};
       units_ = h.read_attribute("/snapshots/" + field_, "units");
     }

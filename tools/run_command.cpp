@@ -104,6 +104,7 @@ struct Runner {
       if (const int sig = StopSignals::received()) return stop(n, sig);
       sim.advance();
       kill_point(KillPoint::step, n + 1);
+      if (sim.settled()) break;  // `stop: auto`: done before the limit
       if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
       const bool by_time = o.checkpoint_minutes > 0 &&
                            std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >
@@ -145,10 +146,45 @@ struct Runner {
   }
 };
 
+/// Why the run ended where it did (`stop: auto`: settled, or the limit reached first).
+template <class R>
+nlohmann::json stop_summary(const Scene& scene, const Simulation<R>& sim, Log& log, std::vector<std::string>& warnings) {
+  const double t = sim.time();
+  const StopRule& r = sim.stop_rule();
+  if (!r.on()) return {{"rule", "fixed"}, {"reason", "time.stop reached"}, {"at-step", sim.steps_done()}, {"at-time-s", t}};
+  nlohmann::json j = {{"rule", "auto"},
+                      {"kind", r.plan().cw ? "cw: spectra of successive blocks agree" : "pulsed: energy gone, spectra converged"},
+                      {"reason", r.done() ? "settled" : "limit reached before settling"},
+                      {"at-step", sim.steps_done()},
+                      {"at-time-s", t},
+                      {"limit-s", scene.time.stop},
+                      {"check-every-steps", r.plan().check},
+                      {"checks", r.checks()},
+                      {"largest-change", std::isfinite(r.largest_change()) ? r.largest_change() : -1.0},
+                      {"tolerance", scene.time.auto_stop.tolerance}};
+  if (!r.plan().cw) j["energy-left-fraction"] = r.energy_fraction(), j["energy-left-goal"] = scene.time.auto_stop.energy_left;
+  const std::string figures = fmt::format(
+      "largest change of the spectra between checks {:.3g} (tolerance {:g}){}", r.largest_change(),
+      scene.time.auto_stop.tolerance,
+      r.plan().cw ? std::string()
+                  : fmt::format(", energy left {:.3g} of its peak (goal {:g})", r.energy_fraction(),
+                                scene.time.auto_stop.energy_left));
+  if (r.done()) {
+    log.info(fmt::format("settled at t = {:.4g} ps (step {}): {}", t * 1e12, sim.steps_done(), figures));
+  } else {
+    const std::string w = fmt::format("the run reached its limit ({:.4g} ps) before settling: {}; a longer "
+                                      "'time.limit' (or a larger tolerance) would let it settle",
+                                      t * 1e12, figures);
+    log.warn(w);
+    warnings.push_back(w);
+  }
+  return j;
+}
+
 template <class R>
 nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, long first, double wall) {
   const YeeGrid& g = sim.grid();
-  const long N = sim.total_steps();
+  const long N = sim.steps_done();
   nlohmann::json s;
   s["terayee-version"] = TERAYEE_VERSION;
   s["title"] = scene.title;
@@ -171,6 +207,8 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
   s["warnings"] = warnings;
   s["notes"] = sim.notes();
   s["energy"] = {{"field-energy-at-end-J-per-m", sim.field_energy()}};
+  s["stop"] = stop_summary(scene, sim, log, warnings);
+  s["warnings"] = warnings;
   if (!sim.magnets().empty()) {
     const double cell_steps = static_cast<double>(sim.magnets().count()) * static_cast<double>(N - first);
     const double tilted = cell_steps > 0 ? sim.midpoint_cell_steps() / cell_steps : 0.0;
@@ -234,9 +272,10 @@ int run_with(const Scene& scene, const RunOptions& o) {
   try {
     if (const int rc = run.loop(); rc >= 0) return rc;
     const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+    if (sim.steps_done() < sim.total_steps()) folder.ended_at(sim.steps_done());
     const nlohmann::json s = make_summary(scene, sim, log, first, wall);
     folder.finish(sim.probes(), sim.power_spectra(), sim.spectral_maps(), g.dt, s);
-    log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", sim.total_steps(), hms(wall),
+    log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", sim.steps_done(), hms(wall),
                          s["cell-updates-per-s"].get<double>(), o.out));
   } catch (const BadInput&) {
     throw;

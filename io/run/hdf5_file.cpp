@@ -119,9 +119,11 @@ void File::create_frames(const std::string& path, hsize_t frames, hsize_t ny, hs
   make_groups(path);
   const hsize_t dims[3] = {frames, ny, nx};
   const hsize_t chunk[3] = {1, ny > 0 ? ny : 1, nx > 0 ? nx : 1};
-  Handle space(check(H5Screate_simple(3, dims, nullptr), "dataspace"), H5Sclose);
+  const bool chunked = frames > 0 && ny > 0 && nx > 0;
+  const hsize_t most[3] = {H5S_UNLIMITED, ny, nx};  // chunked series may be cut short (shrink_frames)
+  Handle space(check(H5Screate_simple(3, dims, chunked ? most : nullptr), "dataspace"), H5Sclose);
   Handle plist(check(H5Pcreate(H5P_DATASET_CREATE), "plist"), H5Pclose);
-  if (frames > 0 && ny > 0 && nx > 0) H5Pset_chunk(plist.id(), 3, chunk);
+  if (chunked) H5Pset_chunk(plist.id(), 3, chunk);
   // Every chunk is placed now, so writing a frame later changes only raw data, never the
   // file's metadata: a run killed between two checkpoints leaves a file that still opens.
   // (Every frame is written before a run completes, so no fill value is needed.)
@@ -132,6 +134,21 @@ void File::create_frames(const std::string& path, hsize_t frames, hsize_t ny, hs
                    "cannot create " + path + " in " + name_),
              H5Dclose);
   attribute(path, "units", units);
+}
+
+void File::shrink_frames(const std::string& path, hsize_t frames) {
+  Handle set(check(H5Dopen2(id(), path.c_str(), H5P_DEFAULT), "cannot open " + path), H5Dclose);
+  Handle fs(check(H5Dget_space(set.id()), "dataspace"), H5Sclose);
+  hsize_t dims[3];
+  if (H5Sget_simple_extent_ndims(fs.id()) != 3) throw std::runtime_error(path + " is not a frame series");
+  H5Sget_simple_extent_dims(fs.id(), dims, nullptr);
+  if (frames >= dims[0]) return;
+  dims[0] = frames;
+  check(H5Dset_extent(set.id(), dims), "cannot shorten " + path);
+}
+
+void File::remove(const std::string& path) {
+  check(H5Ldelete(id(), path.c_str(), H5P_DEFAULT), "cannot remove " + path);
 }
 
 template <class T>

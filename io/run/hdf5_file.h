@@ -45,6 +45,10 @@ class File {
   /// A dataset [frames][ny][nx] written one frame at a time, chunked per frame.
   void create_frames(const std::string& path, hsize_t frames, hsize_t ny, hsize_t nx, bool single,
                      const std::string& units);
+  /// Keeps the first `frames` frames of a frame series (a run that stopped by itself).
+  void shrink_frames(const std::string& path, hsize_t frames);
+  /// Unlinks a dataset or group (its space is not reclaimed).
+  void remove(const std::string& path);
   void write_frame(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const float* data);
   void write_frame(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const double* data);
 

@@ -75,6 +75,7 @@ RunFolder::~RunFolder() {
 void RunFolder::begin(const YeeGrid& g, const SnapshotPlan& plan, bool single, const std::vector<int>& medium_map,
                       int map_nx, int map_ny) {
   plan_ = plan;
+  frames_planned_ = plan.steps.size();
   single_ = single;
   if (resume_) {  // the datasets exist; frames go on where the checkpoint left them
     h5_ = std::make_unique<h5::File>(h5::File::open_rw(path(kPartial)));
@@ -130,6 +131,11 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
   fs::copy_file(path(kPartial), tmp, fs::copy_options::overwrite_existing);
   h5_ = std::make_unique<h5::File>(h5::File::open_rw(tmp));
   h5::File& f = *h5_;
+  if (frames_planned_ > plan_.steps.size()) {  // stopped by itself before the last planned frames
+    for (const auto& sf : plan_.fields) f.shrink_frames("/snapshots/" + sf.name, plan_.steps.size());
+    f.remove("/snapshots/time");
+    f.write("/snapshots/time", {plan_.times.size()}, plan_.times.data(), "s");
+  }
   for (const auto& m : maps) {
     const std::string base = "/spectral-maps/" + m.name;
     f.write(base + "/frequency", {m.freq.size()}, m.freq.data(), "Hz");
@@ -165,16 +171,24 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
   }
   for (const auto& fl : power_spectra) {
     const std::string base = "/power-spectra/" + fl.name;
-    const double T = fl.steps * dt;
-    const auto P = line_power(fl, [&](size_t a, size_t b, int c) { return fl.field(a, b, c, T); });
+    const auto P = line_power(fl, [&](size_t a, size_t b, int c) { return fl.field(a, b, c); });
     f.write(base + "/frequency", {fl.freq.size()}, fl.freq.data(), "Hz");
     f.write(base + "/power", {P.size()}, P.data(), "W/m");
     f.attribute(base + "/power", "meaning",
                 "net power through the line towards its normal, for a steady wave with the recorded spectrum's "
-                "amplitude ((2/T) normalisation, T the run's length)");
-    std::vector<double> re(fl.acc.size()), im(fl.acc.size()), px, py;
-    for (size_t k = 0; k < fl.acc.size(); ++k) re[k] = fl.acc[k].real() * 2 / T, im[k] = fl.acc[k].imag() * 2 / T;
+                "amplitude ((2/T) normalisation, T each frequency's window)");
+    std::vector<double> window(fl.freq.size());
+    for (size_t k = 0; k < fl.freq.size(); ++k) window[k] = fl.win.seconds(k, dt);
+    f.write(base + "/window", {window.size()}, window.data(), "s");
+    f.attribute(base + "/window", "meaning",
+                "each frequency's DFT window, ending with the run's last step (the whole run when every source is a "
+                "pulse; else whole periods in the run's second half, or the last block of a run that stopped itself)");
     const hsize_t np = fl.points.size();
+    std::vector<double> re(fl.acc.size()), im(fl.acc.size()), px, py;
+    for (size_t k = 0; k < fl.acc.size(); ++k) {
+      const auto v = fl.field(k / (np * 6), k / 6 % np, static_cast<int>(k % 6));
+      re[k] = v.real(), im[k] = v.imag();
+    }
     f.write(base + "/fields/real", {fl.freq.size(), np, 6}, re.data(), "V/m (E), A/m (H)");
     f.write(base + "/fields/imag", {fl.freq.size(), np, 6}, im.data(), "V/m (E), A/m (H)");
     f.attribute(base + "/fields/real", "layout", "[frequency][point][Ex Ey Ez Hx Hy Hz]");
@@ -210,6 +224,13 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
   fs::remove(path("checkpoint.h5"), ec);
   fs::remove(path(kPartial), ec);
   done_ = true;
+}
+
+void RunFolder::ended_at(long steps) {
+  std::size_t keep = 0;
+  while (keep < plan_.steps.size() && plan_.steps[keep] < steps) ++keep;
+  plan_.steps.resize(keep);
+  plan_.times.resize(keep);
 }
 
 void RunFolder::flush() {

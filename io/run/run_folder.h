@@ -44,6 +44,9 @@ class RunFolder : public SnapshotSink {
   /// Writes the probes, closes the HDF5 file, renames it, writes fields.xmf and summary.json.
   void finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
               const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary);
+  /// A run that stopped by itself after `steps` steps: the frames planned after it are left
+  /// out of fields.h5 and fields.xmf when the run finishes.
+  void ended_at(long steps);
   /// Closes a run that did not complete. The checkpoint is never removed, nor the
   /// partial results that go with it; without a checkpoint they are removed.
   void abandon();
@@ -55,6 +58,7 @@ class RunFolder : public SnapshotSink {
   const Scene& scene_;
   std::unique_ptr<h5::File> h5_;
   SnapshotPlan plan_;
+  std::size_t frames_planned_ = 0;  ///< frames in fields.h5's series (plan_ may end earlier: ended_at)
   bool single_ = false;
   bool done_ = false;
   bool resume_ = false;

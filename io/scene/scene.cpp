@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace ty {
 
@@ -47,6 +48,15 @@ Band2 source_band(const Source& s) {
       return {std::min(s.waveform.from, s.waveform.to), std::max(s.waveform.from, s.waveform.to)};
   }
   return {s.frequency, s.frequency};
+}
+
+double source_end(const Source& s) {
+  switch (s.waveform.kind) {
+    case Waveform::Kind::cw: return std::numeric_limits<double>::infinity();
+    case Waveform::Kind::pulse: return s.waveform.delay + 6.0 * s.waveform.fwhm / (2.0 * std::sqrt(std::log(2.0)));
+    case Waveform::Kind::chirp: return s.waveform.length;
+  }
+  return std::numeric_limits<double>::infinity();
 }
 
 Scene reference_scene(const Scene& s) {

@@ -49,8 +49,18 @@ struct GridSpec {
 
 enum class Precision { double_, single };
 
+/// `time.stop: auto`: the run decides when it is done (solver/stop_rule.h), within `limit`.
+struct AutoStop {
+  bool on = false;
+  double energy_left = 1e-5;  ///< pulsed: stop when the energy left is below this fraction of its peak
+  double tolerance = 1e-3;    ///< the spectra's largest change between two checks, relative to their largest value
+  double check_every = 0;     ///< s between checks (cw: the length of each DFT window); 0 = automatic
+  Mark where;                 ///< `stop: auto`
+};
+
 struct TimeSpec {
-  double stop = 0;       ///< s
+  double stop = 0;       ///< s; with `stop: auto`, the limit (the latest the run may stop)
+  AutoStop auto_stop;
   double step_fraction = 0.95; ///< the time step as a fraction of the 2D stability limit
   Precision precision = Precision::double_;
   int threads = 0;       ///< 0 = auto
@@ -176,6 +186,9 @@ struct Band2 {
   double lo = 0, hi = 0;
 };
 Band2 source_band(const Source& s);
+/// When a source has stopped for good, s: a pulse's Gaussian envelope 6 standard deviations
+/// after its peak (below 1.6e-8 of it), a chirp's end; infinity for cw.
+double source_end(const Source& s);
 
 /// The scene of a reference run: without the bodies marked `sample: true`, or, where none
 /// is marked, without every body that holds no source (a point source inside it, or the

@@ -100,8 +100,15 @@ std::string resolved_scene_yaml(const Scene& s) {
     << q(a.alpha_max, Kind::conductivity) << YAML::EndMap;
   e << YAML::Key << "origin" << YAML::Value << (s.grid.origin_corner ? "corner" : "centre");
   e << YAML::EndMap;
-  e << YAML::Key << "time" << YAML::Value << YAML::BeginMap << YAML::Key << "stop" << YAML::Value
-    << q(s.time.stop, Kind::time) << YAML::Key << "step-fraction" << YAML::Value << s.time.step_fraction << YAML::Key
+  e << YAML::Key << "time" << YAML::Value << YAML::BeginMap << YAML::Key << "stop" << YAML::Value;
+  if (const AutoStop& a = s.time.auto_stop; a.on) {
+    e << "auto" << YAML::Key << "limit" << YAML::Value << q(s.time.stop, Kind::time) << YAML::Key << "energy-left"
+      << YAML::Value << a.energy_left << YAML::Key << "tolerance" << YAML::Value << a.tolerance;
+    if (a.check_every > 0) e << YAML::Key << "check-every" << YAML::Value << q(a.check_every, Kind::time);
+  } else {
+    e << q(s.time.stop, Kind::time);
+  }
+  e << YAML::Key << "step-fraction" << YAML::Value << s.time.step_fraction << YAML::Key
     << "precision" << YAML::Value << (s.time.precision == Precision::single ? "single" : "double") << YAML::Key
     << "threads" << YAML::Value;
   if (s.time.threads > 0) e << s.time.threads; else e << "auto";

@@ -197,6 +197,19 @@ void check_launch(const Scene& s, Diagnostics& d) {
   }
 }
 
+/// `stop: auto` with a source that never ends decides by its spectra: it needs one.
+void check_auto_stop(const Scene& s, Diagnostics& d) {
+  if (!s.time.auto_stop.on) return;
+  const bool cw = std::any_of(s.sources.begin(), s.sources.end(),
+                              [](const Source& src) { return !std::isfinite(source_end(src)); });
+  const bool spectra = std::any_of(s.outputs.begin(), s.outputs.end(), [](const Output& o) {
+    return o.kind == Output::Kind::power_spectrum || o.kind == Output::Kind::spectral_map;
+  });
+  if (cw && !spectra)
+    d.error(s.time.auto_stop.where, "'stop: auto' with a cw source stops when its power spectra or spectral maps are steady, "
+                          "and this scene records neither: add one, or give 'time.stop' as a time");
+}
+
 void warn_plane_sides(const Scene& s, std::vector<std::string>& w) {
   for (const auto& src : s.sources) {
     if (src.kind != Source::Kind::plane) continue;
@@ -242,6 +255,7 @@ std::vector<std::string> validate_scene(const Scene& s, double memory_limit) {
   if (d.empty()) check_memory(z, memory_limit, d);  // past the integers, the memory adds nothing
   check_placement(s, d);
   if (d.empty()) check_launch(s, d);
+  check_auto_stop(s, d);
   d.throw_if_any();
   std::vector<std::string> w;
   warn_plane_sides(s, w);

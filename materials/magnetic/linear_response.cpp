@@ -67,6 +67,21 @@ std::vector<double> resonances(const MagnetModel& M, const MagneticState& st) {
   return f;
 }
 
+std::vector<DampedMode> damped_modes(const MagnetModel& M, const MagneticState& st) {
+  const Linearised lin = linearise(M, st);
+  const int N = 3 * M.n;
+  const Eigen::MatrixXd A = (Eigen::MatrixXd::Identity(N, N) - lin.D).partialPivLu().solve(lin.L);
+  Eigen::EigenSolver<Eigen::MatrixXd> es(A);
+  const auto ev = es.eigenvalues();
+  double scale = 0;
+  for (int k = 0; k < ev.size(); ++k) scale = std::max(scale, std::abs(ev[k]));
+  std::vector<DampedMode> modes;
+  for (int k = 0; k < ev.size(); ++k)
+    if (ev[k].imag() > 1e-6 * scale) modes.push_back({ev[k].imag() / (2 * constants::pi), -ev[k].real()});
+  std::sort(modes.begin(), modes.end(), [](const DampedMode& a, const DampedMode& b) { return a.frequency < b.frequency; });
+  return modes;
+}
+
 std::vector<Band> negative_bands(const std::function<double(double)>& value, double f0, double f1, int samples) {
   std::vector<Band> bands;
   auto edge = [&](double a, double b) {  // sign change in [a, b]

@@ -37,6 +37,18 @@ Mat3c susceptibility(const MagnetModel& model, const MagneticState& st, double o
 /// largest, where round-off puts the rotation of a degenerate state) are left out.
 std::vector<double> resonances(const MagnetModel& model, const MagneticState& st);
 
+/// A damped normal mode: dm ~ exp((-decay + i 2 pi frequency) t).
+struct DampedMode {
+  double frequency = 0;  ///< Hz
+  double decay = 0;      ///< 1/s: the amplitude's rate, so a ring-down falls by e in 1/decay
+};
+/// The damped modes of the linearised equations, (I - D) d(dm)/dt = L dm, in ascending
+/// frequency (zero modes left out as in resonances()). For one isotropic sublattice in a
+/// field B this is Kittel's uniform precession with Gilbert damping: frequency
+/// gamma B / (2 pi (1 + alpha^2)), decay alpha gamma B / (1 + alpha^2) (Gilbert, IEEE
+/// Trans. Magn. 40, 3443 (2004): the small-angle solution of his equation).
+std::vector<DampedMode> damped_modes(const MagnetModel& model, const MagneticState& st);
+
 struct Band {
   double from = 0, to = 0;  ///< Hz
 };

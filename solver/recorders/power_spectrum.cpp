@@ -6,7 +6,8 @@
 
 namespace ty {
 
-PowerSpectrumRecorder make_power_spectrum(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
+PowerSpectrumRecorder make_power_spectrum(const Scene& s, const Output& o, const YeeGrid& g, long total_steps,
+                                          WindowRule rule, int every, long block) {
   PowerSpectrumRecorder r;
   r.name = o.name;
   const double dx = o.to.x - o.from.x, dy = o.to.y - o.from.y, len = std::hypot(dx, dy);
@@ -22,10 +23,18 @@ PowerSpectrumRecorder make_power_spectrum(const Scene& s, const Output& o, const
   }
   for (int k = 0; k < o.count; ++k)
     r.freq.push_back(o.count == 1 ? o.band_from : o.band_from + (o.band_to - o.band_from) * k / (o.count - 1));
-  r.every = dft_every(s, std::max(o.band_from, o.band_to), g.dt, total_steps);
+  if (every <= 0) every = dft_every(s, std::max(o.band_from, o.band_to), g.dt, total_steps);
+  r.win = make_windows(r.freq, rule, total_steps, g.dt, every, block);
+  r.dt = g.dt;
   r.acc.assign(r.freq.size() * r.points.size() * 6, 0.0);
   r.value.assign(r.points.size() * 6, 0.0);
   return r;
+}
+
+WindowRule power_spectrum_rule(const Scene& s) {
+  for (const Source& src : s.sources)
+    if (!std::isfinite(source_end(src))) return WindowRule::last_half;
+  return WindowRule::whole_run;
 }
 
 }  // namespace ty

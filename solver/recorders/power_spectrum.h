@@ -4,12 +4,15 @@
 /// frequency follows (and, given a reference run, the scattered part).
 ///
 /// Each component is transformed at its own time level (E at (n+1) dt, H at (n+1/2) dt),
-/// X(f) = (2/T) sum_n x(t_n) exp(+i 2 pi f t_n) M dt over every M-th step (dft_every) with
-/// T the run's length, so that a steady wave of amplitude A gives |X| = A (the
-/// exp(-i w t) convention of the outputs).
+/// X(f) = (2/T) sum_n x(t_n) exp(+i 2 pi f t_n) M dt over every M-th step (dft_every) in
+/// the frequency's window of length T, so that a steady wave of amplitude A gives |X| = A
+/// (the exp(-i w t) convention of the outputs). The window is the whole run when every
+/// source is a pulse; with a cw source, the last whole number of each frequency's periods in
+/// the run's second half, as for spectral maps (sampling.h, DftWindows).
 /// The power is P(f) = sum_points w 1/2 Re[(E x H*) . n], w the line length a point
 /// stands for and n = z x (to - from)/|to - from|, in W/m.
 #pragma once
+#include <algorithm>
 #include <array>
 #include <cmath>
 #include <complex>
@@ -32,28 +35,31 @@ struct PowerSpectrumRecorder {
   std::vector<std::array<PointStencil, 6>> stencil;
   std::vector<std::complex<double>> acc;        ///< [f][point][component], sum of x exp(i w t) dt
   std::vector<double> value;                    ///< this step's six values per point (scratch)
-  long steps = 0;
-  int every = 1;  ///< steps between samples (dft_every), ending with the run's last step
+  DftWindows win;
+  long steps = 0;  ///< steps recorded so far
+  double dt = 0;
 
-  std::complex<double> field(std::size_t f, std::size_t p, int c, double run_time) const {
-    return acc[(f * points.size() + p) * 6 + c] * (2.0 / run_time);
+  std::complex<double> field(std::size_t f, std::size_t p, int c) const {
+    return acc[(f * points.size() + p) * 6 + c] * (2.0 / win.seconds(f, dt));
   }
 
   /// After step k of total: on a sampling step, adds each component at its own time
   /// (E at (k+1) dt, H at (k+1/2) dt) to the sums; the frequencies split over the threads.
   template <class R>
-  void record(long k, long total, const R* const* F, double dt, int threads) {
+  void record(long k, long total, const R* const* F, int threads) {
     steps = k + 1;
-    if ((total - 1 - k) % every != 0) return;  // not a sampling step
+    if (win.restarts(k)) std::fill(acc.begin(), acc.end(), std::complex<double>{});
+    if (!win.sampled(k, total)) return;
     const size_t np = points.size();
     for (size_t p = 0; p < np; ++p)
       for (int c = 0; c < 6; ++c) value[p * 6 + c] = c < 3 ? stencil[p][c](F[c]) : stencil[p][c](F[c]) / constants::eta0;
-    const double te = (k + 1) * dt, th = (k + 0.5) * dt, w_dt = dt * every;
+    const double te = (k + 1) * dt, th = (k + 0.5) * dt, w_dt = dt * win.every;
     std::complex<double>* sums = acc.data();
     const double* val = value.data();
     const double* fr = freq.data();
 #pragma omp parallel for schedule(static) num_threads(threads)
     for (long fi = 0; fi < static_cast<long>(freq.size()); ++fi) {
+      if (!win.inside(static_cast<std::size_t>(fi), k, total)) continue;
       const double w = 2 * constants::pi * fr[fi];
       const std::complex<double> pe = std::polar(w_dt, w * te), ph = std::polar(w_dt, w * th);
       std::complex<double>* a = sums + static_cast<size_t>(fi) * np * 6;
@@ -69,8 +75,12 @@ struct PowerSpectrumRecorder {
   }
 };
 
-/// Points one cell apart (or closer) along the output's line.
-PowerSpectrumRecorder make_power_spectrum(const Scene& s, const Output& o, const YeeGrid& g, long total_steps);
+/// Points one cell apart (or closer) along the output's line. every = 0: the sampling interval
+/// chosen from the window; rule and block as for spectral maps (`stop: auto` runs).
+PowerSpectrumRecorder make_power_spectrum(const Scene& s, const Output& o, const YeeGrid& g, long total_steps,
+                                          WindowRule rule, int every = 0, long block = 0);
+/// The window rule of a run of fixed length: whole_run when every source is a pulse, else last_half.
+WindowRule power_spectrum_rule(const Scene& s);
 
 /// Net power per frequency through the line, W/m, from the (optionally differenced)
 /// transformed fields E, H (H in A/m) given as a function of (f, point, component).

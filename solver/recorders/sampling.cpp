@@ -14,6 +14,33 @@ int dft_every(const Scene& s, double f_max, double dt, long window_steps) {
   return static_cast<int>(std::max(1L, std::min(by_band, window_steps / 400)));
 }
 
+long DftWindows::first(long total) const {
+  long k = total;
+  for (long L : length) k = std::min(k, L == 0 ? 0 : total - L);
+  return k;
+}
+
+DftWindows make_windows(const std::vector<double>& freq, WindowRule rule, long total, double dt, int every,
+                        long block) {
+  DftWindows w;
+  w.every = every;
+  w.block = rule == WindowRule::blocks ? block : 0;
+  w.planned = total;
+  const double span = rule == WindowRule::blocks ? block * dt : 0.5 * total * dt;  // the time a window must fit in
+  for (double f : freq) {
+    if (rule == WindowRule::whole_run) {
+      w.length.push_back(0);
+      continue;
+    }
+    // the last whole number of periods that fits, rounded to whole sampling intervals
+    const double periods = std::floor(span * f);
+    const double win = periods >= 1 ? periods / f : (rule == WindowRule::blocks ? block : total) * dt;
+    const long cap = (rule == WindowRule::blocks ? block : total) / every * every;
+    w.length.push_back(std::clamp(every * std::lround(win / (every * dt)), static_cast<long>(every), std::max(cap, static_cast<long>(every))));
+  }
+  return w;
+}
+
 PointStencil point_stencil(const YeeGrid& g, Component c, Vec2 p) {
   const double fi = g.fi(c, p.x), fj = g.fj(c, p.y);
   int i = static_cast<int>(std::floor(fi)), j = static_cast<int>(std::floor(fj));

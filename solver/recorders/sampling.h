@@ -4,6 +4,7 @@
 #pragma once
 #include <array>
 #include <string>
+#include <vector>
 
 #include "io/scene/scene.h"
 #include "solver/grid/yee_grid.h"
@@ -18,6 +19,43 @@ namespace ty {
 /// sum with weight M dt is the same Riemann sum of the Fourier integral. M is also kept at
 /// most window / 400, so short windows sample every step.
 int dft_every(const Scene& s, double f_max, double dt, long window_steps);
+
+/// Where each frequency of a running DFT sums, and over how long it is normalised. Samples
+/// are the steps k with (total - 1 - k) % every == 0 (the last step always among them).
+/// A frequency's window is the `length` steps that end with the run's last step, or, with
+/// blocks (runs that stop by themselves, cw), the `length` steps that end with each
+/// multiple of `block`: the sums restart at every block, so at a block's end they hold that
+/// block's DFT alone. length 0 = every step since the first, normalised by the run's
+/// planned length (a self-stopping run's limit), so that runs of one scene that stop at
+/// different steps still share one normalisation.
+struct DftWindows {
+  int every = 1;
+  long block = 0;
+  long planned = 0;          ///< the run's planned steps
+  std::vector<long> length;  ///< per frequency, steps
+
+  bool sampled(long k, long total) const { return (total - 1 - k) % every == 0; }
+  bool inside(std::size_t f, long k, long total) const {
+    if (length[f] == 0) return true;
+    const long end = block > 0 ? (k / block + 1) * block : total;
+    return k >= end - length[f];
+  }
+  /// The sums restart before step k.
+  bool restarts(long k) const { return block > 0 && k > 0 && k % block == 0; }
+  /// Normalisation time of frequency f, s.
+  double seconds(std::size_t f, double dt) const { return (length[f] == 0 ? planned : length[f]) * dt; }
+  /// The earliest step anything sums at in a run of `total` steps without blocks.
+  long first(long total) const;
+};
+
+/// How a recorder's DFT windows are laid out.
+enum class WindowRule {
+  whole_run,        ///< everything from step 0 (pulsed runs)
+  last_half,        ///< per frequency, the last whole number of its periods in the run's second half (cw)
+  blocks,           ///< per frequency, whole periods at the end of each block (cw runs that stop by themselves)
+};
+/// every: the sampling interval; block: the block length (blocks only; a multiple of every).
+DftWindows make_windows(const std::vector<double>& freq, WindowRule rule, long total, double dt, int every, long block);
 
 /// Bilinear interpolation stencil of one component at a point.
 struct PointStencil {

@@ -9,7 +9,8 @@
 
 namespace ty {
 
-SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
+SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g, long total_steps, WindowRule rule,
+                              int every, long block) {
   SpectralMap m;
   m.name = o.name;
   m.fields = o.fields;
@@ -31,19 +32,12 @@ SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g,
   for (int a = 0; a < m.ni; ++a) m.x.push_back(g.x(Component::Ez, ia + a * o.stride) - s.origin_shift.x);
   for (int b = 0; b < m.nj; ++b) m.y.push_back(g.y(Component::Ez, ja + b * o.stride) - s.origin_shift.y);
   m.freq = o.frequencies;
-  const double half = 0.5 * total_steps * g.dt;
   double f_max = 0;
   for (double f : m.freq) f_max = std::max(f_max, f);
-  m.every = dft_every(s, f_max, g.dt, static_cast<long>(half / g.dt));
-  const long every = m.every;
-  for (double f : m.freq) {
-    const double periods = std::floor(half * f);
-    const double win = periods >= 1 ? periods / f : total_steps * g.dt;
-    const long steps = std::clamp(every * std::lround(win / (every * g.dt)), every, total_steps / every * every);
-    m.first_step.push_back(total_steps - steps);
-    m.window.push_back(steps * g.dt);
-  }
-  m.start = m.first_step.empty() ? total_steps : *std::min_element(m.first_step.begin(), m.first_step.end());
+  if (every <= 0) every = dft_every(s, f_max, g.dt, static_cast<long>(0.5 * total_steps * g.dt / g.dt));
+  m.win = make_windows(m.freq, rule, total_steps, g.dt, every, block);
+  m.start = m.win.block > 0 ? 0 : m.win.first(total_steps);
+  m.dt = g.dt;
   m.acc.assign(m.freq.size() * static_cast<std::size_t>(m.ni) * m.nj * 6, 0.0);
   m.value.assign(static_cast<std::size_t>(m.ni) * m.nj * 6, 0.0);
   return m;

@@ -8,8 +8,11 @@
 /// level. Each frequency is accumulated over the last whole number of its periods that fits
 /// in the second half of the run (so cw ramps and transits are left out; rounded to a whole
 /// number of sampling intervals, dft_every) and normalised by 2/window, so that a steady
-/// wave of amplitude A gives |X| = A whatever the run length.
+/// wave of amplitude A gives |X| = A whatever the run length. A run that stops by itself
+/// (`stop: auto`) sums over blocks instead (cw: whole periods at the end of each block, the
+/// last complete block kept; pulsed: the whole run): sampling.h, DftWindows.
 #pragma once
+#include <algorithm>
 #include <complex>
 #include <string>
 #include <vector>
@@ -18,6 +21,7 @@
 #include "io/scene/units.h"
 #include "solver/grid/node_average.h"
 #include "solver/grid/yee_grid.h"
+#include "solver/recorders/sampling.h"
 
 namespace ty {
 
@@ -25,16 +29,16 @@ struct SpectralMap {
   std::string name;
   std::vector<std::string> fields;
   std::vector<double> freq;          ///< Hz
-  std::vector<long> first_step;      ///< per frequency: the step its window starts at
-  long start = 0;                    ///< the earliest of them
-  std::vector<double> window;        ///< per frequency: the window's length, s
+  DftWindows win;                    ///< per frequency: where it sums and its normalisation
+  long start = 0;                    ///< no window sums before this step
+  long steps = 0;                    ///< steps recorded so far
+  double dt = 0;
   int i0 = 0, j0 = 0, ni = 0, nj = 0, stride = 1;  ///< Ez nodes of the region
-  int every = 1;                     ///< steps between samples (dft_every), ending with the last step
   std::vector<double> x, y;          ///< their positions, user coordinates
   std::vector<std::complex<double>> acc;  ///< [f][point][component]
   std::vector<double> value;         ///< this step's six averaged values per point (scratch)
   std::complex<double> field(std::size_t f, std::size_t p, int c) const {
-    return acc[(f * static_cast<std::size_t>(ni) * nj + p) * 6 + c] * (2.0 / window[f]);
+    return acc[(f * static_cast<std::size_t>(ni) * nj + p) * 6 + c] * (2.0 / win.seconds(f, dt));
   }
 
   /// After step k of total: on a sampling step inside a window, adds each averaged
@@ -42,7 +46,9 @@ struct SpectralMap {
   /// threads.
   template <class R>
   void record(long k, long total, const R* const* F, const YeeGrid& g, int threads) {
-    if (k < start || (total - 1 - k) % every != 0) return;
+    steps = k + 1;
+    if (win.restarts(k)) std::fill(acc.begin(), acc.end(), std::complex<double>{});
+    if (k < start || !win.sampled(k, total)) return;
     const size_t np = static_cast<size_t>(ni) * nj;
     const EzNodeAverage average{g.stride};
     for (int b = 0; b < nj; ++b)
@@ -51,9 +57,9 @@ struct SpectralMap {
         average(F, g.at(i0 + a * stride, j0 + b * stride), v);
         for (int c = 3; c < 6; ++c) v[c] /= constants::eta0;
       }
-    const double te = (k + 1) * g.dt, th = (k + 0.5) * g.dt, w_dt = g.dt * every;
+    const double te = (k + 1) * g.dt, th = (k + 0.5) * g.dt, w_dt = g.dt * win.every;
     for (size_t fi = 0; fi < freq.size(); ++fi) {
-      if (k < first_step[fi]) continue;
+      if (!win.inside(fi, k, total)) continue;
       const double w = 2 * constants::pi * freq[fi];
       const std::complex<double> pe = std::polar(w_dt, w * te), ph = std::polar(w_dt, w * th);
       std::complex<double>* sums = acc.data() + fi * np * 6;
@@ -71,6 +77,9 @@ struct SpectralMap {
   }
 };
 
-SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g, long total_steps);
+/// rule: last_half for a run of fixed length; blocks (of `block` steps, sampled every `every`)
+/// or whole_run for one that stops by itself (every = 0: chosen from the window).
+SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g, long total_steps,
+                              WindowRule rule = WindowRule::last_half, int every = 0, long block = 0);
 
 }  // namespace ty

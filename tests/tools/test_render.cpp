@@ -140,6 +140,14 @@ TEST_CASE("render: a frame decoded from PNG has the field's colours, the bodies'
   for (const auto& e : fs::directory_iterator(run / "still"))
     stills += e.path().filename().string().rfind("Ez-t9.9", 0) == 0 || e.path().filename().string().rfind("Ez-t10", 0) == 0;
   CHECK(stills == 1);
+
+  // a field the run did not record: exit 2, naming what it did record
+  const std::string err = (run / "missing-field.txt").string();
+  CHECK(std::system((kBinary + " render '" + run.string() + "' --field Mz > '" + err + "' 2>&1").c_str()) != 0);
+  std::ifstream in(err);
+  const std::string said((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+  CHECK(said.find("no snapshots of 'Mz'") != std::string::npos);
+  CHECK(said.find("it recorded Ez") != std::string::npos);
 }
 
 TEST_CASE("render: the movie is H.264 in yuv420p with every frame, at the frame's size") {

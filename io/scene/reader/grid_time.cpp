@@ -180,11 +180,19 @@ void SceneBuilder::read_boundaries(const YAML::Node& g) {
 
 void SceneBuilder::read_time(const YAML::Node& t) {
   if (t["courant"]) r_.error(t["courant"], "'time.courant' is now called 'time.step-fraction' (same meaning)");
-  r_.allow(t, {"stop", "step-fraction", "courant", "precision", "threads"}, "time");
+  r_.allow(t, {"stop", "limit", "energy-left", "tolerance", "check-every", "step-fraction", "courant", "precision",
+               "threads"},
+           "time");
   r_.require(t, "stop", "time");
   scene_.time.where = r_.mark(t["stop"] ? t["stop"] : t);
-  if (t["stop"])
-    if (auto v = r_.positive(t["stop"], "time.stop", Kind::time, 0, common_period_)) scene_.time.stop = *v;
+  if (t["stop"] && t["stop"].IsScalar() && t["stop"].Scalar() == "auto") {
+    read_auto_stop(t);
+  } else {
+    for (const char* k : {"limit", "energy-left", "tolerance", "check-every"})
+      if (t[k]) r_.error(t[k], fmt::format("'time.{}' belongs to 'stop: auto'; this run stops at 'time.stop'", k));
+    if (t["stop"])
+      if (auto v = r_.positive(t["stop"], "time.stop", Kind::time, 0, common_period_)) scene_.time.stop = *v;
+  }
   if (t["step-fraction"])
     if (auto v = r_.quantity(t["step-fraction"], "time.step-fraction", Kind::dimensionless)) {
       if (!(*v > 0 && *v < 1))
@@ -201,6 +209,30 @@ void SceneBuilder::read_time(const YAML::Node& t) {
     else if (auto v = r_.integer(t["threads"], "time.threads", 1, 4096))
       scene_.time.threads = *v;
   }
+}
+
+void SceneBuilder::read_auto_stop(const YAML::Node& t) {
+  AutoStop& a = scene_.time.auto_stop;
+  a.on = true;
+  a.where = r_.mark(t["stop"]);
+  if (!t["limit"]) {
+    r_.error(t["stop"], "'stop: auto' needs 'time.limit', the latest the run may stop (e.g. limit: 2 ns)");
+  } else {
+    scene_.time.where = r_.mark(t["limit"]);
+    if (auto v = r_.positive(t["limit"], "time.limit", Kind::time, 0, common_period_)) scene_.time.stop = *v;
+  }
+  if (t["energy-left"])
+    if (auto v = r_.quantity(t["energy-left"], "time.energy-left", Kind::dimensionless)) {
+      if (!(*v > 0 && *v < 1)) r_.error(t["energy-left"], fmt::format("'time.energy-left' must lie in (0, 1), got {}", *v));
+      a.energy_left = *v;
+    }
+  if (t["tolerance"])
+    if (auto v = r_.quantity(t["tolerance"], "time.tolerance", Kind::dimensionless)) {
+      if (!(*v > 0 && *v < 1)) r_.error(t["tolerance"], fmt::format("'time.tolerance' must lie in (0, 1), got {}", *v));
+      a.tolerance = *v;
+    }
+  if (t["check-every"])
+    if (auto v = r_.positive(t["check-every"], "time.check-every", Kind::time, 0, common_period_)) a.check_every = *v;
 }
 
 }  // namespace ty::reader

@@ -124,6 +124,7 @@ class SceneBuilder {
   bool read_cell(const YAML::Node& g);
   void read_boundaries(const YAML::Node& g);
   void read_time(const YAML::Node& t);
+  void read_auto_stop(const YAML::Node& t);  ///< `stop: auto` and its keys
   // bodies.cpp
   void read_body(const YAML::Node& b);
   bool read_body_medium(const YAML::Node& b, Body& body);
