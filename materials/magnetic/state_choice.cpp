@@ -58,11 +58,11 @@ ChosenState choose_state(const Magnet& magnet, const std::array<double, 3>& bias
   } else {
     while (k < all.size() && all[k].kind != pick) ++k;
     if (k == all.size())
-      throw BadInput(Diagnostic{magnet.state.where,
-                                fmt::format("'state: {}': under this bias no {} state exists (`terayee check` "
-                                            "lists the states)",
-                                            pick, pick)}
-                         .text());
+      throw BadInput(
+          Diagnostic{magnet.state.where, fmt::format("'state: {}': under this bias no {} state exists (`terayee check` "
+                                                     "lists the states)",
+                                                     pick, pick)}
+              .text());
   }
   return {all[k], fmt::format("{}, chosen by 'state: {}'", label(k), pick)};
 }

@@ -10,16 +10,17 @@ namespace ty {
 Rot3 cut_rotation(char axis) {
   // columns: where a, b, c go
   switch (axis) {
-    case 'a': return Rot3{{{0, 1, 0}, {0, 0, 1}, {1, 0, 0}}};  // a -> z, b -> x, c -> y
-    case 'b': return Rot3{{{0, 0, 1}, {1, 0, 0}, {0, 1, 0}}};  // b -> z, c -> x, a -> y
-    default: return Rot3{{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}}};
+    case 'a':
+      return Rot3{{{0, 1, 0}, {0, 0, 1}, {1, 0, 0}}};  // a -> z, b -> x, c -> y
+    case 'b':
+      return Rot3{{{0, 0, 1}, {1, 0, 0}, {0, 1, 0}}};  // b -> z, c -> x, a -> y
+    default:
+      return Rot3{{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}}};
   }
 }
 
 Rot3 euler_rotation(double phi, double theta, double psi) {
-  auto rz = [](double t) {
-    return Rot3{{{std::cos(t), -std::sin(t), 0}, {std::sin(t), std::cos(t), 0}, {0, 0, 1}}};
-  };
+  auto rz = [](double t) { return Rot3{{{std::cos(t), -std::sin(t), 0}, {std::sin(t), std::cos(t), 0}, {0, 0, 1}}}; };
   const Rot3 rx{{{1, 0, 0}, {0, std::cos(theta), -std::sin(theta)}, {0, std::sin(theta), std::cos(theta)}}};
   return rz(phi) * rx * rz(psi);
 }

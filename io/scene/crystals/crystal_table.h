@@ -37,21 +37,21 @@ struct CrystalAxisTerm {
 
 struct Crystal {
   std::string_view name;
-  std::string_view kind;         ///< what the model takes it as
+  std::string_view kind;  ///< what the model takes it as
   int sublattices = 2;
-  Cited saturation;              ///< mu0*Ms per sublattice, T
+  Cited saturation;  ///< mu0*Ms per sublattice, T
   Cited g;
-  Cited exchange;                ///< mu0*H_E = lambda*mu0*Ms, T (two sublattices)
+  Cited exchange;  ///< mu0*H_E = lambda*mu0*Ms, T (two sublattices)
   std::vector<CrystalAxisTerm> anisotropy;
   std::array<double, 3> dm_axis{0, 0, 1};
-  Cited dzyaloshinskii;          ///< mu0*H_D along dm_axis, T
+  Cited dzyaloshinskii;                  ///< mu0*H_D along dm_axis, T
   std::array<double, 3> order{0, 0, 1};  ///< sublattice 1's side, crystal frame
-  Cited damping;                 ///< Gilbert alpha (0 with no source: none published here)
-  Cited spin;                    ///< S of the Brillouin law
-  Cited ordering;                ///< Neel or Curie temperature, K
-  double reference = 0;          ///< K, where the magnetic values hold
-  Cited anisotropy_power;        ///< Callen-Callen exponent of the anisotropy energy
-  double lowest = 0;             ///< K: below it the model does not hold (e.g. a Morin transition)
+  Cited damping;                         ///< Gilbert alpha (0 with no source: none published here)
+  Cited spin;                            ///< S of the Brillouin law
+  Cited ordering;                        ///< Neel or Curie temperature, K
+  double reference = 0;                  ///< K, where the magnetic values hold
+  Cited anisotropy_power;                ///< Callen-Callen exponent of the anisotropy energy
+  double lowest = 0;                     ///< K: below it the model does not hold (e.g. a Morin transition)
   std::string_view lowest_why;
   std::array<Cited, 3> permittivity;  ///< constant, along a, b, c (below the phonons)
   std::vector<LorentzTerm> phonons;

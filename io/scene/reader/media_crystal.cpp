@@ -111,7 +111,8 @@ void SceneBuilder::read_state(const YAML::Node& m, const std::string& here, Magn
       r_.error(h, fmt::format("{}: give 'state' or 'history', not both (a history decides the state)", here));
     g.state.where = r_.mark(h);
     if (!r_.is_seq(h, "history")) return;
-    if (h.size() == 0) r_.error(h, fmt::format("{}: 'history' lists the bias path, [[x, y, z], ...]; it is empty", here));
+    if (h.size() == 0)
+      r_.error(h, fmt::format("{}: 'history' lists the bias path, [[x, y, z], ...]; it is empty", here));
     g.state.history.clear();
     for (const auto& p : h)
       if (auto b = r_.vec3(p, "history", Kind::magnetic_field)) g.state.history.push_back(*b);

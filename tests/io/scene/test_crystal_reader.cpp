@@ -19,7 +19,8 @@ grid: {extent: [1 mm, 1 mm], cell: 20 um}
 time: {stop: 10 ps}
 media:
   sample:
-)" + medium + R"(
+)" + medium +
+         R"(
 bodies:
   - {medium: sample, rectangle: {centre: [0, 0], size: [0.2 mm, 0.2 mm]}}
 sources:
@@ -48,7 +49,8 @@ TEST_CASE("crystal: the library's MnF2, cut a puts c along y; values given besid
 
 TEST_CASE("crystal: Euler angles z-x-z turn the axes (90 deg about x puts c along -y)") {
   // R = Rz(0) Rx(90 deg) Rz(0): z goes to -y (a right-handed turn about x)
-  const Scene s = read_scene_text(scene_with("    crystal: Cr2O3\n    rotation: [0 deg, 90 deg, 0 deg]\n"), "scene.yaml");
+  const Scene s =
+      read_scene_text(scene_with("    crystal: Cr2O3\n    rotation: [0 deg, 90 deg, 0 deg]\n"), "scene.yaml");
   const auto& a = s.media[0].magnet->anisotropy[0].axis;
   CHECK(a[0] == doctest::Approx(0).epsilon(1e-12));
   CHECK(a[1] == doctest::Approx(-1.0));

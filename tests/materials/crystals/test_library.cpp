@@ -73,7 +73,7 @@ TEST_CASE("Two antiferromagnetic domains of YFeO3 give mirror-image beam shifts"
   const double d_up = shift(mu_up, s_up, theta), d_up_minus = shift(mu_up, s_up, -theta);
   const double d_down_minus = shift(mu_down, s_down, -theta);
   MESSAGE("YFeO3 at 296 GHz, 60 deg: up " << d_up * 1e6 << " um, up at -60 deg " << d_up_minus * 1e6
-                                           << " um, down at -60 deg " << d_down_minus * 1e6 << " um");
+                                          << " um, down at -60 deg " << d_down_minus * 1e6 << " um");
   CHECK(std::abs(d_down_minus / -d_up - 1) < 1e-6);
   // each domain alone is non-reciprocal: measured 2.2e-3 of the shift (the weak moment is
   // 0.6 deg of canting), 2000 times the mirror check's tolerance
