@@ -5,7 +5,7 @@
 
 #include <iostream>
 
-#include "io/scene/crystals/crystal_table.h"
+#include "io/scene/crystals/crystal_magnet.h"
 #include "io/scene/diagnostics.h"
 #include "materials/crystals/temperature.h"
 #include "materials/magnetic/linear_response.h"
@@ -18,19 +18,6 @@ namespace {
 void line(const char* what, const Cited& c, const char* unit) {
   if (c.source.empty()) return;
   std::cout << fmt::format("  {:<22} {:g}{}  [{}]\n", what, c.value, unit, c.source);
-}
-
-/// The crystal's magnet in its own axes (cut c), at temperature `t` (K; < 0: the reference).
-Magnet magnet_of(const Crystal& c, double t) {
-  Magnet g;
-  for (int s = 0; s < c.sublattices; ++s) g.sublattices.push_back({c.saturation.value, c.g.value, c.damping.value});
-  if (c.sublattices == 2) g.lambda = c.exchange.value / c.saturation.value;
-  for (const auto& a : c.anisotropy) g.anisotropy.push_back({a.axis, a.field.value});
-  if (c.sublattices == 2)
-    for (int k = 0; k < 3; ++k) g.dzyaloshinskii[k] = c.dm_axis[k] * c.dzyaloshinskii.value;
-  g.order = c.order;
-  g.thermal = {t < 0 ? c.reference : t, c.reference, c.spin.value, c.ordering.value, c.anisotropy_power.value};
-  return g;
 }
 
 void show(const Crystal& c, double t) {
@@ -59,7 +46,8 @@ void show(const Crystal& c, double t) {
     std::cout << fmt::format("    axis {}: f_TO {:g} THz, strength {:g}, damping {:g} THz\n", "abc"[p.axis],
                              p.f_TO / 1e12, p.delta_eps, p.gamma / 1e12);
   if (!c.note.empty()) std::cout << fmt::format("  note: {}\n", c.note);
-  const Magnet g = magnet_of(c, t);
+  Magnet g = crystal_magnet(c);
+  if (t >= 0) g.thermal.temperature = t;
   const MagnetModel M(g, {0, 0, 0});
   const auto f = resonances(M, choose_state(g, {0, 0, 0}).state);
   std::string model;

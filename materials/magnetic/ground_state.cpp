@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 namespace ty {
 namespace {
@@ -119,6 +120,19 @@ std::string classify(const MagnetModel& M, const std::array<Vec3, 2>& m) {
   return "canted";
 }
 
+/// A minimum found from m, with the curvatures of its Hessian; nullopt for a saddle.
+std::optional<MagneticState> minimum(const MagnetModel& M, const std::array<Vec3, 2>& m, const Eigen::VectorXd& curv) {
+  const double cmax = std::max(curv.cwiseAbs().maxCoeff(), 1e-30);
+  if (curv.minCoeff() < -1e-7 * cmax) return std::nullopt;  // a saddle, not a minimum
+  MagneticState st;
+  st.m = m;
+  if (M.n == 1) st.m[1] = Vec3::Zero();
+  st.energy = M.energy(m);
+  st.soft = curv.minCoeff() < 1e-7 * cmax;
+  st.kind = classify(M, m);
+  return st;
+}
+
 }  // namespace
 
 double torque(const MagnetModel& model, const MagneticState& st) {
@@ -171,14 +185,9 @@ GroundStates find_ground_states(const MagnetModel& M) {
   for (auto m : starts) {
     Eigen::VectorXd curv;
     if (!mz.run(m, scale, curv)) continue;
-    const double cmax = std::max(curv.cwiseAbs().maxCoeff(), 1e-30);
-    if (curv.minCoeff() < -1e-7 * cmax) continue;  // a saddle, not a minimum
-    MagneticState st;
-    st.m = m;
-    if (M.n == 1) st.m[1] = Vec3::Zero();
-    st.energy = M.energy(m);
-    st.soft = curv.minCoeff() < 1e-7 * cmax;
-    st.kind = classify(M, m);
+    const auto found_here = minimum(M, m, curv);
+    if (!found_here) continue;
+    const MagneticState& st = *found_here;
     bool dup = false;
     for (const auto& f : found) {
       bool same = (f.m[0] - st.m[0]).norm() < 1e-5 && (M.n == 1 || (f.m[1] - st.m[1]).norm() < 1e-5);
@@ -216,15 +225,7 @@ MagneticState relax(const MagnetModel& M, const std::array<Vec3, 2>& start) {
     for (int s = 0; s < M.n; ++s) m[s] = (m[s] + 1e-3 * (tilt - tilt.dot(m[s]) * m[s])).normalized();
     Eigen::VectorXd curv;
     if (!mz.run(m, scale, curv)) continue;
-    const double cmax = std::max(curv.cwiseAbs().maxCoeff(), 1e-30);
-    if (curv.minCoeff() < -1e-7 * cmax) continue;  // stopped on a saddle: tilt another way
-    MagneticState st;
-    st.m = m;
-    if (M.n == 1) st.m[1] = Vec3::Zero();
-    st.energy = M.energy(m);
-    st.soft = curv.minCoeff() < 1e-7 * cmax;
-    st.kind = classify(M, m);
-    return st;
+    if (auto st = minimum(M, m, curv)) return *st;  // else stopped on a saddle: tilt another way
   }
   throw std::runtime_error("the magnetic state could not be followed (the minimiser did not converge)");
 }

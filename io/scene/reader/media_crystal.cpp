@@ -4,8 +4,7 @@
 /// `history`). Values given beside a crystal win over the library's (media.cpp).
 #include <cmath>
 
-#include "io/scene/crystals/crystal_axes.h"
-#include "io/scene/crystals/crystal_table.h"
+#include "io/scene/crystals/crystal_magnet.h"
 #include "io/scene/reader/reader.h"
 
 namespace ty::reader {
@@ -28,17 +27,7 @@ std::optional<Magnet> SceneBuilder::read_crystal(const YAML::Node& v, const std:
     if (auto a = r_.choice<char>(v["cut"], "cut", {{"a", 'a'}, {"b", 'b'}, {"c", 'c'}})) r = cut_rotation(*a);
   if (v["rotation"])
     if (auto e = r_.vec3(v["rotation"], "rotation", Kind::angle)) r = euler_rotation((*e)[0], (*e)[1], (*e)[2]) * r;
-  Magnet g;
-  for (int s = 0; s < c->sublattices; ++s) g.sublattices.push_back({c->saturation.value, c->g.value, c->damping.value});
-  if (c->sublattices == 2) g.lambda = c->exchange.value / c->saturation.value;
-  for (const auto& a : c->anisotropy) g.anisotropy.push_back({r * a.axis, a.field.value});
-  if (c->sublattices == 2) {
-    std::array<double, 3> d = c->dm_axis;
-    for (double& x : d) x *= c->dzyaloshinskii.value;
-    g.dzyaloshinskii = r * d;
-  }
-  g.order = r * c->order;
-  g.thermal = {c->reference, c->reference, c->spin.value, c->ordering.value, c->anisotropy_power.value};
+  const Magnet g = crystal_magnet(*c, r);
   const std::array<double, 3> eps{c->permittivity[0].value, c->permittivity[1].value, c->permittivity[2].value};
   if (!rotate_diagonal(r, eps, med.permittivity) && !v["permittivity"])
     r_.error(v["rotation"], fmt::format("{}: turned this way, {}'s permittivity is not diagonal in the scene's axes, "

@@ -6,7 +6,7 @@
 
 #include <cmath>
 
-#include "io/scene/crystals/crystal_table.h"
+#include "io/scene/crystals/crystal_magnet.h"
 #include "materials/layered/angular_spectrum.h"
 #include "materials/magnetic/linear_response.h"
 #include "materials/magnetic/state_choice.h"
@@ -14,15 +14,10 @@
 using namespace ty;
 
 namespace {
-/// The entry's magnet in its own axes at its reference temperature.
+/// The entry's magnet in its own axes at its reference temperature, undamped.
 Magnet magnet_of(const Crystal& c) {
-  Magnet g;
-  for (int s = 0; s < c.sublattices; ++s) g.sublattices.push_back({c.saturation.value, c.g.value, 0});
-  if (c.sublattices == 2) g.lambda = c.exchange.value / c.saturation.value;
-  for (const auto& a : c.anisotropy) g.anisotropy.push_back({a.axis, a.field.value});
-  if (c.sublattices == 2)
-    for (int k = 0; k < 3; ++k) g.dzyaloshinskii[k] = c.dm_axis[k] * c.dzyaloshinskii.value;
-  g.order = c.order;
+  Magnet g = crystal_magnet(c);
+  for (auto& s : g.sublattices) s.damping = 0;
   return g;
 }
 }  // namespace

@@ -5,7 +5,7 @@
 
 #include <cmath>
 
-#include "io/scene/crystals/crystal_table.h"
+#include "io/scene/crystals/crystal_magnet.h"
 #include "materials/crystals/temperature.h"
 #include "materials/magnetic/linear_response.h"
 #include "materials/magnetic/state_choice.h"
@@ -32,13 +32,8 @@ TEST_CASE("Brillouin mean field: Weiss's S = 1/2 equation m = tanh(m Tc/T) and t
 namespace {
 /// The lowest zero-field resonance of a library crystal at temperature t (K), c along z.
 double resonance_at(std::string_view name, double t) {
-  const Crystal& c = *find_crystal(name);
-  Magnet g;
-  g.sublattices = {{c.saturation.value, c.g.value, 0}, {c.saturation.value, c.g.value, 0}};
-  g.lambda = c.exchange.value / c.saturation.value;
-  g.anisotropy = {{c.anisotropy[0].axis, c.anisotropy[0].field.value}};
-  g.order = {0, 0, 1};
-  g.thermal = {t, c.reference, c.spin.value, c.ordering.value, c.anisotropy_power.value};
+  Magnet g = crystal_magnet(*find_crystal(name));
+  g.thermal.temperature = t;
   return resonances(MagnetModel(g, {0, 0, 0}), choose_state(g, {0, 0, 0}).state).front();
 }
 }  // namespace
