@@ -75,12 +75,13 @@ std::vector<Crystal> build() {
       .permittivity = {{{12.0, "from memory (static)"}, {12.0, "from memory"}, {12.0, "from memory"}}},
       .phonons = {{0, 11.9e12, 6.3, 0.6e12}, {1, 11.9e12, 6.3, 0.6e12}, {2, 11.9e12, 6.3, 0.6e12}},
       .phonon_source = "from memory, rough: one TO phonon near 397 cm^-1, eps_inf 5.7, eps(0) 12.0; the damping is "
-                       "a guess of 5%",
+                       "invented (5% of f_TO)",
       .resonances = {{36 * kWavenumber,
                       "Sievers & Tinkham, Phys. Rev. 129, 1566 (1963): 36 cm^-1 at low "
                       "temperature, from memory"},
                      {0.14e12, "from memory"}},
-      .note = "the cubic cell's rhombohedral distortion is left out; the other T-domains are other cuts"});
+      .note = "the cubic cell's rhombohedral distortion is left out; the other T-domains (other [111] axes) are other "
+              "rotations"});
   t.push_back(Crystal{
       .name = "Fe2O3",
       .kind = "antiferromagnet with Dzyaloshinskii-Moriya canting (weak ferromagnet, alpha-Fe2O3 above the Morin "

@@ -29,7 +29,7 @@ sources:
 }
 }  // namespace
 
-TEST_CASE("crystal: the library's MnF2, cut a puts c along y; values given beside it win") {
+TEST_CASE("crystal: the library's MnF2, cut a puts c along y, and values given beside it win") {
   const Scene s = read_scene_text(scene_with("    crystal: MnF2\n    cut: a\n    temperature: 40 K\n"
                                              "    magnet: {exchange: 52.6 T, state: collinear}\n"),
                                   "scene.yaml");
