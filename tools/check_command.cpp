@@ -13,7 +13,9 @@
 #include "io/scene/units.h"
 #include "io/scene/validation.h"
 #include "materials/dielectric.h"
+#include "materials/crystals/temperature.h"
 #include "materials/magnetic/linear_response.h"
+#include "materials/magnetic/state_choice.h"
 #include "solver/grid/yee_grid.h"
 #include "solver/stop_rule.h"
 #include "tools/commands.h"
@@ -49,17 +51,32 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
     if (!med.magnet) continue;
     const MagnetModel M(*med.magnet, s.bias);
     const GroundStates gs = find_ground_states(M);
+    const ChosenState chosen = choose_state(*med.magnet, s.bias);
+    const MagneticState& st0 = chosen.state;
     std::cout << fmt::format("  magnetic medium '{}' ({} sublattice{}), bias [{}, {}, {}] T:\n", med.name, M.n,
                              M.n == 1 ? "" : "s", s.bias[0], s.bias[1], s.bias[2]);
-    std::cout << fmt::format("    ground state: {}{}\n", gs.ground.kind,
-                             gs.ground.soft ? " (degenerate: the state is chosen deterministically, see docs/magnets.md)" : "");
-    for (int q = 0; q < M.n; ++q) std::cout << fmt::format("      sublattice {}: {}\n", q + 1, direction(gs.ground.m[q]));
-    const Vec3 net = M.net(gs.ground.m);
+    if (const Thermal& th = med.magnet->thermal; th.active()) {
+      const ThermalScale t = thermal_scale(th);
+      std::cout << fmt::format("    {} at {:g} K (values given at {:g} K): mu0*Ms x {:.4f}, exchange and DM fields "
+                               "x {:.4f}, anisotropy fields x {:.4f}\n",
+                               med.crystal.empty() ? "thermal data" : med.crystal, th.temperature, th.reference,
+                               t.magnetization, t.magnetization, t.anisotropy);
+    }
+    const auto all = listed_states(gs);
+    std::cout << "    states under this bias (choose one with 'state: N' in the magnet block):\n";
+    for (size_t q = 0; q < all.size(); ++q)
+      std::cout << fmt::format("      {}: {}, {}\n", q + 1, all[q].kind,
+                               q == 0                         ? std::string("lowest")
+                               : q <= gs.degenerate.size()    ? std::string("degenerate with 1 (another branch)")
+                                                              : fmt::format("metastable, {:.6g} T^2 above (mu0 x energy "
+                                                                            "density)",
+                                                                            all[q].energy - gs.ground.energy));
+    std::cout << fmt::format("    starts in: {}{}\n", chosen.how,
+                             st0.soft ? " (degenerate: the state is chosen deterministically, see docs/magnets.md)" : "");
+    for (int q = 0; q < M.n; ++q) std::cout << fmt::format("      sublattice {}: {}\n", q + 1, direction(st0.m[q]));
+    const Vec3 net = M.net(st0.m);
     std::cout << fmt::format("      net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", clean(net.x()), clean(net.y()),
                              clean(net.z()));
-    for (const auto& st : gs.metastable)
-      std::cout << fmt::format("    metastable: {}, {:.6g} T^2 above (mu0 x energy density)\n", st.kind,
-                               st.energy - gs.ground.energy);
     if (std::hypot(net.x(), net.y()) > 1e-9) {
       std::cout << "    warning: the ground state has a net moment in the plane; the static field inside a body would "
                    "differ from the bias (terayee does not solve static demagnetization)\n";
@@ -67,8 +84,8 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
     }
     std::vector<double> f;  // distinct lines (degenerate pairs listed once)
     std::string fl;
-    const std::vector<DampedMode> modes = damped_modes(M, gs.ground);
-    for (double x : resonances(M, gs.ground)) {
+    const std::vector<DampedMode> modes = damped_modes(M, st0);
+    for (double x : resonances(M, st0)) {
       if (!f.empty() && std::abs(x / f.back() - 1) < 1e-9) {
         fl += " (twice)";
         continue;
@@ -89,13 +106,13 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
     if (!(hi > lo)) continue;
     auto component = [&](int a, int b) {
       return [&, a, b](double x) {
-        const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * x);
+        const Mat3c mu = Mat3c::Identity() + susceptibility(M, st0, 2 * constants::pi * x);
         return mu(a, b).real();
       };
     };
     auto voigt = [&](int normal) {
       return [&, normal](double x) {
-        const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * x);
+        const Mat3c mu = Mat3c::Identity() + susceptibility(M, st0, 2 * constants::pi * x);
         return voigt_permeability(mu, normal).real();
       };
     };
@@ -113,7 +130,7 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
       double nmax = 0;
       for (int q = -50; q <= 50; ++q) {
         const double x = fr * (1 + 0.02 * q / 50.0);
-        const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * x);
+        const Mat3c mu = Mat3c::Identity() + susceptibility(M, st0, 2 * constants::pi * x);
         nmax = std::max(nmax, std::sqrt(med.permittivity[2] * std::abs(voigt_permeability(mu, 1))));
       }
       const double cpw = constants::c0 / (fr * nmax) / cell;

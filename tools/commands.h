@@ -25,6 +25,8 @@ struct RunOptions {
 
 int run_command(const RunOptions& o);
 int check_command(const std::string& scene, const std::vector<std::string>& sets);
+/// `name` empty: the list; `temperature` < 0: the crystal's reference temperature.
+int crystals_command(const std::string& name, double temperature);
 struct MediumOptions {
   std::string scene, medium, normal = "y", csv, json;
   std::vector<std::string> sets;

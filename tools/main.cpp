@@ -1,5 +1,5 @@
 /// \file main.cpp
-/// \brief The terayee command line: run, check, medium, measure, render, bench. Exit status 0 success,
+/// \brief The terayee command line: run, check, crystals, medium, measure, render, bench. Exit status 0 success,
 /// 1 run-time failure, 2 bad input or usage, 128 + signal a run stopped by a signal (docs/runs.md).
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
@@ -54,6 +54,11 @@ int main(int argc, char** argv) {
   auto* c = app.add_subcommand("check", "Validate a scene and print what a run would cost");
   c->add_option("scene", check_scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
   c->add_option("--set", check_sets, "Override a scene value: key.path=value (repeatable)");
+
+  std::string crystal_name, crystal_temperature;
+  auto* cr = app.add_subcommand("crystals", "The crystal library: what is known, each value with its source");
+  cr->add_option("name", crystal_name, "A crystal (e.g. MnF2); without it, the list");
+  cr->add_option("--temperature", crystal_temperature, "Show the model at this temperature (e.g. 40 K)");
 
   ty::MediumOptions med;
   std::string med_from, med_to, med_angle = "0", med_thickness = "0", med_waist = "0", med_source = "0",
@@ -219,6 +224,11 @@ int main(int argc, char** argv) {
       const double face = f_face.empty() ? 0.0 : quantity_option(f_face, ty::Kind::length, "--face");
       return ty::measure_focus(f_run, f_map, f_ref, freq, f_axis, face, !f_face.empty());
     }
+    if (*cr)
+      return ty::crystals_command(crystal_name, crystal_temperature.empty()
+                                                    ? -1.0
+                                                    : quantity_option(crystal_temperature, ty::Kind::temperature,
+                                                                      "--temperature"));
     if (*md) {
       auto q = quantity_option;
       med.from = q(med_from, ty::Kind::frequency, "--from");

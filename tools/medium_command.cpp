@@ -23,6 +23,7 @@
 #include "io/scene/units.h"
 #include "materials/layered/angular_spectrum.h"
 #include "materials/layered/refraction.h"
+#include "materials/magnetic/state_choice.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -75,7 +76,7 @@ int medium_command(const MediumOptions& o) {
   if (med.magnet) {
     s.magnetic = true;
     s.model = MagnetModel(*med.magnet, scene.bias);
-    s.state = find_ground_states(s.model).ground;
+    s.state = choose_state(*med.magnet, scene.bias).state;  // the state a run starts from
   }
   s.thickness = o.thickness;
   s.normal = o.normal == "x" ? 0 : 1;

@@ -79,6 +79,27 @@ struct UniaxialAnisotropy {
   double field = 0;                      ///< mu0*H_A, T; > 0 easy axis, < 0 hard axis
 };
 
+/// How a magnet's values change with temperature (materials/crystals/temperature.h): the
+/// values of the `magnet` block hold at `reference`; at `temperature` the sublattice
+/// magnetization is scaled by the mean-field Brillouin law of spin `spin` and ordering
+/// temperature `ordering`, the exchange and Dzyaloshinskii fields like it, the anisotropy
+/// fields by the Callen-Callen law m^(power-1). `spin` 0: no scaling (the values as given).
+struct Thermal {
+  double temperature = 0;  ///< K
+  double reference = 0;    ///< K
+  double spin = 0;         ///< S of the mean-field Brillouin law
+  double ordering = 0;     ///< Neel or Curie temperature, K
+  double anisotropy_power = 3;  ///< K(T)/K(ref) = (m(T)/m(ref))^power; 3 = Callen-Callen, l = 2
+  bool active() const { return spin > 0; }
+};
+
+/// Which stationary state a magnet starts from (materials/magnetic/state_choice.h).
+struct StateChoice {
+  std::string pick = "lowest";  ///< lowest, a number as `check` lists them, or a kind (collinear, spin-flop, ...)
+  std::vector<std::array<double, 3>> history;  ///< bias path before the scene's bias, mu0*H, T
+  Mark where;
+};
+
 /// The `magnet` block: sublattice magnetizations moved by the Landau-Lifshitz-Gilbert
 /// equation (conventions in docs/magnets.md).
 struct Magnet {
@@ -87,11 +108,14 @@ struct Magnet {
   std::vector<UniaxialAnisotropy> anisotropy;
   std::array<double, 3> dzyaloshinskii{0, 0, 0};  ///< mu0*H_D, T
   std::array<double, 3> order{0, 0, 0};           ///< sublattice 1's side; zero = not given
+  Thermal thermal;
+  StateChoice state;
   double exchange_field() const;                  ///< mu0*H_E = lambda * mu0*Ms1, T
 };
 
 struct Medium {
   std::string name;
+  std::string crystal;  ///< the library entry it was filled from (io/scene/crystals/), empty if none
   std::optional<Magnet> magnet;
   std::array<double, 3> permittivity{1, 1, 1};  ///< relative, along x, y, z
   double conductivity = 0;                      ///< S/m

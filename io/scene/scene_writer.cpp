@@ -45,6 +45,18 @@ void magnet(YAML::Emitter& e, const Magnet& g) {
     e << YAML::Key << "order" << YAML::Value;
     vec3(e, g.order, Kind::dimensionless);
   }
+  if (g.thermal.active())
+    e << YAML::Key << "thermal" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "spin" << YAML::Value
+      << g.thermal.spin << YAML::Key << "ordering" << YAML::Value << q(g.thermal.ordering, Kind::temperature)
+      << YAML::Key << "reference" << YAML::Value << q(g.thermal.reference, Kind::temperature) << YAML::Key
+      << "anisotropy-power" << YAML::Value << g.thermal.anisotropy_power << YAML::EndMap;
+  if (!g.state.history.empty()) {
+    e << YAML::Key << "history" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+    for (const auto& b : g.state.history) vec3(e, b, Kind::magnetic_field);
+    e << YAML::EndSeq;
+  } else if (g.state.pick != "lowest") {
+    e << YAML::Key << "state" << YAML::Value << g.state.pick;
+  }
   e << YAML::EndMap;
 }
 
@@ -124,7 +136,10 @@ std::string resolved_scene_yaml(const Scene& s) {
     e << YAML::Key << "conductivity" << YAML::Value << q(m.conductivity, Kind::conductivity);
     e << YAML::Key << "perfect-conductor" << YAML::Value << m.perfect_conductor;
     if (m.magnet) magnet(e, *m.magnet);
+    if (m.magnet && m.magnet->thermal.active())
+      e << YAML::Key << "temperature" << YAML::Value << q(m.magnet->thermal.temperature, Kind::temperature);
     e << YAML::EndMap;
+    if (!m.crystal.empty()) e << YAML::Comment("from the crystal library: " + m.crystal);
   }
   e << YAML::EndMap;
   e << YAML::Key << "bodies" << YAML::Value << YAML::BeginSeq;

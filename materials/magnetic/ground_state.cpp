@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 namespace ty {
 namespace {
@@ -119,6 +120,19 @@ std::string classify(const MagnetModel& M, const std::array<Vec3, 2>& m) {
   return "canted";
 }
 
+/// A minimum found from m, with the curvatures of its Hessian; nullopt for a saddle.
+std::optional<MagneticState> minimum(const MagnetModel& M, const std::array<Vec3, 2>& m, const Eigen::VectorXd& curv) {
+  const double cmax = std::max(curv.cwiseAbs().maxCoeff(), 1e-30);
+  if (curv.minCoeff() < -1e-7 * cmax) return std::nullopt;  // a saddle, not a minimum
+  MagneticState st;
+  st.m = m;
+  if (M.n == 1) st.m[1] = Vec3::Zero();
+  st.energy = M.energy(m);
+  st.soft = curv.minCoeff() < 1e-7 * cmax;
+  st.kind = classify(M, m);
+  return st;
+}
+
 }  // namespace
 
 double torque(const MagnetModel& model, const MagneticState& st) {
@@ -171,14 +185,9 @@ GroundStates find_ground_states(const MagnetModel& M) {
   for (auto m : starts) {
     Eigen::VectorXd curv;
     if (!mz.run(m, scale, curv)) continue;
-    const double cmax = std::max(curv.cwiseAbs().maxCoeff(), 1e-30);
-    if (curv.minCoeff() < -1e-7 * cmax) continue;  // a saddle, not a minimum
-    MagneticState st;
-    st.m = m;
-    if (M.n == 1) st.m[1] = Vec3::Zero();
-    st.energy = M.energy(m);
-    st.soft = curv.minCoeff() < 1e-7 * cmax;
-    st.kind = classify(M, m);
+    const auto found_here = minimum(M, m, curv);
+    if (!found_here) continue;
+    const MagneticState& st = *found_here;
     bool dup = false;
     for (const auto& f : found) {
       bool same = (f.m[0] - st.m[0]).norm() < 1e-5 && (M.n == 1 || (f.m[1] - st.m[1]).norm() < 1e-5);
@@ -195,8 +204,30 @@ GroundStates find_ground_states(const MagnetModel& M) {
   });
   out.ground = found[0];
   for (size_t k = 1; k < found.size(); ++k)
-    if (std::abs(found[k].energy - found[0].energy) > etol) out.metastable.push_back(found[k]);
+    (std::abs(found[k].energy - found[0].energy) > etol ? out.metastable : out.degenerate).push_back(found[k]);
   return out;
+}
+
+std::vector<MagneticState> listed_states(const GroundStates& g) {
+  std::vector<MagneticState> all{g.ground};
+  all.insert(all.end(), g.degenerate.begin(), g.degenerate.end());
+  all.insert(all.end(), g.metastable.begin(), g.metastable.end());
+  return all;
+}
+
+MagneticState relax(const MagnetModel& M, const std::array<Vec3, 2>& start) {
+  const double scale = field_scale(M);
+  const Vec3 tilts[3] = {Vec3(0.31, -0.57, 0.76).normalized(), Vec3(-0.62, 0.2, 0.5).normalized(),
+                         Vec3(0.1, 0.8, -0.3).normalized()};
+  Minimiser mz{M, 2 * M.n, {}, {}};
+  for (const Vec3& tilt : tilts) {
+    std::array<Vec3, 2> m = start;
+    for (int s = 0; s < M.n; ++s) m[s] = (m[s] + 1e-3 * (tilt - tilt.dot(m[s]) * m[s])).normalized();
+    Eigen::VectorXd curv;
+    if (!mz.run(m, scale, curv)) continue;
+    if (auto st = minimum(M, m, curv)) return *st;  // else stopped on a saddle: tilt another way
+  }
+  throw std::runtime_error("the magnetic state could not be followed (the minimiser did not converge)");
 }
 
 }  // namespace ty

@@ -28,10 +28,20 @@ struct MagneticState {
 
 struct GroundStates {
   MagneticState ground;
+  std::vector<MagneticState> degenerate;  ///< other minima of the ground state's energy (other branches)
   std::vector<MagneticState> metastable;  ///< other local minima, by energy
 };
 
 GroundStates find_ground_states(const MagnetModel& model);
+
+/// Every state found, numbered as `check` lists them from 1: the ground state, the
+/// degenerate ones, then the metastable ones.
+std::vector<MagneticState> listed_states(const GroundStates& g);
+
+/// The local minimum reached from `start` (continuation): the start is tilted by 1e-3 rad
+/// as in find_ground_states, so that a state past its stability limit (a saddle with zero
+/// torque) slides off to the minimum a sample would fall into.
+MagneticState relax(const MagnetModel& model, const std::array<Vec3, 2>& start);
 
 /// Largest torque |m_s x B_eff,s| of a state, T (zero at a stationary state).
 double torque(const MagnetModel& model, const MagneticState& s);

@@ -5,23 +5,26 @@
 #include <algorithm>
 #include <cmath>
 
+#include "materials/crystals/temperature.h"
+
 namespace ty {
 
 double gyromagnetic_ratio(double g) { return g * constants::mu_B / constants::hbar; }
 
 MagnetModel::MagnetModel(const Magnet& m, const std::array<double, 3>& b0) {
   n = static_cast<int>(m.sublattices.size());
+  const ThermalScale t = thermal_scale(m.thermal);  // 1 and 1 without thermal data
   for (int s = 0; s < n; ++s) {
-    mu[s] = m.sublattices[s].saturation;
+    mu[s] = m.sublattices[s].saturation * t.magnetization;
     gamma[s] = gyromagnetic_ratio(m.sublattices[s].g);
     alpha[s] = m.sublattices[s].damping;
   }
   lambda = m.lambda;
   for (const auto& a : m.anisotropy) {
     axis.push_back(Vec3(a.axis[0], a.axis[1], a.axis[2]).normalized());
-    b_a.push_back(a.field);
+    b_a.push_back(a.field * t.anisotropy);
   }
-  b_d = Vec3(m.dzyaloshinskii[0], m.dzyaloshinskii[1], m.dzyaloshinskii[2]);
+  b_d = t.magnetization * Vec3(m.dzyaloshinskii[0], m.dzyaloshinskii[1], m.dzyaloshinskii[2]);
   mu_d = n == 2 ? std::sqrt(mu[0] * mu[1]) : 0.0;
   bias = Vec3(b0[0], b0[1], b0[2]);
   order = Vec3(m.order[0], m.order[1], m.order[2]);

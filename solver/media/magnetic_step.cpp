@@ -12,6 +12,7 @@
 #include "io/scene/units.h"
 #include "materials/dielectric.h"
 #include "materials/magnetic/linear_response.h"
+#include "materials/magnetic/state_choice.h"
 #include "solver/simulation.h"
 
 namespace ty {
@@ -51,13 +52,14 @@ void Simulation<R>::build_magnets() {
     if (!used) continue;
     slot_of_medium[k] = static_cast<int>(M.models.size());
     M.models.emplace_back(*s.media[k].magnet, s.bias);
-    M.ground.push_back(find_ground_states(M.models.back()).ground);
+    const ChosenState chosen = choose_state(*s.media[k].magnet, s.bias);
+    M.ground.push_back(chosen.state);
     const auto f = resonances(M.models.back(), M.ground.back());
     const double f_max = f.empty() ? M.models.back().gamma[0] * 1.0 / (2 * constants::pi) : f.back();
     f_max_of.push_back(f_max);
-    notes_.push_back(fmt::format("magnetic medium '{}': ground state {}; cells tilted past {:g} rad take the "
+    notes_.push_back(fmt::format("magnetic medium '{}': starts in {}; cells tilted past {:g} rad take the "
                                  "midpoint rule in {} sub-step{} per time step",
-                                 s.media[k].name, M.ground.back().kind, CellStep::kTilt,
+                                 s.media[k].name, chosen.how, CellStep::kTilt,
                                  LlgCoefficients::from(M.models.back(), g_.dt, f_max).substeps,
                                  LlgCoefficients::from(M.models.back(), g_.dt, f_max).substeps == 1 ? "" : "s"));
   }

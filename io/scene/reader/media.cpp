@@ -1,6 +1,7 @@
 /// \file media.cpp
 /// \brief The `media` section: permittivity, conductivity, perfect conductors and the `magnet`
-/// block (sublattices, exchange, anisotropy, Dzyaloshinskii field, order).
+/// block (sublattices, exchange, anisotropy, Dzyaloshinskii field, order, thermal data,
+/// state choice). A `crystal` (media_crystal.cpp) fills the values that are not given.
 #include <algorithm>
 #include <cmath>
 
@@ -19,8 +20,18 @@ void SceneBuilder::read_media(const YAML::Node& m) {
     const YAML::Node& v = kv.second;
     const std::string where = fmt::format("medium '{}'", med.name);
     if (!r_.is_map(v, where)) continue;
-    r_.allow(v, {"permittivity", "conductivity", "perfect-conductor", "magnet"}, where);
-    if (v["magnet"]) med.magnet = read_magnet(v["magnet"], where);
+    r_.allow(v, {"permittivity", "conductivity", "perfect-conductor", "magnet", "crystal", "cut", "rotation",
+                 "temperature"},
+             where);
+    std::optional<Magnet> base;
+    if (v["crystal"]) base = read_crystal(v, where, med);
+    for (auto k : {"cut", "rotation"})
+      if (v[k] && !v["crystal"]) r_.error(v[k], fmt::format("{}: '{}' orients a crystal; give 'crystal' too", where, k));
+    if (v["magnet"])
+      med.magnet = read_magnet(v["magnet"], where, base ? &*base : nullptr);
+    else
+      med.magnet = base;
+    read_temperature(v, where, med);
     if (med.magnet && v["perfect-conductor"] && v["perfect-conductor"].Scalar() == "true")
       r_.error(v["perfect-conductor"], fmt::format("{}: a perfect conductor cannot also be a magnet", where));
     if (const auto& p = v["permittivity"]) {
@@ -61,55 +72,35 @@ std::optional<std::array<double, 3>> SceneBuilder::unit_vector(const YAML::Node&
   return std::array<double, 3>{(*v)[0] / norm, (*v)[1] / norm, (*v)[2] / norm};
 }
 
-std::optional<Magnet> SceneBuilder::read_magnet(const YAML::Node& m, const std::string& where) {
+std::optional<Magnet> SceneBuilder::read_magnet(const YAML::Node& m, const std::string& where, const Magnet* base) {
   const std::string here = where + ": magnet";
   if (!r_.is_map(m, "magnet")) return std::nullopt;
-  r_.allow(m, {"sublattices", "exchange", "exchange-constant", "anisotropy", "dzyaloshinskii", "order"}, here);
-  Magnet g;
+  r_.allow(m, {"sublattices", "exchange", "exchange-constant", "anisotropy", "dzyaloshinskii", "order", "thermal",
+               "state", "history"},
+           here);
+  Magnet g = base ? *base : Magnet{};
   bool ok = true;
   const YAML::Node& subs = m["sublattices"];
-  if (!subs) {
+  if (!subs && !base) {
     r_.error(m,
              fmt::format("{} needs 'sublattices' (one for a ferromagnet, two for an antiferro- or ferrimagnet)", here));
     return std::nullopt;
   }
-  if (!r_.is_seq(subs, "sublattices")) return std::nullopt;
-  if (subs.size() < 1 || subs.size() > 2) {
-    r_.error(subs, fmt::format("{}: 'sublattices' must list one or two sublattices, got {}", here, subs.size()));
-    return std::nullopt;
+  if (subs && !read_sublattices(subs, here, base, g)) {
+    if (!subs.IsSequence() || subs.size() < 1 || subs.size() > 2) return std::nullopt;
+    ok = false;
   }
-  for (const auto& sl : subs) {
-    Sublattice s;
-    if (!r_.is_map(sl, "sublattice")) {
-      ok = false;
-      continue;
-    }
-    r_.allow(sl, {"saturation", "g", "damping"}, "a sublattice");
-    if (!sl["saturation"]) {
-      r_.error(sl, "a sublattice needs 'saturation' (mu0*Ms, e.g. 0.75 T)");
-      ok = false;
-    } else if (auto v = r_.positive(sl["saturation"], "saturation", Kind::magnetic_field)) {
-      s.saturation = *v;
-    } else {
-      ok = false;
-    }
-    if (sl["g"])
-      if (auto v = r_.positive(sl["g"], "g", Kind::dimensionless)) s.g = *v;
-    if (sl["damping"])
-      if (auto v = r_.quantity(sl["damping"], "damping", Kind::dimensionless)) {
-        if (*v < 0 || *v >= 1) r_.error(sl["damping"], "'damping' (Gilbert alpha) must lie in [0, 1)");
-        s.damping = *v;
-      }
-    g.sublattices.push_back(s);
-  }
-  const bool two = subs.size() == 2;
+  const bool two = g.sublattices.size() == 2;
   if (!two) {
     for (auto k : {"exchange", "exchange-constant", "dzyaloshinskii"})
       if (m[k]) r_.error(m[k], fmt::format("{}: '{}' needs two sublattices", here, k));
-  } else if (!read_exchange(m, here, ok, g)) {
+  } else if ((!base || m["exchange"] || m["exchange-constant"]) && !read_exchange(m, here, ok, g)) {
     ok = false;
   }
-  if (const auto& a = m["anisotropy"]) ok = read_anisotropy(a, here, g) && ok;
+  if (const auto& a = m["anisotropy"]) {
+    g.anisotropy.clear();
+    ok = read_anisotropy(a, here, g) && ok;
+  }
   if (two && m["dzyaloshinskii"])
     if (auto v = r_.vec3(m["dzyaloshinskii"], "dzyaloshinskii", Kind::magnetic_field)) g.dzyaloshinskii = *v;
   if (m["order"]) {
@@ -118,8 +109,53 @@ std::optional<Magnet> SceneBuilder::read_magnet(const YAML::Node& m, const std::
     else
       ok = false;
   }
+  if (m["thermal"]) read_thermal(m["thermal"], here, g.thermal);
+  read_state(m, here, g);
   if (!ok) return std::nullopt;
   return g;
+}
+
+/// One or two sublattices; beside a crystal (`base`) the count must match and every key is
+/// optional (the crystal's value is kept).
+bool SceneBuilder::read_sublattices(const YAML::Node& subs, const std::string& here, const Magnet* base, Magnet& g) {
+  if (!r_.is_seq(subs, "sublattices")) return false;
+  if (subs.size() < 1 || subs.size() > 2) {
+    r_.error(subs, fmt::format("{}: 'sublattices' must list one or two sublattices, got {}", here, subs.size()));
+    return false;
+  }
+  if (base && subs.size() != base->sublattices.size()) {
+    r_.error(subs, fmt::format("{}: the crystal has {} sublattice{}; list as many to override them, got {}", here,
+                               base->sublattices.size(), base->sublattices.size() == 1 ? "" : "s", subs.size()));
+    return false;
+  }
+  bool ok = true;
+  g.sublattices.resize(subs.size());
+  for (size_t k = 0; k < subs.size(); ++k) {
+    const YAML::Node& sl = subs[k];
+    Sublattice& s = g.sublattices[k];
+    if (!r_.is_map(sl, "sublattice")) {
+      ok = false;
+      continue;
+    }
+    r_.allow(sl, {"saturation", "g", "damping"}, "a sublattice");
+    if (!sl["saturation"] && !base) {
+      r_.error(sl, "a sublattice needs 'saturation' (mu0*Ms, e.g. 0.75 T)");
+      ok = false;
+    } else if (sl["saturation"]) {
+      if (auto v = r_.positive(sl["saturation"], "saturation", Kind::magnetic_field))
+        s.saturation = *v;
+      else
+        ok = false;
+    }
+    if (sl["g"])
+      if (auto v = r_.positive(sl["g"], "g", Kind::dimensionless)) s.g = *v;
+    if (sl["damping"])
+      if (auto v = r_.quantity(sl["damping"], "damping", Kind::dimensionless)) {
+        if (*v < 0 || *v >= 1) r_.error(sl["damping"], "'damping' (Gilbert alpha) must lie in [0, 1)");
+        s.damping = *v;
+      }
+  }
+  return ok;
 }
 
 /// The exchange of two sublattices: `exchange` (mu0*H_E = lambda*mu0*Ms, equal moments) or

@@ -115,9 +115,18 @@ class SceneBuilder {
   // media.cpp
   void read_media(const YAML::Node& m);
   std::optional<std::array<double, 3>> unit_vector(const YAML::Node& n, std::string_view key);
-  std::optional<Magnet> read_magnet(const YAML::Node& m, const std::string& where);
+  /// `base`: the crystal's magnet, whose values the block's keys override (none required).
+  std::optional<Magnet> read_magnet(const YAML::Node& m, const std::string& where, const Magnet* base = nullptr);
+  bool read_sublattices(const YAML::Node& subs, const std::string& here, const Magnet* base, Magnet& g);
   bool read_anisotropy(const YAML::Node& a, const std::string& here, Magnet& g);
   bool read_exchange(const YAML::Node& m, const std::string& here, bool sublattices_ok, Magnet& g);
+  // media_crystal.cpp
+  /// `crystal`, `cut`, `rotation`: fills med's permittivity and returns the crystal's magnet
+  /// in scene axes (nullopt on an error).
+  std::optional<Magnet> read_crystal(const YAML::Node& v, const std::string& where, Medium& med);
+  void read_temperature(const YAML::Node& v, const std::string& where, Medium& med);
+  void read_thermal(const YAML::Node& t, const std::string& here, Thermal& th);
+  void read_state(const YAML::Node& m, const std::string& here, Magnet& g);
   // grid_time.cpp
   void prescan_sources(const YAML::Node& list);
   void read_grid(const YAML::Node& g);
