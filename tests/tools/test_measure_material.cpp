@@ -8,7 +8,7 @@
 /// (k_slab - k_vacuum) d: n_grid = 1 + (k_slab - k_vacuum)/k0; the retrieval must meet n_grid.
 /// Measured: with the whole trace, |n - n_grid| <= 6e-4 over 0.12-2.7 THz; with the main pulse
 /// alone the window's edge costs 0.05 at 118 GHz, 0.004 at 377 GHz, < 1.8e-3 above 600 GHz.
-/// From r and t, |mu - 1| <= 0.007 below 1.5 THz.
+/// From r and t, |mu - 1| <= 0.007 below 1.5 THz. MnF2: |mu - mu_V| <= 0.0024 over 240-285 GHz.
 #include <doctest/doctest.h>
 
 #include <cmath>
@@ -16,6 +16,7 @@
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
+#include <sstream>
 
 #include "io/scene/constants.h"
 #include "tests/helpers.h"
@@ -95,4 +96,50 @@ TEST_CASE("measure material: n + i kappa of a simulated lossy slab, its echoes k
   MESSAGE("r and t below 1.5 THz: |mu - 1| <= " << worst_mu);
   CHECK(worst_mu < 1e-2);  // measured 0.0069: the grid's dispersion enters r and t unlike n alone
   CHECK(std::abs(eps[50] - grid_index(freq[50]) * grid_index(freq[50])) < 0.02);
+}
+
+TEST_CASE("measure material: a biased MnF2 slab's mu(f) from t against the crystal's linear response") {
+  // tests/data/mnf2-slab.yaml: MnF2 (references.md values, from memory there), 200 um, easy
+  // axis and 0.3 T along z, damping 1e-3 set by hand. The Ez wave at normal incidence sees the
+  // Voigt permeability mu_V = (mu_xx mu_yy - mu_xy mu_yx) / mu_yy (references.md), which
+  // `terayee medium --csv` computes from the linearised sublattice equations
+  // (materials/magnetic/linear_response). `measure material --permittivity 5.5` retrieves it
+  // from the probe behind the slab alone.
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/mnf2-slab.yaml";
+  const fs::path run = fs::temp_directory_path() / "terayee-test-tds-mnf2",
+                 ref = fs::temp_directory_path() / "terayee-test-tds-mnf2-ref",
+                 csv = fs::temp_directory_path() / "terayee-test-tds-mnf2.csv";
+  const std::string bin = TERAYEE_BINARY;
+  REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet --overwrite") == 0);
+  REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference --quiet --overwrite") == 0);
+  REQUIRE(shell(bin + " medium '" + scene +
+                "' --medium mnf2 --from '240 GHz' --to '285 GHz' --count 91 --normal x --csv '" + csv.string() +
+                "' > /dev/null") == 0);
+  const std::string json = run.string() + "-material.json";
+  REQUIRE(shell(bin + " measure material '" + run.string() + "' --reference '" + ref.string() +
+                "' --probe behind --thickness 200um --permittivity 5.5 --window all --from 240GHz --to 285GHz "
+                "--count 91 --json '" +
+                json + "' > /dev/null") == 0);
+  std::ifstream in(json);
+  const auto j = nlohmann::json::parse(in);
+  const auto mu = complex_array(j["mu"]);
+  std::ifstream table(csv);
+  std::string line;
+  std::getline(table, line);
+  double worst = 0, swing = 0;
+  for (size_t k = 0; std::getline(table, line); ++k) {
+    std::vector<std::string> v;
+    std::istringstream ss(line);
+    for (std::string cell; std::getline(ss, cell, ',');) v.push_back(cell);
+    REQUIRE(k < mu.size());
+    REQUIRE(v.size() > 10);
+    const cplx muv(std::stod(v[9]), std::stod(v[10]));  // muV_re, muV_im
+    worst = std::max(worst, std::abs(mu[k] - muv));
+    swing = std::max(swing, std::abs(muv - 1.0));
+  }
+  MESSAGE("MnF2: worst |mu - mu_V| over 240-285 GHz: " << worst << " (mu_V departs from 1 by up to " << swing << ")");
+  CHECK(swing > 0.5);
+  CHECK(worst < 0.01);  // measured 0.0024
+  fs::remove_all(run);
+  fs::remove_all(ref);
 }
