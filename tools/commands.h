@@ -2,6 +2,8 @@
 /// \brief The subcommands of the terayee program.
 #pragma once
 #include <cmath>
+#include <complex>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -44,6 +46,16 @@ int measure_focus(const std::string& run, const std::string& map, const std::str
                   const std::string& axis, double face, bool has_face);
 int measure_angle(const std::string& run, const std::string& map, const std::vector<double>& region,
                   const std::string& normal, double incidence, bool has_incidence);
+/// `terayee measure material` (tools/measure_material_command.cpp).
+struct MaterialOptions {
+  std::string run, reference, probe, field = "Ez", window = "main", json, reflected_probe;
+  double thickness = 0, from = 0, to = 0;  ///< m; Hz (0, 0: the band the reference pulse covers)
+  int count = 101;
+  std::optional<std::complex<double>> permittivity;
+  char front_axis = 'x';  ///< --front x=VALUE: the slab's front face
+  double front = 0;
+};
+int measure_material(const MaterialOptions& o);
 struct ShiftOptions {
   std::string run, reference, map, reversed, reversed_reference;
   char line_axis = 'y';

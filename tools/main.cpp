@@ -22,6 +22,23 @@ double quantity_option(const std::string& text, ty::Kind k, const std::string& w
   return v->value;
 }
 
+/// A complex number "RE", "RE+IMi" or "RE-IMi" (a permittivity).
+std::complex<double> complex_option(const std::string& text, const std::string& what) {
+  const char* p = text.c_str();
+  char* end = nullptr;
+  const double re = std::strtod(p, &end);
+  double im = 0;
+  bool ok = end != p;
+  if (ok && *end != '\0') {
+    const char* q = end;
+    im = std::strtod(q, &end);
+    ok = end != q && (*q == '+' || *q == '-') && std::string(end) == "i";
+  }
+  if (!ok || !std::isfinite(re) || !std::isfinite(im))
+    throw ty::BadInput(fmt::format("terayee: error: {}: '{}' is not a number like 5.5 or 5.5+0.02i", what, text));
+  return {re, im};
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -95,6 +112,26 @@ int main(int argc, char** argv) {
       ->check(CLI::ExistingDirectory);
   ms->add_option("--reflected", m_reflected, "Power-spectrum line before the sample (default: the one named 'reflected')");
   ms->add_option("--transmitted", m_transmitted, "Power-spectrum line behind the sample (default: the one named 'transmitted')");
+
+  ty::MaterialOptions mat;
+  std::string mat_thickness, mat_perm, mat_from, mat_to, mat_front;
+  auto* mm = m->add_subcommand("material", "A slab's t(f), n + i kappa (and mu, eps) from a probe behind it against the reference run");
+  mm->add_option("run", mat.run, "Run folder")->required()->check(CLI::ExistingDirectory);
+  mm->add_option("--reference", mat.reference, "Run folder of the reference run (terayee run --reference)")
+      ->required()
+      ->check(CLI::ExistingDirectory);
+  mm->add_option("--probe", mat.probe, "The probe behind the slab")->required();
+  mm->add_option("--thickness", mat_thickness, "The slab's thickness, e.g. \"100 um\"")->required();
+  mm->add_option("--field", mat.field, "The probe's field to analyse (default Ez)");
+  mm->add_option("--permittivity", mat_perm, "The slab's permittivity, e.g. 5.5 or 5.5+0.02i: retrieve mu from t");
+  mm->add_option("--window", mat.window, "main (the main pulse alone) or all (with its echoes)")
+      ->check(CLI::IsMember({"main", "all"}));
+  mm->add_option("--from", mat_from, "Lowest frequency (default: where the reference spectrum is above 1% of its peak)");
+  mm->add_option("--to", mat_to, "Highest frequency");
+  mm->add_option("--count", mat.count, "Frequencies")->check(CLI::Range(2, 100000));
+  mm->add_option("--reflected-probe", mat.reflected_probe, "A probe before the slab: eps and mu from r and t");
+  mm->add_option("--front", mat_front, "With --reflected-probe: the slab's front face, x=VALUE or y=VALUE");
+  mm->add_option("--json", mat.json, "Write the spectra to this JSON file");
 
   std::string f_run, f_map, f_ref, f_freq, f_axis = "x", f_face;
   auto* mf = m->add_subcommand("focus", "The focal spot in a spectral map");
@@ -200,6 +237,24 @@ int main(int argc, char** argv) {
     if (*r) return ty::run_command(run);
     if (*c) return ty::check_command(check_scene, check_sets);
     if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
+    if (*mm) {
+      auto q = quantity_option;
+      mat.thickness = q(mat_thickness, ty::Kind::length, "--thickness");
+      if (!mat_from.empty()) mat.from = q(mat_from, ty::Kind::frequency, "--from");
+      if (!mat_to.empty()) mat.to = q(mat_to, ty::Kind::frequency, "--to");
+      if (mat_from.empty() != mat_to.empty() || (!mat_from.empty() && !(mat.to > mat.from && mat.from > 0)))
+        throw ty::BadInput("terayee measure material: error: --from and --to go together, 0 < --from < --to");
+      if (!mat_perm.empty()) mat.permittivity = complex_option(mat_perm, "--permittivity");
+      if (mat.reflected_probe.empty() != mat_front.empty())
+        throw ty::BadInput("terayee measure material: error: --reflected-probe and --front go together");
+      if (!mat_front.empty()) {
+        if (mat_front.size() < 3 || (mat_front[0] != 'x' && mat_front[0] != 'y') || mat_front[1] != '=')
+          throw ty::BadInput("terayee measure material: error: --front must be x=VALUE or y=VALUE");
+        mat.front_axis = mat_front[0];
+        mat.front = q(mat_front.substr(2), ty::Kind::length, "--front");
+      }
+      return ty::measure_material(mat);
+    }
     if (*msh) {
       auto q = quantity_option;
       if (sh_line.size() < 3 || (sh_line[0] != 'x' && sh_line[0] != 'y') || sh_line[1] != '=')

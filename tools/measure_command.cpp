@@ -2,18 +2,60 @@
 /// \brief `terayee measure spectrum RUN --reference REF`: reflectance, transmittance and
 /// absorptance against frequency (io/analysis/spectrum.h: the formulas and which line's
 /// reference power is the incident power). Prints a table and writes RUN/spectrum.csv and
-/// .json.
+/// .json; the complex t and r (amplitude, unwrapped phase) go to RUN/spectrum-complex.csv
+/// and the JSON's "complex" entry.
 #include <fmt/format.h>
 
 #include <fstream>
 #include <iostream>
 #include <nlohmann/json.hpp>
 
+#include "io/analysis/spectroscopy/line_spectrum.h"
+#include "io/analysis/spectroscopy/trace_spectrum.h"
 #include "io/analysis/spectrum.h"
 #include "io/scene/diagnostics.h"
 #include "tools/commands.h"
 
 namespace ty {
+
+namespace {
+
+/// Complex t and r (io/analysis/spectroscopy/line_spectrum.h) into RUN/spectrum-complex.csv
+/// and the JSON's "complex" entry: real, imaginary, amplitude and unwrapped phase (rad).
+void write_complex_spectrum(const std::string& run, const LinePair* r, const LinePair* t, bool r_incident,
+                            const std::vector<double>& freq, nlohmann::json& j) {
+  const int c = dominant_polarization(t ? t->reference : r->reference);
+  const ComplexSpectrum cs = complex_spectrum(r, t, c, r_incident);
+  const char* wave = c == 2 ? "Ez" : "Hz";
+  std::ofstream csv(run + "/spectrum-complex.csv");
+  csv << "frequency_Hz";
+  j["complex"]["polarization"] = wave;
+  j["complex"]["convention"] = "fields ~ exp(-i omega t); t and r of the transverse E, referred to their lines";
+  std::vector<std::pair<std::string, std::vector<std::complex<double>>>> cols;
+  if (!cs.t.empty()) cols.emplace_back("t", cs.t);
+  if (!cs.r.empty()) cols.emplace_back("r", cs.r);
+  std::vector<std::vector<double>> phases;
+  for (const auto& [name, v] : cols) {
+    csv << fmt::format(",{0}_real,{0}_imag,{0}_amplitude,{0}_phase_rad", name);
+    phases.push_back(unwrapped_phase(freq, v));
+    nlohmann::json re, im, amp;
+    for (const auto& z : v) re.push_back(z.real()), im.push_back(z.imag()), amp.push_back(std::abs(z));
+    j["complex"][name] = {{"real", re}, {"imag", im}, {"amplitude", amp}, {"phase", phases.back()}};
+  }
+  csv << "\n";
+  for (size_t k = 0; k < freq.size(); ++k) {
+    csv << fmt::format("{:.10g}", freq[k]);
+    for (size_t q = 0; q < cols.size(); ++q) {
+      const auto z = cols[q].second[k];
+      csv << fmt::format(",{:.10g},{:.10g},{:.10g},{:.10g}", z.real(), z.imag(), std::abs(z), phases[q][k]);
+    }
+    csv << "\n";
+  }
+  std::cout << fmt::format("complex t{} of the {} wave (exp(-i omega t)) in {}/spectrum-complex.csv\n",
+                           cs.r.empty() ? "" : " and r", wave, run);
+}
+
+}  // namespace
 
 int measure_spectrum(const std::string& run, const std::string& ref, std::string reflected, std::string transmitted) {
   if (reflected.empty() && has_power_spectrum_line(run, "reflected")) reflected = "reflected";
@@ -71,6 +113,8 @@ int measure_spectrum(const std::string& run, const std::string& ref, std::string
     std::cout << row << "\n";
     j["spectrum"].push_back(e);
   }
+  write_complex_spectrum(run, reflected.empty() ? nullptr : &r, transmitted.empty() ? nullptr : &t,
+                         !R.empty() && s.R_incident_line == reflected, freq, j);
   std::ofstream(run + "/spectrum.json") << j.dump(2) << "\n";
   return 0;
 }

@@ -6,6 +6,8 @@
 #include <cmath>
 #include <limits>
 
+#include "io/scene/constants.h"
+
 namespace ty {
 
 const char* component_name(Component c) {
@@ -34,6 +36,32 @@ Vec2 launch_point(const Source& s, Vec2 extent) {
   return {s.kind == Source::Kind::beam ? s.focus.x + (s.line_at - s.focus.y) / sn * c : 0.5 * extent.x, s.line_at};
 }
 
+namespace {
+/// Where a file waveform's amplitude spectrum is above 1% of its peak: the trapezoid-rule
+/// transform of its table at 400 frequencies up to half its mean sampling rate.
+Band2 table_band(const Waveform& w) {
+  const size_t n = w.table_time.size();
+  if (n < 2) return {};
+  const double f_top = 0.5 * (n - 1) / (w.table_time.back() - w.table_time.front());
+  std::vector<double> a(400);
+  for (size_t m = 0; m < a.size(); ++m) {
+    const double om = 2 * constants::pi * f_top * (m + 1) / a.size();
+    double re = 0, im = 0;
+    for (size_t k = 0; k + 1 < n; ++k) {
+      const double h = 0.5 * (w.table_time[k + 1] - w.table_time[k]);
+      for (size_t e : {k, k + 1})
+        re += h * w.table_value[e] * std::cos(om * w.table_time[e]), im += h * w.table_value[e] * std::sin(om * w.table_time[e]);
+    }
+    a[m] = std::hypot(re, im);
+  }
+  const double peak = *std::max_element(a.begin(), a.end());
+  size_t lo = 0, hi = a.size() - 1;
+  while (lo < hi && a[lo] < 0.01 * peak) ++lo;
+  while (hi > lo && a[hi] < 0.01 * peak) --hi;
+  return {f_top * (lo + 1) / a.size(), f_top * (hi + 1) / a.size()};
+}
+}  // namespace
+
 Band2 source_band(const Source& s) {
   switch (s.waveform.kind) {
     case Waveform::Kind::cw: return {s.frequency, s.frequency};
@@ -46,6 +74,9 @@ Band2 source_band(const Source& s) {
     }
     case Waveform::Kind::chirp:
       return {std::min(s.waveform.from, s.waveform.to), std::max(s.waveform.from, s.waveform.to)};
+    case Waveform::Kind::single_cycle:  // w exp(-w^2 tau^2 / 2) at 1% of its peak (solver/sources/waveform.h)
+      return {0.0061 * s.frequency, 3.5716 * s.frequency};
+    case Waveform::Kind::file: return table_band(s.waveform);
   }
   return {s.frequency, s.frequency};
 }

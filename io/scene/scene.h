@@ -142,10 +142,13 @@ struct Body {
 };
 
 struct Waveform {
-  enum class Kind { cw, pulse, chirp } kind = Kind::cw;
+  enum class Kind { cw, pulse, chirp, single_cycle, file } kind = Kind::cw;
   double ramp = 0;                 ///< cw: raised-cosine turn-on, s
-  double fwhm = 0, delay = 0;      ///< pulse: intensity FWHM and peak time, s
+  double fwhm = 0, delay = 0;      ///< pulse: intensity FWHM and peak time, s; single-cycle: its centre (zero crossing), s
   double from = 0, to = 0, length = 0;  ///< chirp: linear sweep, Hz, Hz, s
+  std::string file;                     ///< file: the table as given in the scene
+  std::string time_unit = "s";          ///< file: the unit of its time column
+  std::vector<double> table_time, table_value;  ///< file: its samples (s; relative, times the amplitude)
 };
 
 struct Source {
@@ -176,8 +179,9 @@ struct Output {
   double every = 0;  ///< snapshots: s
   int stride = 1;
   Region region;
-  Vec2 at;  ///< probe
-  Vec2 from, to;     ///< power spectrum: the line, positive towards z x (to - from)
+  Vec2 at;  ///< probe (a line probe: the middle of its line)
+  bool over_line = false;  ///< probe: the mean over the line from -> to (a finite detector)
+  Vec2 from, to;     ///< power spectrum: the line, positive towards z x (to - from); line probe: its ends
   double band_from = 0, band_to = 0;  ///< power spectrum: Hz
   int count = 0;     ///< power spectrum: frequencies
   std::vector<double> frequencies;  ///< spectral-map: Hz

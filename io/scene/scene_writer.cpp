@@ -79,6 +79,14 @@ void waveform(YAML::Emitter& e, const Waveform& w) {
         << q(w.from, Kind::frequency) << YAML::Key << "to" << YAML::Value << q(w.to, Kind::frequency) << YAML::Key
         << "length" << YAML::Value << q(w.length, Kind::time);
       break;
+    case Waveform::Kind::single_cycle:
+      e << YAML::Key << "kind" << YAML::Value << "single-cycle" << YAML::Key << "delay" << YAML::Value
+        << q(w.delay, Kind::time);
+      break;
+    case Waveform::Kind::file:
+      e << YAML::Key << "kind" << YAML::Value << "file" << YAML::Key << "file" << YAML::Value << w.file << YAML::Key
+        << "time-unit" << YAML::Value << w.time_unit;
+      break;
   }
   e << YAML::EndMap;
 }

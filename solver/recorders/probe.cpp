@@ -2,6 +2,7 @@
 /// \brief A probe's stencils and its time-aligned series.
 #include "solver/recorders/probe.h"
 
+#include <algorithm>
 #include <cmath>
 
 #include "io/scene/units.h"
@@ -21,6 +22,18 @@ ProbeRecorder make_probe(const Output& o, const YeeGrid& g, long total_steps, co
   p.at = o.at;
   p.fields = o.fields;
   for (int c = 0; c < 6; ++c) p.stencil[c] = point_stencil(g, static_cast<Component>(c), o.at);
+  if (o.over_line) {  // points at most a cell apart, trapezoid weights
+    const double len = std::hypot(o.to.x - o.from.x, o.to.y - o.from.y);
+    const int segments = std::max(1, static_cast<int>(std::ceil(len / std::min(g.dx, g.dy))));
+    for (int q = 0; q <= segments; ++q) {
+      const double s = static_cast<double>(q) / segments;
+      const Vec2 at{o.from.x + s * (o.to.x - o.from.x), o.from.y + s * (o.to.y - o.from.y)};
+      std::array<PointStencil, 6> st;
+      for (int c = 0; c < 6; ++c) st[c] = point_stencil(g, static_cast<Component>(c), at);
+      p.line.push_back(st);
+      p.line_weight.push_back((q == 0 || q == segments ? 0.5 : 1.0) / segments);
+    }
+  }
   p.raw.assign(static_cast<size_t>(total_steps) * 6, 0.0);
   for (const auto& f : o.fields)
     if (is_magnetic_field(f)) {

@@ -1,5 +1,6 @@
 /// \file probe.h
-/// \brief The probe: every field at one point, every step, in arrays sized before the run.
+/// \brief The probe: every field at one point, or its mean over a line (a finite detector),
+/// every step, in arrays sized before the run.
 ///
 /// Time alignment: after step k (0-based) the grid holds E at t = (k+1) dt, and H and the
 /// magnetizations at (k+1/2) dt. A probe's series all lie on the E times (k+1) dt (the
@@ -20,6 +21,10 @@ struct ProbeRecorder {
   Vec2 at;  ///< internal coordinates
   std::vector<std::string> fields;
   std::array<PointStencil, 6> stencil;
+  /// A line probe (a finite detector): the stencils of points spaced at most a cell apart along
+  /// the line and their trapezoid weights (summing to 1), so a component is its line mean.
+  std::vector<std::array<PointStencil, 6>> line;
+  std::vector<double> line_weight;
   std::vector<double> raw;  ///< per recorded step: the six components as stored (E in V/m, eta0*H)
   long count = 0;
   /// Magnetic fields (Mx, Lx, ...): bilinear over the four nearest cell centres (cells that
@@ -32,7 +37,15 @@ struct ProbeRecorder {
   /// Step k's values; value(field, cell) gives a magnetic field's value in a list cell.
   template <class R, class MagneticValue>
   void record(long k, const R* const* F, MagneticValue&& value) {
-    for (int c = 0; c < 6; ++c) raw[static_cast<size_t>(k) * 6 + c] = stencil[c](F[c]);
+    if (line.empty()) {
+      for (int c = 0; c < 6; ++c) raw[static_cast<size_t>(k) * 6 + c] = stencil[c](F[c]);
+    } else {
+      for (int c = 0; c < 6; ++c) {
+        double v = 0;
+        for (size_t q = 0; q < line.size(); ++q) v += line_weight[q] * line[q][c](F[c]);
+        raw[static_cast<size_t>(k) * 6 + c] = v;
+      }
+    }
     for (size_t f = 0; f < magnetic.size(); ++f) {
       double v = 0;
       for (int q = 0; q < 4; ++q)

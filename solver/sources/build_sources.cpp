@@ -35,6 +35,13 @@ void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
   for (const Source& src : scene_.sources) {
     const int sig = static_cast<int>(signals_.size());
     signals_.emplace_back(src.waveform, src.frequency);
+    if (src.waveform.kind == Waveform::Kind::file) {  // solver/sources/waveform.h: the estimate
+      const double e = spline_error_estimate(src.waveform);
+      (e > 0.01 ? warnings_ : notes_)
+          .push_back(fmt::format("source at line {}: waveform file '{}' ({} samples) resampled to the {:.4g} fs step "
+                                 "by a cubic spline; estimated resampling error {:.2g} of its peak",
+                                 src.where.line, src.waveform.file, src.waveform.table_time.size(), g_.dt * 1e15, e));
+    }
     if (src.kind == Source::Kind::point)
       add_point_source(src, sig, cb);
     else

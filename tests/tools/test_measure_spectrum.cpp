@@ -65,6 +65,28 @@ TEST_CASE("measure spectrum: a dielectric slab's T and R follow the Airy formula
   CHECK(rows == 81);
   CHECK(worst_t < 0.01);
   CHECK(worst_sum < 0.005);
+  // The complex t and r (spectrum-complex.csv, exp(-i omega t)) against the Airy formula's:
+  // t at its line is t_slab e^{-i k0 d}; r at the reflected line, L = 0.5 mm before the front
+  // face, is r_slab e^{2 i k0 L}.
+  std::ifstream cx(run / "spectrum-complex.csv");
+  std::getline(cx, line);
+  CHECK(line == "frequency_Hz,t_real,t_imag,t_amplitude,t_phase_rad,r_real,r_imag,r_amplitude,r_phase_rad");
+  double worst_ct = 0, worst_cr = 0;
+  while (std::getline(cx, line)) {
+    std::vector<double> v;
+    std::istringstream ss(line);
+    for (std::string cell; std::getline(ss, cell, ',');) v.push_back(std::stod(cell));
+    REQUIRE(v.size() == 9);
+    const double k0 = 2 * ty::constants::pi * v[0] / c;
+    const std::complex<double> I(0, 1), q = n * k0 * d;
+    const std::complex<double> ts = 1.0 / (std::cos(q) - 0.5 * I * (n + 1 / n) * std::sin(q));
+    const std::complex<double> rs = -0.5 * I * (1 / n - n) * std::sin(q) * ts;
+    worst_ct = std::max(worst_ct, std::abs(std::complex<double>(v[1], v[2]) - ts * std::exp(-I * k0 * d)));
+    worst_cr = std::max(worst_cr, std::abs(std::complex<double>(v[5], v[6]) - rs * std::exp(2.0 * I * k0 * 0.5e-3)));
+  }
+  MESSAGE("slab: worst |t - t_Airy| " << worst_ct << ", |r - r_Airy| " << worst_cr);
+  CHECK(worst_ct < 0.01);
+  CHECK(worst_cr < 0.01);
   fs::remove_all(run);
   fs::remove_all(ref);
 }
@@ -80,8 +102,10 @@ TEST_CASE("measure spectrum: an MnF2 slab's R and T match medium's transfer matr
                  csv = fs::temp_directory_path() / "terayee-test-mnf2-slab.csv";
   const std::string bin = TERAYEE_BINARY;
   run_with_reference(scene, run, ref);
-  REQUIRE(shell(bin + " medium '" + scene + "' --medium mnf2 --from '240 GHz' --to '285 GHz' --count 91 --thickness "
-                      "'200 um' --normal x --csv '" + csv.string() + "'") == 0);
+  REQUIRE(shell(bin + " medium '" + scene +
+                "' --medium mnf2 --from '240 GHz' --to '285 GHz' --count 91 --thickness "
+                "'200 um' --normal x --csv '" +
+                csv.string() + "'") == 0);
   auto rows = [](const fs::path& p) {
     std::ifstream in(p);
     std::string line;
@@ -107,7 +131,7 @@ TEST_CASE("measure spectrum: an MnF2 slab's R and T match medium's transfer matr
     swing = std::max(swing, std::abs(t - std::stod(tm[0][18])));
   }
   MESSAGE("MnF2 slab: worst |R - R_matrix| " << worst_r << ", worst |T - T_matrix| " << worst_t
-                                              << " over 240-285 GHz (T swings by " << swing << " across the lines)");
+                                             << " over 240-285 GHz (T swings by " << swing << " across the lines)");
   CHECK(swing > 0.3);  // the band really holds the lines
   CHECK(worst_r < 0.02);
   CHECK(worst_t < 0.02);
@@ -143,7 +167,8 @@ int slab_spectrum(const std::string& sets, const fs::path& run, const fs::path& 
   REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference --quiet" + sets) == 0);
   const fs::path e = run.string() + ".err";
   const int s = std::system((bin + " measure spectrum '" + run.string() + "' --reference '" + ref.string() +
-                             "' > /dev/null 2> '" + e.string() + "'").c_str());
+                             "' > /dev/null 2> '" + e.string() + "'")
+                                .c_str());
   std::ifstream in(e);
   std::stringstream ss;
   ss << in.rdbuf();

@@ -31,6 +31,8 @@ void SceneBuilder::prescan_sources(const YAML::Node& list) {
           s.waveform.kind = Waveform::Kind::pulse;
           if (auto v = q.quantity(w["fwhm"], "fwhm", Kind::time)) s.waveform.fwhm = *v;
           if (!(s.waveform.fwhm > 0)) s.waveform.kind = Waveform::Kind::cw;
+        } else if (kind == "single-cycle") {  // its band reaches 3.57 times its centre
+          s.waveform.kind = Waveform::Kind::single_cycle;
         } else if (kind == "chirp") {
           s.waveform.kind = Waveform::Kind::chirp;
           if (w["from"])

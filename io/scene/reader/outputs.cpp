@@ -201,10 +201,15 @@ void SceneBuilder::read_output(const YAML::Node& item) {
         ok = false;
       }
   } else {
-    r_.allow(o, {"name", "at", "fields"}, "a probe");
+    r_.allow(o, {"name", "at", "over", "fields"}, "a probe");
     ok = read_output_name(o, out, "probe") && ok;
-    if (!o["at"]) {
-      r_.error(o, "a probe needs the key 'at'");
+    if (o["at"] && o["over"]) {
+      r_.error(o["over"], "a probe is either at a point ('at') or the mean over a line ('over'), not both");
+      ok = false;
+    } else if (o["over"]) {
+      ok = read_probe_line(o["over"], out) && ok;
+    } else if (!o["at"]) {
+      r_.error(o, "a probe needs the key 'at' (a point) or 'over' (a line: {from: [x, y], to: [x, y]})");
       ok = false;
     } else if (auto p = r_.vec2(o["at"], "at", Kind::length, cell())) {
       out.at = to_internal(*p);
@@ -214,6 +219,38 @@ void SceneBuilder::read_output(const YAML::Node& item) {
   }
   ok = read_fields(o, kind, out) && ok;
   if (ok) scene_.outputs.push_back(out);
+}
+
+/// A line probe's `over: {from: [x, y], to: [x, y]}`: a straight line inside the extent; its
+/// middle is the probe's `at` (for the placement checks).
+bool SceneBuilder::read_probe_line(const YAML::Node& l, Output& out) {
+  if (!r_.is_map(l, "over")) return false;
+  r_.allow(l, {"from", "to"}, "a probe's line");
+  bool ok = true;
+  for (const char* k : {"from", "to"}) {
+    if (!l[k]) {
+      r_.error(l, fmt::format("a probe's line needs the key '{}'", k));
+      ok = false;
+    } else if (auto p = r_.vec2(l[k], k, Kind::length, cell())) {
+      (k[0] == 'f' ? out.from : out.to) = to_internal(*p);
+    } else {
+      ok = false;
+    }
+  }
+  if (!ok) return false;
+  const Vec2 e = scene_.grid.extent;
+  for (const Vec2 p : {out.from, out.to})
+    if (grid_ok_ && (p.x < 0 || p.y < 0 || p.x > e.x || p.y > e.y)) {
+      r_.error(l, "the probe's line leaves the grid's extent");
+      return false;
+    }
+  if (out.from.x == out.to.x && out.from.y == out.to.y) {
+    r_.error(l, "the probe's line has zero length");
+    return false;
+  }
+  out.over_line = true;
+  out.at = {0.5 * (out.from.x + out.to.x), 0.5 * (out.from.y + out.to.y)};
+  return true;
 }
 
 /// The `fields` of snapshots or a probe: wave fields always, magnetic ones with a magnet.
@@ -233,6 +270,9 @@ bool SceneBuilder::read_fields(const YAML::Node& o, const std::string& kind, Out
           r_.error(f, fmt::format("field '{}' is listed twice", name));
         else
           out.fields.push_back(name);
+      } else if (magnetic.count(name) && out.over_line) {
+        r_.error(f, fmt::format("field '{}': a probe over a line records the wave fields only", name));
+        ok = false;
       } else if (magnetic.count(name)) {
         bool any = false;
         for (const auto& m : scene_.media) any |= m.magnet.has_value();

@@ -76,6 +76,10 @@ class Reader {
   std::vector<OverrideNode> overrides_;
 };
 
+/// A file waveform's table (reader/waveform_table.cpp): its samples into w.table_time (in s,
+/// the column times time_unit) and w.table_value; errors at the file's line and column.
+void read_waveform_table(Reader& r, const YAML::Node& at, const std::string& path, double time_unit, Waveform& w);
+
 /// Applies one "key.path=value" option to the tree; throws BadInput naming the option.
 void apply_override(YAML::Node root, const std::string& item);
 /// The node an applied option replaced, with everything below it (for Reader's marks).
@@ -139,6 +143,8 @@ class SceneBuilder {
   bool read_body_medium(const YAML::Node& b, Body& body);
   // sources.cpp
   Waveform read_waveform(const YAML::Node& w, double f);
+  void read_file_waveform(const YAML::Node& w, Waveform& wf);
+  bool read_probe_line(const YAML::Node& l, Output& out);
   void read_source(const YAML::Node& item, size_t index);
   void read_point_source(const YAML::Node& s, Source& src, bool& ok);
   void read_line_source(const YAML::Node& s, const std::string& kind, Source& src, bool& ok);

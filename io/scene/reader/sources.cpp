@@ -1,7 +1,8 @@
 /// \file sources.cpp
 /// \brief The `sources` section: point, beam and plane sources, their waveforms (cw, pulse,
-/// chirp) and launch lines.
+/// chirp, single-cycle, file) and launch lines.
 #include <cmath>
+#include <filesystem>
 
 #include "io/scene/reader/reader.h"
 
@@ -16,7 +17,11 @@ Waveform SceneBuilder::read_waveform(const YAML::Node& w, double f) {
   if (!w["kind"]) return wf;
   auto kind = r_.choice<Waveform::Kind>(
       w["kind"], "waveform.kind",
-      {{"cw", Waveform::Kind::cw}, {"pulse", Waveform::Kind::pulse}, {"chirp", Waveform::Kind::chirp}});
+      {{"cw", Waveform::Kind::cw},
+       {"pulse", Waveform::Kind::pulse},
+       {"chirp", Waveform::Kind::chirp},
+       {"single-cycle", Waveform::Kind::single_cycle},
+       {"file", Waveform::Kind::file}});
   if (!kind) return wf;
   wf.kind = *kind;
   const double period = f > 0 ? 1.0 / f : 0;
@@ -49,8 +54,40 @@ Waveform SceneBuilder::read_waveform(const YAML::Node& w, double f) {
       if (w["length"])
         if (auto v = r_.positive(w["length"], "length", Kind::time)) wf.length = *v;
       break;
+    case Waveform::Kind::single_cycle:  // centred 6 tau after the start: g(0) ~ 1.5e-7
+      r_.allow(w, {"kind", "delay"}, "a single-cycle waveform");
+      wf.delay = 6.0 / (2 * pi * f);
+      if (w["delay"])
+        if (auto v = r_.quantity(w["delay"], "delay", Kind::time, 0, period)) wf.delay = *v;
+      break;
+    case Waveform::Kind::file: read_file_waveform(w, wf); break;
   }
   return wf;
+}
+
+/// `file` (relative to the scene's folder; kept absolute, so the resolved scene in a run
+/// folder finds it) and `time-unit` (default s).
+void SceneBuilder::read_file_waveform(const YAML::Node& w, Waveform& wf) {
+  r_.allow(w, {"kind", "file", "time-unit"}, "a file waveform");
+  r_.require(w, "file", "a file waveform");
+  double unit = 1;
+  if (w["time-unit"])
+    if (auto u = r_.text(w["time-unit"], "time-unit")) {
+      std::string why;
+      const auto q = parse_quantity("1 " + *u, Kind::time, why);
+      if (!q || q->relative != Quantity::Relative::none)
+        r_.error(w["time-unit"], fmt::format("'time-unit' must be a unit of time (s, ps, fs, ...); got '{}'", *u));
+      else
+        unit = q->value, wf.time_unit = *u;
+    }
+  if (!w["file"]) return;
+  const auto name = r_.text(w["file"], "file");
+  if (!name) return;
+  namespace fs = std::filesystem;
+  fs::path p(*name);
+  if (p.is_relative()) p = fs::absolute(fs::path(scene_.file).parent_path() / p);
+  wf.file = p.lexically_normal().string();
+  read_waveform_table(r_, w["file"], wf.file, unit, wf);
 }
 
 void SceneBuilder::read_source(const YAML::Node& item, size_t index) {
@@ -108,7 +145,11 @@ void SceneBuilder::read_source(const YAML::Node& item, size_t index) {
       ok = false;
   }
   if (need("waveform")) src.waveform = read_waveform(s["waveform"], src.frequency);
-  if (src.waveform.kind != Waveform::Kind::chirp && !s["frequency"]) {
+  if (src.waveform.kind == Waveform::Kind::file && !s["frequency"] && !src.waveform.table_time.empty()) {
+    const Band2 b = source_band(src);  // the carrier a launch line's delays are set for
+    src.frequency = 0.5 * (b.lo + b.hi);
+  }
+  if (src.waveform.kind != Waveform::Kind::chirp && src.waveform.kind != Waveform::Kind::file && !s["frequency"]) {
     r_.error(s, fmt::format("a {} source needs the key 'frequency'", kind));
     ok = false;
   }

@@ -40,23 +40,28 @@ TEST_CASE("every scene in the bad-input corpus is rejected with its line and key
     ++files;
     const std::string file = entry.path().string();
     std::ifstream in(file);
-    std::vector<std::pair<int, std::string>> expect;
+    // "# expect: LINE TEXT" points into the scene; "# expect: NAME:LINE:COL TEXT" into a file
+    // the scene reads (NAME in this folder), such as a waveform table.
+    std::vector<std::pair<std::string, std::string>> expect;  // "FILE:LINE:" prefix, text
     for (std::string line; std::getline(in, line) && line.rfind("# expect: ", 0) == 0;) {
       const std::string rest = line.substr(10);
       const auto sp = rest.find(' ');
-      expect.emplace_back(std::stoi(rest.substr(0, sp)), rest.substr(sp + 1));
+      const std::string where = rest.substr(0, sp);
+      expect.emplace_back(
+          where.find(':') == std::string::npos ? file + ":" + where + ":" : (dir / where).string() + ":",
+          rest.substr(sp + 1));
     }
     INFO(file);
     REQUIRE(!expect.empty());
     std::string out;
     CHECK(run(std::string(TERAYEE_BINARY) + " check '" + file + "'", out) == 2);
     INFO(out);
-    for (const auto& [line, text] : expect) {
+    for (const auto& [where, text] : expect) {
       bool found = false;
       std::istringstream lines(out);
       for (std::string l; std::getline(lines, l);)
-        if (l.find(file + ":" + std::to_string(line) + ":") == 0 && l.find(text) != std::string::npos) found = true;
-      CHECK_MESSAGE(found, "expected an error at line " << line << " mentioning " << text);
+        if (l.find(where) == 0 && l.find(text) != std::string::npos) found = true;
+      CHECK_MESSAGE(found, "expected an error at " << where << " mentioning " << text);
     }
     const fs::path runs = fs::temp_directory_path() / ("terayee-bad-" + entry.path().stem().string());
     fs::remove_all(runs);
