@@ -86,6 +86,9 @@ double source_end(const Source& s) {
     case Waveform::Kind::cw: return std::numeric_limits<double>::infinity();
     case Waveform::Kind::pulse: return s.waveform.delay + 6.0 * s.waveform.fwhm / (2.0 * std::sqrt(std::log(2.0)));
     case Waveform::Kind::chirp: return s.waveform.length;
+    case Waveform::Kind::single_cycle:  // u exp(-u^2/2), u = w (t - delay): below 1e-7 of its peak past u = 6
+      return s.waveform.delay + 6.0 / (2.0 * constants::pi * s.frequency);
+    case Waveform::Kind::file: return s.waveform.table_time.empty() ? 0.0 : s.waveform.table_time.back();
   }
   return std::numeric_limits<double>::infinity();
 }

@@ -215,7 +215,8 @@ struct Band2 {
 };
 Band2 source_band(const Source& s);
 /// When a source has stopped for good, s: a pulse's Gaussian envelope 6 standard deviations
-/// after its peak (below 1.6e-8 of it), a chirp's end; infinity for cw.
+/// after its peak (below 1.6e-8 of it), a single cycle 6/w after its centre, a chirp's or a
+/// table's end; infinity for cw.
 double source_end(const Source& s);
 
 /// The scene of a reference run: without the bodies marked `sample: true`, or, where none
