@@ -69,7 +69,11 @@ std::string reference_key(const Scene& s) {
   std::vector<bool> used(r.media.size(), false);
   for (const auto& b : r.bodies) magnetic = magnetic || r.media[b.medium].magnet.has_value(), used[b.medium] = true;
   for (size_t k = 0; k < r.media.size(); ++k)  // a medium no remaining body holds changes nothing
-    if (!used[k]) r.media[k] = Medium{r.media[k].name};
+    if (!used[k]) {
+      Medium bare;
+      bare.name = r.media[k].name;
+      r.media[k] = bare;
+    }
   if (!magnetic) r.bias = {0, 0, 0};
   r.file.clear();
   return resolved_scene_yaml(r);
