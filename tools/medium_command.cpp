@@ -10,7 +10,8 @@
 /// the stationary-phase lateral shift and, with --waist, the shift of that Gaussian beam
 /// (materials/angular_spectrum.h). With --thickness and --source-distance it also predicts
 /// where the slab images a line source and how large the spot is, from the source's angular
-/// spectrum through the transfer matrix, beside the paraxial estimate.
+/// spectrum through the transfer matrix, beside the paraxial estimate. The permittivity is
+/// the medium's eps(omega) tensor (materials/permittivity/permittivity.h).
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
@@ -23,6 +24,7 @@
 #include "io/scene/units.h"
 #include "materials/layered/angular_spectrum.h"
 #include "materials/layered/refraction.h"
+#include "materials/permittivity/permittivity.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -31,8 +33,7 @@ namespace {
 using cd = std::complex<double>;
 
 struct Setup {
-  Mat3c eps_static = Mat3c::Identity();
-  double sigma = 0;  // S/m
+  Medium medium;  // its permittivity: dispersion, rotated axes and conductivity
   MagnetModel model;
   MagneticState state;
   bool magnetic = false;
@@ -41,8 +42,8 @@ struct Setup {
   double n_in = 1;
 };
 
-Mat3c eps_at(const Setup& s, double f) {  // eps + i sigma / (eps0 w)
-  return s.eps_static + cd(0, s.sigma / (constants::eps0 * 2 * constants::pi * f)) * Mat3c::Identity();
+Mat3c eps_at(const Setup& s, double f) {  // eps(w) + i sigma / (eps0 w)
+  return medium_permittivity(s.medium, 2 * constants::pi * f);
 }
 
 Mat3c mu_at(const Setup& s, double f) {
@@ -70,8 +71,7 @@ int medium_command(const MediumOptions& o) {
   const Medium& med = scene.media[k];
   if (med.perfect_conductor) throw BadInput(fmt::format("{}: error: '{}' is a perfect conductor", o.scene, o.medium));
   Setup s;
-  for (int c = 0; c < 3; ++c) s.eps_static(c, c) = cd(med.permittivity[c], 0);
-  s.sigma = med.conductivity;
+  s.medium = med;
   if (med.magnet) {
     s.magnetic = true;
     s.model = MagnetModel(*med.magnet, scene.bias);
