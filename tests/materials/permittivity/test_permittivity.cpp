@@ -11,10 +11,12 @@
 
 #include "io/scene/constants.h"
 #include "materials/layered/refraction.h"
+#include "materials/layered/transfer_matrix.h"
 #include "materials/permittivity/permittivity.h"
 
 using namespace ty;
 using constants::pi;
+using cd = std::complex<double>;
 
 TEST_CASE("Permittivity: Lyddane-Sachs-Teller and the Drude plasma edge") {
   // GaAs, from memory (Blakemore, J. Appl. Phys. 53, R123 (1982)): eps_inf 10.89,
@@ -92,5 +94,29 @@ TEST_CASE("Permittivity: extraordinary ray of a uniaxial crystal, index and walk
     CHECK(s_angle - k_angle == doctest::Approx(rho).epsilon(1e-9));
     MESSAGE("incidence " << incidence << " deg: theta " << theta * 180 / pi << " deg, walk-off " << rho * 180 / pi
                          << " deg");
+  }
+}
+
+TEST_CASE("Permittivity: the transfer matrix reflects the rotated, dispersive Hz wave as Fresnel with n(theta)") {
+  // Normal incidence along y on a half-space whose optic axis u (with a phonon) lies in the
+  // plane at 25 deg from x. The Hz wave's E is in the plane: the extraordinary wave, with
+  // n^2 = eps_u eps_v / eps_yy (Born & Wolf sec. 15.3, index ellipsoid for k along y; D_y = 0),
+  // reflected as r = (1 - n)/(1 + n) in |r| (Born & Wolf sec. 1.5.2). The Ez wave sees eps_zz.
+  PermittivityTensor t;
+  t.axis[0].eps_inf = 6.0;
+  t.axis[0].lorentz = {{5e12, 3.0, 0.2e12}};  // invented
+  t.axis[1].eps_inf = t.axis[2].eps_inf = 3.0;
+  t.rotate = 25 * pi / 180;
+  for (double f : {2e12, 4.8e12, 5.5e12, 8e12}) {
+    const double w = 2 * pi * f;
+    LayerStack st;
+    st.normal = 1;
+    st.eps_out = tensor_permittivity(t, w);
+    const StackResponse r = stack_response(st, w, 0.0);
+    const cd eu = axis_permittivity(t.axis[0], w), ev = axis_permittivity(t.axis[1], w);
+    const cd n_e = std::sqrt(eu * ev / st.eps_out(1, 1)), n_z = std::sqrt(ev);
+    CHECK(std::abs(r.r[1][1]) == doctest::Approx(std::abs((1.0 - n_e) / (1.0 + n_e))).epsilon(1e-9));
+    CHECK(std::abs(r.r[0][0]) == doctest::Approx(std::abs((1.0 - n_z) / (1.0 + n_z))).epsilon(1e-9));
+    CHECK(std::abs(r.r[0][1]) < 1e-12);  // no Ez-Hz coupling: eps_xz = eps_yz = 0
   }
 }
