@@ -101,6 +101,15 @@ void Simulation<R>::h_row(int j) {
 
 template <class R>
 void Simulation<R>::e_row(int j) {
+  const bool dispersive = disp_.row_first[j + 1] > disp_.row_first[j];
+  R* const E[3] = {f_[0].data(), f_[1].data(), f_[2].data()};
+  if (dispersive) disp_.before_row(j, E);
+  e_row_update(j);
+  if (dispersive) disp_.after_row(j, E);
+}
+
+template <class R>
+void Simulation<R>::e_row_update(int j) {
   const int nx = g_.nx;
   const long o = g_.at(0, j), s = g_.stride;
   R* __restrict ex = f_[0].data() + o;

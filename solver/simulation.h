@@ -4,6 +4,7 @@
 ///   the grid's edges         solver/grid/boundaries/ (one hook interface, a file per kind)
 ///   the absorber (CPML)      solver/grid/absorber_hooks.cpp (build, and the rows' corrections)
 ///   media (coefficient runs) solver/media/coefficient_runs.cpp
+///   dispersive nodes (ADE)   solver/media/dispersive_cells.h (built in coefficient_runs.cpp)
 ///   magnetic cells and step  solver/media/magnetic_step.cpp (magnetic_cells.h)
 ///   sources (injections)     solver/sources/build_sources.cpp
 ///   recorders                solver/recorders/ (each builds, records and lists its state)
@@ -26,6 +27,7 @@
 #include "solver/grid/boundaries/boundaries.h"
 #include "solver/grid/cpml.h"
 #include "solver/grid/yee_grid.h"
+#include "solver/media/dispersive_cells.h"
 #include "solver/media/magnetic_cells.h"
 #include "solver/recorders/recorders.h"
 #include "solver/sources/waveform.h"
@@ -80,6 +82,7 @@ class Simulation {
     return s;
   }
   MagneticCells& magnets() { return mag_; }
+  const DispersiveCells& dispersive() const { return disp_; }
   /// Value of a magnetic output field (Mx, Lx, dLx, M1x, ...) in list cell k.
   double magnetic_value(const std::string& field, long k) const;
   /// Every piece of state a resumed run needs, one call per array, f(name, data, count),
@@ -98,6 +101,8 @@ class Simulation {
       for (int c = 0; c < 6; ++c) f("magnets/m" + q + std::to_string(c), mag_.m[p][c].data(), mag_.m[p][c].size());
       for (int c = 0; c < 3; ++c) f("magnets/dM" + q + std::to_string(c), mag_.dM[p][c].data(), mag_.dM[p][c].size());
     }
+    f("media/polarization", disp_.p.data(), disp_.p.size());
+    f("media/polarization-rate", disp_.j.data(), disp_.j.size());
     for (auto& p : probes_) p.visit_state(f);
     for (auto& fl : power_spectra_) fl.visit_state(f);
     for (auto& m : maps_) m.visit_state(f);
@@ -180,12 +185,15 @@ class Simulation {
   std::vector<int> medium_map_;
   int map_nx_ = 0, map_ny_ = 0;
   MagneticCells mag_;
+  DispersiveCells disp_;
   std::vector<std::vector<double>> mag_scratch_;  // per thread: b(n+1/2) of one row's cells
   std::vector<long> mag_tilted_;                  // per thread (every 8th): cell steps by the midpoint rule
   std::size_t bytes_ = 0;
   std::vector<std::string> warnings_, notes_;
 
   void build_media(std::vector<double> (&cb)[3]);
+  void node_coefficients(int c, int i, int j, double& a, double& b, std::vector<DispersiveNode>& out) const;
+  void join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>& found);
   // the absorber's hooks (absorber_hooks.cpp): its strips, and the CPML correction of the
   // H and E updates of row j (Roden & Gedney 2000)
   void build_pml(const std::vector<double> (&cb)[3]);
@@ -216,7 +224,9 @@ class Simulation {
   std::array<R*, 6> fields() { return {f_[0].data(), f_[1].data(), f_[2].data(), f_[3].data(), f_[4].data(), f_[5].data()}; }
   /// The edges' hook after everything that adds to H row j (boundaries.h).
   void h_boundaries(int j) { walls_.after_h_row(fields().data(), j, g_); }
+  /// E of row j: the update below, with the dispersive nodes' polarization currents around it.
   void e_row(int j);
+  void e_row_update(int j);  ///< runs, absorber, sources
   void record();
 };
 

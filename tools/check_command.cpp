@@ -16,6 +16,7 @@
 #include "materials/crystals/temperature.h"
 #include "materials/magnetic/linear_response.h"
 #include "materials/magnetic/state_choice.h"
+#include "materials/permittivity/permittivity.h"
 #include "solver/grid/yee_grid.h"
 #include "solver/stop_rule.h"
 #include "tools/commands.h"
@@ -151,6 +152,40 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
   return warnings;
 }
 
+/// Each dispersive medium: per principal axis its oscillators' TO-LO (reststrahlen) bands and
+/// plasma frequencies, and the fewest cells per wavelength over the sources' band, where
+/// |eps(omega)| is largest (near a TO line the polariton's wavelength is short).
+int report_dispersion(const Scene& s, double f_lo, double f_hi, double cell) {
+  int warnings = 0;
+  for (const auto& med : s.media) {
+    if (!med.tensor || !med.tensor->dispersive()) continue;
+    std::cout << fmt::format("  dispersive medium '{}' (axes u, v at {:.4g} deg from x, and z):\n", med.name,
+                             med.tensor->rotate * 180 / constants::pi);
+    const char* names[3] = {"u", "v", "z"};
+    for (int a = 0; a < 3; ++a) {
+      const PermittivityModel& m = med.tensor->axis[a];
+      std::string line = fmt::format("    {}: background {:g}", names[a], m.eps_inf);
+      for (const auto& t : m.lorentz)
+        line += fmt::format("; TO {:.4g} THz, LO {:.4g} THz", t.f_to / 1e12, lo_frequency(m, t) / 1e12);
+      for (const auto& t : m.drude) line += fmt::format("; plasma {:.4g} THz", t.plasma / 1e12);
+      std::cout << line << "\n";
+    }
+    if (!(f_hi > f_lo)) continue;
+    double n_max = 1, f_at = f_lo;
+    for (int q = 0; q <= 400; ++q) {
+      const double f = f_lo + (f_hi - f_lo) * q / 400.0;
+      const Mat3c e = medium_permittivity(med, 2 * constants::pi * f);
+      for (int c = 0; c < 3; ++c)
+        if (std::sqrt(std::abs(e(c, c))) > n_max) n_max = std::sqrt(std::abs(e(c, c))), f_at = f;
+    }
+    const double cpw = constants::c0 / (f_at * n_max) / cell;
+    std::cout << fmt::format("    largest |n| in the sources' band: {:.3g} at {:.4g} THz, {:.1f} cells per wavelength{}\n",
+                             n_max, f_at / 1e12, cpw, cpw < 10 ? "  <- warning: under 10" : "");
+    if (cpw < 10) ++warnings;
+  }
+  return warnings;
+}
+
 }  // namespace
 
 int check_command(const std::string& path, const std::vector<std::string>& sets) {
@@ -208,6 +243,7 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
     f_lo = std::min(f_lo, std::max(b.lo, 0.01 * src.frequency)), f_hi = std::max(f_hi, b.hi);
   }
   warnings += report_magnets(s, f_lo, f_hi, std::max(G.dx, G.dy));
+  warnings += report_dispersion(s, f_lo, f_hi, std::max(G.dx, G.dy));
   // run time from a short measurement of this machine's vacuum rate
   const int threads = s.time.threads > 0 ? s.time.threads : omp_get_max_threads();
   const double rate = measure_vacuum_rate(256, threads, real == 4, 0.1, 3);

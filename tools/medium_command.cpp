@@ -10,7 +10,8 @@
 /// the stationary-phase lateral shift and, with --waist, the shift of that Gaussian beam
 /// (materials/angular_spectrum.h). With --thickness and --source-distance it also predicts
 /// where the slab images a line source and how large the spot is, from the source's angular
-/// spectrum through the transfer matrix, beside the paraxial estimate.
+/// spectrum through the transfer matrix, beside the paraxial estimate. The permittivity is
+/// the medium's eps(omega) tensor (materials/permittivity/permittivity.h).
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
@@ -24,6 +25,7 @@
 #include "materials/layered/angular_spectrum.h"
 #include "materials/layered/refraction.h"
 #include "materials/magnetic/state_choice.h"
+#include "materials/permittivity/permittivity.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -32,8 +34,7 @@ namespace {
 using cd = std::complex<double>;
 
 struct Setup {
-  Mat3c eps_static = Mat3c::Identity();
-  double sigma = 0;  // S/m
+  Medium medium;  // its permittivity: dispersion, rotated axes and conductivity
   MagnetModel model;
   MagneticState state;
   bool magnetic = false;
@@ -42,8 +43,8 @@ struct Setup {
   double n_in = 1;
 };
 
-Mat3c eps_at(const Setup& s, double f) {  // eps + i sigma / (eps0 w)
-  return s.eps_static + cd(0, s.sigma / (constants::eps0 * 2 * constants::pi * f)) * Mat3c::Identity();
+Mat3c eps_at(const Setup& s, double f) {  // eps(w) + i sigma / (eps0 w)
+  return medium_permittivity(s.medium, 2 * constants::pi * f);
 }
 
 Mat3c mu_at(const Setup& s, double f) {
@@ -71,8 +72,7 @@ int medium_command(const MediumOptions& o) {
   const Medium& med = scene.media[k];
   if (med.perfect_conductor) throw BadInput(fmt::format("{}: error: '{}' is a perfect conductor", o.scene, o.medium));
   Setup s;
-  for (int c = 0; c < 3; ++c) s.eps_static(c, c) = cd(med.permittivity[c], 0);
-  s.sigma = med.conductivity;
+  s.medium = med;
   if (med.magnet) {
     s.magnetic = true;
     s.model = MagnetModel(*med.magnet, scene.bias);
@@ -88,7 +88,7 @@ int medium_command(const MediumOptions& o) {
     csv.open(o.csv);
     csv << "frequency_Hz,mu_xx_re,mu_xx_im,mu_yy_re,mu_yy_im,mu_zz_re,mu_zz_im,mu_xy_re,mu_xy_im,muV_re,muV_im,"
            "character,refraction_deg,r_plus_abs,r_plus_phase,r_minus_abs,r_minus_phase,cross_plus,T_plus,T_minus,"
-           "artmann_plus_m,artmann_minus_m,beam_plus_m,beam_minus_m\n";
+           "artmann_plus_m,artmann_minus_m,beam_plus_m,beam_minus_m,eps_xx_re,eps_xx_im,eps_yy_re,eps_yy_im,eps_zz_re,eps_zz_im,eps_xy_re,eps_xy_im,r_hz_plus_abs,T_hz_plus\n";
   }
   std::cout << fmt::format("medium '{}' under the bias [{}, {}, {}] T, interface normal {}, angle {:+.3f} deg{}\n",
                            med.name, scene.bias[0], scene.bias[1], scene.bias[2], o.normal, th * 180 / constants::pi,
@@ -106,7 +106,7 @@ int medium_command(const MediumOptions& o) {
   curves[3].style = curves[5].style = PlotSeries::Style::dashed;
   for (int q = 0; q < o.count; ++q) {
     const double f = o.count == 1 ? o.from : o.from + (o.to - o.from) * q / (o.count - 1);
-    const Mat3c mu = mu_at(s, f);
+    const Mat3c mu = mu_at(s, f), eps = eps_at(s, f);
     const cd muv = voigt_permeability(mu, nn);
     // the Ez wave's iso-frequency curve: k_t^2 / mu_nn + k_n^2 / mu_tt = eps_zz k0^2 (diagonal part)
     const double a = mu(nn, nn).real(), b = mu(nt, nt).real();
@@ -126,16 +126,24 @@ int medium_command(const MediumOptions& o) {
                              character, refr, std::abs(rp.r[0][0]), std::abs(rm.r[0][0]), rp.T[0], dp * 1e6, dm * 1e6);
     if (csv)
       csv << fmt::format("{:.10g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{},{:.8g},{:.8g},"
-                         "{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g}\n",
+                         "{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g}",
                          f, mu(0, 0).real(), mu(0, 0).imag(), mu(1, 1).real(), mu(1, 1).imag(), mu(2, 2).real(),
                          mu(2, 2).imag(), mu(0, 1).real(), mu(0, 1).imag(), muv.real(), muv.imag(), character, refr,
                          std::abs(rp.r[0][0]), std::arg(rp.r[0][0]), std::abs(rm.r[0][0]), std::arg(rm.r[0][0]),
-                         std::abs(rp.r[0][1]), rp.T[0], rm.T[0], dp, dm, bp, bm);
+                         std::abs(rp.r[0][1]), rp.T[0], rm.T[0], dp, dm, bp, bm)
+          << fmt::format(",{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g}\n", eps(0, 0).real(),
+                         eps(0, 0).imag(), eps(1, 1).real(), eps(1, 1).imag(), eps(2, 2).real(), eps(2, 2).imag(),
+                         eps(0, 1).real(), eps(0, 1).imag(), std::abs(rp.r[1][1]), rp.T[1]);
     nlohmann::json row;
     row["frequency"] = f;
     row["mu"] = {{mu(0, 0).real(), mu(0, 0).imag(), mu(1, 1).real(), mu(1, 1).imag(), mu(2, 2).real(), mu(2, 2).imag()}};
     row["mu-xy"] = {mu(0, 1).real(), mu(0, 1).imag()};
     row["mu-V"] = {muv.real(), muv.imag()};
+    row["eps"] = {{eps(0, 0).real(), eps(0, 0).imag(), eps(1, 1).real(), eps(1, 1).imag(), eps(2, 2).real(),
+                   eps(2, 2).imag()}};
+    row["eps-xy"] = {eps(0, 1).real(), eps(0, 1).imag()};
+    row["r-hz-plus"] = {std::abs(rp.r[1][1]), std::arg(rp.r[1][1])};
+    row["T-hz-plus"] = rp.T[1];
     row["character"] = character;
     row["refraction-angle-deg"] = std::isnan(refr) ? nlohmann::json() : nlohmann::json(refr);
     row["r-plus"] = {std::abs(rp.r[0][0]), std::arg(rp.r[0][0])};

@@ -12,6 +12,7 @@
 #include <vector>
 
 #include "io/scene/diagnostics.h"
+#include "io/scene/permittivity_model.h"
 
 namespace ty {
 
@@ -117,7 +118,9 @@ struct Medium {
   std::string name;
   std::string crystal;  ///< the library entry it was filled from (io/scene/crystals/), empty if none
   std::optional<Magnet> magnet;
-  std::array<double, 3> permittivity{1, 1, 1};  ///< relative, along x, y, z
+  std::array<double, 3> permittivity{1, 1, 1};  ///< relative, along x, y, z (with `tensor`: its background's diagonal)
+  /// the `permittivity` block's map form: dispersion per principal axis and the in-plane rotation
+  std::optional<PermittivityTensor> tensor;
   double conductivity = 0;                      ///< S/m
   bool perfect_conductor = false;
   Mark where;

@@ -18,6 +18,28 @@ void vec3(YAML::Emitter& e, const std::array<double, 3>& v, Kind k) {
   e << YAML::EndSeq;
 }
 
+/// A permittivity that disperses or rotates, per axis, each oscillator by its strength.
+void permittivity_tensor(YAML::Emitter& e, const PermittivityTensor& t) {
+  e << YAML::Key << "permittivity" << YAML::Value << YAML::Flow << YAML::BeginMap;
+  const char* names[3] = {"u", "v", "z"};
+  for (int a = 0; a < 3; ++a) {
+    const PermittivityModel& m = t.axis[a];
+    e << YAML::Key << names[a] << YAML::Value << YAML::Flow << YAML::BeginMap;
+    e << YAML::Key << "background" << YAML::Value << fmt::format("{}", m.eps_inf);
+    e << YAML::Key << "lorentz" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+    for (const LorentzTerm& l : m.lorentz)
+      e << YAML::Flow << YAML::BeginMap << YAML::Key << "to" << YAML::Value << q(l.f_to, Kind::frequency) << YAML::Key
+        << "strength" << YAML::Value << fmt::format("{}", l.delta_eps) << YAML::Key << "damping" << YAML::Value
+        << q(l.damping, Kind::frequency) << YAML::EndMap;
+    e << YAML::EndSeq << YAML::Key << "drude" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+    for (const DrudeTerm& d : m.drude)
+      e << YAML::Flow << YAML::BeginMap << YAML::Key << "plasma" << YAML::Value << q(d.plasma, Kind::frequency)
+        << YAML::Key << "collision" << YAML::Value << q(d.collision, Kind::frequency) << YAML::EndMap;
+    e << YAML::EndSeq << YAML::EndMap;
+  }
+  e << YAML::Key << "rotate" << YAML::Value << q(t.rotate, Kind::angle) << YAML::EndMap;
+}
+
 /// The magnet block with every value explicit (the exchange as its constant lambda).
 void magnet(YAML::Emitter& e, const Magnet& g) {
   e << YAML::Key << "magnet" << YAML::Value << YAML::Flow << YAML::BeginMap;
@@ -139,8 +161,12 @@ std::string resolved_scene_yaml(const Scene& s) {
   e << YAML::Key << "media" << YAML::Value << YAML::BeginMap;
   for (const auto& m : s.media) {
     e << YAML::Key << m.name << YAML::Value << YAML::Flow << YAML::BeginMap;
-    e << YAML::Key << "permittivity" << YAML::Value << YAML::Flow << YAML::BeginSeq << m.permittivity[0]
-      << m.permittivity[1] << m.permittivity[2] << YAML::EndSeq;
+    if (m.tensor) {
+      permittivity_tensor(e, *m.tensor);
+    } else {
+      e << YAML::Key << "permittivity" << YAML::Value << YAML::Flow << YAML::BeginSeq << m.permittivity[0]
+        << m.permittivity[1] << m.permittivity[2] << YAML::EndSeq;
+    }
     e << YAML::Key << "conductivity" << YAML::Value << q(m.conductivity, Kind::conductivity);
     e << YAML::Key << "perfect-conductor" << YAML::Value << m.perfect_conductor;
     if (m.magnet) magnet(e, *m.magnet);

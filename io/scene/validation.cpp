@@ -168,6 +168,12 @@ void check_placement(const Scene& s, Diagnostics& d) {
     b.shape.bounds(lo, hi);
     if (hi.x <= 0 || hi.y <= 0 || lo.x >= e.x || lo.y >= e.y)
       d.error(b.where, "the body lies wholly outside the grid's extent");
+    const Medium& m = s.media[b.medium];
+    if (m.tensor && !m.tensor->diagonal_in_plane())
+      d.error(b.where, fmt::format("the body's medium '{}' has its in-plane axes u, v rotated off x and y with "
+                                   "u and v unlike: the time stepping holds only eps_xy = 0 (rotate a multiple "
+                                   "of 90 deg); `terayee medium` takes any rotation",
+                                   m.name));
   }
   for (const auto& src : s.sources) {
     if (src.kind == Source::Kind::point && !inside(src.at))
@@ -190,6 +196,10 @@ void check_launch(const Scene& s, Diagnostics& d) {
     if (src.kind == Source::Kind::point) continue;
     const Vec2 p = launch_point(src, s.grid.extent);
     const int m = medium_at_point(s, p);
+    if (m >= 0 && s.media[m].tensor && s.media[m].tensor->dispersive())
+      d.error(src.where, fmt::format("the launch line starts inside the dispersive medium '{}' (at x = {:.4g} mm, "
+                                     "y = {:.4g} mm); launch from a medium without dispersion",
+                                     s.media[m].name, (p.x - s.origin_shift.x) * 1e3, (p.y - s.origin_shift.y) * 1e3));
     if (m >= 0 && s.media[m].perfect_conductor)
       d.error(src.where, fmt::format("the launch line starts inside the perfect conductor '{}' (at x = {:.4g} mm, "
                                      "y = {:.4g} mm); move the line or the body",

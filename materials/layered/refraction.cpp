@@ -44,4 +44,8 @@ Refraction ez_refraction(std::complex<double> eps_zz, const Mat3c& mu, int norma
   return r;
 }
 
+Refraction hz_refraction(const Mat3c& eps, std::complex<double> mu_zz, int normal, double kt) {
+  return ez_refraction(mu_zz, eps, normal, kt);
+}
+
 }  // namespace ty

@@ -32,4 +32,11 @@ struct Refraction {
 /// axis `normal` (0: x, 1: y), with tangential wavenumber kt (units of k0) along t = z x n.
 Refraction ez_refraction(std::complex<double> eps_zz, const Mat3c& mu, int normal, double kt);
 
+/// The Hz wave (H along z, E in the plane) entering a medium of in-plane permittivity tensor
+/// eps (a rotated crystal: eps_xy != 0) and mu_zz, by duality (E -> eta0 H, eta0 H -> -E,
+/// eps <-> mu leaves Maxwell's equations and S = E x H unchanged; Jackson, Classical
+/// Electrodynamics, 3rd ed., sec. 6.11): the Ez wave of a medium with eps' = mu_zz, mu' = eps.
+/// For a uniaxial crystal with its axis in the plane this is the extraordinary wave.
+Refraction hz_refraction(const Mat3c& eps, std::complex<double> mu_zz, int normal, double kt);
+
 }  // namespace ty

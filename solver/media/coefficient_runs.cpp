@@ -1,8 +1,11 @@
 /// \file coefficient_runs.cpp
 /// \brief The media of a Simulation as E-update coefficients: each E node's ca, cb from the
-/// medium averaged over its cell (4 x 4 sub-samples; perfect conductors zero both), then
+/// medium averaged over its cell (4 x 4 sub-samples; perfect conductors zero both; dispersive
+/// nodes also go to the compact list of solver/media/dispersive_cells.h), then
 /// rows of run-length coefficient runs (Run{i0, i1, ca, kx, ky}), a vacuum-like row marked
 /// for the fused constant-coefficient loop; and the medium map of the extent's cells.
+#include <algorithm>
+
 #include "io/scene/units.h"
 #include "materials/dielectric.h"
 #include "solver/simulation.h"
@@ -12,46 +15,101 @@ namespace ty {
 using constants::c0;
 using constants::eta0;
 
+/// The coefficients of E node (c, i, j): the arithmetic mean of the medium over its cell
+/// (kSub x kSub samples; perfect conductors zero both). Where a sample lies in a dispersive
+/// medium the node takes the ADE step (materials/permittivity/ade.h) with each medium's
+/// poles weighted by its share of the samples: the mean of eps(omega) over the cell.
+template <class R>
+void Simulation<R>::node_coefficients(int c, int i, int j, double& a, double& b,
+                                      std::vector<DispersiveNode>& out) const {
+  const Scene& s = scene_;
+  const Component comp = static_cast<Component>(c);
+  constexpr int kSub = 4;  // even: a face on a node splits its cell exactly in half
+  const Vec2 p{g_.x(comp, i), g_.y(comp, j)};
+  const int centre = medium_at(s, p);
+  a = b = 1;
+  if (centre >= 0 && s.media[centre].perfect_conductor) {
+    a = b = 0;
+    return;
+  }
+  int sample[kSub * kSub];
+  int count = 0;
+  bool dispersive = false;
+  double eps = 0, sig = 0;
+  for (int u = 0; u < kSub; ++u)
+    for (int v = 0; v < kSub; ++v) {
+      const Vec2 q{p.x + ((u + 0.5) / kSub - 0.5) * g_.dx, p.y + ((v + 0.5) / kSub - 0.5) * g_.dy};
+      const int m = medium_at(s, q);
+      if (m >= 0 && s.media[m].perfect_conductor) continue;
+      eps += m >= 0 ? s.media[m].permittivity[c] : 1.0;
+      sig += m >= 0 ? s.media[m].conductivity : 0.0;
+      dispersive = dispersive || (m >= 0 && s.media[m].tensor && s.media[m].tensor->along(c).dispersive());
+      sample[count++] = m;
+    }
+  if (!dispersive) {
+    const ECoefficients k = dielectric_update(eps / count, sig / count, g_.dt);
+    a = k.ca, b = k.cb;
+    return;
+  }
+  DispersiveNode node{g_.at(i, j), c, {}, 0};
+  for (int k = 0; k < count; ++k) {  // each sampled medium once, with its share
+    const int m = sample[k];
+    if (m < 0 || !s.media[m].tensor || std::find(sample, sample + k, m) != sample + k) continue;
+    const double share = double(std::count(sample, sample + count, m)) / count;
+    append_poles(s.media[m].tensor->along(c), share, g_.dt, node.poles);
+  }
+  double sum_c3 = 0;
+  for (const AdePole& q : node.poles) sum_c3 += q.c3;
+  const AdeNode k = ade_node(eps / count, sig / count, sum_c3, g_.dt);
+  a = k.ca, b = k.cb, node.corr = k.corr;
+  out.push_back(std::move(node));
+}
+
+template <class R>
+void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>& found) {
+  DispersiveCells& d = disp_;
+  d = {};
+  d.half_dt = 0.5 * g_.dt;
+  d.row_first.assign(1, 0);
+  d.pole_first.assign(1, 0);
+  for (auto& row : found) {
+    std::sort(row.begin(), row.end(),
+              [](const auto& x, const auto& y) { return x.comp != y.comp ? x.comp < y.comp : x.index < y.index; });
+    for (const DispersiveNode& n : row) {
+      d.index.push_back(n.index);
+      d.comp.push_back(n.comp);
+      d.corr.push_back(n.corr);
+      d.poles.insert(d.poles.end(), n.poles.begin(), n.poles.end());
+      d.pole_first.push_back(static_cast<int>(d.poles.size()));
+    }
+    d.row_first.push_back(static_cast<int>(d.index.size()));
+  }
+  d.p.assign(d.poles.size(), 0.0);
+  d.j.assign(d.poles.size(), 0.0);
+  d.e_old.assign(d.index.size(), 0.0);
+  bytes_ += d.index.size() * (sizeof(long) + 2 * sizeof(int) + 2 * sizeof(double)) +
+            d.poles.size() * (sizeof(AdePole) + 2 * sizeof(double));
+}
+
 template <class R>
 void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
   const Scene& s = scene_;
   const int nx = g_.nx, ny = g_.ny;
   std::vector<double> ca[3];
-  // sub-cell sampling: arithmetic mean of the medium over the node's cell (4 x 4 points)
-  constexpr int kSub = 4;  // even: a face on a node splits its cell exactly in half
+  // per row, the dispersive nodes found there (joined in row order below)
+  std::vector<std::vector<DispersiveNode>> found(ny);
   for (int c = 0; c < 3; ++c) {
-    const Component comp = static_cast<Component>(c);
     ca[c].assign(static_cast<size_t>(nx) * ny, 1.0);
     cb[c].assign(static_cast<size_t>(nx) * ny, 1.0);
     if (s.bodies.empty()) continue;
 #pragma omp parallel for schedule(static) num_threads(threads_)
     for (int j = 0; j < ny; ++j)
       for (int i = 0; i < nx; ++i) {
-        const Vec2 p{g_.x(comp, i), g_.y(comp, j)};
-        const int centre = medium_at(s, p);
-        double a = 1, b = 1;
-        if (centre >= 0 && s.media[centre].perfect_conductor) {
-          a = b = 0;
-        } else {
-          double eps = 0, sig = 0;
-          int count = 0;
-          for (int u = 0; u < kSub; ++u)
-            for (int v = 0; v < kSub; ++v) {
-              const Vec2 q{p.x + ((u + 0.5) / kSub - 0.5) * g_.dx, p.y + ((v + 0.5) / kSub - 0.5) * g_.dy};
-              const int m = medium_at(s, q);
-              if (m >= 0 && s.media[m].perfect_conductor) continue;
-              eps += m >= 0 ? s.media[m].permittivity[c] : 1.0;
-              sig += m >= 0 ? s.media[m].conductivity : 0.0;
-              ++count;
-            }
-          const ECoefficients k = dielectric_update(eps / count, sig / count, g_.dt);
-          a = k.ca;
-          b = k.cb;
-        }
-        ca[c][static_cast<size_t>(j) * nx + i] = a;
-        cb[c][static_cast<size_t>(j) * nx + i] = b;
+        const size_t at = static_cast<size_t>(j) * nx + i;
+        node_coefficients(c, i, j, ca[c][at], cb[c][at], found[j]);
       }
   }
+  join_dispersive_nodes(found);
   walls_.hold_e_coefficients(ca, cb, nx, ny);  // electric walls
 
   // run-length rows
@@ -87,7 +145,10 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
         medium_map_[static_cast<size_t>(j) * map_nx_ + i] = medium_at(s, {(i + 0.5) * g_.dx, (j + 0.5) * g_.dy});
 }
 
-#define TY_INSTANTIATE(R) template void Simulation<R>::build_media(std::vector<double>(&)[3]);
+#define TY_INSTANTIATE(R)                                                                                              \
+  template void Simulation<R>::build_media(std::vector<double>(&)[3]);                                                 \
+  template void Simulation<R>::node_coefficients(int, int, int, double&, double&, std::vector<DispersiveNode>&) const; \
+  template void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>&);
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)
 #undef TY_INSTANTIATE

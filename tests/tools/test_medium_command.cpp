@@ -37,9 +37,13 @@ TEST_CASE("terayee medium: Fresnel reflection and the Artmann shift of total int
   const std::string bin = TERAYEE_BINARY;
   REQUIRE(shell(bin + " medium '" + scene + "' --medium glass --from '1 THz' --to '1 THz' --count 1 --angle '30 deg' --csv '" + csv + "'") == 0);
   auto v = first_row(csv);
-  REQUIRE(v.size() == 24);
+  REQUIRE(v.size() == 34);
   const double ct = std::cos(ty::constants::pi / 6), ct2 = std::sqrt(1 - std::pow(std::sin(ty::constants::pi / 6) / 2, 2));
   const double rs = (ct - 2 * ct2) / (ct + 2 * ct2);
+  // the permittivity columns and the Hz wave's Fresnel r_p = (n ct - ct2)/(n ct + ct2), n = 2 (Born & Wolf sec. 1.5.2)
+  CHECK(v[24] == doctest::Approx(4.0));  // eps_xx
+  CHECK(v[28] == doctest::Approx(4.0));  // eps_zz
+  CHECK(v[32] == doctest::Approx(std::abs((2 * ct - ct2) / (2 * ct + ct2))).epsilon(1e-7));
   CHECK(v[13] == doctest::Approx(std::abs(rs)).epsilon(1e-7));  // |r+| (the CSV holds 8 digits)
   CHECK(v[15] == doctest::Approx(std::abs(rs)).epsilon(1e-7));  // |r-|: reciprocal
   CHECK(v[18] == doctest::Approx(1 - rs * rs).epsilon(1e-7));   // T+

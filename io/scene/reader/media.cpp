@@ -1,13 +1,24 @@
 /// \file media.cpp
-/// \brief The `media` section: permittivity, conductivity, perfect conductors and the `magnet`
-/// block (sublattices, exchange, anisotropy, Dzyaloshinskii field, order, thermal data,
-/// state choice). A `crystal` (media_crystal.cpp) fills the values that are not given.
+/// \brief The `media` section: permittivity (its map form in permittivity.cpp), conductivity,
+/// perfect conductors and the `magnet` block (sublattices, exchange, anisotropy,
+/// Dzyaloshinskii field, order, thermal data, state choice). A `crystal` (media_crystal.cpp)
+/// fills the values that are not given.
 #include <algorithm>
 #include <cmath>
 
 #include "io/scene/reader/reader.h"
 
 namespace ty::reader {
+namespace {
+
+/// The scene-frame diagonal of the background tensor R diag(u, v, z) R^T.
+std::array<double, 3> background_diagonal(const PermittivityTensor& t) {
+  const double c = std::cos(t.rotate), s = std::sin(t.rotate);
+  const double u = t.axis[0].eps_inf, v = t.axis[1].eps_inf;
+  return {u * c * c + v * s * s, u * s * s + v * c * c, t.axis[2].eps_inf};
+}
+
+}  // namespace
 
 void SceneBuilder::read_media(const YAML::Node& m) {
   if (!r_.is_map(m, "media")) return;
@@ -35,7 +46,10 @@ void SceneBuilder::read_media(const YAML::Node& m) {
     if (med.magnet && v["perfect-conductor"] && v["perfect-conductor"].Scalar() == "true")
       r_.error(v["perfect-conductor"], fmt::format("{}: a perfect conductor cannot also be a magnet", where));
     if (const auto& p = v["permittivity"]) {
-      if (p.IsSequence()) {
+      if (p.IsMap()) {
+        med.tensor = read_permittivity_map(r_, p, where);
+        if (med.tensor) med.permittivity = background_diagonal(*med.tensor);
+      } else if (p.IsSequence()) {
         if (auto e = r_.vec3(p, "permittivity", Kind::dimensionless)) med.permittivity = *e;
       } else if (auto e = r_.quantity(p, "permittivity", Kind::dimensionless)) {
         med.permittivity = {*e, *e, *e};

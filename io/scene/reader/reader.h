@@ -87,6 +87,9 @@ void collect_override_nodes(const YAML::Node& root, const std::string& item, std
 /// Records an error for every key given twice in one map (both places in the message).
 void find_duplicate_keys(const YAML::Node& n, Reader& r);
 
+/// A medium's `permittivity` written as a map (permittivity.cpp): dispersion and rotated axes.
+std::optional<PermittivityTensor> read_permittivity_map(Reader& r, const YAML::Node& p, const std::string& where);
+
 /// Reads the sections in an order that lets relative units resolve: media and the sources'
 /// frequencies first (they decide `cells-per-wavelength`), then the grid (the cell size that
 /// `cells` refers to), then bodies, sources and outputs.
