@@ -44,7 +44,7 @@ void show(const Crystal& c, double t) {
   std::cout << fmt::format("  phonons (Lorentz terms, for a dispersive permittivity): {}\n", c.phonon_source);
   for (const auto& p : c.phonons)
     std::cout << fmt::format("    axis {}: f_TO {:g} THz, strength {:g}, damping {:g} THz\n", "abc"[p.axis],
-                             p.f_TO / 1e12, p.delta_eps, p.gamma / 1e12);
+                             p.term.f_to / 1e12, p.term.delta_eps, p.term.damping / 1e12);
   if (!c.note.empty()) std::cout << fmt::format("  note: {}\n", c.note);
   Magnet g = crystal_magnet(c);
   if (t >= 0) g.thermal.temperature = t;

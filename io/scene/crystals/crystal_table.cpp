@@ -73,7 +73,7 @@ std::vector<Crystal> build() {
       .reference = 0,
       .anisotropy_power = {3, "Callen & Callen, J. Phys. Chem. Solids 27, 1271 (1966), l = 2"},
       .permittivity = {{{12.0, "from memory (static)"}, {12.0, "from memory"}, {12.0, "from memory"}}},
-      .phonons = {{0, 11.9e12, 6.3, 0.6e12}, {1, 11.9e12, 6.3, 0.6e12}, {2, 11.9e12, 6.3, 0.6e12}},
+      .phonons = {{0, {11.9e12, 6.3, 0.6e12}}, {1, {11.9e12, 6.3, 0.6e12}}, {2, {11.9e12, 6.3, 0.6e12}}},
       .phonon_source = "from memory, rough: one TO phonon near 397 cm^-1, eps_inf 5.7, eps(0) 12.0; the damping is "
                        "invented (5% of f_TO)",
       .resonances = {{36 * kWavenumber,

@@ -11,6 +11,8 @@
 #include <string_view>
 #include <vector>
 
+#include "io/scene/permittivity_model.h"
+
 namespace ty {
 
 /// A value and where it comes from: "Author, Journal vol, page (year), at 4.2 K", or
@@ -20,14 +22,13 @@ struct Cited {
   std::string_view source;
 };
 
-/// One Lorentz oscillator of the permittivity along one crystal axis (a phonon):
-/// eps(f) = eps_inf + sum delta_eps f_TO^2 / (f_TO^2 - f^2 - i f gamma). Recorded as data
-/// for a dispersive permittivity model; today a medium takes the constant `permittivity`.
-struct LorentzTerm {
-  int axis = 0;          ///< 0 = a, 1 = b, 2 = c
-  double f_TO = 0;       ///< Hz
-  double delta_eps = 0;  ///< oscillator strength
-  double gamma = 0;      ///< damping, Hz
+/// One Lorentz oscillator of the permittivity along one crystal axis (a phonon), in the
+/// permittivity model's own terms (io/scene/permittivity_model.h): eps(f) = eps_inf +
+/// delta_eps f_to^2 / (f_to^2 - f^2 - i f damping). Recorded as data; a medium naming the
+/// crystal takes the constant `permittivity` unless the scene gives a `permittivity` map.
+struct CrystalPhonon {
+  int axis = 0;  ///< 0 = a, 1 = b, 2 = c
+  LorentzTerm term;
 };
 
 struct CrystalAxisTerm {
@@ -54,7 +55,7 @@ struct Crystal {
   double lowest = 0;                     ///< K: below it the model does not hold (e.g. a Morin transition)
   std::string_view lowest_why;
   std::array<Cited, 3> permittivity;  ///< constant, along a, b, c (below the phonons)
-  std::vector<LorentzTerm> phonons;
+  std::vector<CrystalPhonon> phonons;
   std::string_view phonon_source;
   std::vector<Cited> resonances;  ///< measured zero-field resonances at `reference`, Hz
   std::string_view note;
