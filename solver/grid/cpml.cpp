@@ -10,8 +10,7 @@
 
 namespace ty {
 
-CpmlAxis make_cpml_axis(int n, int npml, double cell, double dt, const Absorber& p, bool graded_low,
-                        bool graded_high) {
+CpmlAxis make_cpml_axis(int n, int npml, double cell, double dt, const Absorber& p, bool graded_low, bool graded_high) {
   CpmlAxis ax;
   if (npml <= 0) return ax;
   ax.graded[0] = graded_low;

@@ -90,7 +90,7 @@ std::string GrowthGuard<R>::check(const Simulation<R>& sim) {
   const double w = sim.field_energy() + sim.magnetic_energy();
   const double floor = 1e-30 + 1e-12 * most_injected_;
   if (!(w <= kEnergyFactor * most_injected_ + floor)) {  // NaN too
-    double best = -1;  // the node of largest energy density (E and eta0 H alike)
+    double best = -1;                                    // the node of largest energy density (E and eta0 H alike)
     int bi = 0, bj = 0;
     for (int j = 0; j < g.ny; ++j) {
       for (int i = 0; i < g.nx; ++i) {

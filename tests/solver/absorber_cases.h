@@ -25,8 +25,8 @@ struct AbsorberCase {
 };
 
 struct AbsorberOutcome {
-  double rise = 0;                      ///< largest rise of the period-averaged energy over its earlier minimum, relative
-  double tilt_in = 0, tilt_out = 0;     ///< largest tilt inside / outside the absorbing layers, rad
+  double rise = 0;                   ///< largest rise of the period-averaged energy over its earlier minimum, relative
+  double tilt_in = 0, tilt_out = 0;  ///< largest tilt inside / outside the absorbing layers, rad
   double energy_end = 0, injected = 0;  ///< J/m
   std::string guard;                    ///< the guard's error, if it fired
   long guard_step = 0, steps = 0;
