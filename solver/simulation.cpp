@@ -82,6 +82,7 @@ void Simulation<R>::h_row(int j) {
   R* __restrict ey = f_[1].data() + o;
   R* __restrict ez = f_[2].data() + o;
   walls_.before_h_row(ey, ez, nx);
+  if (in_absorber(j)) graded_decay(j, false);  // the graded loss's first half step (graded_loss.h)
   const R* __restrict exn = ex + s;
   const R* __restrict ezn = ez + s;
   const R sx = sx_, sy = sy_;
@@ -94,8 +95,13 @@ void Simulation<R>::h_row(int j) {
   if (in_absorber(j)) pml_h_row(j);
   for (int q = inj_h_row_[j]; q < inj_h_row_[j + 1]; ++q) {
     const Injection& e = inj_h_[q];
-    f_[e.comp][e.index] += static_cast<R>(emitter_value_[e.slot]);
+    const double F = f_[e.comp][e.index], v = emitter_value_[e.slot];
+    injected_[j] += e.weight * std::abs((2 * F + v) * v);
+    f_[e.comp][e.index] += static_cast<R>(v);
   }
+  // and its second; with magnets the row's H is final only after their scatter: step_magnetic
+  // decays it then
+  if (mag_.empty() && in_absorber(j)) graded_decay(j, false);
   h_boundaries(j);
 }
 
@@ -121,6 +127,7 @@ void Simulation<R>::e_row_update(int j) {
   const R* __restrict hxp = hx - s;
   const R* __restrict hzp = hz - s;
   const Run* run = runs_.data();
+  if (in_absorber(j)) graded_decay(j, true);  // the graded loss's first half step (graded_loss.h)
   if (simple_row_[j]) {
     const R kx = run[row_runs_[3 * j]].kx, ky = run[row_runs_[3 * j]].ky;
 #pragma omp simd
@@ -150,8 +157,11 @@ void Simulation<R>::e_row_update(int j) {
   if (in_absorber(j)) pml_e_row(j);
   for (int q = inj_e_row_[j]; q < inj_e_row_[j + 1]; ++q) {
     const Injection& e = inj_e_[q];
-    f_[e.comp][e.index] += static_cast<R>(emitter_value_[e.slot]);
+    const double F = f_[e.comp][e.index], v = emitter_value_[e.slot];
+    injected_[j] += e.weight * std::abs((2 * F + v) * v);
+    f_[e.comp][e.index] += static_cast<R>(v);
   }
+  if (in_absorber(j)) graded_decay(j, true);
 }
 
 template <class R>

@@ -2,7 +2,8 @@
 /// \brief A simulation built from a Scene: it orders the construction of its rooms, runs
 /// the row sweep and lists its state. The rooms, each in its own file:
 ///   the grid's edges         solver/grid/boundaries/ (one hook interface, a file per kind)
-///   the absorber (CPML)      solver/grid/absorber_hooks.cpp (build, and the rows' corrections)
+///   the absorber             solver/grid/absorber_hooks.cpp (each side's kind, the strips, the
+///                            rows' PML corrections and graded loss)
 ///   media (coefficient runs) solver/media/coefficient_runs.cpp
 ///   dispersive nodes (ADE)   solver/media/dispersive_cells.h (built in coefficient_runs.cpp)
 ///   magnetic cells and step  solver/media/magnetic_step.cpp (magnetic_cells.h)
@@ -108,11 +109,22 @@ class Simulation {
     for (auto& m : maps_) m.visit_state(f);
     snaps_.visit_state(f);
     stop_.visit_state(f);
+    f("guard/injected-work", injected_.data(), injected_.size());
     f("clock/steps", &n_, 1);
     for (auto& p : probes_) p.count = n_;
     for (auto& fl : power_spectra_) fl.steps = n_;
     for (auto& m : maps_) m.steps = n_;
     mag_.latest = static_cast<int>(n_ & 1);
+  }
+  /// An upper bound of the energy the sources have put into the grid so far, J/m: the sum
+  /// over every injection of the size of the change of its node's energy,
+  /// (eps/2)|(F + v)^2 - F^2| dx dy (the signed sum swings with the reactive near field);
+  /// for the run's guard (solver/growth_guard.h); summed over rows in order, so the same for
+  /// any thread count.
+  double injected_energy() const {
+    double w = 0;
+    for (double v : injected_) w += v;
+    return w;
   }
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
   bool find_nonfinite(int& i, int& j, Component& c) const;
@@ -142,7 +154,8 @@ class Simulation {
     long index;
     int comp;
     int row;
-    int slot;  // value slot
+    int slot;           // value slot
+    double weight = 0;  // energy per unit length of the node per (field unit)^2, J/m/(V/m)^2
   };
   struct Emitter {  // value of one injection: Re[A g_s(t - tau)], or coef * signal for points
     std::complex<double> A;
@@ -165,6 +178,7 @@ class Simulation {
   // PML
   CpmlAxis px_, py_;
   std::vector<R> pbx_[2], pax_[2], pkx_[2], pby_[2], pay_[2], pky_[2];
+  std::vector<R> pdx_[2], pdy_[2];  // graded loss: decay per step of the lines (1 on PML sides)
   AlignedArray<R> psi_hyx_, psi_hzx_, psi_eyx_, psi_ezx_, cb_eyx_, cb_ezx_;  // [row][column of px_]
   AlignedArray<R> psi_hxy_, psi_hzy_, psi_exy_, psi_ezy_, cb_exy_, cb_ezy_;  // [row of py_][column]
   std::vector<int> pml_row_of_;  // row -> index into py_.lines, or -1
@@ -174,6 +188,7 @@ class Simulation {
   std::vector<double> emitter_value_;
   std::vector<Injection> inj_h_, inj_e_;
   std::vector<int> inj_h_row_, inj_e_row_;  // offsets per row, size ny+1
+  std::vector<double> injected_;            // per row: energy the injections put in, J/m
   Boundaries walls_;
   // recorders
   std::vector<ProbeRecorder> probes_;
@@ -200,6 +215,9 @@ class Simulation {
   void pml_h_row(int j);
   bool in_absorber(int j) const { return px_.count() > 0 || pml_row_of_[j] >= 0; }
   void pml_e_row(int j);
+  /// The graded loss (graded_loss.h) on the E (electric) or H nodes of row j, after their
+  /// final update; mask: which of the three components (bit 0: x, 1: y, 2: z).
+  void graded_decay(int j, bool electric, int mask = 7);
   void build_sources(const std::vector<double> (&cb)[3]);
   /// A point source's Gaussian footprint of injections.
   void add_point_source(const Source& src, int signal, const std::vector<double> (&cb)[3]);

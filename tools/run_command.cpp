@@ -3,7 +3,8 @@
 /// with a progress line, and writes the run folder. A stop (Ctrl-C, SIGTERM, SIGHUP,
 /// --stop-at-step) writes a checkpoint first; nothing is left that looks like a result.
 /// Exit status: 0 done or stopped as asked, 128 + signal when stopped by a signal, 1 a
-/// field that became non-finite or a write error, 2 bad input.
+/// field that became non-finite, a run the growth guard stopped (solver/guard/growth_guard.h)
+/// or a write error, 2 bad input.
 #include <fmt/format.h>
 #include <unistd.h>
 
@@ -23,6 +24,7 @@
 #include "io/scene/scene_reader.h"
 #include "io/scene/scene_writer.h"
 #include "io/scene/validation.h"
+#include "solver/guard/growth_guard.h"
 #include "solver/simulation.h"
 #include "tools/commands.h"
 
@@ -47,6 +49,7 @@ struct Runner {
   Log& log;
   RunFolder& folder;
   Simulation<R>& sim;
+  GrowthGuard<R>& guard;
   std::string resolved, checkpoint;
   long saved_at = -1;  ///< step of the last checkpoint written or loaded (-1: none)
 
@@ -68,6 +71,15 @@ struct Runner {
         component_name(c), step, step * g.dt * 1e12, i, j, x * 1e3, y * 1e3, medium,
         saved_at >= 0 ? fmt::format("The last good checkpoint (step {}) is kept in {}.", saved_at, checkpoint)
                       : std::string("No checkpoint had been written.")));
+    return 1;
+  }
+
+  /// A run the guard stopped: its message, and what is kept.
+  int growing(const std::string& e) {
+    folder.abandon();
+    log.error(fmt::format("{}. Nothing is written as a result. {}", e,
+                          saved_at >= 0 ? fmt::format("The last checkpoint (step {}) is kept in {}.", saved_at, checkpoint)
+                                        : std::string("No checkpoint had been written.")));
     return 1;
   }
 
@@ -118,6 +130,7 @@ struct Runner {
       int i, j;
       Component c;
       if (sim.find_nonfinite(i, j, c)) return nonfinite(n + 1, i, j, c);
+      if (const std::string e = guard.check(sim); !e.empty()) return growing(e);
       const double el = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
       const long done_here = n + 1 - first;
       const double rate = el > 0 ? static_cast<double>(g.cells()) * done_here / el : 0;
@@ -218,16 +231,6 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
                            {"midpoint-fraction", tilted},
                            {"largest-tilt-rad", tilt_out},
                            {"largest-tilt-in-absorber-rad", tilt_in}};
-    if (tilt_in > 1e-4 && tilt_in > 3 * tilt_out) {  // the studies at their defaults: below 1.2e-5 and below the rest
-      const std::string w = fmt::format(
-          "the magnetic cells inside the absorbing layers tilted to {:.3g} rad, {:.0f} times more than anywhere "
-          "else: the absorber is amplifying a backward wave (docs/magnets.md); give it a lower "
-          "conductivity, e.g. twice the cells at half the strength (grid.absorber), and check the results",
-          tilt_in, tilt_in / std::max(tilt_out, 1e-300));
-      log.warn(w);
-      warnings.push_back(w);
-      s["warnings"] = warnings;
-    }
     if (tilted > 0.01)
       log.info(
           fmt::format("{:.1f}% of the magnetic cell-steps were tilted past {:g} rad and took the midpoint rule, "
@@ -257,7 +260,14 @@ int run_with(const Scene& scene, const RunOptions& o) {
                   "{} thread{}, {} precision, {:.1f} MB",
                   g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(), sim.threads(),
                   sim.threads() == 1 ? "" : "s", sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
-  Runner<R> run{scene, o, log, folder, sim, resolved_scene_yaml(scene), folder.path("checkpoint.h5")};
+  GrowthGuard<R> guard(sim);  // stops a growing run (solver/guard/growth_guard.h)
+  if (!sim.magnets().empty())
+    log.info(guard.tilt_limit() > 0
+                 ? fmt::format("guard: the sources' linear response tilts the magnets by about {:.2g} rad; a tilt past "
+                               "{:.2g} rad, or more energy than the sources put in, stops the run",
+                               guard.linear_tilt(), guard.tilt_limit())
+                 : std::string("guard: the sources ask for large tilts; more energy than they put in stops the run"));
+  Runner<R> run{scene, o, log, folder, sim, guard, resolved_scene_yaml(scene), folder.path("checkpoint.h5")};
   if (folder.resuming()) {
     load_checkpoint(run.checkpoint, sim, run.resolved);
     run.saved_at = sim.steps_done();

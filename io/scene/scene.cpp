@@ -1,10 +1,13 @@
 /// \file scene.cpp
-/// \brief Names of the scene's enumerations and the point-in-shape tests of bodies.
+/// \brief Names of the scene's enumerations, the point-in-shape tests of bodies, and the
+/// absorbing layers' thickness.
 #include "io/scene/scene.h"
 
 #include <algorithm>
 #include <cmath>
 #include <limits>
+
+#include "io/scene/constants.h"
 
 #include "io/scene/constants.h"
 
@@ -160,6 +163,40 @@ void Shape::bounds(Vec2& lo, Vec2& hi) const {
       }
       return;
   }
+}
+
+int absorber_cells(const Scene& s, int axis) {
+  const GridSpec& G = s.grid;
+  if ((axis == 0 ? G.bx : G.by) != Boundary::absorbing) return 0;
+  if (G.absorber.cells > 0) return G.absorber.cells;
+  if (G.absorber.kind == Absorber::Kind::pml) return Absorber::kPmlCells;
+  // the highest index of a magnetic medium at the two edges of the extent along the axis, at
+  // every cell along them (a body holding one of those points runs on through that layer)
+  const double along = axis == 0 ? G.extent.y : G.extent.x, d = axis == 0 ? G.dy : G.dx;
+  const double cell = axis == 0 ? G.dx : G.dy;
+  const int n = std::max(1, static_cast<int>(std::lround(along / d)));
+  double index = G.absorber.kind == Absorber::Kind::graded ? 1.0 : 0.0;  // 0: no magnet there
+  for (double edge : {0.0, axis == 0 ? G.extent.x : G.extent.y})
+    for (int k = 0; k < n; ++k) {
+      const double t = (k + 0.5) * d;
+      const Vec2 p = axis == 0 ? Vec2{edge, t} : Vec2{t, edge};
+      for (int b = static_cast<int>(s.bodies.size()) - 1; b >= 0; --b)
+        if (s.bodies[b].shape.contains(p)) {
+          const int m = s.bodies[b].medium;
+          if (m >= 0 && m < static_cast<int>(s.media.size()) && s.media[m].magnet)
+            for (double e : s.media[m].permittivity) index = std::max(index, std::sqrt(std::max(e, 1.0)));
+          break;
+        }
+    }
+  if (index == 0) return Absorber::kPmlCells;
+  // the graded loss reflects as a taper, less the more wavelengths it spans: kGradedWavelengths
+  // of the longest carrier's wavelength in that medium (graded_loss.h)
+  double f = 0;
+  for (const Source& src : s.sources)
+    if (src.frequency > 0) f = f > 0 ? std::min(f, src.frequency) : src.frequency;
+  if (!(f > 0) || !(cell > 0)) return Absorber::kGradedCells;
+  const double wavelengths = Absorber::kGradedWavelengths * constants::c0 / (f * index) / cell;
+  return static_cast<int>(std::clamp(std::ceil(wavelengths), double(Absorber::kGradedCells), double(Absorber::kMostCells)));
 }
 
 }  // namespace ty

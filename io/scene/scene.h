@@ -28,11 +28,22 @@ inline bool is_electric(Component c) { return static_cast<int>(c) < 3; }
 enum class Boundary { absorbing, periodic, electric_wall, magnetic_wall };
 const char* boundary_name(Boundary b);
 
-/// Convolutional PML grading (Roden & Gedney 2000): sigma = strength * sigma_opt * (rho/d)^grading,
-/// sigma_opt = 0.8 (grading+1) / (eta0 * cell); kappa = 1 + (kappa_max-1)(rho/d)^grading;
-/// alpha = alpha_max (1 - rho/d).
+/// The absorbing layers. Two kinds: the convolutional PML (Roden & Gedney 2000):
+/// sigma = strength * sigma_opt * (rho/d)^grading, sigma_opt = 0.8 (grading+1) / (eta0 * cell);
+/// kappa = 1 + (kappa_max-1)(rho/d)^grading; alpha = alpha_max (1 - rho/d); and the graded
+/// loss (solver/grid/graded_loss.h), in which nothing can amplify. `automatic` gives a side
+/// whose layer holds magnetic cells the graded loss, the others the PML; `pml` (kept to test
+/// the run's guard: it can amplify backward waves) and `graded` give every side that kind.
 struct Absorber {
-  int cells = 16;
+  enum class Kind { automatic, pml, graded } kind = Kind::automatic;
+  /// Cells a side; 0: automatic (absorber_cells): kPmlCells for the PML; for the graded loss
+  /// kGradedWavelengths wavelengths of the lowest carrier in the medium there, at least
+  /// kGradedCells and at most kMostCells.
+  int cells = 0;
+  static constexpr int kPmlCells = 16;
+  static constexpr int kGradedCells = 40;
+  static constexpr int kMostCells = 200;
+  static constexpr double kGradedWavelengths = 2.5;
   double grading = 3.0;
   double strength = 1.0;
   double kappa_max = 1.0;
@@ -226,5 +237,14 @@ double source_end(const Source& s);
 /// is marked, without every body that holds no source (a point source inside it, or the
 /// point where a beam's axis or a plane wave's line meets its launch line).
 Scene reference_scene(const Scene& s);
+
+/// Cells of the absorbing layer on each side of an axis (0: x, 1: y): the scene's
+/// `absorber.cells` when given; kPmlCells for `pml`, and for `auto` where no magnetic medium
+/// reaches an edge of the extent along that axis (bodies run on through the layer); else (a
+/// graded layer) Absorber::kGradedWavelengths wavelengths of the lowest source frequency in
+/// the densest such medium (sqrt of its largest permittivity), within kGradedCells ..
+/// kMostCells.
+/// 0 when that axis is not absorbing.
+int absorber_cells(const Scene& s, int axis);
 
 }  // namespace ty

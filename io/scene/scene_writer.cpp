@@ -136,8 +136,11 @@ std::string resolved_scene_yaml(const Scene& s) {
   e << YAML::Key << "boundaries" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "x" << YAML::Value
     << boundary_name(s.grid.bx) << YAML::Key << "y" << YAML::Value << boundary_name(s.grid.by) << YAML::EndMap;
   const Absorber& a = s.grid.absorber;
-  e << YAML::Key << "absorber" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "cells" << YAML::Value
-    << a.cells << YAML::Key << "grading" << YAML::Value << a.grading << YAML::Key << "strength" << YAML::Value
+  e << YAML::Key << "absorber" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "kind" << YAML::Value
+    << (a.kind == Absorber::Kind::pml ? "pml" : a.kind == Absorber::Kind::graded ? "graded" : "auto") << YAML::Key
+    << "cells" << YAML::Value;
+  if (a.cells > 0) e << a.cells; else e << "auto";
+  e << YAML::Key << "grading" << YAML::Value << a.grading << YAML::Key << "strength" << YAML::Value
     << a.strength << YAML::Key << "kappa" << YAML::Value << a.kappa_max << YAML::Key << "alpha" << YAML::Value
     << q(a.alpha_max, Kind::conductivity) << YAML::EndMap;
   e << YAML::Key << "origin" << YAML::Value << (s.grid.origin_corner ? "corner" : "centre");

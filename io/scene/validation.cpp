@@ -98,8 +98,8 @@ double RunSizes::memory_bytes() const {
 RunSizes run_sizes(const Scene& s) {
   const GridSpec& G = s.grid;
   RunSizes z;
-  z.npml_x = G.bx == Boundary::absorbing ? G.absorber.cells : 0;
-  z.npml_y = G.by == Boundary::absorbing ? G.absorber.cells : 0;
+  z.npml_x = absorber_cells(s, 0);
+  z.npml_y = absorber_cells(s, 1);
   z.nx = std::round(G.extent.x / G.dx) + 2 * z.npml_x;
   z.ny = std::round(G.extent.y / G.dy) + 2 * z.npml_y;
   z.dt = s.time.step_fraction / (constants::c0 * std::sqrt(1.0 / (G.dx * G.dx) + 1.0 / (G.dy * G.dy)));

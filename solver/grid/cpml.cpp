@@ -1,18 +1,23 @@
 /// \file cpml.cpp
-/// \brief Grading of the convolutional PML (formulas in cpml.h).
+/// \brief Grading of the convolutional PML (formulas in cpml.h) and, on graded sides, of
+/// the graded loss (graded_loss.h).
 #include "solver/grid/cpml.h"
 
 #include <cmath>
 
 #include "io/scene/units.h"
+#include "solver/grid/graded_loss.h"
 
 namespace ty {
 
-CpmlAxis make_cpml_axis(int n, int npml, double cell, double dt, const Absorber& p) {
+CpmlAxis make_cpml_axis(int n, int npml, double cell, double dt, const Absorber& p, bool graded_low, bool graded_high) {
   CpmlAxis ax;
   if (npml <= 0) return ax;
+  ax.graded[0] = graded_low;
+  ax.graded[1] = graded_high;
   const double d = npml;  // thickness in cells
   const double sigma_max = p.strength * 0.8 * (p.grading + 1) / (constants::eta0 * cell);
+  const double nu_max = graded_loss_peak(p, d * cell);
   auto depth = [&](double pos) {  // depth into the layer, in cells (0 outside)
     if (pos < d) return d - pos;
     if (pos > n - d) return pos - (n - d);
@@ -22,10 +27,13 @@ CpmlAxis make_cpml_axis(int n, int npml, double cell, double dt, const Absorber&
     const double r0 = depth(i), r1 = depth(i + 0.5);
     if (r0 <= 0 && r1 <= 0) continue;
     ax.lines.push_back(i);
+    const bool graded = 2 * i < n ? graded_low : graded_high;
     for (int h = 0; h < 2; ++h) {
       const double rho = std::min(1.0, (h == 0 ? r0 : r1) / d);
-      double b = 1, a = 0, km1 = 0;
-      if (rho > 0) {
+      double b = 1, a = 0, km1 = 0, decay = 1;
+      if (rho > 0 && graded) {
+        decay = std::exp(-0.5 * graded_loss_rate(nu_max, rho, p.grading) * dt);  // half a step
+      } else if (rho > 0) {
         const double g = std::pow(rho, p.grading);
         const double sigma = sigma_max * g;
         const double kappa = 1 + (p.kappa_max - 1) * g;
@@ -37,6 +45,7 @@ CpmlAxis make_cpml_axis(int n, int npml, double cell, double dt, const Absorber&
       ax.b[h].push_back(b);
       ax.a[h].push_back(a);
       ax.kinv_m1[h].push_back(km1);
+      ax.decay[h].push_back(decay);
     }
   }
   return ax;

@@ -25,8 +25,8 @@ YeeGrid grid_for(const Scene& s, int align_elements) {
   const GridSpec& G = s.grid;
   const int ext_x = static_cast<int>(std::lround(G.extent.x / G.dx));
   const int ext_y = static_cast<int>(std::lround(G.extent.y / G.dy));
-  const int npx = G.bx == Boundary::absorbing ? G.absorber.cells : 0;
-  const int npy = G.by == Boundary::absorbing ? G.absorber.cells : 0;
+  const int npx = absorber_cells(s, 0);
+  const int npy = absorber_cells(s, 1);
   YeeGrid g;
   g.init(ext_x + 2 * npx, ext_y + 2 * npy, npx, npy, G.dx, G.dy, align_elements);
   g.dt = s.time.step_fraction * courant_limit_dt(G.dx, G.dy);

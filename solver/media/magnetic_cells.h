@@ -31,9 +31,10 @@
 /// permittivity for normal E at dielectric interfaces. Without it a gyrotropic surface
 /// reflects with a phase error of first order in the cell (measured: 0.022 rad at 25 um,
 /// 0.010 at 12.5 um, at 292 GHz near an MnF2 line; with it 0.003 and 0.001).
-/// Absorbing layers: there the cells' damping rises towards 0.005 (a cubic ramp over the
-/// layer), since a PML can amplify the backward waves a hyperbolic or negative-permeability
-/// medium carries (Becache, Fauqueux & Joly, J. Comput. Phys. 188, 399 (2003)).
+/// Absorbing layers: a side whose layer holds magnetic cells takes the graded loss on E and
+/// H (solver/grid/graded_loss.h), the cells' own step unchanged; a PML there can amplify the backward waves a hyperbolic or
+/// negative-permeability medium carries (Becache, Fauqueux & Joly, J. Comput. Phys. 188,
+/// 399 (2003)).
 ///
 /// Layout: cells are listed row by row, left to right, in runs of one medium along a row
 /// (`runs`, those of row j at row_runs[j] .. row_runs[j+1]), so that gathers and scatters

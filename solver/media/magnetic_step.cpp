@@ -81,52 +81,24 @@ void Simulation<R>::build_magnets() {
     if (!walls_.neighbour(i, j, nx, ny)) return false;  // the body runs on through the absorber
     return slot[static_cast<size_t>(j) * nx + i] < 0;
   };
-  // Inside the absorbing layers the damping rises to kAbsorberDamping (as the cube of the
-  // depth, in kLevels steps): a PML can amplify backward waves, which a hyperbolic or
-  // negative-permeability medium carries (Becache, Fauqueux & Joly, J. Comput. Phys. 188,
-  // 399 (2003)). Measured in the negative-refraction study (a hyperbolic medium through the
-  // side absorbers, 25 um cells): without the ramp the absorber's cells tilted to 2e-3 by
-  // 2 ns and 0.07 rad by 4 ns; with a ramp to 0.002 still to 0.25 rad by 6 ns; to 0.005 no
-  // cell passes 3e-5 over 6 ns. The growth follows the PML's conductivity (sigma_max, which
-  // scales as strength / cell): in the slab-lens study at 12.5 um cells 0.005 let the
-  // absorber's cells grow (16 cells: 1% of the cell-steps past 1e-4 rad by 4 ns; 32 cells:
-  // 1e-4 rad by 1.6 ns) at full strength, and stay at 1e-6 with 32 cells at half strength
-  // (the default's absorber, metre for metre). Raising
-  // the damping with sigma_max instead was tried: it reflects more (0.0084 off the band in the
-  // half-space test at 10 um cells, against 0.0034), so runs warn instead (run_command.cpp).
-  // The ramp reflects a little near a line (where the damping changes mu most): 0.0034 in R
-  // off the band in the 32-cell absorber of the half-space test, 0.006 in a 16-cell one at
-  // 50 cells per wavelength (0.0007 without the ramp).
-  constexpr int kLevels = 8;
-  constexpr double kAbsorberDamping = 0.005;
-  auto level = [&](int i, int j) {  // how deep in the absorber, 0 (outside) .. kLevels
-    auto depth = [](int k, int n, int np) {
-      if (np == 0) return 0.0;
-      return k < np ? double(np - k) / np : k >= n - np ? double(k - (n - np) + 1) / np : 0.0;
-    };
-    const double d = std::max(depth(i, nx, g_.npml_x), depth(j, ny, g_.npml_y));
-    return static_cast<int>(std::ceil(d * kLevels - 1e-9));
-  };
-  std::map<std::array<int, 4>, int> step_of;  // (medium, faces along x and y, absorber level) -> M.steps
-  auto step_for = [&](int med, int fx, int fy, int q) {
-    const auto key = std::array<int, 4>{med, fx, fy, q};
+  // The absorbing layers need no change to the magnets: a side whose layer holds magnetic
+  // cells takes the graded loss, in which nothing amplifies (solver/grid/graded_loss.h).
+  std::map<std::array<int, 3>, int> step_of;  // (medium, faces along x and y) -> M.steps
+  auto step_for = [&](int med, int fx, int fy) {
+    const auto key = std::array<int, 3>{med, fx, fy};
     if (auto it = step_of.find(key); it != step_of.end()) return it->second;
     const std::array<double, 3> self{0.25 * fx, 0.25 * fy, 0.0};
-    MagnetModel model = M.models[med];
-    const double ramp = std::pow(static_cast<double>(q) / kLevels, 3);
-    for (int sl = 0; sl < model.n; ++sl) model.alpha[sl] += (kAbsorberDamping - model.alpha[sl]) * ramp;
-    M.steps.push_back(CellStep::from(model, M.ground[med], g_.dt, f_max_of[med], own, self));
+    M.steps.push_back(CellStep::from(M.models[med], M.ground[med], g_.dt, f_max_of[med], own, self));
     return step_of[key] = static_cast<int>(M.steps.size()) - 1;
   };
-  // cells row by row, left to right; a run per stretch of one step (medium, faces, level)
+  // cells row by row, left to right; a run per stretch of one step (medium, faces)
   for (int j = 0; j < ny; ++j) {
     M.row_runs[j] = static_cast<int>(M.runs.size());
     int prev = -1;
     for (int i = 0; i < nx; ++i) {
       const int med = slot[static_cast<size_t>(j) * nx + i];
       const int st = med < 0 ? -1
-                             : step_for(med, outside(i - 1, j) + outside(i + 1, j), outside(i, j - 1) + outside(i, j + 1),
-                                        level(i, j));
+                             : step_for(med, outside(i - 1, j) + outside(i + 1, j), outside(i, j - 1) + outside(i, j + 1));
       if (st >= 0) {
         if (st != prev) M.runs.push_back({i, i, M.count(), st});
         M.runs.back().i1 = i + 1;
@@ -332,8 +304,10 @@ void Simulation<R>::step_magnetic() {
       if (j + 1 < j1 - 1) gather_row(j + 1, ring[(j + 1) & 1]);
       if (j + 1 < j1) h_row(j + 1);
       magnetic_row(j, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
+      if (in_absorber(j)) graded_decay(j, false, 5);  // the graded loss on the row's final Hx, Hz
       if (j > j0) {
         scatter_hy(j);
+        if (in_absorber(j)) graded_decay(j, false, 2);  // and on its final Hy
         h_boundaries(j);
         e_row(j);
       }
@@ -341,6 +315,7 @@ void Simulation<R>::step_magnetic() {
 #pragma omp barrier
     if (j1 > j0) {
       scatter_hy(j0);
+      if (in_absorber(j0)) graded_decay(j0, false, 2);
       h_boundaries(j0);
     }
 #pragma omp barrier

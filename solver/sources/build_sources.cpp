@@ -27,7 +27,7 @@ void Simulation<R>::add_injection(bool h_phase, Component c, int i, int j, std::
   if (i < 0 || i >= g_.nx || j < 0 || j >= g_.ny) return;
   const int slot = static_cast<int>(emitters_.size());
   emitters_.push_back({A, tau, signal, h_phase});
-  (h_phase ? inj_h_ : inj_e_).push_back({g_.at(i, j), static_cast<int>(c), j, slot});
+  (h_phase ? inj_h_ : inj_e_).push_back({g_.at(i, j), static_cast<int>(c), j, slot, 0.0});
 }
 
 template <class R>
@@ -56,6 +56,15 @@ void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
   };
   index(inj_h_, inj_h_row_);
   index(inj_e_, inj_e_row_);
+  // energy weights for the run's guard (injected_energy): eps0 eps_r dx dy / 2 for E (eps_r
+  // about 1 / cb at the node), eps0 dx dy / 2 for eta0 H (mu0 H^2 = eps0 (eta0 H)^2)
+  const double half_cell = 0.5 * constants::eps0 * g_.dx * g_.dy;
+  for (auto& e : inj_e_) {
+    const double b = cb[e.comp][static_cast<size_t>(e.row) * g_.nx + (e.index - g_.at(0, e.row))];
+    e.weight = b > 0 ? half_cell / b : 0.0;
+  }
+  for (auto& e : inj_h_) e.weight = half_cell;
+  injected_.assign(g_.ny, 0.0);
   emitter_value_.assign(emitters_.size(), 0.0);
 }
 

@@ -31,7 +31,8 @@ using test::mnf2;
 std::vector<double> run(const Magnet& mag, std::array<double, 3> bias, bool with_body, double probe_x, double stop,
                         double* dt, Precision prec = Precision::double_, double thickness = 0) {
   Scene s = test::box_scene(kNx, kNy, kCell, Boundary::absorbing, Boundary::periodic, 0.7, stop);
-  s.grid.absorber.cells = 32;  // the crystal runs through it; its damping ramp reflects less when longer
+  // the default absorber: the crystal runs through the right one, which is therefore the
+  // graded loss (solver/grid/graded_loss.h), 2.5 wavelengths thick in the crystal
   s.bias = bias;
   s.time.precision = prec;
   if (with_body) {
@@ -123,8 +124,10 @@ TEST_CASE("coupled solver: reflectance of an MnF2 half-space matches the linear 
   MESSAGE("worst |R - R_linear|: " << worst << " over 240-285 GHz, " << worst_off << " outside 258-266 GHz");
   MESSAGE("reflection peak " << peak << " at " << f_peak / 1e9 << " GHz; linear response " << peak_linear << " at "
                              << f_peak_linear / 1e9 << " GHz");
-  CHECK(worst < 0.02);
-  CHECK(worst_off < 0.005);
+  // the issue's targets for the default absorber: 0.01 over the band, 1e-3 off it (measured
+  // 0.0055 and 7.4e-4; with the PML and its damping ramp 0.006 off the band, docs/method.md)
+  CHECK(worst < 0.01);
+  CHECK(worst_off < 1e-3);
   CHECK(std::abs(peak - peak_linear) < 0.02);  // the damped total reflection inside the band
   CHECK(std::abs(f_peak / f_peak_linear - 1) < 5e-4);
   // single precision fields, spin state in double: the same spectrum within 0.03

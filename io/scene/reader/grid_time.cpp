@@ -149,10 +149,20 @@ void SceneBuilder::read_boundaries(const YAML::Node& g) {
   }
   if (const auto& a = g["absorber"]) {
     if (r_.is_map(a, "absorber")) {
-      r_.allow(a, {"cells", "grading", "strength", "kappa", "alpha"}, "absorber");
+      r_.allow(a, {"kind", "cells", "grading", "strength", "kappa", "alpha"}, "absorber");
       Absorber& A = G.absorber;
-      if (a["cells"])
-        if (auto v = r_.integer(a["cells"], "absorber.cells", 1, 200)) A.cells = *v;
+      if (a["kind"])
+        if (auto v = r_.choice<Absorber::Kind>(a["kind"], "absorber.kind",
+                                               {{"auto", Absorber::Kind::automatic},
+                                                {"pml", Absorber::Kind::pml},
+                                                {"graded", Absorber::Kind::graded}}))
+          A.kind = *v;
+      if (a["cells"]) {
+        if (a["cells"].IsScalar() && a["cells"].Scalar() == "auto")
+          A.cells = 0;
+        else if (auto v = r_.integer(a["cells"], "absorber.cells", 1, 200))
+          A.cells = *v;
+      }
       if (a["grading"])
         if (auto v = r_.quantity(a["grading"], "absorber.grading", Kind::dimensionless)) {
           if (*v < 1 || *v > 6) r_.error(a["grading"], "'absorber.grading' must lie between 1 and 6");

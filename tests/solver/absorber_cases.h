@@ -1,0 +1,109 @@
+/// \file absorber_cases.h
+/// \brief Scenes for the absorber tests: an a-cut MnF2 crystal (easy axis along x, so the
+/// Ez wave sees mu_xx = 1 and mu_yy = mu_perp, a hyperbolic band where mu_perp < 0) as a
+/// half-space through three absorbers or as a plate through the two side absorbers, lit by
+/// a line current; and the run that measures energy and tilts after the source has stopped.
+#pragma once
+#include <algorithm>
+#include <string>
+
+#include "solver/guard/growth_guard.h"
+#include "solver/simulation.h"
+#include "tests/helpers.h"
+
+namespace ty::test {
+
+struct AbsorberCase {
+  double cell = 20e-6;
+  double frequency = 262.5e9;  ///< carrier: below (250), inside (262.5) or above (275 GHz) the band
+  bool plate = false;          ///< a 0.6 mm plate through the side absorbers, else a half-space
+  bool cw = false;
+  double stop = 0.6e-9;
+  Absorber::Kind kind = Absorber::Kind::automatic;
+  double damping = 1e-4;
+  double step_fraction = 0.95;
+};
+
+struct AbsorberOutcome {
+  double rise = 0;                   ///< largest rise of the period-averaged energy over its earlier minimum, relative
+  double tilt_in = 0, tilt_out = 0;  ///< largest tilt inside / outside the absorbing layers, rad
+  double energy_end = 0, injected = 0;  ///< J/m
+  std::string guard;                    ///< the guard's error, if it fired
+  long guard_step = 0, steps = 0;
+};
+
+inline Scene absorber_scene(const AbsorberCase& c) {
+  const double L = 2e-3;
+  const int n = static_cast<int>(std::lround(L / c.cell));
+  Scene s = box_scene(n, n, c.cell, Boundary::absorbing, Boundary::absorbing, c.step_fraction, c.stop);
+  s.grid.absorber.kind = c.kind;
+  Medium m;
+  m.name = "MnF2";
+  m.permittivity = {5.5, 5.5, 5.5};
+  Magnet mag = mnf2(c.damping);
+  mag.anisotropy = {{{1, 0, 0}, 0.787}};
+  mag.order = {1, 0, 0};
+  m.magnet = mag;
+  s.media.push_back(m);
+  Body b;
+  b.shape.kind = Shape::Kind::rectangle;
+  if (c.plate) {
+    b.shape.centre = {0.5 * L, 1.0e-3};
+    b.shape.size = {10 * L, 0.6e-3};
+  } else {
+    b.shape.centre = {0.5 * L, 1.0e-3 + 2 * L};
+    b.shape.size = {10 * L, 4 * L};
+  }
+  s.bodies.push_back(b);
+  Source src = point_source(Component::Ez, {0.5 * L, c.plate ? 0.35e-3 : 0.5e-3}, c.frequency, 20e-12, 40e-12, 1e-3);
+  if (c.cw) {
+    src.waveform.kind = Waveform::Kind::cw;
+    src.waveform.ramp = 20 / c.frequency;
+  }
+  s.sources.push_back(src);
+  return s;
+}
+
+/// Steps the scene to its stop time, checking the guard every 1% of the run; after the
+/// pulse has passed (4 FWHM after its peak) the energy averaged over each period must not rise.
+inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
+  const Scene s = absorber_scene(c);
+  Simulation<double> sim(s, 2);
+  GrowthGuard<double> guard(sim);
+  AbsorberOutcome out;
+  out.steps = sim.total_steps();
+  const long every = std::max(1L, sim.total_steps() / 100);
+  const long quiet = c.cw ? sim.total_steps() : static_cast<long>((40e-12 + 4 * 20e-12) / sim.grid().dt);
+  const long period = std::max(1L, static_cast<long>(std::lround(1 / (c.frequency * sim.grid().dt))));
+  double acc = 0, lowest = 0;
+  long count = 0;
+  bool first = true;
+  for (long k = 0; k < sim.total_steps(); ++k) {
+    sim.step();
+    if (k >= quiet) {
+      acc += sim.field_energy() + sim.magnetic_energy();
+      if (++count == period) {
+        const double w = acc / period;
+        if (first) lowest = w, first = false;
+        out.rise = std::max(out.rise, w / lowest - 1);
+        lowest = std::min(lowest, w);
+        acc = 0, count = 0;
+      }
+    }
+    if ((k + 1) % every == 0) {
+      out.guard = guard.check(sim);
+      if (!out.guard.empty()) {
+        out.guard_step = k + 1;
+        break;
+      }
+    }
+  }
+  const YeeGrid& g = sim.grid();
+  out.tilt_in = sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y);
+  out.tilt_out = sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y);
+  out.energy_end = sim.field_energy() + sim.magnetic_energy();
+  out.injected = sim.injected_energy();
+  return out;
+}
+
+}  // namespace ty::test

@@ -1,0 +1,18 @@
+#!/usr/bin/env bash
+# The absorber's long checks, outside CI (minutes to hours on two cores): an a-cut MnF2
+# half-space and plate through the default absorber, 50, 20, 10 and 5 um cells, pulsed and
+# cw, below, inside and above the hyperbolic band, 4 ns each; nothing may gain energy or
+# tilt more in the absorber than inside (tests/solver/grid/test_absorber_stability.cpp).
+# Then the MnF2 half-space reflectance against its linear response (the issue's targets).
+#   tools/absorber-check.sh            all cells
+#   tools/absorber-check.sh 20 10      only these cells (um)
+set -euo pipefail
+root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+tests="${TERAYEE_TESTS:-$root/build/terayee_tests}"
+cells=("$@")
+[ ${#cells[@]} -gt 0 ] || cells=(50 20 10 5)
+for c in "${cells[@]}"; do
+  echo "== ${c} um"
+  TERAYEE_ABSORBER_CELL="$c" "$tests" -tc="absorbers, long*" --no-skip -s | grep -E "MESSAGE|energy rise|ERROR|FAILED|passed|failed" || true
+done
+"$tests" -tc="coupled solver: reflectance of an MnF2 half-space*" -s | grep -E "worst|peak|passed|failed"
