@@ -54,13 +54,26 @@ TEST_CASE("MnF2 and FeF2 antiferromagnetic resonance against temperature") {
   CHECK(off(r40, 0.89) < 0.08);
   CHECK(off(r60, 0.60) < 0.25);
   CHECK(r60 < 0.60);  // the mean field's known shortfall near T_N
-  // FeF2 at 40 K: the line has moved down by only a few percent (Ohlmann & Tinkham 1961,
-  // from memory: about 0.96 of 52.7 cm^-1). The model moves it too early (0.84): the
-  // Callen-Callen m^3 law is derived for an anisotropy small against the exchange, and
-  // FeF2's is 37% of it. Held to 15%, as a record of that deviation (docs/crystals.md).
+  // FeF2 at 40 K: the measured line has moved down by only a few percent (Ohlmann & Tinkham
+  // 1961, from memory: about 0.96 of 52.7 cm^-1); the model moves it further (about 0.84):
+  // the Callen-Callen law is derived for an anisotropy small against the exchange, and
+  // FeF2's is 37% of it (docs/crystals.md). What the model must do exactly is its stated
+  // laws: Keffer & Kittel's line w = gamma sqrt(2 B_E B_A + B_A^2) (Phys. Rev. 85, 329
+  // (1952)) with B_E ~ m and B_A ~ m^(power-1), m the mean-field magnetization. A missing,
+  // doubled or halved scaling misses this by far more than the 1e-6 held.
+  const Magnet fe = crystal_magnet(*find_crystal("FeF2"));
+  const double BE = fe.lambda * fe.sublattices[0].saturation, BA = fe.anisotropy[0].field;
+  const Thermal& th = fe.thermal;
+  auto line = [&](double t) {
+    const double m = mean_field_magnetization(th.spin, t / th.ordering) /
+                     mean_field_magnetization(th.spin, th.reference / th.ordering);
+    const double be = BE * m, ba = BA * std::pow(m, th.anisotropy_power - 1);
+    return std::sqrt(2 * be * ba + ba * ba);
+  };
   const double g0 = resonance_at("FeF2", 0), q40 = resonance_at("FeF2", 40) / g0;
-  MESSAGE("FeF2: f(40 K)/f(0) = " << q40);
-  CHECK(off(q40, 0.96) < 0.15);
+  MESSAGE("FeF2: f(40 K)/f(0) = " << q40 << " (measured about 0.96, from memory)");
+  CHECK(q40 == doctest::Approx(line(40) / line(0)).epsilon(1e-6));
+  CHECK(q40 < 0.96);  // the stated deviation: the model's line moves earlier than the crystal's
   // and both lines fall monotonically towards the Neel temperature
   CHECK(resonance_at("MnF2", 66) < 0.5 * f0);
   CHECK(resonance_at("FeF2", 77) < 0.5 * g0);
