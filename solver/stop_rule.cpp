@@ -32,6 +32,12 @@ long whole_periods_block(const Scene& s, double dt, int every, long at_least) {
   return std::max<long>(best, every);
 }
 
+/// How many numbers a map contributes to the signatures: 6 per sampled point and frequency.
+std::size_t map_values(const SpectralMap& m, long stride) {
+  const long np = static_cast<long>(m.ni) * m.nj;
+  return m.freq.size() * static_cast<std::size_t>((np + stride - 1) / stride) * 6;
+}
+
 }  // namespace
 
 StopPlan plan_stop(const Scene& s, double dt, long limit_steps) {
@@ -77,7 +83,7 @@ StopRule::StopRule(const AutoStop& a, const StopPlan& p, const std::vector<Power
   for (const auto& m : maps) {
     const long np = static_cast<long>(m.ni) * m.nj;
     map_stride_.push_back(std::max(1L, (np + kMapSamples - 1) / kMapSamples));
-    n += static_cast<long>(m.freq.size()) * ((np + map_stride_.back() - 1) / map_stride_.back()) * 6;
+    n += static_cast<long>(map_values(m, map_stride_.back()));
   }
   previous_.assign(static_cast<std::size_t>(n), 0.0);
   now_.assign(previous_.size(), 0.0);
@@ -128,11 +134,7 @@ bool StopRule::settled(long steps, double dt, double energy, const std::vector<P
     q += n;
   };
   for (const auto& l : lines) compare(l.freq.size(), false);
-  for (std::size_t k = 0; k < maps.size(); ++k)
-    compare(now_.size() > q ? static_cast<std::size_t>(maps[k].freq.size()) *
-                                  ((static_cast<long>(maps[k].ni) * maps[k].nj + map_stride_[k] - 1) / map_stride_[k]) * 6
-                            : 0,
-            true);
+  for (std::size_t k = 0; k < maps.size(); ++k) compare(map_values(maps[k], map_stride_[k]), true);
   fig_[kChange] = fig_[kChecks] > 0 ? change : -1.0;
   fig_[kChecks] += 1;
   std::swap(previous_, now_);
