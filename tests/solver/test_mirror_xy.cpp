@@ -5,7 +5,8 @@
 /// and H and M are axial vectors, (Hx, Hy, Hz) -> -(Hy, Hx, Hz) (Jackson, Classical
 /// Electrodynamics, 3rd ed., sec. 6.10, Table 6.1); the Yee cell maps onto itself (Ex nodes
 /// onto Ey nodes, Hx onto Hy, Ez and Hz onto themselves). Every boundary kind is tried on
-/// each axis, with a dielectric, a lossy dielectric, a perfect conductor and an MnF2 slab that
+/// each axis, with a dielectric, a lossy dielectric, a perfect conductor, a dispersive
+/// (Lorentz and Drude) block, and an MnF2 slab that
 /// crosses the boundary (through the absorber, up to a wall, across the periodic seam), on
 /// unequal cells (dx != dy). Only round-off may differ.
 #include <doctest/doctest.h>
@@ -47,7 +48,15 @@ Scene base_scene(Boundary bx, Boundary by) {
   mn.name = "MnF2";
   mn.permittivity = {5.5, 5.5, 5.5};
   mn.magnet = test::mnf2(1e-3);
-  s.media = {diel, lossy, metal, mn};
+  Medium polar;  // Lorentz poles, unlike along u = x and v = y (invented values)
+  polar.name = "polar";
+  PermittivityTensor t;
+  t.axis[0].eps_inf = 2.0, t.axis[0].lorentz = {{0.6e12, 3.0, 0.05e12}};
+  t.axis[1].eps_inf = 3.0, t.axis[1].lorentz = {{0.8e12, 1.5, 0.02e12}};
+  t.axis[2].eps_inf = 2.5, t.axis[2].drude = {{0.4e12, 0.1e12}};
+  polar.tensor = t;
+  polar.permittivity = {2.0, 3.0, 2.5};
+  s.media = {diel, lossy, metal, mn, polar};
   auto rect = [&](int medium, Vec2 centre, Vec2 size) {
     Body b;
     b.medium = medium;
@@ -64,7 +73,10 @@ Scene base_scene(Boundary bx, Boundary by) {
   disc.shape.centre = {0.55 * X, 0.55 * Y}, disc.shape.radius = 0.07 * X;
   s.bodies.push_back(disc);
   rect(3, {0.5 * X, 0.3 * Y}, {2.0 * X, 0.23 * Y});  // across the x boundary, whatever it is
+  rect(4, {0.3 * X, 0.52 * Y}, {0.08 * X, 0.12 * Y});  // beside the source: the pulse crosses it
   s.sources.push_back(test::point_source(Component::Ez, {0.37 * X, 0.52 * Y}, 0.5e12, 1e-12, 1.5e-12, 1e-3));
+  // the Hz wave too: it alone sees the in-plane permittivity (the polar block's u and v)
+  s.sources.push_back(test::point_source(Component::Hz, {0.30 * X, 0.40 * Y}, 0.5e12, 1e-12, 1.5e-12, 1.0));
   return s;
 }
 
@@ -76,6 +88,7 @@ Scene mirrored(Scene s) {
   std::swap(s.grid.bx, s.grid.by);
   for (Medium& m : s.media) {
     std::swap(m.permittivity[0], m.permittivity[1]);
+    if (m.tensor) std::swap(m.tensor->axis[0], m.tensor->axis[1]);  // unrotated: u along x, v along y
     if (m.magnet) {  // axial: order -> -(oy, ox, oz); anisotropy axes are lines (sign free)
       auto& o = m.magnet->order;
       o = {-o[1], -o[0], -o[2]};
@@ -84,7 +97,10 @@ Scene mirrored(Scene s) {
   }
   s.bias = {-s.bias[1], -s.bias[0], -s.bias[2]};
   for (Body& b : s.bodies) sw(b.shape.centre), sw(b.shape.size);
-  for (Source& src : s.sources) sw(src.at);
+  for (Source& src : s.sources) {
+    sw(src.at);
+    if (src.component == Component::Hz) src.amplitude = -src.amplitude;  // axial: Hz -> -Hz
+  }
   return s;
 }
 
@@ -123,7 +139,7 @@ double mirror_mismatch(const Scene& a_scene, double& tilt) {
 
 }  // namespace
 
-TEST_CASE("mirror x<->y: every boundary kind on each axis, four media, unequal cells") {
+TEST_CASE("mirror x<->y: every boundary kind on each axis, five media (one dispersive), unequal cells") {
   // each kind once along x and once along y
   const std::pair<Boundary, Boundary> pairs[] = {{Boundary::periodic, Boundary::absorbing},
                                                  {Boundary::electric_wall, Boundary::magnetic_wall},
