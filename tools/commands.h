@@ -64,6 +64,8 @@ struct ShiftOptions {
 int measure_shift(const ShiftOptions& o);
 struct RenderOptions {
   std::string run, field, movie, out, map, quantity, plot, predicted, colours, format = "png";
+  std::string x_key, y_column;  ///< --plot sweep: the swept key across, the results column drawn
+  bool with_map = false;        ///< --plot sweep over two keys: also the column as a map
   double fps = 12, time = NAN, frequency = 0, percentile = 99.5;
   std::vector<double> limits;  ///< LO HI, or empty for robust limits
   bool rescale = false, show_absorber = false;
@@ -72,6 +74,8 @@ struct RenderOptions {
 int render_command(const RenderOptions& o);
 /// `render --plot spectrum|probes|shift|focus` (render_plots.cpp).
 int render_plot(const RenderOptions& o, const std::string& out_dir);
+/// `render DIR --plot sweep`: a sweep's results column against a swept value (render_sweep.cpp).
+int plot_sweep(const RenderOptions& o, const std::string& out_dir);
 /// The layout file written beside a still: FILE.png -> FILE-layout.json.
 std::string plot_layout_path(const std::string& picture);
 /// `terayee sweep` (tools/sweep_command.cpp).

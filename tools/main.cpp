@@ -169,7 +169,7 @@ int main(int argc, char** argv) {
   std::string ro_time, ro_freq;
   std::vector<std::string> ro_limits;
   auto* rd = app.add_subcommand("render", "Pictures of a run: field frames, movies, stills and plots");
-  rd->add_option("run", ro.run, "Run folder")->required()->check(CLI::ExistingDirectory);
+  rd->add_option("run", ro.run, "Run folder (with --plot sweep: a sweep's folder)")->required()->check(CLI::ExistingDirectory);
   rd->add_option("--field", ro.field,
                  "Snapshot field (Ez, Hz, Lx, ..., or intensity: the recorded E components squared); with --map: "
                  "a component, Sx, Sy, S or intensity (default)");
@@ -190,9 +190,14 @@ int main(int argc, char** argv) {
   rd->add_option("--size", ro.size, "The field panel's longer side, px")->check(CLI::Range(100, 8000));
   rd->add_option("--format", ro.format, "Stills and plots: png, pdf or svg");
   rd->add_option("--out", ro.out, "Folder for the pictures (default RUN/pictures)");
-  rd->add_option("--plot", ro.plot, "A plot instead: spectrum, probes, shift or focus")
-      ->check(CLI::IsMember({"spectrum", "probes", "shift", "focus"}));
-  rd->add_option("--predicted", ro.predicted, "With --plot spectrum: a CSV written by `terayee medium --csv`");
+  rd->add_option("--plot", ro.plot, "A plot instead: spectrum, probes, shift, focus, or sweep (RUN is then a sweep's folder)")
+      ->check(CLI::IsMember({"spectrum", "probes", "shift", "focus", "sweep"}));
+  rd->add_option("--predicted", ro.predicted,
+                 "With --plot spectrum: a CSV written by `terayee medium --csv`; with --plot sweep: a CSV of the swept "
+                 "value and the predicted number (SI), drawn dashed");
+  rd->add_option("--x", ro.x_key, "With --plot sweep: the swept key across");
+  rd->add_option("--y", ro.y_column, "With --plot sweep: the results column drawn (one line per value of the other keys)");
+  rd->add_flag("--with-map", ro.with_map, "With --plot sweep over two keys: also the column in colour over both");
 
   ty::SweepOptions sw;
   std::string sw_submit;

@@ -313,6 +313,13 @@ std::string plot_layout_path(const std::string& picture) {
 }
 
 int render_command(const RenderOptions& o) {
+  if (o.plot == "sweep") {
+    if (o.format != "png" && o.format != "pdf" && o.format != "svg")
+      throw BadInput("terayee render: error: --format is png, pdf or svg");
+    if (o.x_key.empty() || o.y_column.empty())
+      throw BadInput("terayee render: error: --plot sweep needs --x KEY (a swept key) and --y COLUMN (a results column)");
+    return plot_sweep(o, o.out.empty() ? o.run + "/pictures" : o.out);
+  }
   if (!fs::exists(o.run + "/fields.h5"))
     throw BadInput(fmt::format("{}: error: not a finished run folder (no fields.h5)", o.run));
   if (o.format != "png" && o.format != "pdf" && o.format != "svg")

@@ -21,6 +21,7 @@
 #include "io/analysis/sweep/refinement_table.h"
 #include "io/analysis/sweep/results_table.h"
 #include "io/analysis/sweep/sweep_plan.h"
+#include "io/run/atomic_file.h"
 #include "io/scene/diagnostics.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/scene_writer.h"
@@ -186,7 +187,7 @@ int sweep_command(SweepOptions o) {
       throw BadInput(fmt::format("terayee sweep: '{}' holds a different sweep (its sweep.json); choose another folder",
                                  dir.string()));
   }
-  std::ofstream(dir / "sweep.json") << record.dump(2) << "\n";
+  write_text_atomically((dir / "sweep.json").string(), record.dump(2) + "\n");  // array tasks read it while others write
   if (!o.job_script.empty()) return write_job_script(o, static_cast<int>(p.points.size()));
 
   const int jobs = std::max(1, o.jobs);

@@ -36,6 +36,7 @@ int write_job_script(const SweepOptions& o, int points) {
                                 sh(fs::absolute(o.scene).string()), sh(dir.string()));
   for (const auto& v : o.vary) cmd += " --vary " + sh(v);
   for (const auto& s : o.sets) cmd += " --set " + sh(s);
+  for (const auto& m : o.measures) cmd += " --measure " + sh(m);  // the task's sweep.json must match the sweep's
   if (o.zip) cmd += " --zip";
   if (o.refine > 0) cmd += fmt::format(" --refine {}", o.refine);
   cmd += " --threads \"$SLURM_CPUS_PER_TASK\" --point \"$SLURM_ARRAY_TASK_ID\"";

@@ -2,9 +2,11 @@
 /// \brief PLplot (its C API, devices pngcairo, pdfcairo, svgcairo) drawing plot.h's panels:
 /// white page, dark axes, series in the colour-blind-safe palette of Okabe & Ito ("Color
 /// Universal Design", 2008), a legend inside the upper right corner, shaded x bands behind
-/// the curves. PLplot keeps one global stream; plots are drawn one at a time.
+/// the curves; maps as filled cells in terayee's sequential colour map (colour_map.h) with
+/// a colour bar. PLplot keeps one global stream; plots are drawn one at a time.
 #include "io/pictures/plot.h"
 
+#include "io/pictures/colour_map.h"
 #include "io/run/atomic_file.h"
 
 #include <fmt/format.h>
@@ -19,6 +21,7 @@ namespace ty {
 namespace {
 
 constexpr int kInk = 1, kFirstSeries = 2, kSeriesColours = 7, kShade = 9;
+constexpr const char* kMarker = "#(228)";  // a Hershey glyph, drawn and in the legend alike
 
 void palette() {
   plscol0(0, 255, 255, 255);  // background
@@ -56,6 +59,16 @@ void range(const PlotPanel& p, double& x0, double& x1, double& y0, double& y1) {
   y1 = std::isfinite(p.ymax) ? p.ymax : y1 + pad;
   if (!(x1 > x0)) x0 -= 0.5, x1 += 0.5;
   if (!(y1 > y0)) y0 -= 0.5, y1 += 0.5;
+}
+
+/// The panel as drawn: its series' values times the panel's scales.
+PlotPanel drawn(const PlotPanel& p) {
+  PlotPanel d = p;
+  for (auto& s : d.series) {
+    for (double& x : s.x) x *= p.x_scale;
+    for (double& y : s.y) y *= p.y_scale;
+  }
+  return d;
 }
 
 void draw_panel(const PlotPanel& p, const std::string& title) {
@@ -97,13 +110,14 @@ void draw_panel(const PlotPanel& p, const std::string& title) {
     plwidth(2);
     pllsty(s.style == PlotSeries::Style::dashed ? 2 : 1);
     const size_t n = std::min(s.x.size(), s.y.size());
-    if (s.style == PlotSeries::Style::points) {
+    const bool marked = s.style == PlotSeries::Style::points || s.style == PlotSeries::Style::line_points;
+    if (marked) {
       std::vector<PLFLT> xs, ys;
       for (size_t q = 0; q < n; ++q)
         if (std::isfinite(s.y[q])) xs.push_back(s.x[q]), ys.push_back(s.y[q]);
-      plssym(0, 0.8);
-      if (!xs.empty()) plpoin(static_cast<PLINT>(xs.size()), xs.data(), ys.data(), 4);
-    } else {
+      if (!xs.empty()) plstring(static_cast<PLINT>(xs.size()), xs.data(), ys.data(), kMarker);  // as in the legend
+    }
+    if (s.style != PlotSeries::Style::points) {
       for (size_t a = 0; a < n;) {  // a line broken where the data are missing
         while (a < n && !std::isfinite(s.y[a])) ++a;
         size_t b = a;
@@ -114,13 +128,15 @@ void draw_panel(const PlotPanel& p, const std::string& title) {
     }
     pllsty(1);
     if (!s.label.empty()) {
-      opts.push_back(s.style == PlotSeries::Style::points ? PL_LEGEND_SYMBOL : PL_LEGEND_LINE);
+      opts.push_back(s.style == PlotSeries::Style::points        ? PL_LEGEND_SYMBOL
+                     : s.style == PlotSeries::Style::line_points ? PL_LEGEND_LINE | PL_LEGEND_SYMBOL
+                                                                 : PL_LEGEND_LINE);
       colours.push_back(c), styles.push_back(s.style == PlotSeries::Style::dashed ? 2 : 1), widths.push_back(2);
       texts.push_back(escape(s.label));
     }
   }
   if (texts.empty()) return;
-  for (auto& t : texts) text_ptrs.push_back(t.c_str()), symbols.push_back("#(228)");
+  for (auto& t : texts) text_ptrs.push_back(t.c_str()), symbols.push_back(kMarker);
   scales.assign(texts.size(), 0.8);
   symbols_n.assign(texts.size(), 1);
   std::vector<PLINT> patterns(texts.size(), 0), text_colours(texts.size(), kInk);
@@ -141,6 +157,101 @@ std::string csv_field(const std::string& s) {
   return q + "\"";
 }
 
+
+/// The data beside a plot, into its temporary name (renamed with the picture).
+void write_data(const std::string& tmp, const std::string& data, const std::string& text) {
+  std::ofstream out(tmp);
+  out << text;
+  out.close();
+  if (!out) {
+    discard_temporary(tmp);
+    throw std::runtime_error(fmt::format("cannot write '{}'", data));
+  }
+}
+
+const char* device_of(const std::string& path) {
+  const std::string ext = std::filesystem::path(path).extension().string();
+  const char* device = ext == ".png" ? "pngcairo" : ext == ".pdf" ? "pdfcairo" : ext == ".svg" ? "svgcairo" : nullptr;
+  if (!device) throw std::runtime_error(fmt::format("'{}': plots are .png, .pdf or .svg", path));
+  return device;
+}
+
+void open_page(const char* device, const std::string& tmp, int width, int height, int panels) {
+  plsdev(device);
+  plsfnam(tmp.c_str());
+  plspage(0, 0, width, height, 0, 0);
+  palette();
+  plssub(1, panels);
+  plinit();
+  plschr(0, 1.0);
+}
+
+/// Ends the page; renames the picture and its data into place, or discards both.
+void close_page(const std::string& tmp, const std::string& path, const std::string& data_tmp, const std::string& data) {
+  plend();
+  std::error_code ec;
+  if (!std::filesystem::exists(tmp) || std::filesystem::file_size(tmp, ec) == 0) {
+    discard_temporary(tmp), discard_temporary(data_tmp);
+    throw std::runtime_error(fmt::format("PLplot wrote nothing to '{}'", path));
+  }
+  commit_file(tmp, path);
+  commit_file(data_tmp, data);
+}
+
+/// Cell edges halfway between ascending values, the outer ones half a step beyond.
+std::vector<double> edges(const std::vector<double>& v) {
+  std::vector<double> e(v.size() + 1);
+  for (size_t k = 1; k < v.size(); ++k) e[k] = 0.5 * (v[k - 1] + v[k]);
+  const double h0 = v.size() > 1 ? v[1] - v[0] : 1, h1 = v.size() > 1 ? v.back() - v[v.size() - 2] : 1;
+  e.front() = v.front() - 0.5 * h0, e.back() = v.back() + 0.5 * h1;
+  return e;
+}
+
+void draw_map(const MapPlot& m) {
+  const ColourMap& cm = ColourMap::sequential();
+  std::vector<PLINT> r(ColourMap::kSize), g(ColourMap::kSize), b(ColourMap::kSize);
+  for (int k = 0; k < ColourMap::kSize; ++k) {
+    const Rgb c = cm.at((k + 0.5) / ColourMap::kSize);
+    r[k] = static_cast<PLINT>(std::lround(255 * c.r)), g[k] = static_cast<PLINT>(std::lround(255 * c.g));
+    b[k] = static_cast<PLINT>(std::lround(255 * c.b));
+  }
+  plscmap1(r.data(), g.data(), b.data(), ColourMap::kSize);
+  std::vector<double> xs = m.x, ys = m.y;
+  for (double& x : xs) x *= m.x_scale;
+  for (double& y : ys) y *= m.y_scale;
+  const auto ex = edges(xs), ey = edges(ys);
+  double z0 = INFINITY, z1 = -INFINITY;
+  for (double z : m.z)
+    if (std::isfinite(z)) z0 = std::min(z0, z * m.z_scale), z1 = std::max(z1, z * m.z_scale);
+  if (!std::isfinite(z0)) z0 = 0, z1 = 1;
+  if (!(z1 > z0)) z0 -= 0.5, z1 += 0.5;
+  pladv(0);
+  plvpor(0.1, 0.8, 0.12, 0.9);
+  plwind(std::min(ex.front(), ex.back()), std::max(ex.front(), ex.back()), std::min(ey.front(), ey.back()),
+         std::max(ey.front(), ey.back()));
+  for (size_t j = 0; j < ys.size(); ++j)
+    for (size_t i = 0; i < xs.size(); ++i) {
+      const double z = m.z[j * xs.size() + i] * m.z_scale;
+      if (!std::isfinite(z)) continue;
+      PLFLT cx[4] = {ex[i], ex[i + 1], ex[i + 1], ex[i]}, cy[4] = {ey[j], ey[j], ey[j + 1], ey[j + 1]};
+      plcol1((z - z0) / (z1 - z0));
+      plfill(4, cx, cy);
+    }
+  plcol0(kInk);
+  plwidth(1);
+  plbox("bcnst", 0, 0, "bcnstv", 0, 0);
+  pllab(escape(m.xlabel).c_str(), escape(m.ylabel).c_str(), escape(m.title).c_str());
+  const std::string label = escape(m.zlabel);
+  const char* labels[1] = {label.c_str()};
+  const char* axis[1] = {"bcvtm"};
+  PLINT label_opts[1] = {PL_COLORBAR_LABEL_RIGHT}, sub_ticks[1] = {0}, n_values[1] = {2};
+  PLFLT ticks[1] = {0}, range[2] = {z0, z1};
+  const PLFLT* values[1] = {range};
+  PLFLT w, h;
+  plcolorbar(&w, &h, PL_COLORBAR_GRADIENT, PL_POSITION_RIGHT | PL_POSITION_OUTSIDE | PL_POSITION_VIEWPORT, 0.04, 0,
+             0.04, 0.78, 0, kInk, 1, 0, 0, kInk, 1, 1, label_opts, labels, 1, axis, ticks, sub_ticks, n_values, values);
+}
+
 }  // namespace
 
 std::string plot_data_path(const std::string& path) {
@@ -148,41 +259,31 @@ std::string plot_data_path(const std::string& path) {
 }
 
 void write_plot(const Plot& plot, const std::string& path) {
-  namespace fs = std::filesystem;
-  const std::string ext = fs::path(path).extension().string();
-  const char* device = ext == ".png" ? "pngcairo" : ext == ".pdf" ? "pdfcairo" : ext == ".svg" ? "svgcairo" : nullptr;
-  if (!device) throw std::runtime_error(fmt::format("'{}': plots are .png, .pdf or .svg", path));
+  const char* device = device_of(path);
   if (plot.panels.empty()) throw std::runtime_error("a plot needs at least one panel");
   const std::string tmp = temporary_name(path), data = plot_data_path(path), data_tmp = temporary_name(data);
-  {
-    std::ofstream csv(data_tmp);
-    csv << "panel,series,x,y\n";
-    for (size_t p = 0; p < plot.panels.size(); ++p)
-      for (const auto& s : plot.panels[p].series)
-        for (size_t q = 0; q < s.x.size() && q < s.y.size(); ++q)
-          csv << fmt::format("{},{},{:.10g},{:.10g}\n", p, csv_field(s.label), s.x[q], s.y[q]);
-    csv.close();
-    if (!csv) {
-      discard_temporary(data_tmp);
-      throw std::runtime_error(fmt::format("cannot write '{}'", data));
-    }
-  }
-  plsdev(device);
-  plsfnam(tmp.c_str());
-  plspage(0, 0, plot.width, plot.height, 0, 0);
-  palette();
-  plssub(1, static_cast<PLINT>(plot.panels.size()));
-  plinit();
-  plschr(0, 1.0);
-  for (size_t p = 0; p < plot.panels.size(); ++p) draw_panel(plot.panels[p], p == 0 ? plot.title : "");
-  plend();
-  std::error_code ec;
-  if (!fs::exists(tmp) || fs::file_size(tmp, ec) == 0) {
-    discard_temporary(tmp), discard_temporary(data_tmp);
-    throw std::runtime_error(fmt::format("PLplot wrote nothing to '{}'", path));
-  }
-  commit_file(tmp, path);
-  commit_file(data_tmp, data);
+  std::string csv = "panel,series,x,y\n";
+  for (size_t p = 0; p < plot.panels.size(); ++p)
+    for (const auto& s : plot.panels[p].series)
+      for (size_t q = 0; q < s.x.size() && q < s.y.size(); ++q)
+        csv += fmt::format("{},{},{:.10g},{:.10g}\n", p, csv_field(s.label), s.x[q], s.y[q]);
+  write_data(data_tmp, data, csv);
+  open_page(device, tmp, plot.width, plot.height, static_cast<int>(plot.panels.size()));
+  for (size_t p = 0; p < plot.panels.size(); ++p) draw_panel(drawn(plot.panels[p]), p == 0 ? plot.title : "");
+  close_page(tmp, path, data_tmp, data);
+}
+
+void write_map_plot(const MapPlot& m, const std::string& path) {
+  const size_t nx = m.x.size(), ny = m.y.size();
+  if (nx == 0 || ny == 0 || m.z.size() != nx * ny) throw std::runtime_error("a map needs z at every (x, y)");
+  const std::string tmp = temporary_name(path), data = plot_data_path(path), data_tmp = temporary_name(data);
+  std::string csv = "x,y,z\n";
+  for (size_t j = 0; j < ny; ++j)
+    for (size_t i = 0; i < nx; ++i) csv += fmt::format("{:.10g},{:.10g},{:.10g}\n", m.x[i], m.y[j], m.z[j * nx + i]);
+  write_data(data_tmp, data, csv);
+  open_page(device_of(path), tmp, m.width, m.height, 1);
+  draw_map(m);
+  close_page(tmp, path, data_tmp, data);
 }
 
 }  // namespace ty

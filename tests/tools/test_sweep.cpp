@@ -59,7 +59,8 @@ TEST_CASE("sweep --print-job-script: one Slurm array task per point with the cor
   const fs::path dir = fs::temp_directory_path() / "terayee-test-sweep-slurm";
   fs::remove_all(dir);
   REQUIRE(shell(std::string(TERAYEE_BINARY) + " sweep " + TERAYEE_SOURCE_DIR + "/tests/data/slab-airy.yaml -o " +
-                dir.string() + " --vary 'sources.0.plane.frequency=0.5THz:0.7THz:5' --threads 8 --time-limit 02:00:00 --print-job-script"
+                dir.string() + " --vary 'sources.0.plane.frequency=0.5THz:0.7THz:5' --measure 'spectrum --reference auto' --threads 8"
+                               " --time-limit 02:00:00 --print-job-script"
                                " > /dev/null 2>&1") == 0);
   const auto job = slurp(dir / "job.sh");
   CHECK(job.rfind("#!/bin/bash\n", 0) == 0);
@@ -68,6 +69,9 @@ TEST_CASE("sweep --print-job-script: one Slurm array task per point with the cor
   CHECK(job.find("#SBATCH --time=02:00:00\n") != std::string::npos);
   CHECK(job.find("--point \"$SLURM_ARRAY_TASK_ID\"") != std::string::npos);
   CHECK(job.find("--vary 'sources.0.plane.frequency=0.5THz:0.7THz:5'") != std::string::npos);
+  // a task refuses a sweep folder whose sweep.json differs from its own: the measurements
+  // are part of it (found by tools/slurm-check.sh on a real Slurm)
+  CHECK(job.find("--measure 'spectrum --reference auto'") != std::string::npos);
   CHECK(fs::is_empty(dir / "points"));  // nothing ran
   fs::remove_all(dir);
 }
