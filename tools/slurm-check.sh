@@ -47,7 +47,7 @@ chmod 400 "$work/munge/munge.key"
 "${as_root[@]}" chown -R root:root "$work/munge"
 socket="$work/munge/munge.socket"
 "${as_root[@]}" munged --foreground --force --key-file "$work/munge/munge.key" --socket "$socket" \
-  --pid-file "$work/munge/munged.pid" --seed-file "$work/munge/munged.seed" --log-file "$work/munged.log" &
+  --pid-file "$work/munge/munged.pid" --seed-file "$work/munge/munged.seed" --log-file "$work/munged.log" > /dev/null 2>&1 &
 pids+=($!)
 for _ in $(seq 50); do [ -S "$socket" ] && break; sleep 0.1; done
 [ -S "$socket" ] || fail "munged did not start"
@@ -86,9 +86,9 @@ MpiDefault=none
 NodeName=$host NodeAddr=127.0.0.1 CPUs=$cpus RealMemory=$mem_mb State=UNKNOWN
 PartitionName=check Nodes=$host Default=YES MaxTime=INFINITE State=UP
 EOF
-"${as_root[@]}" env SLURM_CONF="$SLURM_CONF" slurmctld -D -i -f "$SLURM_CONF" &
+"${as_root[@]}" env SLURM_CONF="$SLURM_CONF" slurmctld -D -i -f "$SLURM_CONF" > /dev/null 2>&1 &
 pids+=($!)
-"${as_root[@]}" env SLURM_CONF="$SLURM_CONF" slurmd -D -f "$SLURM_CONF" &
+"${as_root[@]}" env SLURM_CONF="$SLURM_CONF" slurmd -D -f "$SLURM_CONF" > /dev/null 2>&1 &
 pids+=($!)
 echo "slurm-check: $(slurmctld -V), one node '$host' with $cpus CPUs and $mem_mb MB"
 for _ in $(seq 60); do

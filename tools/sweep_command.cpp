@@ -199,10 +199,10 @@ int sweep_command(SweepOptions o) {
     if ((o.point < 0 || static_cast<int>(k) == o.point) && !finished(dir / "points" / p.points[k].name)) todo.push_back(k);
 
   std::vector<Job> runs;
+  for (const auto& [folder, sets] : p.ref_sets)  // by the local sweep or --collect; array tasks make none
+    if (o.point < 0 && !finished(dir / folder))
+      runs.push_back({run_args(o, sets, dir / folder, true, threads), (dir / (folder + ".log")).string(), {}});
   if (!o.no_runs) {
-    for (const auto& [folder, sets] : p.ref_sets)
-      if (o.point < 0 && !finished(dir / folder))
-        runs.push_back({run_args(o, sets, dir / folder, true, threads), (dir / (folder + ".log")).string(), {}});
     for (size_t k : todo) {
       std::vector<std::string> sets = o.sets;
       for (const auto& s : p.points[k].overrides()) sets.push_back(s);

@@ -37,8 +37,9 @@ mv "$dir/prediction.csv.tmp" "$dir/prediction.csv"
 
 echo
 echo "lateral shift of the reflected beam along t = z x n (um): measured by the sweep, predicted by terayee medium"
-paste -d, <(tail -n +2 "$dir/results.csv" | cut -d, -f"$kb,$ks") <(tail -n +2 "$dir/prediction.csv" | cut -d, -f2) |
-  awk -F, '{ printf "  bias %6s: measured %7.1f, predicted %7.1f\n", $1, $2 * 1e6, $3 * 1e6 }'
+awk -F, -v kb="$kb" -v ks="$ks" 'NR == FNR { if (FNR > 1) p[FNR] = $2; next }
+  FNR > 1 { printf "  bias %6s: measured %7.1f, predicted %7.1f\n", $kb, $ks * 1e6, p[FNR] * 1e6 }' \
+  "$dir/prediction.csv" "$dir/results.csv"
 echo "took $(( $(date +%s) - start )) s"
 
 "$ty" render "$dir" --plot sweep --x bias.2 --y shift.run.shift --predicted "$dir/prediction.csv"

@@ -75,3 +75,24 @@ TEST_CASE("sweep --print-job-script: one Slurm array task per point with the cor
   CHECK(fs::is_empty(dir / "points"));  // nothing ran
   fs::remove_all(dir);
 }
+
+TEST_CASE("sweep --point and --collect: the array tasks' flow by hand, then one table with every point") {
+  // what each Slurm array task runs (job.sh: --point $SLURM_ARRAY_TASK_ID), then --collect,
+  // which makes the reference run and the measurements (docs/sweeps.md)
+  const fs::path dir = fs::temp_directory_path() / "terayee-test-sweep-points";
+  fs::remove_all(dir);
+  const std::string base = std::string(TERAYEE_BINARY) + " sweep " + TERAYEE_SOURCE_DIR +
+                           "/tests/data/slab-airy.yaml -o " + dir.string() +
+                           " --vary 'media.slab.permittivity=2:4:3' --set 'time.stop=20 ps'"
+                           " --measure 'spectrum --reference auto' --threads 1";
+  for (int k = 0; k < 3; ++k) REQUIRE(shell(base + " --point " + std::to_string(k) + " > /dev/null 2>&1") == 0);
+  CHECK(!fs::exists(dir / "results.csv"));  // the tasks make no table and no reference
+  CHECK(!fs::exists(dir / "references" / "ref-000"));
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " sweep --collect " + dir.string() + " > /dev/null 2>&1") == 0);
+  const auto csv = slurp(dir / "results.csv");
+  for (const char* row : {"0000_media.slab.permittivity=2,done,", "0001_media.slab.permittivity=3,done,",
+                          "0002_media.slab.permittivity=4,done,"})
+    CHECK(csv.find(row) != std::string::npos);
+  CHECK(fs::exists(dir / "points" / "0002_media.slab.permittivity=4" / "spectrum.json"));
+  fs::remove_all(dir);
+}
