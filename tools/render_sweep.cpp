@@ -7,7 +7,6 @@
 /// predicted number in the column's units. The data beside each picture (FILE.csv) are the
 /// table's own numbers in SI; the picture scales them to a readable unit.
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <cmath>
@@ -16,6 +15,7 @@
 #include <fstream>
 #include <iostream>
 #include <map>
+#include <nlohmann/json.hpp>
 #include <set>
 #include <sstream>
 
@@ -72,7 +72,7 @@ std::string file_safe(const std::string& s) {
 std::pair<double, std::string> readable(double top, const std::string& unit) {
   if (unit != "m" && unit != "Hz" && unit != "s" && unit != "T") return {1.0, unit};
   static const std::pair<double, const char*> prefixes[] = {{1e-15, "f"}, {1e-12, "p"}, {1e-9, "n"}, {1e-6, "µ"},
-                                                            {1e-3, "m"},  {1, ""},      {1e3, "k"}, {1e6, "M"},
+                                                            {1e-3, "m"},  {1, ""},      {1e3, "k"},  {1e6, "M"},
                                                             {1e9, "G"},   {1e12, "T"}};
   if (!(top > 0)) return {1.0, unit};
   auto best = prefixes[5];
@@ -99,7 +99,8 @@ Axis numeric_axis(const nlohmann::json& points, const std::string& key, const st
     const std::string text = p["swept"].value(key, "");
     SweptNumber v;
     if (!swept_number(text, v))
-      throw BadInput(fmt::format("terayee render: error: {} {}: the value '{}' is not a number with a unit", option, key, text));
+      throw BadInput(
+          fmt::format("terayee render: error: {} {}: the value '{}' is not a number with a unit", option, key, text));
     units.insert(v.unit);
     a.at.push_back(v);
   }
@@ -130,7 +131,8 @@ PlotSeries read_predicted(const std::string& file) {
     const double y = comma == std::string::npos ? NAN : std::strtod(line.c_str() + comma + 1, &end);
     if (line.empty()) continue;
     if (comma == std::string::npos || !swept_number(line.substr(0, comma), v) || end == line.c_str() + comma + 1)
-      throw BadInput(fmt::format("{}:{}: error: expected VALUE,NUMBER (the swept value, the prediction in SI)", file, n));
+      throw BadInput(
+          fmt::format("{}:{}: error: expected VALUE,NUMBER (the swept value, the prediction in SI)", file, n));
     s.x.push_back(v.si), s.y.push_back(y);
   }
   return s;
@@ -164,13 +166,21 @@ void draw_map(const RenderOptions& o, const std::string& dir, const nlohmann::js
   std::cout << fmt::format("plot -> {} (data: {})\n", path, plot_data_path(path));
 }
 
-}  // namespace
+/// The sweep's table, checked against --x, --y and --with-map: every wrong name at once.
+struct Table {
+  nlohmann::json j;
+  std::vector<std::string> others;  ///< the swept keys other than --x
+  bool zip = false;
+};
 
-int plot_sweep(const RenderOptions& o, const std::string& dir) {
+Table read_checked_table(const RenderOptions& o) {
   const std::string file = o.run + "/results.json";
   std::ifstream in(file);
-  if (!in) throw BadInput(fmt::format("{}: error: no results table (run `terayee sweep` or `terayee sweep --collect`)", file));
-  const auto j = nlohmann::json::parse(in, nullptr, false);
+  if (!in)
+    throw BadInput(fmt::format("{}: error: no results table (run `terayee sweep` or `terayee sweep --collect`)", file));
+  Table t;
+  t.j = nlohmann::json::parse(in, nullptr, false);
+  const auto& j = t.j;
   if (j.is_discarded() || !j.contains("swept") || !j.contains("units") || !j.contains("points"))
     throw BadInput(fmt::format("{}: error: not a sweep's results table", file));
   const auto swept = j["swept"].get<std::vector<std::string>>();
@@ -181,69 +191,84 @@ int plot_sweep(const RenderOptions& o, const std::string& dir) {
         columns.push_back(it.key());
         break;
       }
-  std::vector<std::string> errors;  // every wrong name at once
+  std::vector<std::string> errors;
   if (std::find(swept.begin(), swept.end(), o.x_key) == swept.end())
     errors.push_back(fmt::format("--x '{}' is not a swept key; the sweep varies: {}", o.x_key, join(swept)));
   if (std::find(columns.begin(), columns.end(), o.y_column) == columns.end())
-    errors.push_back(fmt::format("--y '{}' is not a column of numbers in the results; those are: {}", o.y_column, join(columns)));
-  std::vector<std::string> others;
+    errors.push_back(
+        fmt::format("--y '{}' is not a column of numbers in the results; those are: {}", o.y_column, join(columns)));
   for (const auto& k : swept)
-    if (k != o.x_key) others.push_back(k);
-  bool zip = false;
-  if (std::ifstream sj(o.run + "/sweep.json"); sj) zip = nlohmann::json::parse(sj, nullptr, false).value("zip", false);
-  if (o.with_map && (others.size() != 1 || zip))
+    if (k != o.x_key) t.others.push_back(k);
+  if (std::ifstream sj(o.run + "/sweep.json"); sj)
+    t.zip = nlohmann::json::parse(sj, nullptr, false).value("zip", false);
+  if (o.with_map && (t.others.size() != 1 || t.zip))
     errors.push_back(fmt::format("--with-map needs a grid of two swept keys; the sweep varies {}{}", join(swept),
-                                 zip ? " in step (--zip)" : ""));
+                                 t.zip ? " in step (--zip)" : ""));
   if (!errors.empty()) {
     std::string msg;
     for (const auto& e : errors) msg += fmt::format("{}{}: error: {}", msg.empty() ? "" : "\n", file, e);
     throw BadInput(msg);
   }
-  const auto& points = j["points"];
-  const Axis ax = numeric_axis(points, o.x_key, "--x");
-  const std::string unit = j["units"].value(o.y_column, "");
-  // one line per combination of the other keys' values (all of them in step: one line)
+  return t;
+}
+
+/// One line per combination of the other keys' values (keys in step: one line), each in
+/// the order of its x values; points without a number are left out.
+std::vector<PlotSeries> lines_of(const RenderOptions& o, const Table& t, const Axis& ax) {
+  const auto& points = t.j["points"];
   std::vector<PlotSeries> lines;
   std::map<std::string, size_t> line_of;
-  double top = 0;
   for (size_t q = 0; q < points.size(); ++q) {
     const auto& c = points[q]["measured"];
     if (!c.contains(o.y_column) || !c[o.y_column].is_number()) continue;  // failed or not measured
     std::string name;
-    if (!zip)
-      for (const auto& k : others) name += fmt::format("{}{} = {}", name.empty() ? "" : ", ", k, points[q]["swept"].value(k, ""));
+    if (!t.zip)
+      for (const auto& k : t.others)
+        name += fmt::format("{}{} = {}", name.empty() ? "" : ", ", k, points[q]["swept"].value(k, ""));
     auto [it, fresh] = line_of.emplace(name, lines.size());
     if (fresh) lines.push_back({name, {}, {}, PlotSeries::Style::line_points, static_cast<int>(lines.size())});
-    const double y = c[o.y_column].get<double>();
-    lines[it->second].x.push_back(ax.at[q].si), lines[it->second].y.push_back(y);
-    top = std::max(top, std::abs(y));
+    lines[it->second].x.push_back(ax.at[q].si), lines[it->second].y.push_back(c[o.y_column].get<double>());
   }
-  for (auto& s : lines) {  // each line in the order of its x values
+  for (auto& s : lines) {
     std::vector<size_t> order(s.x.size());
     for (size_t k = 0; k < order.size(); ++k) order[k] = k;
     std::sort(order.begin(), order.end(), [&](size_t a, size_t b) { return s.x[a] < s.x[b]; });
-    PlotSeries t = s;
-    for (size_t k = 0; k < order.size(); ++k) t.x[k] = s.x[order[k]], t.y[k] = s.y[order[k]];
-    s = t;
+    PlotSeries sorted = s;
+    for (size_t k = 0; k < order.size(); ++k) sorted.x[k] = s.x[order[k]], sorted.y[k] = s.y[order[k]];
+    s = sorted;
   }
   if (lines.size() == 1 && lines[0].label.empty()) lines[0].label = "measured";
-  PlotPanel p;
-  p.series = lines;
-  if (!o.predicted.empty()) {
-    PlotSeries pred = read_predicted(o.predicted);
-    for (double y : pred.y) top = std::max(top, std::abs(y));
-    p.series.push_back(pred);
-  }
-  const auto [y_scale, y_unit] = readable(top, unit);
-  p.x_scale = ax.scale, p.y_scale = y_scale;
-  double x0 = INFINITY, x1 = -INFINITY;  // the end points inside the frame, not on it
-  for (const auto& v : ax.at) x0 = std::min(x0, v.si * ax.scale), x1 = std::max(x1, v.si * ax.scale);
-  if (x1 > x0) p.xmin = x0 - 0.04 * (x1 - x0), p.xmax = x1 + 0.04 * (x1 - x0);
-  double y0 = INFINITY, y1 = -INFINITY;  // room above the curves for the legend
+  return lines;
+}
+
+/// The frame: the end points inside it, not on it, and room above the curves for the legend.
+void frame(PlotPanel& p) {
+  double x0 = INFINITY, x1 = -INFINITY, y0 = INFINITY, y1 = -INFINITY;
   for (const auto& s : p.series)
-    for (double y : s.y)
-      if (std::isfinite(y)) y0 = std::min(y0, y * y_scale), y1 = std::max(y1, y * y_scale);
+    for (size_t k = 0; k < s.x.size(); ++k)
+      if (std::isfinite(s.y[k])) {
+        x0 = std::min(x0, s.x[k] * p.x_scale), x1 = std::max(x1, s.x[k] * p.x_scale);
+        y0 = std::min(y0, s.y[k] * p.y_scale), y1 = std::max(y1, s.y[k] * p.y_scale);
+      }
+  if (x1 > x0) p.xmin = x0 - 0.04 * (x1 - x0), p.xmax = x1 + 0.04 * (x1 - x0);
   if (y1 > y0) p.ymin = y0 - 0.06 * (y1 - y0), p.ymax = y1 + (0.1 + 0.08 * p.series.size()) * (y1 - y0);
+}
+
+}  // namespace
+
+int plot_sweep(const RenderOptions& o, const std::string& dir) {
+  const Table t = read_checked_table(o);
+  const auto& points = t.j["points"];
+  const Axis ax = numeric_axis(points, o.x_key, "--x");
+  PlotPanel p;
+  p.series = lines_of(o, t, ax);
+  if (!o.predicted.empty()) p.series.push_back(read_predicted(o.predicted));
+  double top = 0;
+  for (const auto& s : p.series)
+    for (double y : s.y) top = std::max(top, std::abs(y));
+  const auto [y_scale, y_unit] = readable(top, t.j["units"].value(o.y_column, ""));
+  p.x_scale = ax.scale, p.y_scale = y_scale;
+  frame(p);
   p.xlabel = ax.label, p.ylabel = labelled(o.y_column, y_unit);
   Plot plot;
   plot.title = fmt::format("{} against {}", o.y_column, o.x_key);
@@ -251,7 +276,7 @@ int plot_sweep(const RenderOptions& o, const std::string& dir) {
   const std::string path = output(dir, "sweep-" + o.y_column + "-vs-" + o.x_key, o);
   write_plot(plot, path);
   std::cout << fmt::format("plot -> {} (data: {})\n", path, plot_data_path(path));
-  if (o.with_map) draw_map(o, dir, points, ax, others[0], y_scale, y_unit);
+  if (o.with_map) draw_map(o, dir, points, ax, t.others[0], y_scale, y_unit);
   return 0;
 }
 

@@ -33,9 +33,12 @@ std::vector<std::vector<std::string>> read_csv(const fs::path& p) {
     bool quoted = false;
     for (size_t k = 0; k < line.size(); ++k) {
       const char c = line[k];
-      if (c == '"') quoted = !(quoted && !(k + 1 < line.size() && line[k + 1] == '"' && (++k, true)));
-      else if (c == ',' && !quoted) f.emplace_back();
-      else f.back() += c;
+      if (c == '"')
+        quoted = !(quoted && !(k + 1 < line.size() && line[k + 1] == '"' && (++k, true)));
+      else if (c == ',' && !quoted)
+        f.emplace_back();
+      else
+        f.back() += c;
     }
     rows.push_back(f);
   }
@@ -62,8 +65,10 @@ fs::path table() {
     for (const char* c : {"25 um", "12.5 um"}) {
       ty::ResultRow r{std::to_string(k++), {{"bias.2", b}, {"grid.cell", c}}, "done", nlohmann::json::object()};
       const double bias = std::stod(b), cell = std::stod(c) * 1e-6;
-      if (bias == 0 && cell < 2e-5) r.status = "failed";
-      else r.measured = {{"shift.run.shift", 1.7e-5 * bias + 0.3 * cell}, {"shift.note", "text"}};
+      if (bias == 0 && cell < 2e-5)
+        r.status = "failed";
+      else
+        r.measured = {{"shift.run.shift", 1.7e-5 * bias + 0.3 * cell}, {"shift.note", "text"}};
       rows.push_back(r);
     }
   ty::write_results(dir.string(), {"bias.2", "grid.cell"}, rows);
