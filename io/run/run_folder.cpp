@@ -277,20 +277,24 @@ void RunFolder::write_xdmf() const {
     x << fmt::format("    <Time Value=\"{:.17g}\"/>\n", plan_.times[k]);
     for (const auto& sf : plan_.fields) {
       x << fmt::format("    <Grid Name=\"{}\" GridType=\"Uniform\">\n", sf.name);
-      x << fmt::format("      <Information Name=\"time-offset\" Value=\"{:.17g}\">seconds: this field's values are at the "
-                       "frame's time plus this offset</Information>\n",
-                       sf.time_offset);
+      x << fmt::format(
+          "      <Information Name=\"time-offset\" Value=\"{:.17g}\">seconds: this field's values are at the "
+          "frame's time plus this offset</Information>\n",
+          sf.time_offset);
       x << fmt::format("      <Topology TopologyType=\"2DRectMesh\" Dimensions=\"{} {}\"/>\n", sf.nj, sf.ni);
       x << "      <Geometry GeometryType=\"VXVY\">\n";
       for (const auto& [axis, n] : {std::pair{"x", sf.ni}, std::pair{"y", sf.nj}})
-        x << fmt::format("        <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" "
-                         "Format=\"HDF\">fields.h5:/grid/{}/{}</DataItem>\n",
-                         n, sf.name, axis);
+        x << fmt::format(
+            "        <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" "
+            "Format=\"HDF\">fields.h5:/grid/{}/{}</DataItem>\n",
+            n, sf.name, axis);
       x << "      </Geometry>\n";
-      x << fmt::format("      <Attribute Name=\"{} ({})\" AttributeType=\"Scalar\" Center=\"Node\">\n", sf.name, sf.units);
-      x << fmt::format("        <DataItem Dimensions=\"{} {}\" NumberType=\"Float\" Precision=\"{}\" "
-                       "Format=\"HDF\">fields.h5:{}</DataItem>\n",
-                       sf.nj, sf.ni, prec, frame_view_path(k, sf.name));
+      x << fmt::format("      <Attribute Name=\"{} ({})\" AttributeType=\"Scalar\" Center=\"Node\">\n", sf.name,
+                       sf.units);
+      x << fmt::format(
+          "        <DataItem Dimensions=\"{} {}\" NumberType=\"Float\" Precision=\"{}\" "
+          "Format=\"HDF\">fields.h5:{}</DataItem>\n",
+          sf.nj, sf.ni, prec, frame_view_path(k, sf.name));
       x << "      </Attribute>\n    </Grid>\n";
     }
     x << "  </Grid>\n";

@@ -60,8 +60,10 @@ std::unique_ptr<Node> parse_xml(const std::string& text) {
         n->name = name;
         for (int i = 0; atts[i]; i += 2) n->attr[atts[i]] = atts[i + 1];
         Node* raw = n.get();
-        if (s.open.empty()) s.root = std::move(n);
-        else s.open.back()->kids.push_back(std::move(n));
+        if (s.open.empty())
+          s.root = std::move(n);
+        else
+          s.open.back()->kids.push_back(std::move(n));
         s.open.push_back(raw);
       },
       [](void* u, const XML_Char*) { static_cast<State*>(u)->open.pop_back(); });
