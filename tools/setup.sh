@@ -5,7 +5,7 @@
 #   BUILD_TYPE=Debug tools/setup.sh, SANITIZE=ON tools/setup.sh (into build-sanitize/)
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
-packages=(cmake g++ make libhdf5-dev libyaml-cpp-dev libfmt-dev nlohmann-json3-dev libeigen3-dev doctest-dev libcli11-dev
+packages=(cmake g++ make libhdf5-dev libyaml-cpp-dev libfmt-dev nlohmann-json3-dev libeigen3-dev doctest-dev libcli11-dev libexpat1-dev
   pkg-config libcairo2-dev fonts-dejavu-core libplplot-dev plplot-driver-cairo ffmpeg)
 missing=()
 for p in "${packages[@]}"; do

@@ -147,6 +147,26 @@ void File::shrink_frames(const std::string& path, hsize_t frames) {
   check(H5Dset_extent(set.id(), dims), "cannot shorten " + path);
 }
 
+void File::frame_view(const std::string& view, const std::string& series, hsize_t frame) {
+  Handle set(check(H5Dopen2(id(), series.c_str(), H5P_DEFAULT), "cannot open " + series), H5Dclose);
+  Handle src(check(H5Dget_space(set.id()), "dataspace"), H5Sclose);
+  Handle type(check(H5Dget_type(set.id()), "type"), H5Tclose);
+  hsize_t dims[3];
+  if (H5Sget_simple_extent_ndims(src.id()) != 3) throw std::runtime_error(series + " is not a frame series");
+  H5Sget_simple_extent_dims(src.id(), dims, nullptr);
+  if (frame >= dims[0]) throw std::runtime_error(series + ": no frame " + std::to_string(frame));
+  const hsize_t start[3] = {frame, 0, 0}, count[3] = {1, dims[1], dims[2]};
+  check(H5Sselect_hyperslab(src.id(), H5S_SELECT_SET, start, nullptr, count, nullptr), "hyperslab");
+  Handle vspace(check(H5Screate_simple(2, dims + 1, nullptr), "dataspace"), H5Sclose);
+  Handle plist(check(H5Pcreate(H5P_DATASET_CREATE), "plist"), H5Pclose);
+  // "." is this file itself (HDF5 reference manual, H5Pset_virtual).
+  check(H5Pset_virtual(plist.id(), vspace.id(), ".", series.c_str(), src.id()), "cannot map " + view);
+  make_groups(view);
+  Handle v(check(H5Dcreate2(id(), view.c_str(), type.id(), vspace.id(), H5P_DEFAULT, plist.id(), H5P_DEFAULT),
+                 "cannot create " + view + " in " + name_),
+           H5Dclose);
+}
+
 void File::remove(const std::string& path) {
   check(H5Ldelete(id(), path.c_str(), H5P_DEFAULT), "cannot remove " + path);
 }

@@ -47,6 +47,10 @@ class File {
                      const std::string& units);
   /// Keeps the first `frames` frames of a frame series (a run that stopped by itself).
   void shrink_frames(const std::string& path, hsize_t frames);
+  /// A [ny][nx] virtual dataset at `view` showing frame `frame` of the series `series` in
+  /// this file (HDF5 >= 1.10, H5Pset_virtual; no data is copied). The file must have been
+  /// opened without the 1.8 bounds of `create` (open_rw): the view's layout needs 1.10.
+  void frame_view(const std::string& view, const std::string& series, hsize_t frame);
   /// Unlinks a dataset or group (its space is not reclaimed).
   void remove(const std::string& path);
   void write_frame(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const float* data);

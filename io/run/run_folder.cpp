@@ -28,6 +28,9 @@ const char* kPartial = "fields.h5.partial";
 const char* kOwn[] = {"fields.h5", "fields.xmf", "summary.json", "fields.h5.partial", "checkpoint.h5", "log.txt",
                       "scene.yaml"};
 
+/// Frame k of a snapshot field as a 2D dataset (a view of /snapshots/NAME, frame_view).
+std::string frame_view_path(size_t k, const std::string& name) { return fmt::format("/frames/{}/{}", k, name); }
+
 std::string slurp(const std::string& path) {
   std::ifstream in(path);
   return std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
@@ -136,6 +139,16 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
     f.remove("/snapshots/time");
     f.write("/snapshots/time", {plan_.times.size()}, plan_.times.data(), "s");
   }
+  // Per-frame views of the series for fields.xmf (write_xdmf): ParaView's XDMF 3 reader
+  // does not take HyperSlab items into a series, but reads plain 2D datasets; the views
+  // hold no data of their own.
+  for (size_t k = 0; k < plan_.times.size(); ++k)
+    for (const auto& sf : plan_.fields) {
+      const std::string view = frame_view_path(k, sf.name);
+      f.frame_view(view, "/snapshots/" + sf.name, k);
+      f.attribute(view, "units", sf.units);
+      f.attribute(view, "time-offset", sf.time_offset);
+    }
   for (const auto& m : maps) {
     const std::string base = "/spectral-maps/" + m.name;
     f.write(base + "/frequency", {m.freq.size()}, m.freq.data(), "Hz");
@@ -252,34 +265,41 @@ void RunFolder::abandon() {
 }
 
 void RunFolder::write_xdmf() const {
+  // One temporal collection of frames; each frame a spatial collection of the fields, all
+  // at the frame's time (the E time). Fields recorded off it (H, half a step earlier) say
+  // so in an Information element, so that a movie shows every field at every time.
   std::ostringstream x;
   x << "<?xml version=\"1.0\" ?>\n<Xdmf Version=\"3.0\">\n<Domain>\n";
   const int prec = single_ ? 4 : 8;
-  for (const auto& sf : plan_.fields) {
-    x << fmt::format("<Grid Name=\"{}\" GridType=\"Collection\" CollectionType=\"Temporal\">\n", sf.name);
-    for (size_t k = 0; k < plan_.times.size(); ++k) {
-      x << fmt::format("  <Grid Name=\"{}-{}\" GridType=\"Uniform\">\n", sf.name, k);
-      x << fmt::format("    <Time Value=\"{:.9g}\"/>\n", plan_.times[k] + sf.time_offset);
-      x << fmt::format("    <Topology TopologyType=\"2DRectMesh\" Dimensions=\"{} {}\"/>\n", sf.nj, sf.ni);
-      x << "    <Geometry GeometryType=\"VXVY\">\n";
+  if (!plan_.fields.empty()) x << "<Grid Name=\"snapshots\" GridType=\"Collection\" CollectionType=\"Temporal\">\n";
+  for (size_t k = 0; !plan_.fields.empty() && k < plan_.times.size(); ++k) {
+    x << fmt::format("  <Grid Name=\"frame-{}\" GridType=\"Collection\" CollectionType=\"Spatial\">\n", k);
+    x << fmt::format("    <Time Value=\"{:.17g}\"/>\n", plan_.times[k]);
+    for (const auto& sf : plan_.fields) {
+      x << fmt::format("    <Grid Name=\"{}\" GridType=\"Uniform\">\n", sf.name);
       x << fmt::format(
-          "      <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" Format=\"HDF\">fields.h5:/grid/{}/x</DataItem>\n",
-          sf.ni, sf.name);
+          "      <Information Name=\"time-offset\" Value=\"{:.17g}\">seconds: this field's values are at the "
+          "frame's time plus this offset</Information>\n",
+          sf.time_offset);
+      x << fmt::format("      <Topology TopologyType=\"2DRectMesh\" Dimensions=\"{} {}\"/>\n", sf.nj, sf.ni);
+      x << "      <Geometry GeometryType=\"VXVY\">\n";
+      for (const auto& [axis, n] : {std::pair{"x", sf.ni}, std::pair{"y", sf.nj}})
+        x << fmt::format(
+            "        <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" "
+            "Format=\"HDF\">fields.h5:/grid/{}/{}</DataItem>\n",
+            n, sf.name, axis);
+      x << "      </Geometry>\n";
+      x << fmt::format("      <Attribute Name=\"{} ({})\" AttributeType=\"Scalar\" Center=\"Node\">\n", sf.name,
+                       sf.units);
       x << fmt::format(
-          "      <DataItem Dimensions=\"{}\" NumberType=\"Float\" Precision=\"8\" Format=\"HDF\">fields.h5:/grid/{}/y</DataItem>\n",
-          sf.nj, sf.name);
-      x << "    </Geometry>\n";
-      x << fmt::format("    <Attribute Name=\"{} ({})\" AttributeType=\"Scalar\" Center=\"Node\">\n", sf.name, sf.units);
-      x << fmt::format("      <DataItem ItemType=\"HyperSlab\" Dimensions=\"{} {}\" Type=\"HyperSlab\">\n", sf.nj, sf.ni);
-      x << fmt::format("        <DataItem Dimensions=\"3 3\" Format=\"XML\">{} 0 0 1 1 1 1 {} {}</DataItem>\n", k, sf.nj,
-                       sf.ni);
-      x << fmt::format(
-          "        <DataItem Dimensions=\"{} {} {}\" NumberType=\"Float\" Precision=\"{}\" Format=\"HDF\">fields.h5:/snapshots/{}</DataItem>\n",
-          plan_.times.size(), sf.nj, sf.ni, prec, sf.name);
-      x << "      </DataItem>\n    </Attribute>\n  </Grid>\n";
+          "        <DataItem Dimensions=\"{} {}\" NumberType=\"Float\" Precision=\"{}\" "
+          "Format=\"HDF\">fields.h5:{}</DataItem>\n",
+          sf.nj, sf.ni, prec, frame_view_path(k, sf.name));
+      x << "      </Attribute>\n    </Grid>\n";
     }
-    x << "</Grid>\n";
+    x << "  </Grid>\n";
   }
+  if (!plan_.fields.empty()) x << "</Grid>\n";
   x << "</Domain>\n</Xdmf>\n";
   write_text_atomically(path("fields.xmf"), x.str());
 }

@@ -88,7 +88,7 @@ TEST_CASE("a run folder holds self-describing HDF5, XDMF, summary, log and the r
   CHECK(h.read_attribute("/probes/behind-window/time", "units") == "s");
 
   const std::string xmf = slurp(dir / "fields.xmf");
-  CHECK(xmf.find("fields.h5:/snapshots/Ez") != std::string::npos);
+  CHECK(xmf.find("fields.h5:/frames/0/Ez") != std::string::npos);
   CHECK(xmf.find("CollectionType=\"Temporal\"") != std::string::npos);
   CHECK(xmf.find("2DRectMesh") != std::string::npos);
 
