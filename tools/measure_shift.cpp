@@ -7,11 +7,12 @@
 /// gives the non-reciprocal part (the difference) and the reciprocal part (the mean).
 /// Writes RUN/shift.json and RUN/shift-profiles.csv (the beams' |E|^2 along the line).
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <cmath>
+#include <filesystem>
 #include <fstream>
 #include <iostream>
+#include <nlohmann/json.hpp>
 
 #include "io/analysis/shift.h"
 #include "io/scene/scene_reader.h"
@@ -28,6 +29,11 @@ using Shift = LateralShift;
 
 /// The face, the incidence side's index and the grid, from the run's scene (RUN/scene.yaml).
 ShiftGeometry geometry(const std::string& run, const ShiftOptions& o, double omega, const LineCut& incident) {
+  if (!std::filesystem::exists(run + "/scene.yaml"))
+    throw BadInput(
+        fmt::format("{}: error: no scene.yaml (measure shift takes the face plane and the grid from the "
+                    "run's own scene)",
+                    run));
   const Scene s = read_scene(run + "/scene.yaml");
   const YeeGrid g = grid_for(s, 1);
   const int normal = o.line_axis == 'y' ? 1 : 0;
@@ -73,11 +79,12 @@ nlohmann::json report(const Shift& x, const char* label) {
   std::cout << fmt::format("{}: incident centroid {:.6g} um (width {:.6g} um), reflected {:.6g} um (width {:.6g} um)\n",
                            label, x.incident.centroid * 1e6, x.incident.width * 1e6, x.reflected.centroid * 1e6,
                            x.reflected.width * 1e6);
-  std::cout << fmt::format("  specular reflection {:.6g} um (a perfect mirror on the face plane {:.6g} um beyond the "
-                           "line); lateral shift on the line {:.6g} +- {:.3g} um, at the face {:.6g} +- {:.3g} um, "
-                           "along t = z x n\n",
-                           x.specular.centroid * 1e6, x.line_distance * 1e6, x.shift * 1e6, x.uncertainty * 1e6,
-                           x.face_shift * 1e6, x.face_uncertainty * 1e6);
+  std::cout << fmt::format(
+      "  specular reflection {:.6g} um (a perfect mirror on the face plane {:.6g} um beyond the "
+      "line); lateral shift on the line {:.6g} +- {:.3g} um, at the face {:.6g} +- {:.3g} um, "
+      "along t = z x n\n",
+      x.specular.centroid * 1e6, x.line_distance * 1e6, x.shift * 1e6, x.uncertainty * 1e6, x.face_shift * 1e6,
+      x.face_uncertainty * 1e6);
   nlohmann::json e;
   e["incident-centroid"] = x.incident.centroid, e["incident-width"] = x.incident.width;
   e["reflected-centroid"] = x.reflected.centroid, e["reflected-width"] = x.reflected.width;
@@ -100,8 +107,9 @@ int measure_shift(const ShiftOptions& o) {
     const double u = std::hypot(s.uncertainty, b.uncertainty);
     j["non-reciprocal"] = s.shift - b.shift;
     j["reciprocal"] = 0.5 * (s.shift + b.shift);
-    std::cout << fmt::format("non-reciprocal part (difference) {:.6g} um, reciprocal part (mean) {:.6g} um, +- {:.3g} um\n",
-                             (s.shift - b.shift) * 1e6, 0.5 * (s.shift + b.shift) * 1e6, u * 1e6);
+    std::cout << fmt::format(
+        "non-reciprocal part (difference) {:.6g} um, reciprocal part (mean) {:.6g} um, +- {:.3g} um\n",
+        (s.shift - b.shift) * 1e6, 0.5 * (s.shift + b.shift) * 1e6, u * 1e6);
   }
   std::ofstream(o.run + "/shift.json") << j.dump(2) << "\n";
   // the beams' intensity along the line (for `terayee render --plot shift`)

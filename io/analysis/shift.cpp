@@ -28,9 +28,9 @@ namespace {
 /// spectrum along the line (zero-padded to twice its length and more, so no image wraps
 /// round), and each plane wave's normal wavenumber.
 struct PlaneWaves {
-  size_t n = 0;                        // samples on the line
+  size_t n = 0;                           // samples on the line
   std::vector<std::vector<cd>> inc, ref;  // spectra of the incident and reflected components
-  std::vector<cd> kn;                  // normal wavenumber per bin (NaN beyond the grid's band)
+  std::vector<cd> kn;                     // normal wavenumber per bin (NaN beyond the grid's band)
   mutable Eigen::FFT<double> fft;
 
   PlaneWaves(const LineCut& a, const LineCut& r, const ShiftGeometry& g) : n(a.s.size()) {

@@ -37,10 +37,10 @@ BeamMoments beam_moments(const std::vector<double>& s, const std::vector<double>
 
 /// What the zero point needs: the face, the wave's frequency and the grid it ran on.
 struct ShiftGeometry {
-  double face = 0;       ///< the face plane along the normal (user coordinates), m
-  double half_cell = 0;  ///< how well the face is known (half a cell), m
-  double omega = 0;      ///< angular frequency, rad/s
-  double index = 1;      ///< refractive index on the incidence side
+  double face = 0;                  ///< the face plane along the normal (user coordinates), m
+  double half_cell = 0;             ///< how well the face is known (half a cell), m
+  double omega = 0;                 ///< angular frequency, rad/s
+  double index = 1;                 ///< refractive index on the incidence side
   double d_t = 0, d_n = 0, dt = 0;  ///< the grid's cell sides along the line and the normal, its time step
 };
 

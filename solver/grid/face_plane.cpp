@@ -16,9 +16,7 @@ FacePlane face_plane(const Scene& s, const YeeGrid& g, int normal, double edge, 
   const double dir = edge >= from ? 1.0 : -1.0;  // from the wave's side into the body
   // internal coordinate of tangential-E node plane k (the Ez nodes' rows or columns)
   auto plane = [&](long k) { return (k - npml) * d; };
-  auto point = [&](double n) {
-    return normal == 0 ? Vec2{n, along + shift_t} : Vec2{along + shift_t, n};
-  };
+  auto point = [&](double n) { return normal == 0 ? Vec2{n, along + shift_t} : Vec2{along + shift_t, n}; };
   FacePlane f;
   f.half_cell = 0.5 * d;
   const double e = edge + shift_n;

@@ -18,8 +18,8 @@
 
 #include <filesystem>
 #include <fstream>
-#include <tuple>
 #include <nlohmann/json.hpp>
+#include <tuple>
 
 #include "tests/helpers.h"
 
@@ -32,7 +32,8 @@ using ty::test::shell;
 double shift_of(const std::string& pol) {
   const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/tir-shift.yaml";
   const std::string bin = TERAYEE_BINARY;
-  const fs::path run = fs::temp_directory_path() / ("terayee-tir-" + pol), ref = fs::temp_directory_path() / ("terayee-tir-ref-" + pol);
+  const fs::path run = fs::temp_directory_path() / ("terayee-tir-" + pol),
+                 ref = fs::temp_directory_path() / ("terayee-tir-ref-" + pol);
   const std::string set = " --quiet --set sources.0.beam.polarization=" + pol;
   REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "'" + set) == 0);
   REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference" + set) == 0);
@@ -69,16 +70,16 @@ nlohmann::json mirror_shift(const std::string& name, const std::string& sets) {
   REQUIRE(shell(bin + " run '" + kMirror + "' -o '" + run.string() + "' --overwrite --quiet" + sets) == 0);
   REQUIRE(shell(bin + " run '" + kMirror + "' -o '" + ref.string() + "' --overwrite --quiet --reference" + sets) == 0);
   REQUIRE(shell(bin + " measure shift '" + run.string() + "' --reference '" + ref.string() +
-                "' --map cut --line 'y=-1 mm' --interface '" + (sets.find("5.505") != std::string::npos ? "0.505" : "0.5") +
-                " mm'") == 0);
+                "' --map cut --line 'y=-1 mm' --interface '" +
+                (sets.find("5.505") != std::string::npos ? "0.505" : "0.5") + " mm'") == 0);
   std::ifstream in(run / "shift.json");
   const auto j = nlohmann::json::parse(in)["run"];
   fs::remove_all(run);
   fs::remove_all(ref);
-  MESSAGE(name << ": shift on the line " << j["shift"].get<double>() * 1e6 << " +- " << j["uncertainty"].get<double>() * 1e6
-               << " um, at the face " << j["face-shift"].get<double>() * 1e6 << " +- "
-               << j["face-uncertainty"].get<double>() * 1e6 << " um; face plane " << j["line-distance"].get<double>() * 1e6
-               << " um beyond the line");
+  MESSAGE(name << ": shift on the line " << j["shift"].get<double>() * 1e6 << " +- "
+               << j["uncertainty"].get<double>() * 1e6 << " um, at the face " << j["face-shift"].get<double>() * 1e6
+               << " +- " << j["face-uncertainty"].get<double>() * 1e6 << " um; face plane "
+               << j["line-distance"].get<double>() * 1e6 << " um beyond the line");
   return j;
 }
 
@@ -86,8 +87,9 @@ nlohmann::json mirror_shift(const std::string& name, const std::string& sets) {
 
 TEST_CASE("measure shift: a perfect conductor shifts a diverging beam by 0, its edge on a node or half a cell off") {
   const std::string pec = " --set media.face.perfect-conductor=true";
-  for (const auto& [name, sets, h] : {std::tuple{"on-node", pec, 1.5e-3},
-                                     std::tuple{"half-cell", pec + " --set 'bodies.0.rectangle.centre=[0, 5.505 mm]'", 1.51e-3}}) {
+  for (const auto& [name, sets, h] :
+       {std::tuple{"on-node", pec, 1.5e-3},
+        std::tuple{"half-cell", pec + " --set 'bodies.0.rectangle.centre=[0, 5.505 mm]'", 1.51e-3}}) {
     const auto j = mirror_shift(name, sets);
     CHECK(j["line-distance"].get<double>() == doctest::Approx(h).epsilon(1e-9));  // the first node inside
     CHECK(std::abs(j["shift"].get<double>()) < j["uncertainty"].get<double>());
