@@ -59,7 +59,7 @@ int measure_material(const MaterialOptions& o);
 struct ShiftOptions {
   std::string run, reference, map, reversed, reversed_reference;
   char line_axis = 'y';
-  double line = 0, interface = 0, angle = 0, frequency = 0;
+  double line = 0, interface = 0, frequency = 0;
 };
 int measure_shift(const ShiftOptions& o);
 struct RenderOptions {

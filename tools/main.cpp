@@ -91,7 +91,8 @@ int main(int argc, char** argv) {
   md->add_option("--thickness", med_thickness, "Slab thickness (default: a half-space)");
   md->add_option("--waist", med_waist, "Beam waist for the beam-summed lateral shift");
   md->add_option("--line-distance", med_line,
-                 "With --waist: the shift as seen on a line this far before the interface (as measure shift sees it)");
+                 "With --waist: the shift as seen on a line this far before the face, against the beam's specular "
+                 "image (as measure shift sees it; its line-distance)");
   md->add_option("--incidence-index", med.incidence_index, "Refractive index of the incidence side")
       ->check(CLI::PositiveNumber);
   md->add_option("--source-distance", med_source,
@@ -159,8 +160,11 @@ int main(int argc, char** argv) {
   msh->add_option("--reference", sh.reference, "Reference run folder (the incident beam)")->required()->check(CLI::ExistingDirectory);
   msh->add_option("--map", sh.map, "Spectral map name")->required();
   msh->add_option("--line", sh_line, "The measurement line parallel to the interface: y=VALUE or x=VALUE")->required();
-  msh->add_option("--interface", sh_interface, "The interface's coordinate along its normal")->required();
-  msh->add_option("--angle", sh_angle, "Angle of incidence (positive towards t = z x n)")->required();
+  msh->add_option("--interface", sh_interface,
+                  "The body's face along its normal (the node plane where it acts is taken from the run's grid)")
+      ->required();
+  msh->add_option("--angle", sh_angle,
+                  "Not needed: the zero point is the incident beam's own specular image (accepted for older scripts)");
   msh->add_option("--frequency", sh_freq, "One of the map's frequencies (default: its first)");
   msh->add_option("--reversed", sh.reversed, "Run folder with the bias reversed")->check(CLI::ExistingDirectory);
   msh->add_option("--reversed-reference", sh.reversed_reference, "Its reference run")->check(CLI::ExistingDirectory);
@@ -267,7 +271,7 @@ int main(int argc, char** argv) {
       sh.line_axis = sh_line[0];
       sh.line = q(sh_line.substr(2), ty::Kind::length, "--line");
       sh.interface = q(sh_interface, ty::Kind::length, "--interface");
-      sh.angle = q(sh_angle, ty::Kind::angle, "--angle");
+      if (!sh_angle.empty()) q(sh_angle, ty::Kind::angle, "--angle");  // checked, not used
       if (!sh_freq.empty()) sh.frequency = q(sh_freq, ty::Kind::frequency, "--frequency");
       if (sh.reversed.empty() != sh.reversed_reference.empty())
         throw ty::BadInput("terayee measure shift: error: --reversed and --reversed-reference go together");

@@ -1,17 +1,25 @@
 /// \file measure_shift.cpp
-/// \brief `terayee measure shift RUN --reference REF --map NAME --line y=V --interface V
-/// --angle A`: the lateral (Goos-Hänchen) shift of a reflected beam (io/analysis/shift.h).
+/// \brief `terayee measure shift RUN --reference REF --map NAME --line y=V --interface V`: the
+/// lateral (Goos-Hänchen) shift of a reflected beam against the exact specular reflection of
+/// the same incident beam (io/analysis/shift.h), the face being the node plane where the
+/// body's face acts (solver/grid/face_plane.h, from the run's own scene and grid).
 /// With --reversed RUN2 --reversed-reference REF2 (the same scene, bias reversed) it also
 /// gives the non-reciprocal part (the difference) and the reciprocal part (the mean).
 /// Writes RUN/shift.json and RUN/shift-profiles.csv (the beams' |E|^2 along the line).
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <cmath>
+#include <filesystem>
 #include <fstream>
 #include <iostream>
+#include <nlohmann/json.hpp>
 
 #include "io/analysis/shift.h"
+#include "io/scene/scene_reader.h"
+#include "io/scene/units.h"
+#include "materials/dielectric.h"
+#include "materials/permittivity/permittivity.h"
+#include "solver/grid/face_plane.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -19,14 +27,71 @@ namespace {
 
 using Shift = LateralShift;
 
+/// The face, the incidence side's index and the grid, from the run's scene (RUN/scene.yaml).
+ShiftGeometry geometry(const std::string& run, const ShiftOptions& o, double omega, const LineCut& incident) {
+  if (!std::filesystem::exists(run + "/scene.yaml"))
+    throw BadInput(
+        fmt::format("{}: error: no scene.yaml (measure shift takes the face plane and the grid from the "
+                    "run's own scene)",
+                    run));
+  const Scene s = read_scene(run + "/scene.yaml");
+  const YeeGrid g = grid_for(s, 1);
+  const int normal = o.line_axis == 'y' ? 1 : 0;
+  // where the incident beam's centroid on the line is: the face is looked for across from it
+  std::vector<double> I(incident.s.size(), 0.0);
+  for (int c = 0; c < 3; ++c)
+    for (size_t q = 0; q < incident.E[c].size(); ++q) I[q] += std::norm(incident.E[c][q]);
+  const double along = beam_moments(incident.s, I).centroid;
+  const FacePlane f = face_plane(s, g, normal, o.interface, incident.at, along);
+  ShiftGeometry x;
+  x.face = f.at, x.half_cell = f.half_cell, x.omega = omega;
+  x.d_t = normal == 1 ? g.dx : g.dy, x.d_n = normal == 1 ? g.dy : g.dx, x.dt = g.dt;
+  // the incidence side's index: its medium's eps for the polarization the beam carries
+  const Vec2 p = normal == 1 ? Vec2{along + s.origin_shift.x, incident.at + s.origin_shift.y}
+                             : Vec2{incident.at + s.origin_shift.x, along + s.origin_shift.y};
+  const int m = medium_at(s, p);
+  if (m >= 0) {
+    double ez = 0, eh = 0;  // the Ez wave's and the in-plane E's share of the intensity
+    for (size_t q = 0; q < incident.s.size(); ++q) {
+      if (!incident.E[2].empty()) ez += std::norm(incident.E[2][q]);
+      for (int c = 0; c < 2; ++c)
+        if (!incident.E[c].empty()) eh += std::norm(incident.E[c][q]);
+    }
+    const Mat3c eps = medium_permittivity(s.media[m], omega);
+    const int c = ez >= eh ? 2 : 1 - normal;  // Ez, or the in-plane E along the face
+    x.index = std::sqrt(eps(c, c).real());
+  }
+  return x;
+}
+
 /// The shift in one run and its reference run, every argument checked against the maps.
 Shift measure(const std::string& run, const std::string& ref, const ShiftOptions& o) {
   const bool line_is_y = o.line_axis == 'y';
   const SpectralMapFile a(run, o.map), r(ref, o.map);
   check_same_nodes(a, r);
-  const LineCut ca = read_line_cut(a, line_is_y, o.line, a.frequency_index(o.frequency));
+  const size_t k = a.frequency_index(o.frequency);
+  const LineCut ca = read_line_cut(a, line_is_y, o.line, k);
   const LineCut cr = read_line_cut(r, line_is_y, o.line, r.frequency_index(o.frequency));
-  return lateral_shift(ca, cr, line_is_y, o.line, o.interface, o.angle);
+  return lateral_shift(ca, cr, line_is_y, geometry(run, o, 2 * constants::pi * a.frequencies()[k], cr));
+}
+
+nlohmann::json report(const Shift& x, const char* label) {
+  std::cout << fmt::format("{}: incident centroid {:.6g} um (width {:.6g} um), reflected {:.6g} um (width {:.6g} um)\n",
+                           label, x.incident.centroid * 1e6, x.incident.width * 1e6, x.reflected.centroid * 1e6,
+                           x.reflected.width * 1e6);
+  std::cout << fmt::format(
+      "  specular reflection {:.6g} um (a perfect mirror on the face plane {:.6g} um beyond the "
+      "line); lateral shift on the line {:.6g} +- {:.3g} um, at the face {:.6g} +- {:.3g} um, "
+      "along t = z x n\n",
+      x.specular.centroid * 1e6, x.line_distance * 1e6, x.shift * 1e6, x.uncertainty * 1e6, x.face_shift * 1e6,
+      x.face_uncertainty * 1e6);
+  nlohmann::json e;
+  e["incident-centroid"] = x.incident.centroid, e["incident-width"] = x.incident.width;
+  e["reflected-centroid"] = x.reflected.centroid, e["reflected-width"] = x.reflected.width;
+  e["specular-centroid"] = x.specular.centroid, e["line-distance"] = x.line_distance;
+  e["shift"] = x.shift, e["uncertainty"] = x.uncertainty;
+  e["face-shift"] = x.face_shift, e["face-uncertainty"] = x.face_uncertainty;
+  return e;
 }
 
 }  // namespace
@@ -34,18 +99,6 @@ Shift measure(const std::string& run, const std::string& ref, const ShiftOptions
 int measure_shift(const ShiftOptions& o) {
   const Shift s = measure(o.run, o.reference, o);
   nlohmann::json j;
-  auto report = [&](const Shift& x, const char* label) {
-    std::cout << fmt::format("{}: incident centroid {:.6g} um (width {:.6g} um), reflected {:.6g} um (width {:.6g} um)\n",
-                             label, x.incident.centroid * 1e6, x.incident.width * 1e6, x.reflected.centroid * 1e6,
-                             x.reflected.width * 1e6);
-    std::cout << fmt::format("  geometric reflection {:.6g} um; lateral shift {:.6g} +- {:.3g} um along t = z x n\n",
-                             x.geometric * 1e6, x.shift * 1e6, x.uncertainty * 1e6);
-    nlohmann::json e;
-    e["incident-centroid"] = x.incident.centroid, e["incident-width"] = x.incident.width;
-    e["reflected-centroid"] = x.reflected.centroid, e["reflected-width"] = x.reflected.width;
-    e["geometric"] = x.geometric, e["shift"] = x.shift, e["uncertainty"] = x.uncertainty;
-    return e;
-  };
   j["run"] = report(s, "run");
   Shift b;
   if (!o.reversed.empty()) {
@@ -54,18 +107,19 @@ int measure_shift(const ShiftOptions& o) {
     const double u = std::hypot(s.uncertainty, b.uncertainty);
     j["non-reciprocal"] = s.shift - b.shift;
     j["reciprocal"] = 0.5 * (s.shift + b.shift);
-    std::cout << fmt::format("non-reciprocal part (difference) {:.6g} um, reciprocal part (mean) {:.6g} um, +- {:.3g} um\n",
-                             (s.shift - b.shift) * 1e6, 0.5 * (s.shift + b.shift) * 1e6, u * 1e6);
+    std::cout << fmt::format(
+        "non-reciprocal part (difference) {:.6g} um, reciprocal part (mean) {:.6g} um, +- {:.3g} um\n",
+        (s.shift - b.shift) * 1e6, 0.5 * (s.shift + b.shift) * 1e6, u * 1e6);
   }
   std::ofstream(o.run + "/shift.json") << j.dump(2) << "\n";
   // the beams' intensity along the line (for `terayee render --plot shift`)
   std::ofstream prof(o.run + "/shift-profiles.csv");
   prof << "beam,s_m,intensity\n";
   auto profile = [&](const Shift& x, const std::string& tag) {
-    for (size_t q = 0; q < x.s.size(); ++q)
-      prof << fmt::format("incident{},{:.10g},{:.10g}\n", tag, x.s[q], x.incident_profile[q]);
-    for (size_t q = 0; q < x.s.size(); ++q)
-      prof << fmt::format("reflected{},{:.10g},{:.10g}\n", tag, x.s[q], x.reflected_profile[q]);
+    const std::pair<const char*, const std::vector<double>*> beams[3] = {
+        {"incident", &x.incident_profile}, {"specular", &x.specular_profile}, {"reflected", &x.reflected_profile}};
+    for (auto [name, I] : beams)
+      for (size_t q = 0; q < x.s.size(); ++q) prof << fmt::format("{}{},{:.10g},{:.10g}\n", name, tag, x.s[q], (*I)[q]);
   };
   profile(s, "");
   if (!o.reversed.empty()) profile(b, "-reversed");

@@ -6,7 +6,7 @@
 ///             effective permeability of the scene's magnetic media is negative shaded;
 ///   probes    each probe's recorded fields against time (one panel a field);
 ///   shift     the incident and reflected beams' intensity along the line (shift-profiles.csv),
-///             with the geometric reflection point and the measured centroids marked;
+///             with the specular reflection (a perfect mirror on the face) and the measured centroids marked;
 ///   focus     the intensity through the focal spot across and along the axis, FWHM marked.
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
@@ -126,7 +126,8 @@ int plot_shift(const RenderOptions& o, const std::string& dir) {
   p.xlabel = "position along the line (mm)";
   p.ylabel = "|E|² / its peak";
   const bool reversed = j.contains("reversed");
-  const std::pair<const char*, const char*> names[3] = {{"incident", "incident (reference run)"},
+  const std::pair<const char*, const char*> names[4] = {{"incident", "incident (reference run)"},
+                                                        {"specular", "specular (a perfect mirror on the face)"},
                                                         {"reflected", reversed ? "reflected, bias +" : "reflected"},
                                                         {"reflected-reversed", "reflected, bias reversed"}};
   int colour = 0;
@@ -136,10 +137,10 @@ int plot_shift(const RenderOptions& o, const std::string& dir) {
     for (double& y : s.y) y /= std::max(peak[key], 1e-300);
     s.label = label;
     s.colour = colour++;
-    s.style = std::string(key) == "incident" ? PlotSeries::Style::dashed : PlotSeries::Style::line;
+    s.style = std::string(key) == "incident" || std::string(key) == "specular" ? PlotSeries::Style::dashed : PlotSeries::Style::line;
     p.series.push_back(s);
   }
-  p.marks.push_back(j["run"]["geometric"].get<double>() * 1e3);
+  p.marks.push_back(j["run"]["specular-centroid"].get<double>() * 1e3);
   p.marks.push_back(j["run"]["reflected-centroid"].get<double>() * 1e3);
   if (reversed) p.marks.push_back(j["reversed"]["reflected-centroid"].get<double>() * 1e3);
   std::string title = fmt::format("lateral shift {:.1f} ± {:.1f} µm", j["run"]["shift"].get<double>() * 1e6,
@@ -151,9 +152,9 @@ int plot_shift(const RenderOptions& o, const std::string& dir) {
   p.title = title;
   p.ymin = 0;
   p.ymax = 1.1;
-  // below: the reflected beams' tops, around the geometric point, where the shift shows
+  // below: the reflected beams' tops, around the specular centroid, where the shift shows
   PlotPanel zoom = p;
-  zoom.title = "near the geometric reflection point (dotted), and the reflected centroids (dotted)";
+  zoom.title = "near the specular centroid (dotted), and the reflected centroids (dotted)";
   const double w = j["run"]["reflected-width"].get<double>() * 1e3;
   zoom.xmin = p.marks[0] - 0.25 * w, zoom.xmax = p.marks[0] + 0.25 * w;
   zoom.ymin = zoom.ymax = NAN;

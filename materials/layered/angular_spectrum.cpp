@@ -40,8 +40,9 @@ double beam_shift(const LayerStack& s, double omega, double theta, int p, double
     den_i += A2;
   }
   if (den <= 0) return 0.0;
-  // on a line h before the interface: the beams' own angular drift, less the geometric 2 h tan(theta)
-  return num / den + h * (tan_r / den + tan_i / den_i - 2 * std::tan(theta));
+  // on a line h before the face, against the specular image (the incident spectrum carried to a
+  // perfect mirror and back): the reflected beam drifts by h <tan>_r, the image by h <tan>_i
+  return num / den + h * (tan_r / den - tan_i / den_i);
 }
 
 namespace {

@@ -31,13 +31,17 @@ namespace ty {
 double artmann_shift(const LayerStack& s, double omega, double theta, int p);
 /// Lateral shift (m) of a reflected Gaussian beam of waist w (1/e field radius, focused on
 /// the interface), as the intensity centroids show it on a line a distance h before the
-/// interface: the reflected centroid less the incident one less 2 h tan(theta). The beam is
-/// the one the scene's sources launch, A(q) ~ exp(-q^2 w^2/4) over the transverse wavenumber
-/// q of its own frame (solver/incident.h); the centroids along the line follow from
-/// Parseval's theorem with weights |F|^2 per unit k_t, |F|^2 = |A|^2 dq/dk_t (incident)
-/// and |F r|^2 (reflected):
-///   D(h) = -<dphi/dk_t>_r + h (<tan theta>_r + <tan theta>_i - 2 tan theta),
-/// the second term the angular drift a reflection that favours some angles gives the beam.
+/// face: the reflected centroid less that of the same beam's specular image (the incident
+/// spectrum reflected by a perfect mirror on the face, as io/analysis/shift.h measures it).
+/// The beam is the one the scene's sources launch, A(q) ~ exp(-q^2 w^2/4) over the
+/// transverse wavenumber q of its own frame (solver/incident.h); the centroids along the
+/// line follow from Parseval's theorem with weights |F|^2 per unit k_t, |F|^2 = |A|^2
+/// dq/dk_t (incident and image) and |F r|^2 (reflected):
+///   D(h) = -<dphi/dk_t>_r + h (<tan theta>_r - <tan theta>_i),
+/// the second term the angular drift a reflection that favours some angles gives the beam
+/// (zero for a perfect mirror; for a real r only this term, the spatial shift being 0). The
+/// image itself lies at the incident centroid + 2 h <tan theta>_i, not + 2 h tan(theta): a
+/// diverging beam's angles average to more than the axis's.
 double beam_shift(const LayerStack& s, double omega, double theta, int p, double w, double h = 0);
 
 struct LineImage {

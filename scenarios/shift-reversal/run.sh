@@ -16,7 +16,7 @@ reversed=(--set "bias=[0, 0, -1 T]")
 "$ty" run "$scene" --overwrite -o "$out/reference" --reference "${sets[@]}"
 # the strip y = -0.4 mm lies 0.9 mm before the crystal's face at y = 0.5 mm
 "$ty" measure shift "$out/plus" --reference "$out/reference" --map cut --line "y=-0.4 mm" --interface "0.5 mm" \
-  --angle "45 deg" --reversed "$out/minus" --reversed-reference "$out/reference" | tee "$out/shift.txt"
+  --reversed "$out/minus" --reversed-reference "$out/reference" | tee "$out/shift.txt"
 for b in plus minus; do
   extra=()
   [ "$b" = minus ] && extra=("${reversed[@]}")

@@ -30,6 +30,15 @@ double yee_wavenumber(double omega, double theta, double n, double dx, double dy
   return 0.5 * (lo + hi);
 }
 
+std::complex<double> yee_normal_wavenumber(double omega, double kt, double n, double d_t, double d_n, double dt) {
+  const double a = std::sin(0.5 * kt * d_t) / d_t;
+  const double b2 = std::pow(n * std::sin(0.5 * omega * dt) / (c0 * dt), 2) - a * a;
+  const double x = d_n * std::sqrt(std::abs(b2));  // sin (or i sinh) of kn d_n / 2
+  if (b2 < 0) return {0.0, 2 / d_n * std::asinh(x)};
+  if (x > 1) return {std::nan(""), 0.0};
+  return {2 / d_n * std::asin(x), 0.0};
+}
+
 IncidentField::IncidentField(const Source& s, Vec2 crossing, double n, double dx, double dy, double dt)
     : s_(s), n_(n), crossing_(crossing) {
   const double omega = 2 * pi * s.frequency;

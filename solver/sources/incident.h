@@ -24,6 +24,12 @@ namespace ty {
 /// index n (2D Yee relation solved by bisection).
 double yee_wavenumber(double omega, double theta, double n, double dx, double dy, double dt);
 
+/// The grid's normal wavenumber k_n of a plane wave of tangential wavenumber kt (same
+/// relation: sin^2(kt dt_/2)/dt_^2 + sin^2(kn dn/2)/dn^2 = (n sin(w dt/2)/(c dt))^2, dt_ and
+/// dn the cell sides along the face and its normal); imaginary (Im > 0) for an evanescent
+/// wave, NaN beyond the grid's band.
+std::complex<double> yee_normal_wavenumber(double omega, double kt, double n, double d_t, double d_n, double dt);
+
 class IncidentField {
  public:
   /// `crossing`: where the beam's axis meets the launch line (io's launch_point).

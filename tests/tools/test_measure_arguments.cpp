@@ -5,7 +5,8 @@
 /// "shift" of -13969 um), a frequency the map did not record, a map or power-spectrum line
 /// the run does not have, a reference run of another grid. The same commands inside the map
 /// succeed, so each refusal is the argument's doing. The run folder is synthetic: a spectral
-/// map of a Gaussian spot (Ez, Sx, Sy) at 1 THz on a 21 x 21 mm grid of 0.5 mm.
+/// map of a Gaussian spot (Ez, Sx, Sy) at 1 THz on a 21 x 21 mm grid of 0.5 mm, and a
+/// scene.yaml of that grid.
 #include <doctest/doctest.h>
 #include <sys/wait.h>
 
@@ -47,6 +48,11 @@ void write_map_run(const fs::path& dir, const std::string& name, double d) {
   f.write(b + "/Sx/imag", {1, n, n}, im.data(), "W/m^2");
   f.write(b + "/Sy/real", {1, n, n}, sy.data(), "W/m^2");
   f.write(b + "/Sy/imag", {1, n, n}, im.data(), "W/m^2");
+  // the run's scene (measure shift takes the face plane and the grid from it)
+  std::ofstream(dir / "scene.yaml")
+      << "grid: {extent: [20 mm, 20 mm], cell: " << d * 1e3 << " mm}\ntime: {stop: 1 ps}\n"
+      << "sources:\n  - point: {at: [0, 0], component: Ez, amplitude: 1 mA, frequency: 1 THz, "
+      << "waveform: {kind: pulse, fwhm: 0.2 ps}}\n";
 }
 
 std::string quoted(const fs::path& p) {
@@ -90,8 +96,11 @@ TEST_CASE("measure refuses arguments outside what the run holds") {
   const std::string shift = "measure shift " + r + " --reference " + r + " --map cut --interface 0mm --angle 30deg";
 
   // shift: the line must cross the map (its nodes y = -10..10 mm, within half a spacing)
-  CHECK(terayee(shift + " --line y=-5mm").status == 0);
-  CHECK(terayee(shift + " --line y=10.2mm").status == 0);
+  for (const char* line : {" --line y=-5mm", " --line y=10.2mm"}) {
+    const Outcome o = terayee(shift + line);
+    INFO(line << " -> " << o.err);
+    CHECK(o.status == 0);
+  }
   check_refused(shift + " --line y=-20mm", "lies outside the map 'cut', which spans y = -10 to 10 mm");
   check_refused(shift + " --line x=10.3mm", "outside the map");
   check_refused(shift + " --line y=0mm --frequency 2THz", "has no frequency 2000 GHz");

@@ -46,10 +46,11 @@ std::string column_unit(const std::string& column) {
   std::string key = column.substr(column.rfind('.') + 1);
   key = key.substr(0, key.find('['));
   static const std::map<std::string, std::string> units = {
-      {"shift", "m"},          {"uncertainty", "m"},       {"geometric", "m"},       {"incident-centroid", "m"},
+      {"shift", "m"},          {"uncertainty", "m"},       {"specular-centroid", "m"}, {"incident-centroid", "m"},
       {"incident-width", "m"}, {"reflected-centroid", "m"}, {"reflected-width", "m"}, {"non-reciprocal", "m"},
       {"reciprocal", "m"},     {"peak-position", "m"},      {"fwhm-along-axis", "m"}, {"fwhm-across-axis", "m"},
-      {"distance-from-face", "m"}, {"frequency", "Hz"},     {"peak-intensity", "(V/m)^2"}};
+      {"distance-from-face", "m"}, {"frequency", "Hz"},     {"peak-intensity", "(V/m)^2"},
+      {"line-distance", "m"},  {"face-shift", "m"},         {"face-uncertainty", "m"}};
   if (auto it = units.find(key); it != units.end()) return it->second;
   if (key.size() > 4 && key.substr(key.size() - 4) == "-rad") return "rad";
   return "";

@@ -73,3 +73,23 @@ TEST_CASE("refraction of the Ez wave: Snell's law and negative refraction in a h
   const Refraction hx = ez_refraction(5.5, mx, 0, kt);
   CHECK(hx.angle == doctest::Approx(expected).epsilon(1e-12));
 }
+
+TEST_CASE("beam shift: a diverging beam off a near-perfect conductor is not shifted, on the face or on a line before it") {
+  // a conductor of sigma = 1e9 S/m at 1 THz: r = -1 to 1e-3 at every angle (image theory), so
+  // the reflected beam is the specular image itself; the old zero point (the incident
+  // centroid + 2 h tan(theta)) read 2 h (<tan>_i - tan(theta)), 55 um here
+  const double f = 1e12, w = 2 * constants::pi * f, th = 30 * constants::pi / 180;
+  LayerStack st;
+  st.eps_out = Mat3c::Identity() * std::complex<double>(1.0, 1e9 / (constants::eps0 * w));
+  st.mu_out = Mat3c::Identity();
+  for (double h : {0.0, 1.5e-3}) {
+    const double d = beam_shift(st, w, th, 0, 450e-6, h);
+    MESSAGE("conductor, line " << h * 1e3 << " mm before the face: " << d * 1e6 << " um");
+    CHECK(std::abs(d) < 0.1e-6);  // the skin depth gives a few nm
+  }
+  // glass (a real Fresnel r, Born & Wolf sec. 1.5.2): no spatial shift at the face
+  LayerStack g;
+  g.eps_out = Mat3c::Identity() * 2.25;
+  g.mu_out = Mat3c::Identity();
+  CHECK(std::abs(beam_shift(g, w, th, 0, 450e-6, 0.0)) < 1e-12);
+}
