@@ -164,8 +164,8 @@ int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M,
       coupled = normal_modes(x.eps, x.mu, a).coupled;
     }
     std::cout << fmt::format("      interface normal {} (waves along {}):{}\n", kAxis[a], kAxis[a],
-                             coupled ? fmt::format(" Ez and Hz waves coupled through mu_{0}z, mu_{1}z (bias with a "
-                                                   "part in the plane; along {1}: Faraday geometry)",
+                             coupled ? fmt::format(" the Ez and Hz waves are coupled (mu_{0}z or mu_{1}z: a bias or moment "
+                                                   "with a part in the plane; along {1}: the Faraday geometry)",
                                                    names[t], names[a])
                                      : "");
     for (int w = 0; w < 2; ++w) {
@@ -178,7 +178,8 @@ int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M,
       const std::string what =
           coupled ? fmt::format("{} (eigenvalue of -J P J M)", wave_name(2 + w))
           : w == 0 ? fmt::format("Ez wave, eps_zz mu_V (mu_V = mu_{0}{0} - mu_{0}{1} mu_{1}{0} / mu_{1}{1})", names[t], names[a])
-                   : fmt::format("Hz wave, eps_{0}{0} mu_zz (eps and mu with the {1} parts removed)", names[t], names[a]);
+                   : fmt::format("Hz wave, eps'_{0}{0} mu'_zz (mu'_zz = mu_zz - mu_z{1} mu_{1}z / mu_{1}{1}, eps' likewise)",
+                                 names[t], names[a]);
       std::cout << fmt::format("        {} < 0: {}\n", what, band_list(bands));
       for (const Band& b : bands) {
         const double x0 = std::max(b.from, f_lo), x1 = std::min(b.to, f_hi);
@@ -201,7 +202,7 @@ int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M,
         }
         if (shortest < kDecayCells * cell[a]) {
           std::cout << fmt::format("    warning: the {} along {} decays by 1/e in under {:g} cells over {:.4f}-{:.4f} "
-                                   "GHz of the band {:.4f}-{:.4f} GHz (shortest {:.3g} um = {:.2f} cells, at "
+                                   "GHz of the band {:.4f}-{:.4f} GHz (shortest {:.4g} um = {:.2f} cells, at "
                                    "{:.4f} GHz)\n",
                                    wave_name(coupled ? 2 + w : w), kAxis[a], kDecayCells, short_from / 1e9,
                                    short_to / 1e9, b.from / 1e9, b.to / 1e9, shortest * 1e6, shortest / cell[a],
