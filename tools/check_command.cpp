@@ -197,6 +197,7 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
   const std::array<bool, 2> uniform = uniform_axes(s);
   for (const Source& src : s.sources) {
     warnings += report_source_resolution(s, src, uniform);
+    warnings += report_total_reflection(s, src, uniform);
     if (src.kind == Source::Kind::beam && src.waist < 2 * constants::c0 / src.frequency)
       std::cout << "    note: the waist is under two wavelengths; the beam is far from paraxial\n";
   }

@@ -134,6 +134,46 @@ int report_source_resolution(const Scene& s, const Source& src, const std::array
   return warnings;
 }
 
+int report_total_reflection(const Scene& s, const Source& src, const std::array<bool, 2>& uniform) {
+  if (src.kind == Source::Kind::point) return 0;
+  auto index = [&](int m) {  // vacuum -1; magnets and conductors are left to their own reports
+    if (m < 0) return 1.0;
+    const Medium& med = s.media[m];
+    if (med.perfect_conductor || med.magnet) return 0.0;
+    return std::sqrt(*std::max_element(med.permittivity.begin(), med.permittivity.end()));
+  };
+  // where the wave starts: the beam's focus, or the middle of the plane wave's launch line
+  const Vec2 from = src.kind == Source::Kind::beam ? src.focus
+                    : src.line_axis == 'x'         ? Vec2{src.line_at, 0.5 * s.grid.extent.y}
+                                                   : Vec2{0.5 * s.grid.extent.x, src.line_at};
+  const double n1 = index(medium_at(s, from));
+  const double f = source_band(src).hi, cell[2] = {s.grid.dx, s.grid.dy};
+  const double dir[2] = {std::cos(src.angle), std::sin(src.angle)};
+  // the media the grid holds (-1: vacuum), by their cells
+  std::vector<bool> present(s.media.size() + 1, false);
+  const long nx = std::lround(s.grid.extent.x / cell[0]), ny = std::lround(s.grid.extent.y / cell[1]);
+  for (long j = 0; j < ny; ++j)
+    for (long i = 0; i < nx; ++i) present[medium_at(s, {(i + 0.5) * cell[0], (j + 0.5) * cell[1]}) + 1] = true;
+  int warnings = 0;
+  for (int a = 0; a < 2; ++a) {
+    if (uniform[a]) continue;
+    const double kt = n1 * std::abs(dir[1 - a]);  // tangential wavenumber on a face normal to a, units of k0
+    int lowest = -2;  // the medium of lowest index: the shortest decay
+    for (int m = -1; m < static_cast<int>(s.media.size()); ++m)
+      if (present[m + 1] && index(m) > 0 && kt > index(m) && (lowest < -1 || index(m) < index(lowest))) lowest = m;
+    if (lowest < -1) continue;
+    const double n2 = index(lowest);
+    const double len = constants::c0 / (2 * constants::pi * f * std::sqrt(kt * kt - n2 * n2));
+    if (len >= kDecayCells * cell[a]) continue;
+    std::cout << fmt::format("    warning: where it is totally reflected on a face normal to {} (n {:.4g} to {}, n "
+                             "{:.4g}), the field beyond decays by 1/e in {:.4g} um = {:.2f} cells: under {:g}\n",
+                             kAxis[a], n1, lowest < 0 ? std::string("vacuum") : "'" + s.media[lowest].name + "'", n2,
+                             len * 1e6, len / cell[a], kDecayCells);
+    ++warnings;
+  }
+  return warnings;
+}
+
 int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M, const MagneticState& st, double lo,
                         double hi, double f_lo, double f_hi, const std::array<bool, 2>& uniform) {
   int warnings = 0;

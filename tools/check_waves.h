@@ -36,6 +36,13 @@ std::array<bool, 2> uniform_axes(const Scene& s);
 /// returns the number of warnings.
 int report_source_resolution(const Scene& s, const Source& src, const std::array<bool, 2>& uniform);
 
+/// Total internal reflection: a beam or plane wave launched in a denser non-magnetic medium at an
+/// angle, meeting a medium of lower index across a face normal to x or y, leaves an evanescent
+/// field of 1/e length lambda0 / (2 pi sqrt(n1^2 sin^2 theta - n2^2)) (Born & Wolf, Principles
+/// of Optics, sec. 1.5.4) at the source's highest frequency; a warning where it is under
+/// kDecayCells cells. Returns the number of warnings.
+int report_total_reflection(const Scene& s, const Source& src, const std::array<bool, 2>& uniform);
+
 /// The waves of one magnetic medium (state st) for each interface normal over [lo, hi] (the
 /// scan), negative bands followed past it; warnings on decay lengths and on the run's frequency
 /// resolution against the bands within [f_lo, f_hi] (the sources' band). Returns the warnings.

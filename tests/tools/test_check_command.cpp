@@ -111,3 +111,24 @@ TEST_CASE("terayee check: run-length and decay-length warnings only where a nega
   out = check(band);
   CHECK(out.find("decays by 1/e") == std::string::npos);
 }
+
+TEST_CASE("terayee check: the evanescent field of total internal reflection against its cells") {
+  // eps = 5.5 to vacuum at 45 deg, 1 THz: 1/e length lambda0 / (2 pi sqrt(n1^2 sin^2 45 - 1)) = 36.07 um
+  // (Born & Wolf, Principles of Optics, sec. 1.5.4): 3.0 cells of 12 um (a warning), 4.5 of 8 um (none)
+  const std::string scene = std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/tir-shift.yaml'";
+  auto run = [&](const std::string& sets) {
+    std::string out;
+    FILE* p = popen((scene + " " + sets + " 2>&1").c_str(), "r");
+    REQUIRE(p);
+    std::array<char, 4096> buf{};
+    while (fgets(buf.data(), buf.size(), p)) out += buf.data();
+    REQUIRE(pclose(p) == 0);
+    return out;
+  };
+  const double expect = 299792458.0 / 1e12 / (2 * ty::constants::pi * std::sqrt(5.5 * 0.5 - 1)) * 1e6;
+  std::string out = run("--set 'grid.cell=12 um'");
+  const double got = two(out, R"(totally reflected on a face normal to y .* decays by 1/e in ([0-9.]+) um)").first;
+  CHECK(got == doctest::Approx(expect).epsilon(1e-3));
+  out = run("");
+  CHECK(out.find("totally reflected") == std::string::npos);
+}
