@@ -23,7 +23,8 @@ const char* kAxis[2] = {"x", "y"};
 std::string band_list(const std::vector<Band>& bands) {
   if (bands.empty()) return "none";
   std::string out;
-  for (const auto& b : bands) out += fmt::format("{}{:.4f}-{:.4f} GHz", out.empty() ? "" : ", ", b.from / 1e9, b.to / 1e9);
+  for (const auto& b : bands)
+    out += fmt::format("{}{:.4f}-{:.4f} GHz", out.empty() ? "" : ", ", b.from / 1e9, b.to / 1e9);
   return out;
 }
 
@@ -67,7 +68,8 @@ Shortest shortest_wave(const Medium& med, const MagnetModel* M, const MagneticSt
 }
 
 const char* wave_name(int w) {
-  static const char* names[4] = {"Ez wave", "Hz wave", "coupled wave of lower (k/k0)^2", "coupled wave of higher (k/k0)^2"};
+  static const char* names[4] = {"Ez wave", "Hz wave", "coupled wave of lower (k/k0)^2",
+                                 "coupled wave of higher (k/k0)^2"};
   return names[w];
 }
 
@@ -108,7 +110,8 @@ int report_source_resolution(const Scene& s, const Source& src, const std::array
         continue;
       }
       const Shortest sh = count(cell[a]);
-      text += fmt::format(" {}: {:6.1f}{}", kAxis[a], sh.cpw, sh.f > 0 ? fmt::format(" (at {:.4g} THz, {})", sh.f / 1e12, wave_name(sh.wave)) : "");
+      text += fmt::format(" {}: {:6.1f}{}", kAxis[a], sh.cpw,
+                          sh.f > 0 ? fmt::format(" (at {:.4g} THz, {})", sh.f / 1e12, wave_name(sh.wave)) : "");
       if (sh.cpw < need) {
         text += fmt::format("  <- warning: under {:g}{}", need, why);
         ++warnings;
@@ -116,20 +119,29 @@ int report_source_resolution(const Scene& s, const Source& src, const std::array
     }
     std::cout << text << "\n";
   };
-  line("vacuum", [&](double c) { return Shortest{constants::c0 / f1 / c, 0, 0}; }, kCellsPerWavelength,
-       ", expect visible dispersion error");
+  line(
+      "vacuum",
+      [&](double c) {
+        return Shortest{constants::c0 / f1 / c, 0, 0};
+      },
+      kCellsPerWavelength, ", expect visible dispersion error");
   for (const Medium& m : s.media) {
     if (m.perfect_conductor) continue;
     if (!m.magnet) {
       const double eps = *std::max_element(m.permittivity.begin(), m.permittivity.end());
-      line(m.name, [&](double c) { return Shortest{constants::c0 / (f1 * std::sqrt(eps)) / c, 0, 0}; },
-           kCellsPerWavelength, ", expect visible dispersion error");
+      line(
+          m.name,
+          [&](double c) {
+            return Shortest{constants::c0 / (f1 * std::sqrt(eps)) / c, 0, 0};
+          },
+          kCellsPerWavelength, ", expect visible dispersion error");
       continue;
     }
     const MagnetModel M(*m.magnet, s.bias);
     const MagneticState st = choose_state(*m.magnet, s.bias).state;
-    line(m.name + " (n(f))", [&](double c) { return shortest_wave(m, &M, &st, f0, f1, c); },
-         kMagneticCellsPerWavelength, " in a magnet (near a pole of mu_V, 22 gave R off by 0.03)");
+    line(
+        m.name + " (n(f))", [&](double c) { return shortest_wave(m, &M, &st, f0, f1, c); }, kMagneticCellsPerWavelength,
+        " in a magnet (near a pole of mu_V, 22 gave R off by 0.03)");
   }
   return warnings;
 }
@@ -158,17 +170,18 @@ int report_total_reflection(const Scene& s, const Source& src, const std::array<
   for (int a = 0; a < 2; ++a) {
     if (uniform[a]) continue;
     const double kt = n1 * std::abs(dir[1 - a]);  // tangential wavenumber on a face normal to a, units of k0
-    int lowest = -2;  // the medium of lowest index: the shortest decay
+    int lowest = -2;                              // the medium of lowest index: the shortest decay
     for (int m = -1; m < static_cast<int>(s.media.size()); ++m)
       if (present[m + 1] && index(m) > 0 && kt > index(m) && (lowest < -1 || index(m) < index(lowest))) lowest = m;
     if (lowest < -1) continue;
     const double n2 = index(lowest);
     const double len = constants::c0 / (2 * constants::pi * f * std::sqrt(kt * kt - n2 * n2));
     if (len >= kDecayCells * cell[a]) continue;
-    std::cout << fmt::format("    warning: where it is totally reflected on a face normal to {} (n {:.4g} to {}, n "
-                             "{:.4g}), the field beyond decays by 1/e in {:.4g} um = {:.2f} cells: under {:g}\n",
-                             kAxis[a], n1, lowest < 0 ? std::string("vacuum") : "'" + s.media[lowest].name + "'", n2,
-                             len * 1e6, len / cell[a], kDecayCells);
+    std::cout << fmt::format(
+        "    warning: where it is totally reflected on a face normal to {} (n {:.4g} to {}, n "
+        "{:.4g}), the field beyond decays by 1/e in {:.4g} um = {:.2f} cells: under {:g}\n",
+        kAxis[a], n1, lowest < 0 ? std::string("vacuum") : "'" + s.media[lowest].name + "'", n2, len * 1e6,
+        len / cell[a], kDecayCells);
     ++warnings;
   }
   return warnings;
@@ -204,10 +217,11 @@ int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M,
       coupled = normal_modes(x.eps, x.mu, a).coupled;
     }
     std::cout << fmt::format("      interface normal {} (waves along {}):{}\n", kAxis[a], kAxis[a],
-                             coupled ? fmt::format(" the Ez and Hz waves are coupled (mu_{0}z or mu_{1}z: a bias or moment "
-                                                   "with a part in the plane; along {1}: the Faraday geometry)",
-                                                   names[t], names[a])
-                                     : "");
+                             coupled
+                                 ? fmt::format(" the Ez and Hz waves are coupled (mu_{0}z or mu_{1}z: a bias or moment "
+                                               "with a part in the plane; along {1}: the Faraday geometry)",
+                                               names[t], names[a])
+                                 : "");
     for (int w = 0; w < 2; ++w) {
       const auto n2 = [&, w](double f) {
         const Tensors x = at(f);
@@ -217,17 +231,20 @@ int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M,
           whole_negative_bands([&](double f) { return n2(f).real(); }, lo, hi, samples, floor, ceiling);
       const std::string what =
           coupled ? fmt::format("{} (eigenvalue of -J P J M)", wave_name(2 + w))
-          : w == 0 ? fmt::format("Ez wave, eps_zz mu_V (mu_V = mu_{0}{0} - mu_{0}{1} mu_{1}{0} / mu_{1}{1})", names[t], names[a])
-                   : fmt::format("Hz wave, eps'_{0}{0} mu'_zz (mu'_zz = mu_zz - mu_z{1} mu_{1}z / mu_{1}{1}, eps' likewise)",
-                                 names[t], names[a]);
+          : w == 0
+              ? fmt::format("Ez wave, eps_zz mu_V (mu_V = mu_{0}{0} - mu_{0}{1} mu_{1}{0} / mu_{1}{1})", names[t],
+                            names[a])
+              : fmt::format("Hz wave, eps'_{0}{0} mu'_zz (mu'_zz = mu_zz - mu_z{1} mu_{1}z / mu_{1}{1}, eps' likewise)",
+                            names[t], names[a]);
       std::cout << fmt::format("        {} < 0: {}\n", what, band_list(bands));
       for (const Band& b : bands) {
         const double x0 = std::max(b.from, f_lo), x1 = std::min(b.to, f_hi);
         if (!(x1 > x0)) continue;  // outside the sources' band
         if (run_res > 0.5 * (b.to - b.from)) {
-          std::cout << fmt::format("    warning: the run resolves {:.3g} GHz, coarser than half the band "
-                                   "{:.4f}-{:.4f} GHz of the {} along {}; run longer\n",
-                                   run_res / 1e9, b.from / 1e9, b.to / 1e9, wave_name(coupled ? 2 + w : w), kAxis[a]);
+          std::cout << fmt::format(
+              "    warning: the run resolves {:.3g} GHz, coarser than half the band "
+              "{:.4f}-{:.4f} GHz of the {} along {}; run longer\n",
+              run_res / 1e9, b.from / 1e9, b.to / 1e9, wave_name(coupled ? 2 + w : w), kAxis[a]);
           ++warnings;
         }
         if (uniform[a]) continue;
@@ -241,12 +258,12 @@ int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M,
           if (len < kDecayCells * cell[a]) short_to = f, short_from = short_from > 0 ? short_from : f;
         }
         if (shortest < kDecayCells * cell[a]) {
-          std::cout << fmt::format("    warning: the {} along {} decays by 1/e in under {:g} cells over {:.4f}-{:.4f} "
-                                   "GHz of the band {:.4f}-{:.4f} GHz (shortest {:.4g} um = {:.2f} cells, at "
-                                   "{:.4f} GHz)\n",
-                                   wave_name(coupled ? 2 + w : w), kAxis[a], kDecayCells, short_from / 1e9,
-                                   short_to / 1e9, b.from / 1e9, b.to / 1e9, shortest * 1e6, shortest / cell[a],
-                                   f_at / 1e9);
+          std::cout << fmt::format(
+              "    warning: the {} along {} decays by 1/e in under {:g} cells over {:.4f}-{:.4f} "
+              "GHz of the band {:.4f}-{:.4f} GHz (shortest {:.4g} um = {:.2f} cells, at "
+              "{:.4f} GHz)\n",
+              wave_name(coupled ? 2 + w : w), kAxis[a], kDecayCells, short_from / 1e9, short_to / 1e9, b.from / 1e9,
+              b.to / 1e9, shortest * 1e6, shortest / cell[a], f_at / 1e9);
           ++warnings;
         }
       }

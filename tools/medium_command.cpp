@@ -64,6 +64,33 @@ LayerStack stack_at(const Setup& s, double f) {
   return st;
 }
 
+/// The two waves' columns at one frequency: each wave's iso-frequency curve and, at this
+/// angle (tangential kt in units of k0), whether it propagates, its power-flow angle (deg) and
+/// its 1/e length along the normal (m); the waves of normal incidence for any bias.
+struct Waves {
+  std::string character, hz_character, ez_here, hz_here;
+  double refr = 0, refr_hz = 0, ez_decay = 0, hz_decay = 0;
+  NormalModes modes;
+};
+
+Waves waves_at(const Mat3c& eps, const Mat3c& mu, double f, int nn, double kt, double cell_n) {
+  Waves w;
+  w.character = iso_curve_name(ez_iso_curve(eps(2, 2), mu));
+  w.hz_character = iso_curve_name(hz_iso_curve(eps, mu(2, 2)));
+  // power-flow direction inside, losses included (the same relation as the curves)
+  const Refraction rf = ez_refraction(eps(2, 2), mu, nn, kt), rh = hz_refraction(eps, mu(2, 2), nn, kt);
+  w.refr = rf.propagates ? rf.angle * 180 / constants::pi : std::nan("");
+  w.refr_hz = rh.propagates ? rh.angle * 180 / constants::pi : std::nan("");
+  const double lambda_bar = constants::c0 / (2 * constants::pi * f);  // 1/k0
+  w.ez_decay = decay_length(rf) * lambda_bar, w.hz_decay = decay_length(rh) * lambda_bar;
+  auto here = [&](const Refraction& r, double decay) {
+    return is_propagating(r) ? std::string("prop") : decay < 4 * cell_n ? std::string("evan!") : std::string("evan");
+  };
+  w.ez_here = here(rf, w.ez_decay), w.hz_here = here(rh, w.hz_decay);
+  w.modes = normal_modes(eps, mu, nn);  // (k/k0)^2 H = Q H (wave_character.h)
+  return w;
+}
+
 }  // namespace
 
 int medium_command(const MediumOptions& o) {
@@ -118,27 +145,17 @@ int medium_command(const MediumOptions& o) {
     const double f = o.count == 1 ? o.from : o.from + (o.to - o.from) * q / (o.count - 1);
     const Mat3c mu = mu_at(s, f), eps = eps_at(s, f);
     const cd muv = voigt_permeability(mu, nn);
-    // each wave's iso-frequency curve and, at this angle, whether it propagates: the relation of refraction.h
-    const std::string character = iso_curve_name(ez_iso_curve(eps(2, 2), mu));
-    const std::string hz_character = iso_curve_name(hz_iso_curve(eps, mu(2, 2)));
-    // power-flow direction inside, losses included (from vacuum or the incidence index)
-    const double kt = s.n_in * std::sin(th);
-    const Refraction rf = ez_refraction(eps(2, 2), mu, nn, kt), rh = hz_refraction(eps, mu(2, 2), nn, kt);
-    const double refr = rf.propagates ? rf.angle * 180 / constants::pi : std::nan("");
-    const double refr_hz = rh.propagates ? rh.angle * 180 / constants::pi : std::nan("");
-    const double lambda_bar = constants::c0 / (2 * constants::pi * f);  // 1/k0
-    const double ez_decay = decay_length(rf) * lambda_bar, hz_decay = decay_length(rh) * lambda_bar;
-    auto here = [&](const Refraction& r, double decay) {
-      return is_propagating(r) ? std::string("prop") : decay < 4 * cell_n ? std::string("evan!") : std::string("evan");
-    };
-    const std::string ez_here = here(rf, ez_decay), hz_here = here(rh, hz_decay);
-    // normal incidence, any bias: the two waves of (k/k0)^2 H = Q H (wave_character.h)
-    const NormalModes modes = normal_modes(eps, mu, nn);
+    const Waves wv = waves_at(eps, mu, f, nn, s.n_in * std::sin(th), cell_n);
+    const std::string &character = wv.character, &hz_character = wv.hz_character, &ez_here = wv.ez_here,
+                      &hz_here = wv.hz_here;
+    const double refr = wv.refr, refr_hz = wv.refr_hz, ez_decay = wv.ez_decay, hz_decay = wv.hz_decay;
+    const NormalModes& modes = wv.modes;
     if (modes.coupled && !coupling_told) {
       coupling_told = true;
       std::cout << fmt::format("  note: mu_xz, mu_yz are not zero (the bias or the moment has a part in the plane): the Ez "
                                "and Hz waves couple, so each wave's columns describe it alone; at normal incidence the "
-                               "coupled waves have (k/k0)^2 = {:.4g}{:+.4g}i, {:.4g}{:+.4g}i at {:.4f} GHz (CSV and JSON: every row)\n",
+                               "coupled waves have (k/k0)^2 = {:.4g}{:+.4g}i, {:.4g}{:+.4g}i at {:.4f} GHz (CSV and "
+                               "JSON: every row)\n",
                                modes.n2[0].real(), modes.n2[0].imag(), modes.n2[1].real(), modes.n2[1].imag(), f / 1e9);
     }
     const LayerStack st = stack_at(s, f);

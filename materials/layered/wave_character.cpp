@@ -40,8 +40,7 @@ Eigen::Matrix2cd transverse(const Mat3c& a, int normal) {
   const double sg[2] = {s, 1.0};
   Eigen::Matrix2cd m;
   for (int p = 0; p < 2; ++p)
-    for (int q = 0; q < 2; ++q)
-      m(p, q) = sg[p] * sg[q] * (a(idx[p], idx[q]) - a(idx[p], n) * a(n, idx[q]) / a(n, n));
+    for (int q = 0; q < 2; ++q) m(p, q) = sg[p] * sg[q] * (a(idx[p], idx[q]) - a(idx[p], n) * a(n, idx[q]) / a(n, n));
   return m;
 }
 

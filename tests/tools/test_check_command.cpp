@@ -87,7 +87,8 @@ TEST_CASE("terayee check: negative bands run to their ends, the Hz wave and the 
 
 TEST_CASE("terayee check: run-length and decay-length warnings only where a negative band is") {
   // MnF2 slab, damping 1e-3: no negative band at all, so no "band too narrow" warning (there were two)
-  const std::string mnf2 = std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/mnf2-slab.yaml'";
+  const std::string mnf2 =
+      std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/mnf2-slab.yaml'";
   std::string out;
   {
     FILE* p = popen((mnf2 + " 2>&1").c_str(), "r");
@@ -115,7 +116,8 @@ TEST_CASE("terayee check: run-length and decay-length warnings only where a nega
 TEST_CASE("terayee check: the evanescent field of total internal reflection against its cells") {
   // eps = 5.5 to vacuum at 45 deg, 1 THz: 1/e length lambda0 / (2 pi sqrt(n1^2 sin^2 45 - 1)) = 36.07 um
   // (Born & Wolf, Principles of Optics, sec. 1.5.4): 3.0 cells of 12 um (a warning), 4.5 of 8 um (none)
-  const std::string scene = std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/tir-shift.yaml'";
+  const std::string scene =
+      std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/tir-shift.yaml'";
   auto run = [&](const std::string& sets) {
     std::string out;
     FILE* p = popen((scene + " " + sets + " 2>&1").c_str(), "r");

@@ -21,9 +21,7 @@ namespace {
 struct Polder {
   double mu, kappa;
 };
-Polder polder(double w0, double wm, double w) {
-  return {1 + w0 * wm / (w0 * w0 - w * w), w * wm / (w0 * w0 - w * w)};
-}
+Polder polder(double w0, double wm, double w) { return {1 + w0 * wm / (w0 * w0 - w * w), w * wm / (w0 * w0 - w * w)}; }
 
 /// The Polder tensor with the bias along axis b (0: x, 1: y, 2: z), exp(-i w t) convention.
 Mat3c polder_tensor(const Polder& p, int b) {
