@@ -103,7 +103,7 @@ int report_source_resolution(const Scene& s, const Source& src, const std::array
                            &src - s.sources.data() + 1, src.where.line, f0 / 1e12, f1 / 1e12,
                            uniform[0] || uniform[1] ? " (an axis along which nothing varies is not counted)" : "");
   auto line = [&](const std::string& name, auto&& count, double need, const std::string& why) {
-    std::string text = fmt::format("    {:<20s}", name);
+    std::string text = fmt::format("    {:<20s}", name), under;
     for (int a = 0; a < 2; ++a) {
       if (uniform[a]) {
         text += fmt::format(" {}: uniform", kAxis[a]);
@@ -112,10 +112,11 @@ int report_source_resolution(const Scene& s, const Source& src, const std::array
       const Shortest sh = count(cell[a]);
       text += fmt::format(" {}: {:6.1f}{}", kAxis[a], sh.cpw,
                           sh.f > 0 ? fmt::format(" (at {:.4g} THz, {})", sh.f / 1e12, wave_name(sh.wave)) : "");
-      if (sh.cpw < need) {
-        text += fmt::format("  <- warning: under {:g}{}", need, why);
-        ++warnings;
-      }
+      if (sh.cpw < need) under += under.empty() ? kAxis[a] : std::string(" and ") + kAxis[a];
+    }
+    if (!under.empty()) {
+      text += fmt::format("  <- warning: under {:g} along {}{}", need, under, why);
+      ++warnings;
     }
     std::cout << text << "\n";
   };

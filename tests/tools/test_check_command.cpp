@@ -56,14 +56,14 @@ TEST_CASE("terayee check: cells per wavelength with the crystal's own n(f), per 
   const double got = two(out, R"(hexa \(n\(f\)\)\s+x:\s+([0-9.]+))").first;
   MESSAGE("cells per wavelength in the crystal: " << got << " (Polder: " << expect << ")");
   CHECK(got == doctest::Approx(expect).epsilon(0.005));  // printed with one decimal
-  CHECK(out.find("under 30 in a magnet") != std::string::npos);
+  CHECK(out.find("under 30 along x in a magnet") != std::string::npos);
   // periodic along y with a plane wave along x: nothing varies along y, so a cell 2 mm tall
   // (2.5 cells per vacuum wavelength) is not counted (it was: "2.5 cells per wavelength", a warning)
   out = check("--set 'grid.extent=[2 mm, 2 mm]' --set 'grid.cell=[20 um, 2 mm]'");
   CHECK(std::regex_search(out, std::regex(R"(vacuum\s+x:\s+245\.\d y: uniform\n)")));
   // without the periodic side it counts
   out = check("--set 'grid.extent=[2 mm, 2 mm]' --set 'grid.cell=[20 um, 2 mm]' --set grid.boundaries.y=absorbing");
-  CHECK(std::regex_search(out, std::regex(R"(vacuum\s+x:\s+245\.\d y:\s+2\.5  <- warning)")));
+  CHECK(std::regex_search(out, std::regex(R"(vacuum\s+x:\s+245\.\d y:\s+2\.5  <- warning: under 10 along y,)")));
 }
 
 TEST_CASE("terayee check: negative bands run to their ends, the Hz wave and the Faraday geometry (Polder)") {
