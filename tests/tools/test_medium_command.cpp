@@ -58,6 +58,8 @@ TEST_CASE("terayee medium: Fresnel reflection and the Artmann shift of total int
   CHECK(v[13] == doctest::Approx(1.0).epsilon(1e-7));
   CHECK(v[20] / lambda0 == doctest::Approx(0.2406).epsilon(2e-3));
   CHECK(v[21] / lambda0 == doctest::Approx(-0.2406).epsilon(2e-3));  // the shift follows the tangential wavevector
+  // the evanescent field's 1/e length, lambda0 / (2 pi sqrt(n1^2 sin^2 45 - 1)) (Born & Wolf sec. 1.5.4)
+  CHECK(v[35] == doctest::Approx(lambda0 / (2 * ty::constants::pi * std::sqrt(5.5 * 0.5 - 1))).epsilon(1e-6));
   std::filesystem::remove(csv);
 }
 
