@@ -73,6 +73,27 @@ const char* wave_name(int w) {
   return names[w];
 }
 
+/// A warning where the evanescent field of (k/k0)^2 = n2(f) decays by 1/e within kDecayCells
+/// cells over [x0, x1], the part of band b within the sources' band. Returns the warnings (0, 1).
+int warn_decay(const std::function<cd(double)>& n2, const Band& b, double x0, double x1, double cell,
+               const std::string& what) {
+  double shortest = 1e300, f_at = x0, short_from = 0, short_to = 0;
+  for (int q = 0; q <= 400; ++q) {
+    const double f = x0 + (x1 - x0) * q / 400;
+    const double im = std::abs(std::sqrt(n2(f)).imag());
+    const double len = im > 0 ? constants::c0 / (2 * constants::pi * f * im) : 1e300;
+    if (len < shortest) shortest = len, f_at = f;
+    if (len < kDecayCells * cell) short_to = f, short_from = short_from > 0 ? short_from : f;
+  }
+  if (shortest >= kDecayCells * cell) return 0;
+  std::cout << fmt::format(
+      "    warning: the {} decays by 1/e in under {:g} cells over {:.4f}-{:.4f} GHz of the band "
+      "{:.4f}-{:.4f} GHz (shortest {:.4g} um = {:.2f} cells, at {:.4f} GHz)\n",
+      what, kDecayCells, short_from / 1e9, short_to / 1e9, b.from / 1e9, b.to / 1e9, shortest * 1e6, shortest / cell,
+      f_at / 1e9);
+  return 1;
+}
+
 }  // namespace
 
 std::array<bool, 2> uniform_axes(const Scene& s) {
@@ -209,6 +230,7 @@ int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M,
         off += fmt::format("{}mu_{}{}", off.empty() ? "" : ", ", names[a], names[b]);
   std::cout << "      off-diagonal elements: " << (off.empty() ? "none" : off) << "\n";
   const double run_res = 1.0 / s.time.stop;
+  std::vector<Band> resolved;  // bands already found too narrow for the run
   const double cell[2] = {s.grid.dx, s.grid.dy};
   for (int a = 0; a < 2; ++a) {
     const int t = 1 - a;
@@ -240,33 +262,20 @@ int report_magnet_waves(const Scene& s, const Medium& med, const MagnetModel& M,
       std::cout << fmt::format("        {} < 0: {}\n", what, band_list(bands));
       for (const Band& b : bands) {
         const double x0 = std::max(b.from, f_lo), x1 = std::min(b.to, f_hi);
-        if (!(x1 > x0)) continue;  // outside the sources' band
-        if (run_res > 0.5 * (b.to - b.from)) {
+        if (!(x1 > x0) || uniform[a]) continue;  // outside the sources' band, or no wave along a
+        const bool told = std::any_of(resolved.begin(), resolved.end(), [&](const Band& r) {
+          return std::abs(r.from - b.from) < 1e-9 * b.to && std::abs(r.to - b.to) < 1e-9 * b.to;
+        });
+        if (!told && run_res > 0.5 * (b.to - b.from)) {  // the same band of another wave is told once
+          resolved.push_back(b);
           std::cout << fmt::format(
               "    warning: the run resolves {:.3g} GHz, coarser than half the band "
               "{:.4f}-{:.4f} GHz of the {} along {}; run longer\n",
               run_res / 1e9, b.from / 1e9, b.to / 1e9, wave_name(coupled ? 2 + w : w), kAxis[a]);
           ++warnings;
         }
-        if (uniform[a]) continue;
-        // the 1/e length of the evanescent field over the overlap, and where it is under kDecayCells cells
-        double shortest = 1e300, f_at = x0, short_from = 0, short_to = 0;
-        for (int q = 0; q <= 400; ++q) {
-          const double f = x0 + (x1 - x0) * q / 400;
-          const double im = std::abs(std::sqrt(n2(f)).imag());
-          const double len = im > 0 ? constants::c0 / (2 * constants::pi * f * im) : 1e300;
-          if (len < shortest) shortest = len, f_at = f;
-          if (len < kDecayCells * cell[a]) short_to = f, short_from = short_from > 0 ? short_from : f;
-        }
-        if (shortest < kDecayCells * cell[a]) {
-          std::cout << fmt::format(
-              "    warning: the {} along {} decays by 1/e in under {:g} cells over {:.4f}-{:.4f} "
-              "GHz of the band {:.4f}-{:.4f} GHz (shortest {:.4g} um = {:.2f} cells, at "
-              "{:.4f} GHz)\n",
-              wave_name(coupled ? 2 + w : w), kAxis[a], kDecayCells, short_from / 1e9, short_to / 1e9, b.from / 1e9,
-              b.to / 1e9, shortest * 1e6, shortest / cell[a], f_at / 1e9);
-          ++warnings;
-        }
+        warnings +=
+            warn_decay(n2, b, x0, x1, cell[a], fmt::format("{} along {}", wave_name(coupled ? 2 + w : w), kAxis[a]));
       }
     }
   }
