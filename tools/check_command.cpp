@@ -19,6 +19,7 @@
 #include "materials/permittivity/permittivity.h"
 #include "solver/grid/yee_grid.h"
 #include "solver/stop_rule.h"
+#include "tools/check_waves.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -45,7 +46,7 @@ std::string band_list(const std::vector<Band>& bands) {
 
 /// Ground state, resonances and negative-permeability bands of each magnetic medium;
 /// returns the number of warnings.
-int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
+int report_magnets(const Scene& s, double f_lo, double f_hi, const std::array<bool, 2>& uniform) {
   int warnings = 0;
   for (size_t k = 0; k < s.media.size(); ++k) {
     const Medium& med = s.media[k];
@@ -111,43 +112,15 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, double cell) {
         return mu(a, b).real();
       };
     };
-    auto voigt = [&](int normal) {
-      return [&, normal](double x) {
-        const Mat3c mu = Mat3c::Identity() + susceptibility(M, st0, 2 * constants::pi * x);
-        return voigt_permeability(mu, normal).real();
-      };
-    };
     const int samples = 20000;
-    std::cout << fmt::format("    negative bands over {:.4f}-{:.4f} GHz (real parts):\n", lo / 1e9, hi / 1e9);
-    std::cout << "      mu_xx: " << band_list(negative_bands(component(0, 0), lo, hi, samples)) << "\n";
-    std::cout << "      mu_yy: " << band_list(negative_bands(component(1, 1), lo, hi, samples)) << "\n";
-    std::cout << "      mu_zz: " << band_list(negative_bands(component(2, 2), lo, hi, samples)) << "\n";
-    std::cout << "      Ez wave, interface normal x, mu_V: " << band_list(negative_bands(voigt(0), lo, hi, samples)) << "\n";
-    std::cout << "      Ez wave, interface normal y, mu_V: " << band_list(negative_bands(voigt(1), lo, hi, samples)) << "\n";
-    // resolution near the resonances inside the sources' band
-    for (double fr : f) {
-      if (fr < f_lo || fr > f_hi) continue;
-      const double run_res = 1.0 / s.time.stop;
-      double nmax = 0;
-      for (int q = -50; q <= 50; ++q) {
-        const double x = fr * (1 + 0.02 * q / 50.0);
-        const Mat3c mu = Mat3c::Identity() + susceptibility(M, st0, 2 * constants::pi * x);
-        nmax = std::max(nmax, std::sqrt(med.permittivity[2] * std::abs(voigt_permeability(mu, 1))));
-      }
-      const double cpw = constants::c0 / (fr * nmax) / cell;
-      if (run_res > 0.002 * fr) {
-        std::cout << fmt::format("    warning: the run resolves {:.3g} GHz, too coarse for the line at {:.4f} GHz "
-                                 "(its negative-permeability band is a fraction of a percent wide); run longer\n",
-                                 run_res / 1e9, fr / 1e9);
-        ++warnings;
-      }
-      if (cpw < 10) {
-        std::cout << fmt::format("    warning: within 2% of the line at {:.4f} GHz the wave has only {:.1f} cells per "
-                                 "wavelength in '{}'\n",
-                                 fr / 1e9, cpw, med.name);
-        ++warnings;
-      }
-    }
+    std::cout << fmt::format("    negative bands over {:.4f}-{:.4f} GHz (real parts; a band reaching the scan's edge is "
+                             "followed to its end):\n",
+                             lo / 1e9, hi / 1e9);
+    const char* names[3] = {"mu_xx", "mu_yy", "mu_zz"};
+    for (int a = 0; a < 3; ++a)
+      std::cout << fmt::format("      {}: {}\n", names[a],
+                               band_list(whole_negative_bands(component(a, a), lo, hi, samples, 1e-3 * lo, 4 * hi)));
+    warnings += report_magnet_waves(s, med, M, st0, lo, hi, f_lo, f_hi, uniform);
   }
   return warnings;
 }
@@ -220,20 +193,11 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
     std::cout << "  warning: " << w << "\n";
     ++warnings;
   }
-  // resolution: cells per wavelength in each medium at each source's highest frequency
-  std::vector<std::pair<std::string, double>> media{{"vacuum", 1.0}};
-  for (const auto& m : s.media)
-    if (!m.perfect_conductor) media.emplace_back(m.name, *std::max_element(m.permittivity.begin(), m.permittivity.end()));
-  for (size_t k = 0; k < s.sources.size(); ++k) {
-    const Source& src = s.sources[k];
-    const double f = source_band(src).hi;
-    std::cout << fmt::format("  source {} (line {}): band up to {:.4g} THz\n", k + 1, src.where.line, f / 1e12);
-    for (const auto& [name, eps] : media) {
-      const double cpw = constants::c0 / (f * std::sqrt(eps)) / std::max(G.dx, G.dy);
-      std::cout << fmt::format("    {:<20s} {:6.1f} cells per wavelength{}\n", name, cpw,
-                               cpw < 10 ? "  <- warning: under 10, expect visible dispersion error" : "");
-      if (cpw < 10) ++warnings;
-    }
+  // resolution: cells per wavelength along each axis, each medium with its own index over each source's band
+  const std::array<bool, 2> uniform = uniform_axes(s);
+  for (const Source& src : s.sources) {
+    warnings += report_source_resolution(s, src, uniform);
+    warnings += report_total_reflection(s, src, uniform);
     if (src.kind == Source::Kind::beam && src.waist < 2 * constants::c0 / src.frequency)
       std::cout << "    note: the waist is under two wavelengths; the beam is far from paraxial\n";
   }
@@ -242,8 +206,13 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
     const Band2 b = source_band(src);
     f_lo = std::min(f_lo, std::max(b.lo, 0.01 * src.frequency)), f_hi = std::max(f_hi, b.hi);
   }
-  warnings += report_magnets(s, f_lo, f_hi, std::max(G.dx, G.dy));
-  warnings += report_dispersion(s, f_lo, f_hi, std::max(G.dx, G.dy));
+  warnings += report_magnets(s, f_lo, f_hi, uniform);
+  // the coarser counted axis (an axis along which nothing varies does not count)
+  const double counted_cell = uniform[0] && uniform[1] ? 0.0
+                              : uniform[0]             ? G.dy
+                              : uniform[1]             ? G.dx
+                                                       : std::max(G.dx, G.dy);
+  if (counted_cell > 0) warnings += report_dispersion(s, f_lo, f_hi, counted_cell);
   // run time from a short measurement of this machine's vacuum rate
   const int threads = s.time.threads > 0 ? s.time.threads : omp_get_max_threads();
   const double rate = measure_vacuum_rate(256, threads, real == 4, 0.1, 3);

@@ -69,8 +69,12 @@ int plot_spectrum(const RenderOptions& o, const std::string& dir) {
   }
   const Scene s = read_scene(o.run + "/scene.yaml");
   const int normal = power_spectrum_normal_axis(o.run);  // x unless a line says y
-  if (!f.empty()) p.shaded = negative_mu_bands(s, f.front() * 1e9, f.back() * 1e9, normal);
-  p.shaded_label = "Re μ_V < 0 (Ez wave)";
+  // the wave the sources launch: Hz when every source is an Hz wave
+  bool hz = !s.sources.empty();
+  for (const Source& src : s.sources) hz = hz && src.component == Component::Hz;
+  if (!f.empty())
+    p.shaded = negative_mu_bands(s, f.front() * 1e9, f.back() * 1e9, normal, hz ? Component::Hz : Component::Ez);
+  p.shaded_label = hz ? "no real k (Hz wave)" : "no real k (Ez wave: Re μ_V < 0)";
   p.ymin = std::min(0.0, -0.02);
   p.ymax = 1.05;
   Plot plot;

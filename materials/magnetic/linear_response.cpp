@@ -110,6 +110,33 @@ std::vector<Band> negative_bands(const std::function<double(double)>& value, dou
   return bands;
 }
 
+std::vector<Band> whole_negative_bands(const std::function<double(double)>& value, double f0, double f1, int samples,
+                                       double f_floor, double f_ceiling) {
+  std::vector<Band> bands = negative_bands(value, f0, f1, samples);
+  if (bands.empty()) return bands;
+  const double step = (f1 - f0) / samples;
+  // walk outwards from `from` by `dir` steps until the value is no longer negative; refine
+  auto follow = [&](double from, double dir, double limit) {
+    double a = from;
+    while (dir * (limit - a) > 0) {
+      const double b = dir > 0 ? std::min(a + step, limit) : std::max(a - step, limit);
+      if (value(b) >= 0) {
+        double neg = a, pos = b;
+        for (int it = 0; it < 80; ++it) {
+          const double mid = 0.5 * (neg + pos);
+          (value(mid) < 0 ? neg : pos) = mid;
+        }
+        return 0.5 * (neg + pos);
+      }
+      a = b;
+    }
+    return limit;
+  };
+  if (bands.back().to >= f1) bands.back().to = follow(f1, +1, f_ceiling);
+  if (bands.front().from <= f0) bands.front().from = follow(f0, -1, f_floor);
+  return bands;
+}
+
 std::complex<double> voigt_permeability(const Mat3c& mu, int normal) {
   return (mu(0, 0) * mu(1, 1) - mu(0, 1) * mu(1, 0)) / mu(normal, normal);
 }

@@ -55,6 +55,11 @@ struct Band {
 /// Intervals of [f0, f1] where value(f) < 0, found on a grid of `samples` points and
 /// refined by bisection (poles, where the sign also changes, are included as edges).
 std::vector<Band> negative_bands(const std::function<double(double)>& value, double f0, double f1, int samples);
+/// negative_bands, with a band that touches f0 or f1 followed past the scan in the same steps
+/// ((f1 - f0) / samples) down to f_floor and up to f_ceiling, so that it is reported where it
+/// ends, not where the scan did (a band still negative at a limit ends there).
+std::vector<Band> whole_negative_bands(const std::function<double(double)>& value, double f0, double f1, int samples,
+                                       double f_floor, double f_ceiling);
 
 /// Effective permeability of the Ez wave for an interface normal along x (normal = 0) or
 /// y (normal = 1): mu_V = (mu_xx mu_yy - mu_xy mu_yx) / mu_nn.
