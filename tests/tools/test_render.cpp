@@ -17,6 +17,7 @@
 #include "io/run/hdf5_file.h"
 #include "io/pictures/plot.h"
 #include "tests/helpers.h"
+#include "tests/tools/capture.h"
 
 namespace fs = std::filesystem;
 using namespace ty;
@@ -43,13 +44,7 @@ struct Png {
 
 double luminance(Rgb c) { return 0.2126 * c.r + 0.7152 * c.g + 0.0722 * c.b; }
 
-std::string capture(const std::string& cmd) {
-  std::string out;
-  std::unique_ptr<FILE, int (*)(FILE*)> p(popen(cmd.c_str(), "r"), pclose);
-  char buf[4096];
-  for (size_t n; p && (n = fread(buf, 1, sizeof buf, p.get())) > 0;) out.append(buf, n);
-  return out;
-}
+using ty::test::capture;
 
 /// A small run of the bundled window scene whose Ez frames are then replaced by a known
 /// field: +500 V/m left of x = -1 mm, -500 V/m right of x = 1.6 mm, 0 between (where the

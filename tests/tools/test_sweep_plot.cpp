@@ -18,6 +18,7 @@
 #include "io/analysis/sweep/results_table.h"
 #include "io/pictures/colour_map.h"
 #include "tests/helpers.h"
+#include "tests/tools/capture.h"
 
 namespace fs = std::filesystem;
 using ty::test::shell;
@@ -45,13 +46,7 @@ std::vector<std::vector<std::string>> read_csv(const fs::path& p) {
   return rows;
 }
 
-std::string capture(const std::string& cmd) {
-  std::string out;
-  std::unique_ptr<FILE, int (*)(FILE*)> p(popen(cmd.c_str(), "r"), pclose);
-  char buf[4096];
-  for (size_t n; p && (n = fread(buf, 1, sizeof buf, p.get())) > 0;) out.append(buf, n);
-  return out;
-}
+using ty::test::capture;
 
 /// A 3 × 2 sweep (bias.2 × grid.cell) with a shift column; the point at 0 T, 12.5 um failed.
 fs::path table() {
