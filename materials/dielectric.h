@@ -1,6 +1,6 @@
 /// \file dielectric.h
 /// \brief Non-magnetic media on the grid: the E-update coefficients of a lossy
-/// dielectric or a perfect conductor, and the medium found at a point of the scene.
+/// dielectric or a perfect conductor (the medium at a point: io/scene/medium_lookup.h).
 ///
 /// Semi-implicit conductivity (Taflove & Hagness, Computational Electrodynamics, 3rd
 /// ed., eqs. 3.28-3.29): with q = sigma*dt / (2*eps0*eps_r),
@@ -17,10 +17,5 @@ struct ECoefficients {
 };
 
 ECoefficients dielectric_update(double eps_r, double sigma, double dt);
-
-/// The medium index at internal position p (-1: vacuum). Bodies later in the list lie
-/// on top. Positions outside the extent are moved to its nearest edge first, so bodies
-/// continue straight through the absorbing layers.
-int medium_at(const Scene& s, Vec2 p);
 
 }  // namespace ty

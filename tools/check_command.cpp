@@ -9,6 +9,7 @@
 #include <cmath>
 #include <iostream>
 
+#include "io/scene/medium_lookup.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/units.h"
 #include "io/scene/validation.h"

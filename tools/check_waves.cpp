@@ -9,6 +9,7 @@
 #include <functional>
 #include <iostream>
 
+#include "io/scene/medium_lookup.h"
 #include "materials/dielectric.h"
 #include "materials/layered/wave_character.h"
 #include "materials/magnetic/state_choice.h"

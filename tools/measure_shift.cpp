@@ -15,6 +15,7 @@
 #include <nlohmann/json.hpp>
 
 #include "io/analysis/shift.h"
+#include "io/scene/medium_lookup.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/units.h"
 #include "materials/dielectric.h"

@@ -13,6 +13,7 @@
 #include <fstream>
 
 #include "io/scene/constants.h"
+#include "io/scene/medium_lookup.h"
 
 namespace ty {
 namespace {
@@ -30,15 +31,6 @@ std::string gigabytes(double b) {
   if (b < 1e9) return fmt::format("{:.1f} MB", b / 1e6);
   if (b < 1e12) return fmt::format("{:.3g} GB", b / 1e9);
   return fmt::format("{:.4g} TB", b / 1e12);
-}
-
-/// The medium at p as the solver sees it (the last body holding p wins; -1 = vacuum).
-int medium_at_point(const Scene& s, Vec2 p) {
-  p.x = std::clamp(p.x, 0.0, s.grid.extent.x);
-  p.y = std::clamp(p.y, 0.0, s.grid.extent.y);
-  for (int b = static_cast<int>(s.bodies.size()) - 1; b >= 0; --b)
-    if (s.bodies[b].shape.contains(p)) return s.bodies[b].medium;
-  return -1;
 }
 
 /// Cells a region (or the extent) covers at a stride, as the recorders count them.
@@ -195,7 +187,7 @@ void check_launch(const Scene& s, Diagnostics& d) {
   for (const auto& src : s.sources) {
     if (src.kind == Source::Kind::point) continue;
     const Vec2 p = launch_point(src, s.grid.extent);
-    const int m = medium_at_point(s, p);
+    const int m = medium_at(s, p);
     if (m >= 0 && s.media[m].tensor && s.media[m].tensor->dispersive())
       d.error(src.where, fmt::format("the launch line starts inside the dispersive medium '{}' (at x = {:.4g} mm, "
                                      "y = {:.4g} mm); launch from a medium without dispersion",

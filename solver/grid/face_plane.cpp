@@ -4,6 +4,7 @@
 
 #include <cmath>
 
+#include "io/scene/medium_lookup.h"
 #include "materials/dielectric.h"
 
 namespace ty {

@@ -8,6 +8,7 @@
 #include <cmath>
 #include <limits>
 
+#include "io/scene/medium_lookup.h"
 #include "io/scene/units.h"
 #include "materials/dielectric.h"
 #include "materials/magnetic/linear_response.h"

@@ -6,6 +6,7 @@
 /// for the fused constant-coefficient loop; and the medium map of the extent's cells.
 #include <algorithm>
 
+#include "io/scene/medium_lookup.h"
 #include "io/scene/units.h"
 #include "materials/dielectric.h"
 #include "solver/simulation.h"

@@ -9,6 +9,7 @@
 #include <cmath>
 #include <map>
 
+#include "io/scene/medium_lookup.h"
 #include "io/scene/units.h"
 #include "materials/dielectric.h"
 #include "materials/magnetic/linear_response.h"

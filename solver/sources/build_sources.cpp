@@ -10,6 +10,7 @@
 #include <stdexcept>
 #include <tuple>
 
+#include "io/scene/medium_lookup.h"
 #include "io/scene/units.h"
 #include "materials/dielectric.h"
 #include "solver/grid/curl_stencil.h"
