@@ -57,7 +57,7 @@ TEST_CASE("measure shift: TE - TM lateral shift of total internal reflection mat
                       << 0.1069 * lambda0 * 1e6 << "); difference " << (te - tm) * 1e6 << " um against "
                       << expected * 1e6 << "; at the face TE " << jte["face-shift"].get<double>() * 1e6 << " +- "
                       << jte["face-uncertainty"].get<double>() * 1e6 << ", TM " << jtm["face-shift"].get<double>() * 1e6);
-  CHECK(std::abs((te - tm) / expected - 1) < 0.10);
+  CHECK(std::abs((te - tm) / expected - 1) < 0.03);  // measured 39.5 um against 40.1 (1.5 %)
   CHECK(te > tm);  // the TE shift is the larger, as Artmann's formula has it
   // each alone, at the face (|r| = 1: no angular drift), within its stated uncertainty
   CHECK(std::abs(jte["face-shift"].get<double>() - 0.2406 * lambda0) < jte["face-uncertainty"].get<double>());
@@ -97,8 +97,11 @@ TEST_CASE("measure shift: a perfect conductor shifts a diverging beam by 0, its 
         std::tuple{"half-cell", pec + " --set 'bodies.0.rectangle.centre=[0, 5.505 mm]'", 1.51e-3}}) {
     const auto j = mirror_shift(name, sets);
     CHECK(j["line-distance"].get<double>() == doctest::Approx(h).epsilon(1e-9));  // the first node inside
-    CHECK(std::abs(j["shift"].get<double>()) < j["uncertainty"].get<double>());
-    CHECK(std::abs(j["face-shift"].get<double>()) < j["face-uncertainty"].get<double>());
+    // image theory: the mirror's reflection is the specular image exactly, and the face of a
+    // perfect conductor is known exactly (not to half a cell): 0 to 1% of a 10 um cell
+    // (measured 0.002 and 0.003 um; the old zero point read 60.7 um)
+    CHECK(std::abs(j["shift"].get<double>()) < 0.1e-6);
+    CHECK(std::abs(j["face-shift"].get<double>()) < 0.1e-6);
   }
 }
 
