@@ -113,21 +113,18 @@ void waveform(YAML::Emitter& e, const Waveform& w) {
   e << YAML::EndMap;
 }
 
-}  // namespace
+/// Internal positions back in the user's coordinates.
+Vec2 user(const Scene& s, Vec2 p) { return Vec2{p.x - s.origin_shift.x, p.y - s.origin_shift.y}; }
 
-std::string resolved_scene_yaml(const Scene& s) {
-  const Vec2 o = s.origin_shift;
-  auto user = [&](Vec2 p) { return Vec2{p.x - o.x, p.y - o.y}; };
-  YAML::Emitter e;
-  auto region = [&](const Region& r) {
-    e << YAML::Key << "region" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
-    vec2(e, user(r.centre), Kind::length);
-    e << YAML::Key << "size" << YAML::Value;
-    vec2(e, r.size, Kind::length);
-    e << YAML::EndMap;
-  };
-  e << YAML::BeginMap;
-  e << YAML::Key << "title" << YAML::Value << YAML::DoubleQuoted << s.title;
+void region(YAML::Emitter& e, const Scene& s, const Region& r) {
+  e << YAML::Key << "region" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
+  vec2(e, user(s, r.centre), Kind::length);
+  e << YAML::Key << "size" << YAML::Value;
+  vec2(e, r.size, Kind::length);
+  e << YAML::EndMap;
+}
+
+void grid_section(YAML::Emitter& e, const Scene& s) {
   e << YAML::Key << "grid" << YAML::Value << YAML::BeginMap;
   e << YAML::Key << "extent" << YAML::Value;
   vec2(e, s.grid.extent, Kind::length);
@@ -145,6 +142,9 @@ std::string resolved_scene_yaml(const Scene& s) {
     << q(a.alpha_max, Kind::conductivity) << YAML::EndMap;
   e << YAML::Key << "origin" << YAML::Value << (s.grid.origin_corner ? "corner" : "centre");
   e << YAML::EndMap;
+}
+
+void time_section(YAML::Emitter& e, const Scene& s) {
   e << YAML::Key << "time" << YAML::Value << YAML::BeginMap << YAML::Key << "stop" << YAML::Value;
   if (const AutoStop& a = s.time.auto_stop; a.on) {
     e << "auto" << YAML::Key << "limit" << YAML::Value << q(s.time.stop, Kind::time) << YAML::Key << "energy-left"
@@ -158,9 +158,9 @@ std::string resolved_scene_yaml(const Scene& s) {
     << "threads" << YAML::Value;
   if (s.time.threads > 0) e << s.time.threads; else e << "auto";
   e << YAML::EndMap;
-  e << YAML::Key << "bias" << YAML::Value << YAML::Flow << YAML::BeginSeq;
-  for (double b : s.bias) e << q(b, Kind::magnetic_field);
-  e << YAML::EndSeq;
+}
+
+void media_section(YAML::Emitter& e, const Scene& s) {
   e << YAML::Key << "media" << YAML::Value << YAML::BeginMap;
   for (const auto& m : s.media) {
     e << YAML::Key << m.name << YAML::Value << YAML::Flow << YAML::BeginMap;
@@ -179,104 +179,138 @@ std::string resolved_scene_yaml(const Scene& s) {
     if (!m.crystal.empty()) e << YAML::Comment("from the crystal library: " + m.crystal);
   }
   e << YAML::EndMap;
+}
+
+void shape(YAML::Emitter& e, const Scene& s, const Shape& sh) {
+  switch (sh.kind) {
+    case Shape::Kind::rectangle:
+      e << YAML::Key << "rectangle" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
+      vec2(e, user(s, sh.centre), Kind::length);
+      e << YAML::Key << "size" << YAML::Value;
+      vec2(e, sh.size, Kind::length);
+      e << YAML::Key << "rotate" << YAML::Value << q(sh.rotate, Kind::angle) << YAML::EndMap;
+      break;
+    case Shape::Kind::circle:
+      e << YAML::Key << "circle" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
+      vec2(e, user(s, sh.centre), Kind::length);
+      e << YAML::Key << "radius" << YAML::Value << q(sh.radius, Kind::length) << YAML::EndMap;
+      break;
+    case Shape::Kind::polygon:
+      e << YAML::Key << "polygon" << YAML::Value << YAML::BeginSeq;
+      for (const auto& v : sh.vertices) vec2(e, user(s, v), Kind::length);
+      e << YAML::EndSeq;
+      break;
+  }
+}
+
+void bodies_section(YAML::Emitter& e, const Scene& s) {
   e << YAML::Key << "bodies" << YAML::Value << YAML::BeginSeq;
   for (const auto& b : s.bodies) {
     e << YAML::Flow << YAML::BeginMap << YAML::Key << "medium" << YAML::Value << s.media[b.medium].name;
-    const Shape& sh = b.shape;
-    switch (sh.kind) {
-      case Shape::Kind::rectangle:
-        e << YAML::Key << "rectangle" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
-        vec2(e, user(sh.centre), Kind::length);
-        e << YAML::Key << "size" << YAML::Value;
-        vec2(e, sh.size, Kind::length);
-        e << YAML::Key << "rotate" << YAML::Value << q(sh.rotate, Kind::angle) << YAML::EndMap;
-        break;
-      case Shape::Kind::circle:
-        e << YAML::Key << "circle" << YAML::Value << YAML::BeginMap << YAML::Key << "centre" << YAML::Value;
-        vec2(e, user(sh.centre), Kind::length);
-        e << YAML::Key << "radius" << YAML::Value << q(sh.radius, Kind::length) << YAML::EndMap;
-        break;
-      case Shape::Kind::polygon:
-        e << YAML::Key << "polygon" << YAML::Value << YAML::BeginSeq;
-        for (const auto& v : sh.vertices) vec2(e, user(v), Kind::length);
-        e << YAML::EndSeq;
-        break;
-    }
+    shape(e, s, b.shape);
     e << YAML::Key << "sample" << YAML::Value << b.sample << YAML::EndMap;
   }
   e << YAML::EndSeq;
-  e << YAML::Key << "sources" << YAML::Value << YAML::BeginSeq;
-  for (const auto& src : s.sources) {
-    e << YAML::BeginMap;
-    const char* kind = src.kind == Source::Kind::point ? "point" : src.kind == Source::Kind::beam ? "beam" : "plane";
-    e << YAML::Key << kind << YAML::Value << YAML::BeginMap;
-    if (src.kind == Source::Kind::point) {
-      e << YAML::Key << "at" << YAML::Value;
-      vec2(e, user(src.at), Kind::length);
-      e << YAML::Key << "component" << YAML::Value << component_name(src.component);
-      e << YAML::Key << "amplitude" << YAML::Value
-        << q(src.amplitude, is_electric(src.component) ? Kind::current : Kind::voltage);
-      e << YAML::Key << "spread" << YAML::Value << q(src.spread, Kind::length);
+}
+
+void source(YAML::Emitter& e, const Scene& s, const Source& src) {
+  e << YAML::BeginMap;
+  const char* kind = src.kind == Source::Kind::point ? "point" : src.kind == Source::Kind::beam ? "beam" : "plane";
+  e << YAML::Key << kind << YAML::Value << YAML::BeginMap;
+  if (src.kind == Source::Kind::point) {
+    e << YAML::Key << "at" << YAML::Value;
+    vec2(e, user(s, src.at), Kind::length);
+    e << YAML::Key << "component" << YAML::Value << component_name(src.component);
+    e << YAML::Key << "amplitude" << YAML::Value
+      << q(src.amplitude, is_electric(src.component) ? Kind::current : Kind::voltage);
+    e << YAML::Key << "spread" << YAML::Value << q(src.spread, Kind::length);
+  } else {
+    e << YAML::Key << "polarization" << YAML::Value << component_name(src.component);
+    e << YAML::Key << "amplitude" << YAML::Value << q(src.amplitude, Kind::electric_field);
+    const double shift = src.line_axis == 'x' ? s.origin_shift.x : s.origin_shift.y;
+    e << YAML::Key << "launch" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key
+      << std::string(1, src.line_axis) << YAML::Value << q(src.line_at - shift, Kind::length) << YAML::EndMap;
+    if (src.kind == Source::Kind::beam) {
+      e << YAML::Key << "waist" << YAML::Value << q(src.waist, Kind::length);
+      e << YAML::Key << "focus" << YAML::Value;
+      vec2(e, user(s, src.focus), Kind::length);
+      e << YAML::Key << "angle" << YAML::Value << q(src.angle, Kind::angle);
     } else {
-      e << YAML::Key << "polarization" << YAML::Value << component_name(src.component);
-      e << YAML::Key << "amplitude" << YAML::Value << q(src.amplitude, Kind::electric_field);
-      const double shift = src.line_axis == 'x' ? o.x : o.y;
-      e << YAML::Key << "launch" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key
-        << std::string(1, src.line_axis) << YAML::Value << q(src.line_at - shift, Kind::length) << YAML::EndMap;
-      if (src.kind == Source::Kind::beam) {
-        e << YAML::Key << "waist" << YAML::Value << q(src.waist, Kind::length);
-        e << YAML::Key << "focus" << YAML::Value;
-        vec2(e, user(src.focus), Kind::length);
-        e << YAML::Key << "angle" << YAML::Value << q(src.angle, Kind::angle);
-      } else {
-        const double c = std::cos(src.angle), sn = std::sin(src.angle);
-        e << YAML::Key << "direction" << YAML::Value
-          << (std::abs(c) > std::abs(sn) ? (c > 0 ? "+x" : "-x") : (sn > 0 ? "+y" : "-y"));
-      }
+      const double c = std::cos(src.angle), sn = std::sin(src.angle);
+      e << YAML::Key << "direction" << YAML::Value
+        << (std::abs(c) > std::abs(sn) ? (c > 0 ? "+x" : "-x") : (sn > 0 ? "+y" : "-y"));
     }
-    e << YAML::Key << "frequency" << YAML::Value << q(src.frequency, Kind::frequency);
-    waveform(e, src.waveform);
-    e << YAML::EndMap << YAML::EndMap;
   }
+  e << YAML::Key << "frequency" << YAML::Value << q(src.frequency, Kind::frequency);
+  waveform(e, src.waveform);
+  e << YAML::EndMap << YAML::EndMap;
+}
+
+/// A line as its two ends: the same line and normal.
+void line(YAML::Emitter& e, const Scene& s, const char* key, const Output& out) {
+  e << YAML::Key << key << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value;
+  vec2(e, user(s, out.from), Kind::length);
+  e << YAML::Key << "to" << YAML::Value;
+  vec2(e, user(s, out.to), Kind::length);
+  e << YAML::EndMap;
+}
+
+void output(YAML::Emitter& e, const Scene& s, const Output& out) {
+  e << YAML::BeginMap;
+  if (out.kind == Output::Kind::snapshots) {
+    e << YAML::Key << "snapshots" << YAML::Value << YAML::BeginMap;
+    e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
+    e << YAML::Key << "every" << YAML::Value << q(out.every, Kind::time);
+    e << YAML::Key << "stride" << YAML::Value << out.stride;
+    if (out.region.given) region(e, s, out.region);
+  } else if (out.kind == Output::Kind::power_spectrum) {
+    e << YAML::Key << "power-spectrum" << YAML::Value << YAML::BeginMap;
+    e << YAML::Key << "name" << YAML::Value << out.name;
+    line(e, s, "line", out);
+    e << YAML::Key << "band" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value
+      << q(out.band_from, Kind::frequency) << YAML::Key << "to" << YAML::Value << q(out.band_to, Kind::frequency)
+      << YAML::Key << "count" << YAML::Value << out.count << YAML::EndMap;
+  } else if (out.kind == Output::Kind::spectral_map) {
+    e << YAML::Key << "spectral-map" << YAML::Value << YAML::BeginMap;
+    e << YAML::Key << "name" << YAML::Value << out.name;
+    e << YAML::Key << "frequencies" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+    for (double f : out.frequencies) e << q(f, Kind::frequency);
+    e << YAML::EndSeq;
+    e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
+    e << YAML::Key << "stride" << YAML::Value << out.stride;
+    if (out.region.given) region(e, s, out.region);
+  } else {  // a probe: at a point, or the mean over a line (a finite detector)
+    e << YAML::Key << "probe" << YAML::Value << YAML::BeginMap;
+    e << YAML::Key << "name" << YAML::Value << out.name;
+    if (out.over_line) {
+      line(e, s, "over", out);
+    } else {
+      e << YAML::Key << "at" << YAML::Value;
+      vec2(e, user(s, out.at), Kind::length);
+    }
+    e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
+  }
+  e << YAML::EndMap << YAML::EndMap;
+}
+
+}  // namespace
+
+std::string resolved_scene_yaml(const Scene& s) {
+  YAML::Emitter e;
+  e << YAML::BeginMap;
+  e << YAML::Key << "title" << YAML::Value << YAML::DoubleQuoted << s.title;
+  grid_section(e, s);
+  time_section(e, s);
+  e << YAML::Key << "bias" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+  for (double b : s.bias) e << q(b, Kind::magnetic_field);
+  e << YAML::EndSeq;
+  media_section(e, s);
+  bodies_section(e, s);
+  e << YAML::Key << "sources" << YAML::Value << YAML::BeginSeq;
+  for (const auto& src : s.sources) source(e, s, src);
   e << YAML::EndSeq;
   e << YAML::Key << "outputs" << YAML::Value << YAML::BeginSeq;
-  for (const auto& out : s.outputs) {
-    e << YAML::BeginMap;
-    if (out.kind == Output::Kind::snapshots) {
-      e << YAML::Key << "snapshots" << YAML::Value << YAML::BeginMap;
-      e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
-      e << YAML::Key << "every" << YAML::Value << q(out.every, Kind::time);
-      e << YAML::Key << "stride" << YAML::Value << out.stride;
-      if (out.region.given) region(out.region);
-    } else if (out.kind == Output::Kind::power_spectrum) {  // the line as its two ends: the same line and normal
-      e << YAML::Key << "power-spectrum" << YAML::Value << YAML::BeginMap;
-      e << YAML::Key << "name" << YAML::Value << out.name;
-      e << YAML::Key << "line" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value;
-      vec2(e, user(out.from), Kind::length);
-      e << YAML::Key << "to" << YAML::Value;
-      vec2(e, user(out.to), Kind::length);
-      e << YAML::EndMap;
-      e << YAML::Key << "band" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "from" << YAML::Value
-        << q(out.band_from, Kind::frequency) << YAML::Key << "to" << YAML::Value << q(out.band_to, Kind::frequency)
-        << YAML::Key << "count" << YAML::Value << out.count << YAML::EndMap;
-    } else if (out.kind == Output::Kind::spectral_map) {
-      e << YAML::Key << "spectral-map" << YAML::Value << YAML::BeginMap;
-      e << YAML::Key << "name" << YAML::Value << out.name;
-      e << YAML::Key << "frequencies" << YAML::Value << YAML::Flow << YAML::BeginSeq;
-      for (double f : out.frequencies) e << q(f, Kind::frequency);
-      e << YAML::EndSeq;
-      e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
-      e << YAML::Key << "stride" << YAML::Value << out.stride;
-      if (out.region.given) region(out.region);
-    } else {
-      e << YAML::Key << "probe" << YAML::Value << YAML::BeginMap;
-      e << YAML::Key << "name" << YAML::Value << out.name;
-      e << YAML::Key << "at" << YAML::Value;
-      vec2(e, user(out.at), Kind::length);
-      e << YAML::Key << "fields" << YAML::Value << YAML::Flow << out.fields;
-    }
-    e << YAML::EndMap << YAML::EndMap;
-  }
+  for (const auto& out : s.outputs) output(e, s, out);
   e << YAML::EndSeq;
   e << YAML::EndMap;
   return std::string(e.c_str()) + "\n";

@@ -213,8 +213,9 @@ TEST_CASE("the resolved scene keeps every magnet parameter (a run's scene.yaml r
   CHECK(mb.dzyaloshinskii[1] == doctest::Approx(0.1));
 }
 
-TEST_CASE("the resolved scene keeps power-spectrum lines and spectral maps (a run's scene.yaml reads back to the same outputs)") {
-  for (const char* file : {"/tests/data/mnf2-slab.yaml", "/scenarios/slab-lens/slab-lens.yaml"}) {
+TEST_CASE("the resolved scene keeps power-spectrum lines, spectral maps and line probes (a run's scene.yaml reads back to the same outputs)") {
+  for (const char* file : {"/tests/data/mnf2-slab.yaml", "/scenarios/slab-lens/slab-lens.yaml",
+                           "/scenarios/tds-mnf2-slab/tds-mnf2-slab.yaml"}) {
     const Scene a = read_scene(std::string(TERAYEE_SOURCE_DIR) + file);
     const Scene b = read_scene_text(resolved_scene_yaml(a), "resolved.yaml");
     REQUIRE(b.outputs.size() == a.outputs.size());
@@ -223,7 +224,11 @@ TEST_CASE("the resolved scene keeps power-spectrum lines and spectral maps (a ru
       CHECK(y.kind == x.kind);
       CHECK(y.name == x.name);
       CHECK(y.fields == x.fields);
+      CHECK(y.over_line == x.over_line);  // a finite detector stayed a line (it was written as a point once)
+      CHECK(y.at.x == doctest::Approx(x.at.x).epsilon(1e-12));
+      CHECK(y.at.y == doctest::Approx(x.at.y).epsilon(1e-12));
       CHECK(y.from.x == doctest::Approx(x.from.x).epsilon(1e-12));
+      CHECK(y.from.y == doctest::Approx(x.from.y).epsilon(1e-12));
       CHECK(y.to.y == doctest::Approx(x.to.y).epsilon(1e-12));
       CHECK(y.band_from == x.band_from);
       CHECK(y.band_to == x.band_to);
