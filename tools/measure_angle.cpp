@@ -11,6 +11,7 @@
 #include <iostream>
 #include <nlohmann/json.hpp>
 
+#include "io/run/atomic_file.h"
 #include "io/analysis/spectral_map_cut.h"
 #include "io/scene/constants.h"
 #include "io/scene/diagnostics.h"
@@ -43,7 +44,7 @@ int measure_angle(const std::string& run, const std::string& map, const std::vec
     std::cout << fmt::format("incidence {:.4f} deg: refraction is {}\n", incidence * 180 / constants::pi,
                              negative ? "NEGATIVE (opposite side of the normal)" : "positive");
   }
-  std::ofstream(run + "/angle.json") << j.dump(2) << "\n";
+  write_text_atomically(run + "/angle.json", j.dump(2) + "\n");
   return 0;
 }
 

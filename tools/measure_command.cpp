@@ -8,8 +8,10 @@
 
 #include <fstream>
 #include <iostream>
+#include <sstream>
 #include <nlohmann/json.hpp>
 
+#include "io/run/atomic_file.h"
 #include "io/analysis/spectroscopy/line_spectrum.h"
 #include "io/analysis/spectroscopy/trace_spectrum.h"
 #include "io/analysis/spectrum.h"
@@ -27,7 +29,7 @@ void write_complex_spectrum(const std::string& run, const LinePair* r, const Lin
   const int c = dominant_polarization(t ? t->reference : r->reference);
   const ComplexSpectrum cs = complex_spectrum(r, t, c, r_incident);
   const char* wave = c == 2 ? "Ez" : "Hz";
-  std::ofstream csv(run + "/spectrum-complex.csv");
+  std::ostringstream csv;
   csv << "frequency_Hz";
   j["complex"]["polarization"] = wave;
   j["complex"]["convention"] = "fields ~ exp(-i omega t); t and r of the transverse E, referred to their lines";
@@ -51,6 +53,7 @@ void write_complex_spectrum(const std::string& run, const LinePair* r, const Lin
     }
     csv << "\n";
   }
+  write_text_atomically(run + "/spectrum-complex.csv", csv.str());
   std::cout << fmt::format("complex t{} of the {} wave (exp(-i omega t)) in {}/spectrum-complex.csv\n",
                            cs.r.empty() ? "" : " and r", wave, run);
 }
@@ -85,7 +88,7 @@ int measure_spectrum(const std::string& run, const std::string& ref, std::string
         "the reference run's power through '{}' is negligible: T is normalised to the incident "
         "power through '{}'\n",
         transmitted, s.T_incident_line);
-  std::ofstream csv(run + "/spectrum.csv");
+  std::ostringstream csv;
   csv << "frequency_Hz" << (R.empty() ? "" : ",reflectance") << (T.empty() ? "" : ",transmittance")
       << (both ? ",absorptance" : "") << "\n";
   std::cout << fmt::format("{:>14s}{}{}{}\n", "frequency/GHz", R.empty() ? "" : "  reflectance",
@@ -113,9 +116,10 @@ int measure_spectrum(const std::string& run, const std::string& ref, std::string
     std::cout << row << "\n";
     j["spectrum"].push_back(e);
   }
+  write_text_atomically(run + "/spectrum.csv", csv.str());
   write_complex_spectrum(run, reflected.empty() ? nullptr : &r, transmitted.empty() ? nullptr : &t,
                          !R.empty() && s.R_incident_line == reflected, freq, j);
-  std::ofstream(run + "/spectrum.json") << j.dump(2) << "\n";
+  write_text_atomically(run + "/spectrum.json", j.dump(2) + "\n");
   return 0;
 }
 

@@ -8,8 +8,10 @@
 
 #include <fstream>
 #include <iostream>
+#include <sstream>
 #include <nlohmann/json.hpp>
 
+#include "io/run/atomic_file.h"
 #include "io/analysis/spectral_map_cut.h"
 #include "tools/commands.h"
 
@@ -47,9 +49,9 @@ int measure_focus(const std::string& run, const std::string& map, const std::str
     j["distance-from-face"] = d;
     std::cout << fmt::format("  distance from the face at {:.6g} mm: {:.6g} um\n", face * 1e3, d * 1e6);
   }
-  std::ofstream(run + "/focus.json") << j.dump(2) << "\n";
+  write_text_atomically(run + "/focus.json", j.dump(2) + "\n");
   // the intensity through the peak, across and along the axis (for `terayee render --plot focus`)
-  std::ofstream prof(run + "/focus-profiles.csv");
+  std::ostringstream prof;
   prof << "direction,s_m,intensity\n";
   for (int across_axis = 1; across_axis >= 0; --across_axis) {
     const bool use_row = (across_axis == 1) != along_x;  // a row runs along x
@@ -58,9 +60,11 @@ int measure_focus(const std::string& run, const std::string& map, const std::str
     for (size_t q = 0; q < s.size(); ++q)
       prof << fmt::format("{},{:.10g},{:.10g}\n", across_axis ? "across" : "along", s[q], v[q]);
   }
-  std::ofstream csv(run + "/focus.csv");
+  write_text_atomically(run + "/focus-profiles.csv", prof.str());
+  std::ostringstream csv;
   csv << "frequency_Hz,x_m,y_m,peak,fwhm_across_m,fwhm_along_m\n"
       << fmt::format("{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g}\n", m.frequency, f.x, f.y, f.peak, across, along);
+  write_text_atomically(run + "/focus.csv", csv.str());
   return 0;
 }
 

@@ -12,15 +12,14 @@
 #include <filesystem>
 #include <fstream>
 #include <iostream>
+#include <sstream>
 #include <nlohmann/json.hpp>
 
+#include "io/run/atomic_file.h"
 #include "io/analysis/shift.h"
-#include "io/scene/medium_lookup.h"
+#include "io/analysis/shift_geometry.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/units.h"
-#include "materials/dielectric.h"
-#include "materials/permittivity/permittivity.h"
-#include "solver/grid/face_plane.h"
 #include "tools/commands.h"
 
 namespace ty {
@@ -35,34 +34,7 @@ ShiftGeometry geometry(const std::string& run, const ShiftOptions& o, double ome
         fmt::format("{}: error: no scene.yaml (measure shift takes the face plane and the grid from the "
                     "run's own scene)",
                     run));
-  const Scene s = read_scene(run + "/scene.yaml");
-  const YeeGrid g = grid_for(s, 1);
-  const int normal = o.line_axis == 'y' ? 1 : 0;
-  // where the incident beam's centroid on the line is: the face is looked for across from it
-  std::vector<double> I(incident.s.size(), 0.0);
-  for (int c = 0; c < 3; ++c)
-    for (size_t q = 0; q < incident.E[c].size(); ++q) I[q] += std::norm(incident.E[c][q]);
-  const double along = beam_moments(incident.s, I).centroid;
-  const FacePlane f = face_plane(s, g, normal, o.interface, incident.at, along);
-  ShiftGeometry x;
-  x.face = f.at, x.half_cell = f.half_cell, x.omega = omega;
-  x.d_t = normal == 1 ? g.dx : g.dy, x.d_n = normal == 1 ? g.dy : g.dx, x.dt = g.dt;
-  // the incidence side's index: its medium's eps for the polarization the beam carries
-  const Vec2 p = normal == 1 ? Vec2{along + s.origin_shift.x, incident.at + s.origin_shift.y}
-                             : Vec2{incident.at + s.origin_shift.x, along + s.origin_shift.y};
-  const int m = medium_at(s, p);
-  if (m >= 0) {
-    double ez = 0, eh = 0;  // the Ez wave's and the in-plane E's share of the intensity
-    for (size_t q = 0; q < incident.s.size(); ++q) {
-      if (!incident.E[2].empty()) ez += std::norm(incident.E[2][q]);
-      for (int c = 0; c < 2; ++c)
-        if (!incident.E[c].empty()) eh += std::norm(incident.E[c][q]);
-    }
-    const Mat3c eps = medium_permittivity(s.media[m], omega);
-    const int c = ez >= eh ? 2 : 1 - normal;  // Ez, or the in-plane E along the face
-    x.index = std::sqrt(eps(c, c).real());
-  }
-  return x;
+  return shift_geometry(read_scene(run + "/scene.yaml"), o.line_axis, o.interface, omega, incident);
 }
 
 /// The shift in one run and its reference run, every argument checked against the maps.
@@ -112,9 +84,9 @@ int measure_shift(const ShiftOptions& o) {
         "non-reciprocal part (difference) {:.6g} um, reciprocal part (mean) {:.6g} um, +- {:.3g} um\n",
         (s.shift - b.shift) * 1e6, 0.5 * (s.shift + b.shift) * 1e6, u * 1e6);
   }
-  std::ofstream(o.run + "/shift.json") << j.dump(2) << "\n";
+  write_text_atomically(o.run + "/shift.json", j.dump(2) + "\n");
   // the beams' intensity along the line (for `terayee render --plot shift`)
-  std::ofstream prof(o.run + "/shift-profiles.csv");
+  std::ostringstream prof;
   prof << "beam,s_m,intensity\n";
   auto profile = [&](const Shift& x, const std::string& tag) {
     const std::pair<const char*, const std::vector<double>*> beams[3] = {
@@ -124,6 +96,7 @@ int measure_shift(const ShiftOptions& o) {
   };
   profile(s, "");
   if (!o.reversed.empty()) profile(b, "-reversed");
+  write_text_atomically(o.run + "/shift-profiles.csv", prof.str());
   return 0;
 }
 

@@ -22,6 +22,7 @@
 #include <iostream>
 
 #include "io/pictures/plot.h"
+#include "io/run/atomic_file.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/units.h"
 #include "materials/layered/angular_spectrum.h"
@@ -91,16 +92,194 @@ Waves waves_at(const Mat3c& eps, const Mat3c& mu, double f, int nn, double kt, d
   return w;
 }
 
-}  // namespace
+/// Everything `medium` reports at one frequency.
+struct Point {
+  double f = 0;
+  Mat3c mu, eps;
+  cd muv;      // the Ez wave's effective permeability
+  Waves wv;    // both waves' curves, character here, refraction and decay
+  StackResponse rp, rm;  // the 4x4 transfer matrix at +angle and -angle
+  double dp = 0, dm = 0;                          // stationary-phase (Artmann) shifts
+  double bp = std::nan(""), bm = std::nan("");  // the Gaussian beam's shifts (with --waist)
+};
 
-int medium_command(const MediumOptions& o) {
-  const Scene scene = read_scene(o.scene, o.sets);
+Point evaluate(const Setup& s, const MediumOptions& o, double f, double cell_n) {
+  Point p;
+  p.f = f;
+  p.mu = mu_at(s, f), p.eps = eps_at(s, f);
+  p.muv = voigt_permeability(p.mu, s.normal);
+  p.wv = waves_at(p.eps, p.mu, f, s.normal, s.n_in * std::sin(o.angle), cell_n);
+  const LayerStack st = stack_at(s, f);
+  const double w = 2 * constants::pi * f, th = o.angle;
+  p.rp = stack_response(st, w, th), p.rm = stack_response(st, w, -th);
+  p.dp = artmann_shift(st, w, th, 0), p.dm = artmann_shift(st, w, -th, 0);
+  if (o.waist > 0) {
+    p.bp = beam_shift(st, w, th, 0, o.waist, o.line_distance);
+    p.bm = beam_shift(st, w, -th, 0, o.waist, o.line_distance);
+  }
+  return p;
+}
+
+constexpr const char* kCsvHeader =
+    "frequency_Hz,mu_xx_re,mu_xx_im,mu_yy_re,mu_yy_im,mu_zz_re,mu_zz_im,mu_xy_re,mu_xy_im,muV_re,muV_im,"
+    "character,refraction_deg,r_plus_abs,r_plus_phase,r_minus_abs,r_minus_phase,cross_plus,T_plus,T_minus,"
+    "artmann_plus_m,artmann_minus_m,beam_plus_m,beam_minus_m,eps_xx_re,eps_xx_im,eps_yy_re,eps_yy_im,eps_zz_re,"
+    "eps_zz_im,eps_xy_re,eps_xy_im,r_hz_plus_abs,T_hz_plus,ez_at_angle,ez_decay_m,hz_character,hz_at_angle,"
+    "hz_refraction_deg,hz_decay_m,mu_xz_re,mu_xz_im,mu_yz_re,mu_yz_im,normal_n2_1_re,normal_n2_1_im,normal_n2_2_re,"
+    "normal_n2_2_im,normal_coupled\n";
+
+std::string csv_line(const Point& p) {
+  const Mat3c &mu = p.mu, &eps = p.eps;
+  const Waves& wv = p.wv;
+  const auto &rp = p.rp, &rm = p.rm;
+  return fmt::format("{:.10g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{},{:.8g},{:.8g},"
+                     "{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g}",
+                     p.f, mu(0, 0).real(), mu(0, 0).imag(), mu(1, 1).real(), mu(1, 1).imag(), mu(2, 2).real(),
+                     mu(2, 2).imag(), mu(0, 1).real(), mu(0, 1).imag(), p.muv.real(), p.muv.imag(), wv.character,
+                     wv.refr, std::abs(rp.r[0][0]), std::arg(rp.r[0][0]), std::abs(rm.r[0][0]), std::arg(rm.r[0][0]),
+                     std::abs(rp.r[0][1]), rp.T[0], rm.T[0], p.dp, p.dm, p.bp, p.bm) +
+         fmt::format(",{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g}", eps(0, 0).real(),
+                     eps(0, 0).imag(), eps(1, 1).real(), eps(1, 1).imag(), eps(2, 2).real(), eps(2, 2).imag(),
+                     eps(0, 1).real(), eps(0, 1).imag(), std::abs(rp.r[1][1]), rp.T[1]) +
+         fmt::format(",{},{:.8g},{},{},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{}\n",
+                     wv.ez_here, wv.ez_decay, wv.hz_character, wv.hz_here, wv.refr_hz, wv.hz_decay, mu(0, 2).real(),
+                     mu(0, 2).imag(), mu(1, 2).real(), mu(1, 2).imag(), wv.modes.n2[0].real(), wv.modes.n2[0].imag(),
+                     wv.modes.n2[1].real(), wv.modes.n2[1].imag(), wv.modes.coupled ? 1 : 0);
+}
+
+nlohmann::json json_row(const Point& p) {
+  const Mat3c &mu = p.mu, &eps = p.eps;
+  const Waves& wv = p.wv;
+  const auto &rp = p.rp, &rm = p.rm;
+  const auto number_or_null = [](double v, bool ok) { return ok ? nlohmann::json(v) : nlohmann::json(); };
+  nlohmann::json row;
+  row["frequency"] = p.f;
+  row["mu"] = {{mu(0, 0).real(), mu(0, 0).imag(), mu(1, 1).real(), mu(1, 1).imag(), mu(2, 2).real(), mu(2, 2).imag()}};
+  row["mu-xy"] = {mu(0, 1).real(), mu(0, 1).imag()};
+  row["mu-V"] = {p.muv.real(), p.muv.imag()};
+  row["eps"] = {{eps(0, 0).real(), eps(0, 0).imag(), eps(1, 1).real(), eps(1, 1).imag(), eps(2, 2).real(),
+                 eps(2, 2).imag()}};
+  row["eps-xy"] = {eps(0, 1).real(), eps(0, 1).imag()};
+  row["r-hz-plus"] = {std::abs(rp.r[1][1]), std::arg(rp.r[1][1])};
+  row["T-hz-plus"] = rp.T[1];
+  row["character"] = wv.character;
+  row["ez-here"] = wv.ez_here, row["hz-here"] = wv.hz_here, row["hz-character"] = wv.hz_character;
+  row["ez-decay"] = number_or_null(wv.ez_decay, std::isfinite(wv.ez_decay));
+  row["hz-decay"] = number_or_null(wv.hz_decay, std::isfinite(wv.hz_decay));
+  row["hz-refraction-angle-deg"] = number_or_null(wv.refr_hz, !std::isnan(wv.refr_hz));
+  row["mu-xz"] = {mu(0, 2).real(), mu(0, 2).imag()};
+  row["mu-yz"] = {mu(1, 2).real(), mu(1, 2).imag()};
+  row["normal-incidence-n2"] = {{wv.modes.n2[0].real(), wv.modes.n2[0].imag()},
+                                {wv.modes.n2[1].real(), wv.modes.n2[1].imag()}};
+  row["normal-incidence-coupled"] = wv.modes.coupled;
+  row["refraction-angle-deg"] = number_or_null(wv.refr, !std::isnan(wv.refr));
+  row["r-plus"] = {std::abs(rp.r[0][0]), std::arg(rp.r[0][0])};
+  row["r-minus"] = {std::abs(rm.r[0][0]), std::arg(rm.r[0][0])};
+  row["T-plus"] = rp.T[0], row["T-minus"] = rm.T[0];
+  row["artmann-plus"] = p.dp, row["artmann-minus"] = p.dm;
+  if (std::isfinite(p.bp) || std::isfinite(p.bm)) row["beam-shift-plus"] = p.bp, row["beam-shift-minus"] = p.bm;
+  return row;
+}
+
+void print_header(const Scene& scene, const Medium& med, const MediumOptions& o) {
+  std::cout << fmt::format("medium '{}' under the bias [{}, {}, {}] T, interface normal {}, angle {:+.3f} deg{}\n",
+                           med.name, scene.bias[0], scene.bias[1], scene.bias[2], o.normal,
+                           o.angle * 180 / constants::pi,
+                           o.thickness > 0 ? fmt::format(", slab {:.4g} um", o.thickness * 1e6) : ", half-space");
+  std::cout << fmt::format("{:>11s} {:>9s} {:>9s} {:>9s} {:>10s} {:>10s} {:>10s} {:>5s} {:>8s} {:>10s} {:>5s} {:>8s} {:>7s} "
+                           "{:>7s} {:>7s} {:>10s} {:>10s}\n",
+                           "f/GHz", "mu_xx", "mu_yy", "mu_zz", "Im mu_xy", "Re mu_V", "Ez curve", "here", "refr/deg",
+                           "Hz curve", "here", "refr/deg", "|r+|", "|r-|", "T+", "D+/um", "D-/um");
+  std::cout << "  (curve: the iso-frequency curve of the wave, wave_character.h; here: 'prop' or 'evan' at this angle, "
+               "'evan!' where its field decays by 1/e within 4 cells of the scene's grid)\n";
+}
+
+void print_point(const Point& p) {
+  const Waves& wv = p.wv;
+  std::cout << fmt::format("{:11.4f} {:9.4f} {:9.4f} {:9.4f} {:10.4f} {:10.4f} {:>10s} {:>5s} {:8.2f} {:>10s} {:>5s} "
+                           "{:8.2f} {:7.4f} {:7.4f} {:7.4f} {:10.3f} {:10.3f}\n",
+                           p.f / 1e9, p.mu(0, 0).real(), p.mu(1, 1).real(), p.mu(2, 2).real(), p.mu(0, 1).imag(),
+                           p.muv.real(), wv.character, wv.ez_here, wv.refr, wv.hz_character, wv.hz_here, wv.refr_hz,
+                           std::abs(p.rp.r[0][0]), std::abs(p.rm.r[0][0]), p.rp.T[0], p.dp * 1e6, p.dm * 1e6);
+}
+
+void print_coupling_once(const Point& p, bool& told) {
+  const NormalModes& modes = p.wv.modes;
+  if (!modes.coupled || told) return;
+  told = true;
+  std::cout << fmt::format("  note: mu_xz, mu_yz are not zero (the bias or the moment has a part in the plane): the Ez "
+                           "and Hz waves couple, so each wave's columns describe it alone; at normal incidence the "
+                           "coupled waves have (k/k0)^2 = {:.4g}{:+.4g}i, {:.4g}{:+.4g}i at {:.4f} GHz (CSV and "
+                           "JSON: every row)\n",
+                           modes.n2[0].real(), modes.n2[0].imag(), modes.n2[1].real(), modes.n2[1].imag(), p.f / 1e9);
+}
+
+/// A line source before the slab: its image from the angular spectrum (no paraxial
+/// approximation), looked for from a tenth of a wavelength to `image-range` behind the face.
+nlohmann::json line_image(const Setup& s, const MediumOptions& o, double f) {
+  const double lambda0 = constants::c0 / f;
+  const LineImage img = line_source_image(stack_at(s, f), 2 * constants::pi * f, o.source_distance, 0.1 * lambda0,
+                                          o.image_range > 0 ? o.image_range : 6 * lambda0);
+  std::cout << fmt::format("  line source {:.4g} um before the slab: paraxial image {:.4g} um behind it; "
+                           "transfer-matrix focus {:.4g} um behind the far face, FWHM across {:.4g} um, along "
+                           "{:.4g} um\n",
+                           o.source_distance * 1e6, img.paraxial * 1e6, img.peak * 1e6, img.fwhm_across * 1e6,
+                           img.fwhm_along * 1e6);
+  return {{"source-distance", o.source_distance}, {"paraxial", img.paraxial}, {"focus", img.peak},
+          {"fwhm-across", img.fwhm_across}, {"fwhm-along", img.fwhm_along}};
+}
+
+/// Two panels: the permeability (the Ez wave's negative bands shaded, edges refined by
+/// bisection: linear_response.h) and the reflected and transmitted power fractions.
+void write_medium_plot(const Setup& s, const Scene& scene, const MediumOptions& o, const std::vector<Point>& points) {
+  PlotSeries curves[7];
+  const char* names[7] = {"Re μ_xx", "Re μ_yy", "Re μ_V (Ez wave)", "Im μ_xy", "|r|² at +angle", "|r|² at −angle",
+                          "T at +angle"};
+  for (int c = 0; c < 7; ++c) curves[c].label = names[c];
+  curves[3].style = curves[5].style = PlotSeries::Style::dashed;
+  for (const Point& p : points) {
+    const double vals[7] = {p.mu(0, 0).real(), p.mu(1, 1).real(), p.muv.real(), p.mu(0, 1).imag(),
+                            std::norm(p.rp.r[0][0]), std::norm(p.rm.r[0][0]), p.rp.T[0]};
+    for (int c = 0; c < 7; ++c) curves[c].x.push_back(p.f / 1e9), curves[c].y.push_back(vals[c]);
+  }
+  PlotPanel mu_panel, r_panel;
+  mu_panel.xlabel = r_panel.xlabel = "frequency (GHz)";
+  mu_panel.ylabel = "permeability";
+  r_panel.ylabel = fmt::format("power fraction ({})", o.thickness > 0 ? "slab" : "half-space");
+  mu_panel.series = {curves[0], curves[1], curves[2], curves[3]};
+  r_panel.series = {curves[4], curves[5], curves[6]};
+  const auto re_muv = [&](double f) { return voigt_permeability(mu_at(s, f), s.normal).real(); };
+  for (const Band& b : negative_bands(re_muv, o.from, o.to, 4000)) {
+    mu_panel.shaded.push_back({b.from / 1e9, b.to / 1e9});
+    r_panel.shaded.push_back({b.from / 1e9, b.to / 1e9});
+  }
+  mu_panel.shaded_label = r_panel.shaded_label = "Re μ_V < 0";
+  // the permeability near a line spans decades: show the range that matters for the waves
+  double lo = 0, hi = 1;
+  for (int c = 0; c < 4; ++c)
+    for (double y : curves[c].y)
+      if (std::isfinite(y)) lo = std::min(lo, y), hi = std::max(hi, y);
+  lo = std::max(lo, -20.0), hi = std::min(hi, 20.0);
+  mu_panel.ymin = lo - 0.05 * (hi - lo), mu_panel.ymax = hi + 0.05 * (hi - lo);
+  r_panel.ymin = 0, r_panel.ymax = 1.05;
+  Plot plot;
+  plot.title = fmt::format("medium '{}', bias [{}, {}, {}] T, angle {:+.1f} deg", s.medium.name, scene.bias[0],
+                           scene.bias[1], scene.bias[2], o.angle * 180 / constants::pi);
+  plot.panels = {mu_panel, r_panel};
+  plot.height = 800;
+  write_plot(plot, o.plot);
+  std::cout << fmt::format("plot -> {} (data: {})\n", o.plot, plot_data_path(o.plot));
+}
+
+Setup setup_for(const Scene& scene, const MediumOptions& o) {
   int k = -1;
   for (size_t q = 0; q < scene.media.size(); ++q)
     if (scene.media[q].name == o.medium) k = static_cast<int>(q);
   if (k < 0) throw BadInput(fmt::format("{}: error: the scene has no medium named '{}'", o.scene, o.medium));
   const Medium& med = scene.media[k];
   if (med.perfect_conductor) throw BadInput(fmt::format("{}: error: '{}' is a perfect conductor", o.scene, o.medium));
+  if (o.source_distance > 0 && o.thickness <= 0)
+    throw BadInput("terayee medium: error: --source-distance needs --thickness (the slab the source faces)");
   Setup s;
   s.medium = med;
   if (med.magnet) {
@@ -111,155 +290,35 @@ int medium_command(const MediumOptions& o) {
   s.thickness = o.thickness;
   s.normal = o.normal == "x" ? 0 : 1;
   s.n_in = o.incidence_index;
-  const int nn = s.normal;  // the interface normal's axis
-  const double th = o.angle;
-  std::ofstream csv;
-  if (!o.csv.empty()) {
-    csv.open(o.csv);
-    csv << "frequency_Hz,mu_xx_re,mu_xx_im,mu_yy_re,mu_yy_im,mu_zz_re,mu_zz_im,mu_xy_re,mu_xy_im,muV_re,muV_im,"
-           "character,refraction_deg,r_plus_abs,r_plus_phase,r_minus_abs,r_minus_phase,cross_plus,T_plus,T_minus,"
-           "artmann_plus_m,artmann_minus_m,beam_plus_m,beam_minus_m,eps_xx_re,eps_xx_im,eps_yy_re,eps_yy_im,eps_zz_re,eps_zz_im,eps_xy_re,eps_xy_im,r_hz_plus_abs,T_hz_plus,"
-           "ez_at_angle,ez_decay_m,hz_character,hz_at_angle,hz_refraction_deg,hz_decay_m,mu_xz_re,mu_xz_im,mu_yz_re,mu_yz_im,"
-           "normal_n2_1_re,normal_n2_1_im,normal_n2_2_re,normal_n2_2_im,normal_coupled\n";
-  }
-  std::cout << fmt::format("medium '{}' under the bias [{}, {}, {}] T, interface normal {}, angle {:+.3f} deg{}\n",
-                           med.name, scene.bias[0], scene.bias[1], scene.bias[2], o.normal, th * 180 / constants::pi,
-                           o.thickness > 0 ? fmt::format(", slab {:.4g} um", o.thickness * 1e6) : ", half-space");
+  return s;
+}
+
+}  // namespace
+
+int medium_command(const MediumOptions& o) {
+  const Scene scene = read_scene(o.scene, o.sets);
+  const Setup s = setup_for(scene, o);
+  print_header(scene, s.medium, o);
   const double cell_n = s.normal == 0 ? scene.grid.dx : scene.grid.dy;  // the cell across the interface
-  std::cout << fmt::format("{:>11s} {:>9s} {:>9s} {:>9s} {:>10s} {:>10s} {:>10s} {:>5s} {:>8s} {:>10s} {:>5s} {:>8s} {:>7s} "
-                           "{:>7s} {:>7s} {:>10s} {:>10s}\n",
-                           "f/GHz", "mu_xx", "mu_yy", "mu_zz", "Im mu_xy", "Re mu_V", "Ez curve", "here", "refr/deg",
-                           "Hz curve", "here", "refr/deg", "|r+|", "|r-|", "T+", "D+/um", "D-/um");
-  std::cout << "  (curve: the iso-frequency curve of the wave, wave_character.h; here: 'prop' or 'evan' at this angle, "
-               "'evan!' where its field decays by 1/e within 4 cells of the scene's grid)\n";
-  bool coupling_told = false;
-  if (o.source_distance > 0 && o.thickness <= 0)
-    throw BadInput("terayee medium: error: --source-distance needs --thickness (the slab the source faces)");
+  std::string csv = kCsvHeader;
   nlohmann::json rows = nlohmann::json::array();
-  PlotSeries curves[7];
-  const char* curve_names[7] = {"Re μ_xx", "Re μ_yy", "Re μ_V (Ez wave)", "Im μ_xy", "|r|² at +angle", "|r|² at −angle",
-                                "T at +angle"};
-  for (int c = 0; c < 7; ++c) curves[c].label = curve_names[c];
-  curves[3].style = curves[5].style = PlotSeries::Style::dashed;
+  std::vector<Point> points;
+  bool coupling_told = false;
   for (int q = 0; q < o.count; ++q) {
     const double f = o.count == 1 ? o.from : o.from + (o.to - o.from) * q / (o.count - 1);
-    const Mat3c mu = mu_at(s, f), eps = eps_at(s, f);
-    const cd muv = voigt_permeability(mu, nn);
-    const Waves wv = waves_at(eps, mu, f, nn, s.n_in * std::sin(th), cell_n);
-    const std::string &character = wv.character, &hz_character = wv.hz_character, &ez_here = wv.ez_here,
-                      &hz_here = wv.hz_here;
-    const double refr = wv.refr, refr_hz = wv.refr_hz, ez_decay = wv.ez_decay, hz_decay = wv.hz_decay;
-    const NormalModes& modes = wv.modes;
-    if (modes.coupled && !coupling_told) {
-      coupling_told = true;
-      std::cout << fmt::format("  note: mu_xz, mu_yz are not zero (the bias or the moment has a part in the plane): the Ez "
-                               "and Hz waves couple, so each wave's columns describe it alone; at normal incidence the "
-                               "coupled waves have (k/k0)^2 = {:.4g}{:+.4g}i, {:.4g}{:+.4g}i at {:.4f} GHz (CSV and "
-                               "JSON: every row)\n",
-                               modes.n2[0].real(), modes.n2[0].imag(), modes.n2[1].real(), modes.n2[1].imag(), f / 1e9);
-    }
-    const LayerStack st = stack_at(s, f);
-    const double w = 2 * constants::pi * f;
-    const auto rp = stack_response(st, w, th), rm = stack_response(st, w, -th);
-    const double dp = artmann_shift(st, w, th, 0), dm = artmann_shift(st, w, -th, 0);
-    const double bp = o.waist > 0 ? beam_shift(st, w, th, 0, o.waist, o.line_distance) : std::nan("");
-    const double bm = o.waist > 0 ? beam_shift(st, w, -th, 0, o.waist, o.line_distance) : std::nan("");
-    std::cout << fmt::format("{:11.4f} {:9.4f} {:9.4f} {:9.4f} {:10.4f} {:10.4f} {:>10s} {:>5s} {:8.2f} {:>10s} {:>5s} "
-                             "{:8.2f} {:7.4f} {:7.4f} {:7.4f} {:10.3f} {:10.3f}\n",
-                             f / 1e9, mu(0, 0).real(), mu(1, 1).real(), mu(2, 2).real(), mu(0, 1).imag(), muv.real(),
-                             character, ez_here, refr, hz_character, hz_here, refr_hz, std::abs(rp.r[0][0]),
-                             std::abs(rm.r[0][0]), rp.T[0], dp * 1e6, dm * 1e6);
-    if (csv)
-      csv << fmt::format("{:.10g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{},{:.8g},{:.8g},"
-                         "{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g}",
-                         f, mu(0, 0).real(), mu(0, 0).imag(), mu(1, 1).real(), mu(1, 1).imag(), mu(2, 2).real(),
-                         mu(2, 2).imag(), mu(0, 1).real(), mu(0, 1).imag(), muv.real(), muv.imag(), character, refr,
-                         std::abs(rp.r[0][0]), std::arg(rp.r[0][0]), std::abs(rm.r[0][0]), std::arg(rm.r[0][0]),
-                         std::abs(rp.r[0][1]), rp.T[0], rm.T[0], dp, dm, bp, bm)
-          << fmt::format(",{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g}", eps(0, 0).real(),
-                         eps(0, 0).imag(), eps(1, 1).real(), eps(1, 1).imag(), eps(2, 2).real(), eps(2, 2).imag(),
-                         eps(0, 1).real(), eps(0, 1).imag(), std::abs(rp.r[1][1]), rp.T[1])
-          << fmt::format(",{},{:.8g},{},{},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{:.8g},{}\n",
-                         ez_here, ez_decay, hz_character, hz_here, refr_hz, hz_decay, mu(0, 2).real(), mu(0, 2).imag(),
-                         mu(1, 2).real(), mu(1, 2).imag(), modes.n2[0].real(), modes.n2[0].imag(), modes.n2[1].real(),
-                         modes.n2[1].imag(), modes.coupled ? 1 : 0);
-    nlohmann::json row;
-    row["frequency"] = f;
-    row["mu"] = {{mu(0, 0).real(), mu(0, 0).imag(), mu(1, 1).real(), mu(1, 1).imag(), mu(2, 2).real(), mu(2, 2).imag()}};
-    row["mu-xy"] = {mu(0, 1).real(), mu(0, 1).imag()};
-    row["mu-V"] = {muv.real(), muv.imag()};
-    row["eps"] = {{eps(0, 0).real(), eps(0, 0).imag(), eps(1, 1).real(), eps(1, 1).imag(), eps(2, 2).real(),
-                   eps(2, 2).imag()}};
-    row["eps-xy"] = {eps(0, 1).real(), eps(0, 1).imag()};
-    row["r-hz-plus"] = {std::abs(rp.r[1][1]), std::arg(rp.r[1][1])};
-    row["T-hz-plus"] = rp.T[1];
-    row["character"] = character;
-    row["ez-here"] = ez_here, row["hz-here"] = hz_here, row["hz-character"] = hz_character;
-    row["ez-decay"] = std::isfinite(ez_decay) ? nlohmann::json(ez_decay) : nlohmann::json();
-    row["hz-decay"] = std::isfinite(hz_decay) ? nlohmann::json(hz_decay) : nlohmann::json();
-    row["hz-refraction-angle-deg"] = std::isnan(refr_hz) ? nlohmann::json() : nlohmann::json(refr_hz);
-    row["mu-xz"] = {mu(0, 2).real(), mu(0, 2).imag()};
-    row["mu-yz"] = {mu(1, 2).real(), mu(1, 2).imag()};
-    row["normal-incidence-n2"] = {{modes.n2[0].real(), modes.n2[0].imag()}, {modes.n2[1].real(), modes.n2[1].imag()}};
-    row["normal-incidence-coupled"] = modes.coupled;
-    row["refraction-angle-deg"] = std::isnan(refr) ? nlohmann::json() : nlohmann::json(refr);
-    row["r-plus"] = {std::abs(rp.r[0][0]), std::arg(rp.r[0][0])};
-    row["r-minus"] = {std::abs(rm.r[0][0]), std::arg(rm.r[0][0])};
-    row["T-plus"] = rp.T[0], row["T-minus"] = rm.T[0];
-    row["artmann-plus"] = dp, row["artmann-minus"] = dm;
-    if (o.waist > 0) row["beam-shift-plus"] = bp, row["beam-shift-minus"] = bm;
-    if (o.source_distance > 0) {
-      // a line source before the slab: its image from the angular spectrum (no paraxial
-      // approximation), looked for from a tenth of a wavelength to `image-range` behind the face
-      const double lambda0 = constants::c0 / f;
-      const LineImage img = line_source_image(st, w, o.source_distance, 0.1 * lambda0,
-                                              o.image_range > 0 ? o.image_range : 6 * lambda0);
-      std::cout << fmt::format("  line source {:.4g} um before the slab: paraxial image {:.4g} um behind it; "
-                               "transfer-matrix focus {:.4g} um behind the far face, FWHM across {:.4g} um, along "
-                               "{:.4g} um\n",
-                               o.source_distance * 1e6, img.paraxial * 1e6, img.peak * 1e6, img.fwhm_across * 1e6,
-                               img.fwhm_along * 1e6);
-      row["image"] = {{"source-distance", o.source_distance}, {"paraxial", img.paraxial}, {"focus", img.peak},
-                      {"fwhm-across", img.fwhm_across}, {"fwhm-along", img.fwhm_along}};
-    }
+    const Point p = evaluate(s, o, f, cell_n);
+    print_coupling_once(p, coupling_told);
+    print_point(p);
+    csv += csv_line(p);
+    nlohmann::json row = json_row(p);
+    if (o.source_distance > 0) row["image"] = line_image(s, o, f);
     rows.push_back(row);
-    if (!o.plot.empty()) {
-      const double vals[7] = {mu(0, 0).real(), mu(1, 1).real(), muv.real(), mu(0, 1).imag(),
-                              std::norm(rp.r[0][0]), std::norm(rm.r[0][0]), rp.T[0]};
-      for (int c = 0; c < 7; ++c) curves[c].x.push_back(f / 1e9), curves[c].y.push_back(vals[c]);
-    }
+    points.push_back(p);
   }
-  if (!o.plot.empty()) {
-    PlotPanel mu_panel, r_panel;
-    mu_panel.xlabel = r_panel.xlabel = "frequency (GHz)";
-    mu_panel.ylabel = "permeability";
-    r_panel.ylabel = fmt::format("power fraction ({})", o.thickness > 0 ? "slab" : "half-space");
-    mu_panel.series = {curves[0], curves[1], curves[2], curves[3]};
-    r_panel.series = {curves[4], curves[5], curves[6]};
-    // the Ez wave's negative bands, edges refined by bisection (linear_response.h)
-    const auto re_muv = [&](double f) { return voigt_permeability(mu_at(s, f), nn).real(); };
-    for (const Band& b : negative_bands(re_muv, o.from, o.to, 4000)) {
-      mu_panel.shaded.push_back({b.from / 1e9, b.to / 1e9});
-      r_panel.shaded.push_back({b.from / 1e9, b.to / 1e9});
-    }
-    mu_panel.shaded_label = r_panel.shaded_label = "Re μ_V < 0";
-    // the permeability near a line spans decades: show the range that matters for the waves
-    double lo = 0, hi = 1;
-    for (int c = 0; c < 4; ++c)
-      for (double y : curves[c].y)
-        if (std::isfinite(y)) lo = std::min(lo, y), hi = std::max(hi, y);
-    lo = std::max(lo, -20.0), hi = std::min(hi, 20.0);
-    mu_panel.ymin = lo - 0.05 * (hi - lo), mu_panel.ymax = hi + 0.05 * (hi - lo);
-    r_panel.ymin = 0, r_panel.ymax = 1.05;
-    Plot plot;
-    plot.title = fmt::format("medium '{}', bias [{}, {}, {}] T, angle {:+.1f} deg", med.name, scene.bias[0],
-                             scene.bias[1], scene.bias[2], th * 180 / constants::pi);
-    plot.panels = {mu_panel, r_panel};
-    plot.height = 800;
-    write_plot(plot, o.plot);
-    std::cout << fmt::format("plot -> {} (data: {})\n", o.plot, plot_data_path(o.plot));
-  }
-  if (!o.json.empty()) std::ofstream(o.json) << nlohmann::json{{"medium", med.name}, {"rows", rows}}.dump(2) << "\n";
+  if (!o.plot.empty()) write_medium_plot(s, scene, o, points);
+  if (!o.csv.empty()) write_text_atomically(o.csv, csv);
+  if (!o.json.empty())
+    write_text_atomically(o.json, nlohmann::json{{"medium", s.medium.name}, {"rows", rows}}.dump(2) + "\n");
   return 0;
 }
 

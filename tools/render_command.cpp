@@ -16,6 +16,7 @@
 #include <fstream>
 #include <iostream>
 
+#include "io/run/atomic_file.h"
 #include "io/scene/diagnostics.h"
 #include "io/pictures/frame_painter.h"
 #include "io/run/hdf5_file.h"
@@ -166,24 +167,26 @@ void write_layout(const std::string& path, const FramePainter& p, const FrameSty
   j["view-m"] = {{"x0", L.view.x0}, {"x1", L.view.x1}, {"y0", L.view.y0}, {"y1", L.view.y1}};
   j["colours"] = ColourMap::of(st.colours).name();
   j["limits"] = {st.lo, st.hi};
-  std::ofstream(path) << j.dump(2) << "\n";
+  write_text_atomically(path, j.dump(2) + "\n");
 }
 
-int render_snapshots(const RenderOptions& o, const std::string& out_dir) {
-  const std::string file = o.run + "/fields.h5";
-  const h5::File h = h5::File::open(file);
-  if (!h.exists("/snapshots/time")) throw BadInput(fmt::format("{}: error: the run recorded no snapshots", file));
-  std::string field = o.field;
-  if (field.empty()) {  // a wave field if one was recorded, else the first one listed
-    for (const auto& name : h.members("/snapshots"))
-      if (name != "time" && (field.empty() || (is_component(name) && !is_component(field)))) field = name;
-    for (const char* c : {"Ez", "Hz"})
-      if (h.exists(std::string("/snapshots/") + c)) field = c;
-  }
-  SnapshotSource src(h, file, field);
+// The field to show: the one asked for, else a wave field if one was recorded, else the
+// first one listed.
+std::string default_field(const h5::File& h, const std::string& asked) {
+  std::string field = asked;
+  if (!field.empty()) return field;
+  for (const auto& name : h.members("/snapshots"))
+    if (name != "time" && (field.empty() || (is_component(name) && !is_component(field)))) field = name;
+  for (const char* c : {"Ez", "Hz"})
+    if (h.exists(std::string("/snapshots/") + c)) field = c;
+  return field;
+}
+
+// The frames to paint: the one nearest --time (within half an interval), or every o.every-th.
+std::vector<size_t> frames_to_paint(const SnapshotSource& src, const RenderOptions& o, const std::string& file) {
   const size_t n = src.frames();
   std::vector<size_t> pick;
-  if (std::isfinite(o.time)) {  // one still: the frame nearest the time, within half an interval
+  if (std::isfinite(o.time)) {
     const double half = n > 1 ? 0.5 * std::abs(src.time(1) - src.time(0)) : 0.0;
     if (n == 0 || o.time < src.time(0) - half * (1 + 1e-9) || o.time > src.time(n - 1) + half * (1 + 1e-9))
       throw BadInput(fmt::format("{}: error: --time {:.6g} ps lies outside the snapshots ({:.6g} to {:.6g} ps)", file,
@@ -196,6 +199,17 @@ int render_snapshots(const RenderOptions& o, const std::string& out_dir) {
     for (size_t k = 0; k < n; k += static_cast<size_t>(o.every)) pick.push_back(k);
   }
   if (pick.empty()) throw BadInput(fmt::format("{}: error: the run has no snapshot frames", file));
+  return pick;
+}
+
+int render_snapshots(const RenderOptions& o, const std::string& out_dir) {
+  const std::string file = o.run + "/fields.h5";
+  const h5::File h = h5::File::open(file);
+  if (!h.exists("/snapshots/time")) throw BadInput(fmt::format("{}: error: the run recorded no snapshots", file));
+  const std::string field = default_field(h, o.field);
+  SnapshotSource src(h, file, field);
+  const size_t n = src.frames();
+  const std::vector<size_t> pick = frames_to_paint(src, o, file);
   const auto t0 = std::chrono::steady_clock::now();
   std::vector<float> v;
   // robust limits over all frames shown: a sample of at most ~4 million values
