@@ -53,20 +53,13 @@ struct PowerSpectrumRecorder {
     const size_t np = points.size();
     for (size_t p = 0; p < np; ++p)
       for (int c = 0; c < 6; ++c) value[p * 6 + c] = c < 3 ? stencil[p][c](F[c]) : stencil[p][c](F[c]) / constants::eta0;
-    const double te = (k + 1) * dt, th = (k + 0.5) * dt, w_dt = dt * win.every;
     std::complex<double>* sums = acc.data();
     const double* val = value.data();
     const double* fr = freq.data();
 #pragma omp parallel for schedule(static) num_threads(threads)
     for (long fi = 0; fi < static_cast<long>(freq.size()); ++fi) {
       if (!win.inside(static_cast<std::size_t>(fi), k, total)) continue;
-      const double w = 2 * constants::pi * fr[fi];
-      const std::complex<double> pe = std::polar(w_dt, w * te), ph = std::polar(w_dt, w * th);
-      std::complex<double>* a = sums + static_cast<size_t>(fi) * np * 6;
-      for (size_t p = 0; p < np; ++p) {
-        for (int c = 0; c < 3; ++c) a[p * 6 + c] += val[p * 6 + c] * pe;
-        for (int c = 3; c < 6; ++c) a[p * 6 + c] += val[p * 6 + c] * ph;
-      }
+      add_six(sums + static_cast<size_t>(fi) * np * 6, val, 0, static_cast<long>(np), win.phasors(fr[fi], k, dt));
     }
   }
   template <class Fn>

@@ -3,9 +3,11 @@
 /// running DFTs, and the names and units of the recordable fields.
 #pragma once
 #include <array>
+#include <complex>
 #include <string>
 #include <vector>
 
+#include "io/scene/constants.h"
 #include "io/scene/scene.h"
 #include "solver/grid/yee_grid.h"
 
@@ -46,7 +48,27 @@ struct DftWindows {
   double seconds(std::size_t f, double dt) const { return (length[f] == 0 ? planned : length[f]) * dt; }
   /// The earliest step anything sums at in a run of `total` steps without blocks.
   long first(long total) const;
+
+  /// The weights of step k's samples at frequency f (Hz): every * dt * exp(i w t), with E
+  /// taken at t = (k+1) dt and H at t = (k+1/2) dt, each at its own time level (the
+  /// rectangle rule of the Fourier integral over the window).
+  struct Phasors {
+    std::complex<double> e, h;
+  };
+  Phasors phasors(double f, long k, double dt) const {
+    const double w = 2 * constants::pi * f, w_dt = dt * every;
+    return {std::polar(w_dt, w * ((k + 1) * dt)), std::polar(w_dt, w * ((k + 0.5) * dt))};
+  }
 };
+
+/// Adds points [p0, p1)'s six values (layout [point][Ex Ey Ez Hx Hy Hz]) times their step's
+/// weights to the running sums of one frequency (same layout).
+inline void add_six(std::complex<double>* sums, const double* value, long p0, long p1, DftWindows::Phasors w) {
+  for (long p = p0; p < p1; ++p) {
+    for (int c = 0; c < 3; ++c) sums[p * 6 + c] += value[p * 6 + c] * w.e;
+    for (int c = 3; c < 6; ++c) sums[p * 6 + c] += value[p * 6 + c] * w.h;
+  }
+}
 
 /// How a recorder's DFT windows are laid out.
 enum class WindowRule {

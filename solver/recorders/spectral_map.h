@@ -57,18 +57,13 @@ struct SpectralMap {
         average(F, g.at(i0 + a * stride, j0 + b * stride), v);
         for (int c = 3; c < 6; ++c) v[c] /= constants::eta0;
       }
-    const double te = (k + 1) * g.dt, th = (k + 0.5) * g.dt, w_dt = g.dt * win.every;
     for (size_t fi = 0; fi < freq.size(); ++fi) {
       if (!win.inside(fi, k, total)) continue;
-      const double w = 2 * constants::pi * freq[fi];
-      const std::complex<double> pe = std::polar(w_dt, w * te), ph = std::polar(w_dt, w * th);
+      const DftWindows::Phasors w = win.phasors(freq[fi], k, g.dt);
       std::complex<double>* sums = acc.data() + fi * np * 6;
       const double* val = value.data();
 #pragma omp parallel for schedule(static) num_threads(threads)
-      for (long p = 0; p < static_cast<long>(np); ++p) {
-        for (int c = 0; c < 3; ++c) sums[p * 6 + c] += val[p * 6 + c] * pe;
-        for (int c = 3; c < 6; ++c) sums[p * 6 + c] += val[p * 6 + c] * ph;
-      }
+      for (long p = 0; p < static_cast<long>(np); ++p) add_six(sums, val, p, p + 1, w);
     }
   }
   template <class Fn>

@@ -12,6 +12,7 @@
 #include "solver/recorders/recorders.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
+#include "tests/solver/half_space.h"
 
 using namespace ty;
 
@@ -23,17 +24,7 @@ constexpr double kLaunch = 200 * kCell, kInterface = 400 * kCell, kProbe = 100 *
 
 std::vector<double> run(Component pol, double eps, bool with_body, double probe_x, double* dt) {
   Scene s = test::box_scene(kNx, kNy, kCell, Boundary::absorbing, Boundary::periodic, 0.95, 1e-9);
-  if (with_body) {
-    Medium m;
-    m.name = "half-space";
-    m.permittivity = {eps, eps, eps};
-    s.media.push_back(m);
-    Body b;
-    b.shape.kind = Shape::Kind::rectangle;
-    b.shape.centre = {kInterface + 0.5 * kNx * kCell, 0.5 * kNy * kCell};
-    b.shape.size = {kNx * kCell, 10 * kNy * kCell};  // reaches past the extent: continues through the absorber
-    s.bodies.push_back(b);
-  }
+  if (with_body) test::add_half_space(s, eps, kInterface, kNx, kNy, kCell);
   const Source src = test::plane_pulse(pol, kLaunch, 0.6e12, 1.0e-12, 3.0e-12, 1e3);
   s.sources.push_back(src);
   Simulation<double> sim(s, 2);

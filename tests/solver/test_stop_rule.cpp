@@ -11,6 +11,7 @@
 #include "solver/simulation.h"
 #include "solver/stop_rule.h"
 #include "tests/helpers.h"
+#include "tests/solver/half_space.h"
 
 using namespace ty;
 
@@ -36,17 +37,7 @@ Output line_at(const std::string& name, double x) {
 Scene scene(double eps, const Source& src) {
   Scene s = test::box_scene(kNx, kNy, kCell, Boundary::absorbing, Boundary::periodic, 0.95, kLimit);
   s.time.auto_stop.on = true;
-  if (eps > 1) {
-    Medium m;
-    m.name = "half-space";
-    m.permittivity = {eps, eps, eps};
-    s.media.push_back(m);
-    Body b;
-    b.shape.kind = Shape::Kind::rectangle;
-    b.shape.centre = {kInterface + 0.5 * kNx * kCell, 0.5 * kNy * kCell};
-    b.shape.size = {kNx * kCell, 10 * kNy * kCell};  // through the absorber
-    s.bodies.push_back(b);
-  }
+  if (eps > 1) test::add_half_space(s, eps, kInterface, kNx, kNy, kCell);
   s.sources.push_back(src);
   s.outputs.push_back(line_at("behind", 50 * kCell));  // behind the one-sided launch line: reflected only
   s.outputs.push_back(line_at("front", 180 * kCell));  // between the launch line and the interface
