@@ -1,9 +1,9 @@
 /// \file check_command.cpp
 /// \brief `terayee check SCENE`: validates a scene and prints what a run would be: cells,
-/// time step, steps, memory, resolution of each medium at each source's band, and an
-/// estimate of the run time from a short measurement on this machine.
+/// time step, steps, memory at the peak (every allocation that grows with the scene, and
+/// this program's own), resolution of each medium at each source's band, and the run time
+/// from a short timing of the scene's own simulation on this machine (run_estimate.h).
 #include <fmt/format.h>
-#include <omp.h>
 
 #include <algorithm>
 #include <cmath>
@@ -22,6 +22,7 @@
 #include "solver/stop_rule.h"
 #include "tools/check_waves.h"
 #include "tools/commands.h"
+#include "tools/run_estimate.h"
 
 namespace ty {
 namespace {
@@ -160,9 +161,25 @@ int report_dispersion(const Scene& s, double f_lo, double f_hi, double cell) {
   return warnings;
 }
 
+std::string format_duration(double s) {
+  if (s < 120) return fmt::format("{:.3g} s", s);
+  if (s < 7200) return fmt::format("{:.3g} min", s / 60);
+  return fmt::format("{:.3g} h", s / 3600);
+}
+
+/// The memory estimate's parts: what the run holds throughout, and the passing parts of its
+/// construction and of its closing write (the peak takes the larger).
+void print_memory(const RunSizes& z, double base) {
+  const char* when[3] = {"", ", while the simulation is built", ", while the results are written"};
+  std::cout << fmt::format("    this program (code and libraries): {:.1f} MB\n", base / 1e6);
+  for (const auto& m : z.memory)
+    if (m.bytes >= 0.1e6)
+      std::cout << fmt::format("    {}: {:.1f} MB{}\n", m.what, m.bytes / 1e6, when[static_cast<int>(m.phase)]);
+}
+
 }  // namespace
 
-int check_command(const std::string& path, const std::vector<std::string>& sets) {
+int check_command(const std::string& path, const std::vector<std::string>& sets, int threads) {
   Scene s = read_scene(path, sets);
   const std::vector<std::string> found = validate_scene(s, machine_memory_bytes());  // before anything is sized
   s.warnings.insert(s.warnings.end(), found.begin(), found.end());
@@ -173,7 +190,9 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
   const double dt = g.dt;
   const long steps = steps_for(s, g);
   const size_t real = s.time.precision == Precision::single ? 4 : 8;
-  const double mem = run_sizes(s).memory_bytes();
+  const double base = resident_bytes();  // this program's code and libraries, as a run's
+  const RunSizes sizes = run_sizes(s);
+  const double mem = base + sizes.memory_bytes();
   std::cout << fmt::format("scene: {}\n", s.title.empty() ? path : s.title);
   std::cout << fmt::format("  grid: {} x {} cells of {:.4g} x {:.4g} um ({} x {} in the extent; boundaries x {}, y {})\n",
                            nx, ny, G.dx * 1e6, G.dy * 1e6, ex, ey, boundary_name(G.bx), boundary_name(G.by));
@@ -187,8 +206,9 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
                                   : "pulsed: when the energy and the spectra have settled",
                              p.check, p.check * dt * 1e12, p.total, p.total * dt * 1e12);
   }
-  std::cout << fmt::format("  memory: about {:.1f} MB (fields, magnetic cells and recorders; {} precision)\n", mem / 1e6,
+  std::cout << fmt::format("  memory: about {:.1f} MB at the peak ({} precision):\n", mem / 1e6,
                            real == 4 ? "single" : "double");
+  print_memory(sizes, base);
   int warnings = 0;
   for (const auto& w : s.warnings) {
     std::cout << "  warning: " << w << "\n";
@@ -214,29 +234,14 @@ int check_command(const std::string& path, const std::vector<std::string>& sets)
                               : uniform[1]             ? G.dx
                                                        : std::max(G.dx, G.dy);
   if (counted_cell > 0) warnings += report_dispersion(s, f_lo, f_hi, counted_cell);
-  // run time from a short measurement of this machine's vacuum rate
-  const int threads = s.time.threads > 0 ? s.time.threads : omp_get_max_threads();
-  const double rate = measure_vacuum_rate(256, threads, real == 4, 0.1, 3);
-  double est = static_cast<double>(nx) * ny * steps / rate;
-  // magnetic cells cost far more than the rest: count them and time their medium
-  std::vector<long> magnetic(s.media.size(), 0);
-  bool any = false;
-  for (const auto& m : s.media) any |= m.magnet.has_value();
-  if (any)
-    for (long j = 0; j < ny; ++j)
-      for (long i = 0; i < nx; ++i) {
-        const int med = medium_at(s, {(i - npx + 0.5) * G.dx, (j - npy + 0.5) * G.dy});
-        if (med >= 0 && s.media[med].magnet) ++magnetic[med];
-      }
-  for (size_t k = 0; k < s.media.size(); ++k) {
-    if (magnetic[k] == 0) continue;
-    const double r = measure_magnetic_rate(s, static_cast<int>(k), threads, 0.1);
-    est += static_cast<double>(magnetic[k]) * steps / r;
-    std::cout << fmt::format("  {} magnetic cells of '{}' at {:.3g} cell-updates/s ({:.0f}x a vacuum cell)\n",
-                             magnetic[k], s.media[k].name, r, rate / r);
-  }
-  std::cout << fmt::format("  estimated run time: {:.3g} s on {} thread{} (vacuum {:.3g} cell-updates/s measured here)\n",
-                           est, threads, threads == 1 ? "" : "s", rate);
+  // run time: the scene's own simulation timed briefly, times the run's counts (run_estimate.h)
+  const double limit = machine_memory_bytes();
+  const RunTimeEstimate est = estimate_run_time(s, threads, mem, std::min(2e9, 0.25 * limit));
+  std::cout << fmt::format("  estimated run time: {} on {} thread{} ({}fastest of short repeats here):\n",
+                           format_duration(est.total()), est.threads, est.threads == 1 ? "" : "s",
+                           est.built ? "the scene's own simulation, " : "a cell-rate model (too large to build here), ");
+  for (const auto& p : est.parts)
+    if (p.seconds > 0) std::cout << fmt::format("    {}: {} ({})\n", p.what, format_duration(p.seconds), p.count);
   std::cout << fmt::format("check passed with {} warning{}\n", warnings, warnings == 1 ? "" : "s");
   return 0;
 }

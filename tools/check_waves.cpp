@@ -119,7 +119,8 @@ std::array<bool, 2> uniform_axes(const Scene& s) {
 
 int report_source_resolution(const Scene& s, const Source& src, const std::array<bool, 2>& uniform) {
   int warnings = 0;
-  const auto [f0, f1] = checked_band(src);
+  const auto band = checked_band(src);  // plain names: clang 14 (tools/fuzz.sh) captures no structured binding
+  const double f0 = band.first, f1 = band.second;
   const double cell[2] = {s.grid.dx, s.grid.dy};
   std::cout << fmt::format("  source {} (line {}): band {:.4g}-{:.4g} THz; cells per wavelength along each axis{}\n",
                            &src - s.sources.data() + 1, src.where.line, f0 / 1e12, f1 / 1e12,

@@ -26,7 +26,8 @@ struct RunOptions {
 };
 
 int run_command(const RunOptions& o);
-int check_command(const std::string& scene, const std::vector<std::string>& sets);
+/// threads: what the run will be given (--threads); 0: what it would choose itself.
+int check_command(const std::string& scene, const std::vector<std::string>& sets, int threads = 0);
 /// `name` empty: the list; `temperature` < 0: the crystal's reference temperature.
 int crystals_command(const std::string& name, double temperature);
 struct MediumOptions {

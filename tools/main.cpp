@@ -71,6 +71,9 @@ int main(int argc, char** argv) {
   auto* c = app.add_subcommand("check", "Validate a scene and print what a run would cost");
   c->add_option("scene", check_scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
   c->add_option("--set", check_sets, "Override a scene value: key.path=value (repeatable)");
+  int check_threads = 0;
+  c->add_option("--threads", check_threads, "Estimate the run time on this many threads (as run --threads)")
+      ->check(CLI::PositiveNumber);
 
   std::string crystal_name, crystal_temperature;
   auto* cr = app.add_subcommand("crystals", "The crystal library: what is known, each value with its source");
@@ -244,7 +247,7 @@ int main(int argc, char** argv) {
   }
   try {
     if (*r) return ty::run_command(run);
-    if (*c) return ty::check_command(check_scene, check_sets);
+    if (*c) return ty::check_command(check_scene, check_sets, check_threads);
     if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
     if (*mm) {
       auto q = quantity_option;

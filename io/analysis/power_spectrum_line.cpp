@@ -12,6 +12,10 @@
 
 namespace ty {
 
+/// The most values a dataset of a line may hold (a line of 10^4 points at 10^4 frequencies
+/// and its six components are 6e8): a damaged file cannot make a reader allocate more.
+constexpr hsize_t kMaxValues = hsize_t(1) << 31;
+
 PowerSpectrumLine read_power_spectrum_line(const std::string& run, const std::string& name) {
   const std::string file = run + "/fields.h5";
   const h5::File h = h5::File::open(file);
@@ -20,12 +24,21 @@ PowerSpectrumLine read_power_spectrum_line(const std::string& run, const std::st
     throw BadInput(fmt::format("{}: error: the run has no power-spectrum line named '{}'", file, name));
   PowerSpectrumLine d;
   d.file = file, d.name = name;
-  d.freq = h.read(base + "/frequency");
-  d.weight = h.read(base + "/weights");
-  d.normal = h.read(base + "/normal");
-  d.re = h.read(base + "/fields/real");
-  d.im = h.read(base + "/fields/imag");
-  d.points = d.weight.size();
+  // read back from disk: every shape checked before it is read, the fields against the
+  // frequencies and points (the power sums index them by both), every value finite
+  const hsize_t nf = h.checked_shape(base + "/frequency", 1, kMaxValues)[0];
+  const hsize_t np = h.checked_shape(base + "/weights", 1, kMaxValues)[0];
+  if (nf == 0 || np == 0 || nf * np > kMaxValues / 6)
+    throw BadInput(fmt::format("{}: error: {}: {} frequencies x {} points is no power-spectrum line", file, base, nf, np));
+  d.freq = h.read_checked(base + "/frequency", {nf});
+  d.weight = h.read_checked(base + "/weights", {np});
+  d.normal = h.read_checked(base + "/normal", {2});
+  d.re = h.read_checked(base + "/fields/real", {nf, np, 6});
+  d.im = h.read_checked(base + "/fields/imag", {nf, np, 6});
+  for (const auto* v : {&d.freq, &d.weight, &d.normal, &d.re, &d.im})
+    for (double x : *v)
+      if (!std::isfinite(x)) throw BadInput(fmt::format("{}: error: {}: a value is not finite", file, base));
+  d.points = np;
   return d;
 }
 
@@ -39,7 +52,7 @@ int power_spectrum_normal_axis(const std::string& run) {
   int axis = 0;
   if (h.exists("/power-spectra"))
     for (const auto& name : h.members("/power-spectra")) {
-      const auto n = h.read("/power-spectra/" + name + "/normal");
+      const auto n = h.read_checked("/power-spectra/" + name + "/normal", {2});
       if (n.size() == 2 && std::abs(n[1]) > std::abs(n[0])) axis = 1;
     }
   return axis;

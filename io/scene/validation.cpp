@@ -5,12 +5,10 @@
 #include "io/scene/validation.h"
 
 #include <fmt/format.h>
-#include <unistd.h>
 
 #include <algorithm>
 #include <climits>
 #include <cmath>
-#include <fstream>
 
 #include "io/scene/constants.h"
 #include "io/scene/medium_lookup.h"
@@ -23,69 +21,13 @@ namespace {
 constexpr double kMaxSide = static_cast<double>(INT_MAX) - 64;
 /// Step counts and times (n+1)*dt are exact in a double up to 2^53.
 constexpr double kMaxSteps = 9007199254740992.0;
-/// An upper estimate of one magnetic cell's state (indices, two sublattices' moments and
-/// increments, the per-cell step), bytes.
-constexpr double kMagneticCellBytes = 512;
-
 std::string gigabytes(double b) {
   if (b < 1e9) return fmt::format("{:.1f} MB", b / 1e6);
   if (b < 1e12) return fmt::format("{:.3g} GB", b / 1e9);
   return fmt::format("{:.4g} TB", b / 1e12);
 }
 
-/// Cells a region (or the extent) covers at a stride, as the recorders count them.
-double region_cells(const Scene& s, const Output& o) {
-  const Vec2 size = o.region.given ? o.region.size : s.grid.extent;
-  return (std::floor(size.x / s.grid.dx / o.stride) + 1) * (std::floor(size.y / s.grid.dy / o.stride) + 1);
-}
-
-void add_recorders(const Scene& s, RunSizes& z) {
-  for (const auto& o : s.outputs) {
-    const std::string name = fmt::format("'{}'", o.name);
-    switch (o.kind) {
-      case Output::Kind::probe: {  // six wave components and each magnetic field, every step
-        double series = 6;
-        for (const auto& f : o.fields) series += f[0] == 'M' || f[0] == 'L' || f[0] == 'd' ? 1 : 0;
-        z.memory.push_back({"probe " + name, z.steps * series * 8, o.where});
-        break;
-      }
-      case Output::Kind::power_spectrum: {  // six running sums per point and frequency, and the values
-        const double len = std::hypot(o.to.x - o.from.x, o.to.y - o.from.y);
-        const double points = std::max(1.0, std::ceil(len / std::min(s.grid.dx, s.grid.dy)));
-        z.memory.push_back({"power spectrum " + name, (o.count + 1.0) * points * 6 * 8, o.where});
-        break;
-      }
-      case Output::Kind::spectral_map:
-        z.memory.push_back(
-            {"spectral map " + name, (o.frequencies.size() + 1.0) * region_cells(s, o) * 6 * 8, o.where});
-        break;
-      case Output::Kind::snapshots:  // a step and a time per frame; the frames go to disk
-        z.memory.push_back({"snapshot plan", std::min(z.steps, std::floor(s.time.stop / o.every)) * 16, o.where});
-        break;
-    }
-  }
-}
-
-void add_magnets(const Scene& s, RunSizes& z) {
-  double cells = 0;
-  for (const auto& b : s.bodies) {
-    if (!s.media[b.medium].magnet) continue;
-    Vec2 lo, hi;
-    b.shape.bounds(lo, hi);
-    cells += (std::ceil((hi.x - lo.x) / s.grid.dx) + 1) * (std::ceil((hi.y - lo.y) / s.grid.dy) + 1);
-  }
-  if (cells == 0) return;
-  cells = std::min(cells, z.nx * z.ny);
-  z.memory.push_back({"magnetic cells", cells * kMagneticCellBytes + z.nx * z.ny * 4, s.media.front().where});
-}
-
 }  // namespace
-
-double RunSizes::memory_bytes() const {
-  double b = 0;
-  for (const auto& m : memory) b += m.bytes;
-  return b;
-}
 
 RunSizes run_sizes(const Scene& s) {
   const GridSpec& G = s.grid;
@@ -96,25 +38,8 @@ RunSizes run_sizes(const Scene& s) {
   z.ny = std::round(G.extent.y / G.dy) + 2 * z.npml_y;
   z.dt = s.time.step_fraction / (constants::c0 * std::sqrt(1.0 / (G.dx * G.dx) + 1.0 / (G.dy * G.dy)));
   z.steps = std::max(1.0, std::ceil(s.time.stop / z.dt - 1e-9));
-  const double real = s.time.precision == Precision::single ? 4 : 8;
-  // six components on padded rows, the CPML's auxiliary fields on the absorbing strips,
-  // and the medium map (one int per cell)
-  const double fields = 6 * (z.nx + 1 + 64) * (z.ny + 2) * real;
-  const double cpml = 6 * (2 * (z.npml_x + 1) * z.ny + 2 * (z.npml_y + 1) * z.nx) * real;
-  z.memory.push_back({"fields and absorber", fields + cpml + 4 * z.nx * z.ny, G.where});
-  add_magnets(s, z);
-  add_recorders(s, z);
+  add_memory(s, z);
   return z;
-}
-
-double machine_memory_bytes() {
-  double bytes = static_cast<double>(sysconf(_SC_PHYS_PAGES)) * static_cast<double>(sysconf(_SC_PAGE_SIZE));
-  for (const char* path : {"/sys/fs/cgroup/memory.max", "/sys/fs/cgroup/memory/memory.limit_in_bytes"}) {
-    std::ifstream in(path);
-    double limit = 0;
-    if (in >> limit && limit > 0) bytes = std::min(bytes, limit);  // "max" reads as no number
-  }
-  return bytes;
 }
 
 namespace {
@@ -139,8 +64,11 @@ void check_sizes(const Scene& s, const RunSizes& z, Diagnostics& d) {
 void check_memory(const RunSizes& z, double limit, Diagnostics& d) {
   const double total = z.memory_bytes();
   if (!(total > limit)) return;
-  const auto big = std::max_element(z.memory.begin(), z.memory.end(),
-                                    [](const MemoryItem& a, const MemoryItem& b) { return a.bytes < b.bytes; });
+  // the largest of the parts held through the run (the passing ones follow from them)
+  const auto big = std::max_element(z.memory.begin(), z.memory.end(), [](const MemoryItem& a, const MemoryItem& b) {
+    const bool ha = a.phase == MemoryItem::Phase::held, hb = b.phase == MemoryItem::Phase::held;
+    return ha != hb ? hb : a.bytes < b.bytes;
+  });
   std::string parts;
   for (const auto& m : z.memory)
     if (m.bytes >= 0.01 * total) parts += fmt::format("{}{} {}", parts.empty() ? "" : ", ", m.what, gigabytes(m.bytes));

@@ -11,11 +11,15 @@
 
 namespace ty {
 
-/// One part of a run's memory, with the place in the scene that asks for it.
+/// One part of a run's memory, with the place in the scene that asks for it, and when it
+/// is held: through the run, only while the simulation is built, or only while the results
+/// are written at the end.
 struct MemoryItem {
+  enum class Phase { held, build, finish };
   std::string what;  ///< "fields and absorber", "probe 'p'", ...
   double bytes = 0;
   Mark where;
+  Phase phase = Phase::held;
 };
 
 /// The sizes a run of the scene will have, computed from the Scene alone by the solver's
@@ -28,9 +32,18 @@ struct RunSizes {
   double dt = 0;                  ///< s
   double steps = 0;
   std::vector<MemoryItem> memory;
+  /// The peak: what is held through the run, plus the larger of the build and the finish
+  /// parts (the process's own code and libraries not included: resident_bytes()).
   double memory_bytes() const;
 };
 RunSizes run_sizes(const Scene& s);
+/// run_sizes' memory items (validation_memory.cpp): every allocation of the solver, its
+/// recorders and the closing write that grows with the scene.
+void add_memory(const Scene& s, RunSizes& z);
+
+/// The memory this process holds now (resident), bytes: its code, libraries and what it
+/// has read; a run holds about as much before it builds anything.
+double resident_bytes();
 
 /// The memory this process may use, bytes: the machine's physical memory, or the control
 /// group's limit when that is lower (a container or a batch job).
