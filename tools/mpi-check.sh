@@ -1,0 +1,50 @@
+#!/usr/bin/env bash
+# Outside CI: one run spread over MPI ranks gives the same bits as a one-process run
+# (docs/parallel.md). Builds build-mpi/ (MPI=ON tools/setup.sh) if it is missing, then runs
+# each scene once as one process (2 threads) and under `mpirun -n 2` and
+# `mpirun -n 3 --oversubscribe` (1 thread per rank), and compares every dataset of their
+# fields.h5 exactly (h5diff without a tolerance: any differing bit fails).
+#   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges
+#   tools/mpi-check.sh SCENE...   these scenes instead
+set -euo pipefail
+root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+bin="$root/build-mpi/terayee"
+if [ ! -x "$bin" ]; then MPI=ON "$root/tools/setup.sh"; fi
+command -v mpirun >/dev/null && command -v h5diff >/dev/null || { echo "mpi-check: needs mpirun and h5diff"; exit 2; }
+if [ "$(id -u)" -eq 0 ]; then export OMPI_ALLOW_RUN_AS_ROOT=1 OMPI_ALLOW_RUN_AS_ROOT_CONFIRM=1; fi
+work="$(mktemp -d)"
+trap 'rm -rf "$work"' EXIT
+
+# each case: a scene file and its --set values (space separated)
+cases=()
+if [ $# -gt 0 ]; then
+  for s in "$@"; do cases+=("$s|"); done
+else
+  bench="$root/tests/data/ranks-bench.yaml"
+  cases+=("$bench|")
+  cases+=("$bench|grid.boundaries.y=periodic sources.0.beam.angle=0deg")
+fi
+
+failed=0
+k=0
+for c in "${cases[@]}"; do
+  scene="${c%%|*}"
+  sets=()
+  for s in ${c#*|}; do sets+=(--set "$s"); done
+  k=$((k + 1))
+  OMP_NUM_THREADS=2 "$bin" run "$scene" "${sets[@]}" -o "$work/$k-one" --quiet
+  for n in 2 3; do
+    extra=()
+    [ "$n" -gt "$(nproc)" ] && extra=(--oversubscribe)
+    mpirun -n "$n" "${extra[@]}" -x OMP_NUM_THREADS=1 "$bin" run "$scene" "${sets[@]}" -o "$work/$k-ranks$n" --threads 1 --quiet
+    if h5diff "$work/$k-one/fields.h5" "$work/$k-ranks$n/fields.h5" >"$work/diff" 2>&1; then
+      echo "mpi-check: $(basename "$scene") ${c#*|} ranks $n: fields.h5 identical to one process"
+    else
+      echo "mpi-check: $(basename "$scene") ${c#*|} ranks $n: fields.h5 DIFFERS from one process"
+      head -20 "$work/diff"
+      failed=1
+    fi
+    cmp -s "$work/$k-one/fields.xmf" "$work/$k-ranks$n/fields.xmf" || { echo "mpi-check: fields.xmf differs"; failed=1; }
+  done
+done
+exit $failed
