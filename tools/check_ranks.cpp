@@ -26,11 +26,11 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
     std::cout << ": one process, nothing crosses\n";
     return 0;
   }
-  int lo, hi, fewest = g.ny, most = 0;
+  int lo, hi, fewest = g.ny;
   std::cout << "\n";
   for (int r = 0; r < P; ++r) {
     parallel::slab_rows(g.ny, r, P, lo, hi);
-    fewest = std::min(fewest, hi - lo), most = std::max(most, hi - lo);
+    fewest = std::min(fewest, hi - lo);
     if (r < 4 || r == P - 1) std::cout << fmt::format("  rank {}: rows {}..{} ({} rows)\n", r, lo, hi - 1, hi - lo);
     else if (r == 4) std::cout << "  ...\n";
   }
@@ -41,7 +41,7 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
       "columns and padding); {} bytes in all, at most {} bytes in and out of one rank\n",
       cuts, cuts == 1 ? "" : "s", wrap ? " (the periodic y seam is one of them)" : "", per_cut,
       parallel::halo_components(true), parallel::halo_components(false), g.stride, per_cut * cuts,
-      2 * per_cut);
+      std::min(cuts, 2) * per_cut);
   // a rank waits for one message a step (the E rows; the H rows travel behind the interior update)
   const double rank_bytes = 0.5 * per_cut;  // one rank's E exchange with its neighbour: Ex and Ez rows
   for (const auto& [name, latency, bandwidth] :
@@ -58,7 +58,6 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
                                s.media.at(body.medium).name);
       break;
     }
-  (void)most;
   return 0;
 }
 

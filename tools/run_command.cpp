@@ -299,7 +299,8 @@ int run_with(const Scene& scene, const RunOptions& o) {
   }
   RunFolder* folder = made.get();
   if (folder) log.open(folder->path("log.txt"), o.resume);
-  log.quiet(o.quiet || !root);
+  log.quiet(o.quiet);
+  if (!root) log.silent();
   log.info(fmt::format("terayee {}: {}{}", TERAYEE_VERSION, scene.title.empty() ? scene.file : scene.title,
                        scene.reference ? " (reference run: sample bodies removed)" : ""));
   for (const auto& w : scene.warnings) log.warn(w);
