@@ -123,9 +123,10 @@ struct Runner {
     const long N = sim.total_steps(), first = sim.steps_done(), every = std::max(1L, N / 100);
     int last_plain = -1;
     for (long n = first; n < N; ++n) {
-      // over ranks every rank stops at the same step: the largest signal any of them saw
+      // over ranks every rank stops at the same step: the largest signal any of them saw, asked
+      // every 16 steps (a collective each step would cost a latency each step; the flag stays set)
       int sig = StopSignals::received();
-      if (sim.ranks() > 1) sig = static_cast<int>(parallel::max_over_ranks(sig));
+      if (sim.ranks() > 1) sig = n % 16 == 0 ? static_cast<int>(parallel::max_over_ranks(sig)) : 0;
       if (sig) return stop(n, sig);
       sim.advance();
       kill_point(KillPoint::step, n + 1);
