@@ -2,7 +2,7 @@
 # Outside CI: one run spread over MPI ranks gives the same bits as a one-process run
 # (docs/parallel.md). Builds build-mpi/ (MPI=ON tools/setup.sh) if it is missing, then runs
 # each scene once as one process (2 threads) and under `mpirun -n 2` and
-# `mpirun -n 3 --oversubscribe` (1 thread per rank), and compares every dataset of their
+# `mpirun -n 3 --oversubscribe` (1 thread per rank) and over 2 ranks of 2 threads, and compares every dataset of their
 # fields.h5 exactly (h5diff without a tolerance: any differing bit fails).
 #   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges
 #   tools/mpi-check.sh SCENE...   these scenes instead
@@ -15,7 +15,7 @@ if [ "${1:-}" = "--if-built" ]; then
   shift
   if [ ! -x "$bin" ] || ! command -v mpirun >/dev/null; then echo "mpi-check: no build-mpi/terayee or mpirun: skipped"; exit 77; fi
 fi
-counts=(2 3)
+counts=(2 3 2x2)  # 2 ranks, 3 ranks, 2 ranks of 2 threads
 if [ "${1:-}" = "--quick" ]; then shift; counts=(3); fi
 if [ ! -x "$bin" ]; then MPI=ON "$root/tools/setup.sh"; fi
 command -v mpirun >/dev/null && command -v h5diff >/dev/null || { echo "mpi-check: needs mpirun and h5diff"; exit 2; }
@@ -41,18 +41,21 @@ for c in "${cases[@]}"; do
   for s in ${c#*|}; do sets+=(--set "$s"); done
   k=$((k + 1))
   OMP_NUM_THREADS=2 "$bin" run "$scene" "${sets[@]}" -o "$work/$k-one" --quiet
-  for n in "${counts[@]}"; do
+  for nt in "${counts[@]}"; do  # ranks, or ranks x threads per rank
+    n="${nt%x*}"
+    t=1
+    [ "$nt" != "$n" ] && t="${nt#*x}"
     extra=()
-    [ "$n" -gt "$(nproc)" ] && extra=(--oversubscribe)
-    mpirun -n "$n" "${extra[@]}" -x OMP_NUM_THREADS=1 "$bin" run "$scene" "${sets[@]}" -o "$work/$k-ranks$n" --threads 1 --quiet
-    if h5diff "$work/$k-one/fields.h5" "$work/$k-ranks$n/fields.h5" >"$work/diff" 2>&1; then
-      echo "mpi-check: $(basename "$scene") ${c#*|} ranks $n: fields.h5 identical to one process"
+    [ $((n * t)) -gt "$(nproc)" ] && extra=(--oversubscribe --mca mpi_yield_when_idle 1)
+    mpirun -n "$n" "${extra[@]}" -x OMP_NUM_THREADS="$t" "$bin" run "$scene" "${sets[@]}" -o "$work/$k-ranks$nt" --threads "$t" --quiet
+    if h5diff "$work/$k-one/fields.h5" "$work/$k-ranks$nt/fields.h5" >"$work/diff" 2>&1; then
+      echo "mpi-check: $(basename "$scene") ${c#*|} ranks $n x $t threads: fields.h5 identical to one process"
     else
-      echo "mpi-check: $(basename "$scene") ${c#*|} ranks $n: fields.h5 DIFFERS from one process"
+      echo "mpi-check: $(basename "$scene") ${c#*|} ranks $n x $t threads: fields.h5 DIFFERS from one process"
       head -20 "$work/diff"
       failed=1
     fi
-    cmp -s "$work/$k-one/fields.xmf" "$work/$k-ranks$n/fields.xmf" || { echo "mpi-check: fields.xmf differs"; failed=1; }
+    cmp -s "$work/$k-one/fields.xmf" "$work/$k-ranks$nt/fields.xmf" || { echo "mpi-check: fields.xmf differs"; failed=1; }
   done
 done
 # what is not split over ranks yet is refused (exit 2), not run wrong
