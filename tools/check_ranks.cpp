@@ -31,8 +31,10 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
   for (int r = 0; r < P; ++r) {
     parallel::slab_rows(g.ny, r, P, lo, hi);
     fewest = std::min(fewest, hi - lo);
-    if (r < 4 || r == P - 1) std::cout << fmt::format("  rank {}: rows {}..{} ({} rows)\n", r, lo, hi - 1, hi - lo);
-    else if (r == 4) std::cout << "  ...\n";
+    if (r < 4 || r == P - 1)
+      std::cout << fmt::format("  rank {}: rows {}..{} ({} rows)\n", r, lo, hi - 1, hi - lo);
+    else if (r == 4)
+      std::cout << "  ...\n";
   }
   const int cuts = P - 1 + (wrap ? 1 : 0);
   const long per_cut = parallel::halo_bytes_per_cut(g.stride, b);

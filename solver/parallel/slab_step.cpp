@@ -90,10 +90,12 @@ void Simulation<R>::step_slab() {
   const long s = g_.stride;
   const size_t bytes = halo_e_in_.size() * sizeof(R);
   auto pack = [&](const std::array<int, 3>& list, int j, R* to) {
-    for (int q = 0; q < 3 && list[q] >= 0; ++q) std::memcpy(to + q * s, f_[list[q]].data() + g_.row_begin(j), s * sizeof(R));
+    for (int q = 0; q < 3 && list[q] >= 0; ++q)
+      std::memcpy(to + q * s, f_[list[q]].data() + g_.row_begin(j), s * sizeof(R));
   };
   auto unpack = [&](const std::array<int, 3>& list, int j, const R* from) {
-    for (int q = 0; q < 3 && list[q] >= 0; ++q) std::memcpy(f_[list[q]].data() + g_.row_begin(j), from + q * s, s * sizeof(R));
+    for (int q = 0; q < 3 && list[q] >= 0; ++q)
+      std::memcpy(f_[list[q]].data() + g_.row_begin(j), from + q * s, s * sizeof(R));
   };
   if (up_ >= 0) parallel::receive_bytes(halo_e_in_.data(), bytes, up_, kTagE, halo_req_[0]);
   if (down_ >= 0) {
@@ -172,9 +174,9 @@ void Simulation<R>::gather_state() {
   parallel::allgather_bytes(injected_.data(), work_counts_);
 }
 
-#define TY_SLAB_STEP(R)                                  \
-  template void Simulation<R>::build_slabs();            \
-  template void Simulation<R>::step_slab();              \
+#define TY_SLAB_STEP(R)                                    \
+  template void Simulation<R>::build_slabs();              \
+  template void Simulation<R>::step_slab();                \
   template void Simulation<R>::gather_for_recorders(long); \
   template void Simulation<R>::gather_state();
 TY_SLAB_STEP(float)
