@@ -16,7 +16,8 @@ if [ "${1:-}" = "--if-built" ]; then
   if [ ! -x "$bin" ] || ! command -v mpirun >/dev/null; then echo "mpi-check: no build-mpi/terayee or mpirun: skipped"; exit 77; fi
 fi
 counts=(2 3 2x2)  # 2 ranks, 3 ranks, 2 ranks of 2 threads
-if [ "${1:-}" = "--quick" ]; then shift; counts=(3); fi
+quick=0
+if [ "${1:-}" = "--quick" ]; then shift; counts=(3); quick=1; fi
 if [ ! -x "$bin" ]; then MPI=ON "$root/tools/setup.sh"; fi
 command -v mpirun >/dev/null && command -v h5diff >/dev/null || { echo "mpi-check: needs mpirun and h5diff"; exit 2; }
 if [ "$(id -u)" -eq 0 ]; then export OMPI_ALLOW_RUN_AS_ROOT=1 OMPI_ALLOW_RUN_AS_ROOT_CONFIRM=1; fi
@@ -31,6 +32,8 @@ else
   bench="$root/tests/data/ranks-bench.yaml"
   cases+=("$bench|")
   cases+=("$bench|grid.boundaries.y=periodic sources.0.beam.angle=0deg")
+  # a dispersive (Lorentz) wafer on 8 rows with a periodic y seam: every rank's rows at the seam
+  [ $quick -eq 1 ] || cases+=("$root/scenarios/gaas-reststrahlen.yaml|time.stop=2ps")
 fi
 
 failed=0
