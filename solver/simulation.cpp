@@ -38,6 +38,7 @@ Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   build_pml(cb);
   build_sources(cb);
   build_recorders(plan);
+  build_slabs();
   stop_ = StopRule(scene.time.auto_stop, plan, power_spectra_, maps_);
   // a magnetic cell costs about 7 vacuum cells (docs/magnets.md): 1 + 6 more
   if (chosen <= 0) threads_ = threads_for_work(double(g_.nx) * g_.ny + 6.0 * mag_.count(), threads_);
@@ -166,7 +167,7 @@ void Simulation<R>::e_row_update(int j) {
 
 template <class R>
 void Simulation<R>::step() {
-  if (mag_.empty()) step_fused(); else step_magnetic();
+  if (ranks_ > 1) step_slab(); else if (mag_.empty()) step_fused(); else step_magnetic();
 }
 
 template <class R>
@@ -194,6 +195,7 @@ void Simulation<R>::step_fused() {
 template <class R>
 void Simulation<R>::record() {
   const long k = n_ - 1;  // the step just taken
+  if (ranks_ > 1) gather_for_recorders(k);
   const auto Fm = fields();
   const R* const F[6] = {Fm[0], Fm[1], Fm[2], Fm[3], Fm[4], Fm[5]};
   auto value = [this](const std::string& field, long cell) { return magnetic_value(field, cell); };
@@ -213,6 +215,7 @@ void Simulation<R>::advance() {
 template <class R>
 bool Simulation<R>::settled() {
   if (!stop_.due(n_)) return false;
+  gather_state();  // every rank decides alike, from the whole grid
   return stop_.settled(n_, g_.dt, field_energy() + magnetic_energy(), power_spectra_, maps_);
 }
 

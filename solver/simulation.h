@@ -30,6 +30,7 @@
 #include "solver/grid/yee_grid.h"
 #include "solver/media/dispersive_cells.h"
 #include "solver/media/magnetic_cells.h"
+#include "solver/parallel/ranks.h"
 #include "solver/recorders/recorders.h"
 #include "solver/sources/waveform.h"
 #include "solver/stop_rule.h"
@@ -58,6 +59,14 @@ class Simulation {
 
   /// One time step with sources, without recorders.
   void step();
+  /// Over several ranks (solver/parallel/slab_step.cpp): this rank's rows [lo, hi) of the
+  /// sweep and the rank count. Every rank holds the whole arrays but updates only its rows;
+  /// gather_state() (collective) makes every field row and the injected work whole on every
+  /// rank, for whatever reads the whole grid (the guard, energies, checkpoints, summaries).
+  int ranks() const { return ranks_; }
+  int row_lo() const { return row0_; }
+  int row_hi() const { return row1_; }
+  void gather_state();
   /// One time step, then the recorders.
   void advance();
   /// `stop: auto`: whether the run is done now (looked at every stop_rule().plan().check
@@ -205,6 +214,16 @@ class Simulation {
   std::vector<long> mag_tilted_;                  // per thread (every 8th): cell steps by the midpoint rule
   std::size_t bytes_ = 0;
   std::vector<std::string> warnings_, notes_;
+  // slabs over ranks (slab_step.cpp)
+  int rank_ = 0, ranks_ = 1, row0_ = 0, row1_ = 0;
+  int up_ = -1, down_ = -1;  // the ranks whose rows lie above and below ours (-1: none)
+  std::vector<R> halo_e_out_, halo_e_in_, halo_h_out_, halo_h_in_;
+  parallel::Request halo_req_[4];
+  std::vector<int> recorder_rows_;  // rows (ghost rows -1, ny included) the recorders read every step
+  std::vector<int> recorder_counts_;  // bytes of them per rank
+  std::vector<R> recorder_buf_;
+  std::vector<int> state_counts_, work_counts_;  // gather_state's bytes per rank
+  std::vector<long> whole_steps_;  // steps after which a recorder reads the whole grid (snapshots)
 
   void build_media(std::vector<double> (&cb)[3]);
   void node_coefficients(int c, int i, int j, double& a, double& b, std::vector<DispersiveNode>& out) const;
@@ -224,6 +243,10 @@ class Simulation {
   /// A beam's or plane wave's one-sided total-field/scattered-field sheet.
   void add_launch_sheet(const Source& src, int signal, const std::vector<double> (&cb)[3]);
   void build_recorders(const StopPlan& plan);
+  void build_slabs();
+  void step_slab();
+  /// Makes the recorders' rows (or, on a snapshot's steps, every row) whole before step k's record.
+  void gather_for_recorders(long k);
   void build_magnets();
   void step_fused();
   void step_magnetic();

@@ -28,6 +28,8 @@ struct RunOptions {
 int run_command(const RunOptions& o);
 /// threads: what the run will be given (--threads); 0: what it would choose itself.
 int check_command(const std::string& scene, const std::vector<std::string>& sets, int threads = 0);
+/// `check --ranks P`: how P MPI ranks would cut the grid and the halo per step (check_ranks.cpp).
+int check_ranks(const std::string& scene, const std::vector<std::string>& sets, int ranks);
 /// `name` empty: the list; `temperature` < 0: the crystal's reference temperature.
 int crystals_command(const std::string& name, double temperature);
 struct MediumOptions {

@@ -8,6 +8,7 @@
 
 #include "io/scene/diagnostics.h"
 #include "io/scene/units.h"
+#include "solver/parallel/ranks.h"
 #include "solver/threads/wait_policy.h"
 #include "tools/commands.h"
 
@@ -43,6 +44,8 @@ std::complex<double> complex_option(const std::string& text, const std::string& 
 
 int main(int argc, char** argv) {
   ty::bound_thread_waits(argv);  // before any parallel region
+  ty::parallel::Session mpi(argc, argv);  // one rank without MPI or outside mpirun
+  const bool speaks = ty::parallel::rank() == 0;  // over ranks, only rank 0 reports errors
   CLI::App app{"terayee: 2D FDTD simulation of terahertz waves in dielectric and magnetically ordered media"};
   app.set_version_flag("--version", std::string("terayee ") + TERAYEE_VERSION);
   app.require_subcommand(1);
@@ -73,6 +76,9 @@ int main(int argc, char** argv) {
   c->add_option("--set", check_sets, "Override a scene value: key.path=value (repeatable)");
   int check_threads = 0;
   c->add_option("--threads", check_threads, "Estimate the run time on this many threads (as run --threads)")
+      ->check(CLI::PositiveNumber);
+  int check_ranks = 0;
+  c->add_option("--ranks", check_ranks, "Also say how P MPI ranks would cut the grid and the halo bytes per step")
       ->check(CLI::PositiveNumber);
 
   std::string crystal_name, crystal_temperature;
@@ -246,8 +252,16 @@ int main(int argc, char** argv) {
     return code == 0 ? 0 : 2;
   }
   try {
+    if (ty::parallel::size() > 1 && !*r)
+      throw ty::BadInput(fmt::format("terayee: error: only `terayee run` spreads over MPI ranks ({} ranks here); run "
+                                     "this command as one process",
+                                     ty::parallel::size()));
     if (*r) return ty::run_command(run);
-    if (*c) return ty::check_command(check_scene, check_sets, check_threads);
+    if (*c) {
+      const int rc = ty::check_command(check_scene, check_sets, check_threads);
+      if (rc == 0 && check_ranks > 0) return ty::check_ranks(check_scene, check_sets, check_ranks);
+      return rc;
+    }
     if (*ms) return ty::measure_spectrum(m_run, m_ref, m_reflected, m_transmitted);
     if (*mm) {
       auto q = quantity_option;
@@ -330,10 +344,14 @@ int main(int argc, char** argv) {
       return ty::sweep_command(sw);
     }
     if (*b) return ty::bench_command(size, threads, precision, seconds, bench_case);
-  } catch (const ty::BadInput& e) {
-    std::cerr << e.what() << "\n";
+  } catch (const ty::BadInput& e) {  // the same input on every rank: the same error on every rank
+    if (speaks) std::cerr << e.what() << "\n";
     return 2;
   } catch (const std::exception& e) {
+    if (ty::parallel::size() > 1) {  // one rank's failure (a write error): end them all
+      std::cerr << fmt::format("terayee (rank {}): error: {}\n", ty::parallel::rank(), e.what());
+      ty::parallel::abort(1);
+    }
     std::cerr << "terayee: error: " << e.what() << "\n";
     return 1;
   }

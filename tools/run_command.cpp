@@ -12,6 +12,7 @@
 #include <cmath>
 #include <filesystem>
 #include <iostream>
+#include <memory>
 #include <nlohmann/json.hpp>
 #include <stdexcept>
 
@@ -25,6 +26,8 @@
 #include "io/scene/scene_writer.h"
 #include "io/scene/validation.h"
 #include "solver/guard/growth_guard.h"
+#include "solver/parallel/ranks.h"
+#include "solver/parallel/slabs.h"
 #include "solver/simulation.h"
 #include "tools/commands.h"
 
@@ -47,7 +50,7 @@ struct Runner {
   const Scene& scene;
   const RunOptions& o;
   Log& log;
-  RunFolder& folder;
+  RunFolder* folder;  ///< over ranks, rank 0's only (null elsewhere): rank 0 writes the run folder
   Simulation<R>& sim;
   GrowthGuard<R>& guard;
   std::string resolved, checkpoint;
@@ -63,7 +66,7 @@ struct Runner {
       const int m = sim.medium_map()[static_cast<size_t>(mj) * sim.map_nx() + mi];
       medium = m < 0 ? "vacuum" : "medium '" + scene.media.at(m).name + "'";
     }
-    folder.abandon();
+    if (folder) folder->abandon();
     log.error(fmt::format(
         "the field {} became non-finite by step {} (t = {:.4g} ps) at node ({}, {}), x = {:.4g} mm, "
         "y = {:.4g} mm, in {}. {} To see whether it is a stability problem, run again with a smaller time step, "
@@ -76,7 +79,7 @@ struct Runner {
 
   /// A run the guard stopped: its message, and what is kept.
   int growing(const std::string& e) {
-    folder.abandon();
+    if (folder) folder->abandon();
     log.error(fmt::format("{}. Nothing is written as a result. {}", e,
                           saved_at >= 0 ? fmt::format("The last checkpoint (step {}) is kept in {}.", saved_at, checkpoint)
                                         : std::string("No checkpoint had been written.")));
@@ -89,15 +92,22 @@ struct Runner {
     Component c;
     if (sim.find_nonfinite(i, j, c)) return nonfinite(step, i, j, c);
     StopSignals::Hold hold;
-    folder.flush();
+    folder->flush();
     save_checkpoint(checkpoint, sim, resolved);
     saved_at = step;
     return 0;
   }
 
   int stop(long step, int sig) {
+    if (sim.ranks() > 1) {  // no checkpoint over ranks yet (docs/parallel.md)
+      if (folder) folder->abandon();
+      log.error(fmt::format("stopped by signal {} at step {} of {}; a run over {} ranks writes no checkpoint yet, "
+                            "so nothing is kept",
+                            sig, step, sim.total_steps(), sim.ranks()));
+      return 128 + sig;
+    }
     if (const int rc = save(step)) return rc;
-    folder.keep();
+    folder->keep();
     log.info(fmt::format("{} at step {} of {}; the state is in {}. Go on with: {}",
                          sig ? fmt::format("stopped by signal {}", sig) : std::string("stopped as asked"), step,
                          sim.total_steps(), checkpoint, resume_line(scene, o)));
@@ -113,12 +123,16 @@ struct Runner {
     const long N = sim.total_steps(), first = sim.steps_done(), every = std::max(1L, N / 100);
     int last_plain = -1;
     for (long n = first; n < N; ++n) {
-      if (const int sig = StopSignals::received()) return stop(n, sig);
+      // over ranks every rank stops at the same step: the largest signal any of them saw, asked
+      // every 16 steps (a collective each step would cost a latency each step; the flag stays set)
+      int sig = StopSignals::received();
+      if (sim.ranks() > 1) sig = n % 16 == 0 ? static_cast<int>(parallel::max_over_ranks(sig)) : 0;
+      if (sig) return stop(n, sig);
       sim.advance();
       kill_point(KillPoint::step, n + 1);
       if (sim.settled()) break;  // `stop: auto`: done before the limit
       if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
-      const bool by_time = o.checkpoint_minutes > 0 &&
+      const bool by_time = o.checkpoint_minutes > 0 && sim.ranks() == 1 &&
                            std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >
                                60 * o.checkpoint_minutes;
       if ((by_time || (o.checkpoint_steps > 0 && (n + 1) % o.checkpoint_steps == 0)) && n + 1 < N) {
@@ -129,6 +143,7 @@ struct Runner {
       if ((n + 1) % every != 0 && n + 1 != N) continue;
       int i, j;
       Component c;
+      sim.gather_state();  // over ranks: the whole grid on every rank, so all decide alike
       if (sim.find_nonfinite(i, j, c)) return nonfinite(n + 1, i, j, c);
       if (const std::string e = guard.check(sim); !e.empty()) return growing(e);
       const double el = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
@@ -150,7 +165,7 @@ struct Runner {
 
   /// A write error (a full disk): what happened, and that the last checkpoint is intact.
   [[noreturn]] void write_failed(const std::exception& e) {
-    folder.abandon();
+    if (folder) folder->abandon();
     throw std::runtime_error(fmt::format(
         "{} (is the disk full?). {}", e.what(),
         saved_at >= 0 ? fmt::format("The checkpoint of step {} is intact: make room and go on with {}", saved_at,
@@ -210,6 +225,7 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
   s["cells"] = {{"x", g.nx}, {"y", g.ny}, {"absorbing-x", g.npml_x}, {"absorbing-y", g.npml_y}, {"total", g.cells()}};
   s["cell-size-m"] = {g.dx, g.dy};
   s["threads"] = sim.threads();
+  s["ranks"] = sim.ranks();
   s["precision"] = sizeof(R) == 4 ? "single" : "double";
   s["wall-time-s"] = wall;
   s["cell-updates-per-s"] = wall > 0 ? static_cast<double>(g.cells()) * (N - first) / wall : 0.0;
@@ -241,12 +257,51 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
   return s;
 }
 
+/// What a run over several MPI ranks does not do yet (docs/parallel.md): refused with exit
+/// status 2 before anything is written, rather than done wrong. The same on every rank.
+void refuse_over_ranks(const Scene& scene, const RunOptions& o) {
+  const int P = parallel::size();
+  std::vector<std::string> why;
+  if (o.resume || o.stop_at_step > 0 || o.checkpoint_steps > 0)
+    why.push_back("--resume, --stop-at-step and --checkpoint-steps: a run over ranks writes no checkpoint yet");
+  for (const Body& b : scene.bodies)
+    if (scene.media.at(b.medium).magnet) {
+      why.push_back(fmt::format("medium '{}' is magnetic: magnetic cells are not yet split over ranks",
+                                scene.media.at(b.medium).name));
+      break;
+    }
+  const YeeGrid g = grid_for(scene, 8);
+  if (g.ny < P * parallel::kMinRowsPerRank)
+    why.push_back(fmt::format("the grid has {} rows: {} ranks need at least {} ({} each)", g.ny, P,
+                              P * parallel::kMinRowsPerRank, parallel::kMinRowsPerRank));
+  if (why.empty()) return;
+  std::string m = fmt::format("terayee run: error: not done over {} MPI ranks (run it as one process):", P);
+  for (const auto& w : why) m += "\n  " + w;
+  throw BadInput(m);
+}
+
 template <class R>
 int run_with(const Scene& scene, const RunOptions& o) {
   Log log;
-  RunFolder folder(o.out, scene, o.resume, o.overwrite);
-  log.open(folder.path("log.txt"), o.resume);
+  // over ranks rank 0 alone makes and writes the run folder; a refusal there ends every rank
+  const bool root = parallel::rank() == 0;
+  std::unique_ptr<RunFolder> made;
+  std::string refused;
+  if (root) {
+    try {
+      made = std::make_unique<RunFolder>(o.out, scene, o.resume, o.overwrite);
+    } catch (const BadInput& e) {
+      refused = e.what();
+    }
+  }
+  if (parallel::max_over_ranks(refused.empty() ? 0 : 1) > 0) {
+    if (root) throw BadInput(refused);
+    return 2;
+  }
+  RunFolder* folder = made.get();
+  if (folder) log.open(folder->path("log.txt"), o.resume);
   log.quiet(o.quiet);
+  if (!root) log.silent();
   log.info(fmt::format("terayee {}: {}{}", TERAYEE_VERSION, scene.title.empty() ? scene.file : scene.title,
                        scene.reference ? " (reference run: sample bodies removed)" : ""));
   for (const auto& w : scene.warnings) log.warn(w);
@@ -257,9 +312,13 @@ int run_with(const Scene& scene, const RunOptions& o) {
   for (const auto& n : sim.notes()) log.info(n);
   log.info(
       fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
-                  "{} thread{}, {} precision, {:.1f} MB",
+                  "{} thread{}{}, {} precision, {:.1f} MB",
                   g.nx, g.ny, g.npml_x, g.npml_y, g.dx * 1e6, g.dy * 1e6, g.dt * 1e15, sim.total_steps(), sim.threads(),
-                  sim.threads() == 1 ? "" : "s", sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
+                  sim.threads() == 1 ? "" : "s",
+                  sim.ranks() > 1 ? fmt::format(" per rank on {} MPI ranks (rank 0: rows {}..{})", sim.ranks(),
+                                                sim.row_lo(), sim.row_hi() - 1)
+                                  : std::string(),
+                  sizeof(R) == 4 ? "single" : "double", sim.memory_bytes() / 1e6));
   GrowthGuard<R> guard(sim);  // stops a growing run (solver/guard/growth_guard.h)
   if (!sim.magnets().empty())
     log.info(guard.tilt_limit() > 0
@@ -267,24 +326,26 @@ int run_with(const Scene& scene, const RunOptions& o) {
                                "{:.2g} rad, or more energy than the sources put in, stops the run",
                                guard.linear_tilt(), guard.tilt_limit())
                  : std::string("guard: the sources ask for large tilts; more energy than they put in stops the run"));
-  Runner<R> run{scene, o, log, folder, sim, guard, resolved_scene_yaml(scene), folder.path("checkpoint.h5")};
-  if (folder.resuming()) {
+  Runner<R> run{scene, o, log, folder, sim, guard, resolved_scene_yaml(scene),
+                folder ? folder->path("checkpoint.h5") : std::string()};
+  if (folder && folder->resuming()) {
     load_checkpoint(run.checkpoint, sim, run.resolved);
     run.saved_at = sim.steps_done();
     log.info(fmt::format("resumed at step {} of {}", sim.steps_done(), sim.total_steps()));
   } else if (o.resume) {
     log.info("no checkpoint was written before the run stopped: starting again from step 0");
   }
-  folder.begin(g, sim.snapshot_plan(), sizeof(R) == 4, sim.medium_map(), sim.map_nx(), sim.map_ny());
-  sim.set_snapshot_sink(&folder);
+  if (folder) folder->begin(g, sim.snapshot_plan(), sizeof(R) == 4, sim.medium_map(), sim.map_nx(), sim.map_ny());
+  sim.set_snapshot_sink(folder);
   const long first = sim.steps_done();
   const auto t0 = std::chrono::steady_clock::now();
   try {
     if (const int rc = run.loop(); rc >= 0) return rc;
     const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
-    if (sim.steps_done() < sim.total_steps()) folder.ended_at(sim.steps_done());
+    if (folder && sim.steps_done() < sim.total_steps()) folder->ended_at(sim.steps_done());
+    sim.gather_state();  // the summary's energies from the whole grid
     const nlohmann::json s = make_summary(scene, sim, log, first, wall);
-    folder.finish(sim.probes(), sim.power_spectra(), sim.spectral_maps(), g.dt, s);
+    if (folder) folder->finish(sim.probes(), sim.power_spectra(), sim.spectral_maps(), g.dt, s);
     log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", sim.steps_done(), hms(wall),
                          s["cell-updates-per-s"].get<double>(), o.out));
   } catch (const BadInput&) {
@@ -310,6 +371,7 @@ int run_command(const RunOptions& o) {
   const std::vector<std::string> found = validate_scene(read, machine_memory_bytes());  // before anything is sized
   read.warnings.insert(read.warnings.end(), found.begin(), found.end());
   const Scene scene = o.reference ? reference_scene(read) : read;
+  if (parallel::size() > 1) refuse_over_ranks(scene, o);
   if (scene.time.precision == Precision::single) return run_with<float>(scene, o);
   return run_with<double>(scene, o);
 }

@@ -1,0 +1,186 @@
+/// \file slab_step.cpp
+/// \brief The row sweep over P ranks (slabs.h): each rank steps its own rows with the row
+/// kernels of simulation.cpp, trading halo rows with the ranks above and below, and makes
+/// the rows its recorders read whole before they record, so every rank's recorders (and
+/// rank 0's output) see exactly the fields a one-process run holds: the same bits.
+///
+/// One step on rank r (rows [lo, hi)), the halos derived from the curl stencil table:
+///   post: receive E(hi) from above, send E(lo) below, receive H(lo-1) from below
+///   wait for E(hi); every thread: H of its block's last row (the rank's last row first)
+///   main thread: send H(hi-1) above; threads sweep their blocks, the first block leaving
+///   E(lo) to the end; main thread: wait for H(lo-1), then E(lo)
+/// so the H halo travels while the interior is updated. A periodic y edge is one more cut,
+/// between rank P-1 and rank 0: the halo rows land in the ghost rows ny and -1, where the
+/// one-process sweep copies them (boundaries/periodic.h).
+#include <omp.h>
+
+#include <algorithm>
+#include <cstring>
+
+#include "solver/parallel/slabs.h"
+#include "solver/simulation.h"
+
+namespace ty {
+
+namespace {
+constexpr int kTagE = 11, kTagH = 12;
+constexpr auto kHaloE = parallel::halo_list(true), kHaloH = parallel::halo_list(false);
+}  // namespace
+
+template <class R>
+void Simulation<R>::build_slabs() {
+  ranks_ = parallel::size();
+  rank_ = parallel::rank();
+  parallel::slab_rows(g_.ny, rank_, ranks_, row0_, row1_);
+  if (ranks_ == 1) return;
+  const bool wrap = walls_.periodic_y;
+  up_ = rank_ + 1 < ranks_ ? rank_ + 1 : (wrap ? 0 : -1);
+  down_ = rank_ > 0 ? rank_ - 1 : (wrap ? ranks_ - 1 : -1);
+  const size_t n = static_cast<size_t>(parallel::halo_components(true)) * g_.stride;
+  halo_e_out_.assign(n, R(0)), halo_e_in_.assign(n, R(0)), halo_h_out_.assign(n, R(0)), halo_h_in_.assign(n, R(0));
+
+  // rows the every-step recorders read: their stencils' rows, and each spectral-map node's
+  // row and the row below (node_average.h)
+  std::vector<int> rows;
+  auto add = [&](const PointStencil& p) {
+    for (long id : p.index) rows.push_back(static_cast<int>(id / g_.stride) - 1);
+  };
+  for (const auto& p : probes_) {
+    for (const auto& s : p.stencil) add(s);
+    for (const auto& l : p.line)
+      for (const auto& s : l) add(s);
+  }
+  for (const auto& fl : power_spectra_)
+    for (const auto& st : fl.stencil)
+      for (const auto& s : st) add(s);
+  for (const auto& m : maps_)
+    for (int b = 0; b < m.nj; ++b) rows.push_back(m.j0 + b * m.stride), rows.push_back(m.j0 + b * m.stride - 1);
+  std::sort(rows.begin(), rows.end());
+  rows.erase(std::unique(rows.begin(), rows.end()), rows.end());
+  recorder_rows_ = rows;
+  recorder_counts_.assign(ranks_, 0);
+  for (int j : rows) {  // a ghost row belongs to the rank whose halo lands in it
+    int owner = 0;
+    for (int r = 0; r < ranks_; ++r) {
+      int lo, hi;
+      parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
+      if ((j >= lo || r == 0) && (j < hi || r == ranks_ - 1)) owner = r;
+    }
+    recorder_counts_[owner] += static_cast<int>(6 * g_.stride * sizeof(R));
+  }
+  recorder_buf_.assign(rows.size() * 6 * g_.stride, R(0));
+  for (long s : snaps_.plan.steps) whole_steps_.push_back(s), whole_steps_.push_back(s - 1);
+  std::sort(whole_steps_.begin(), whole_steps_.end());
+  bytes_ += (4 * n + recorder_buf_.size()) * sizeof(R);
+  // gather_state's blocks: each rank's whole rows, the ghost rows -1 and ny with the first and last rank
+  state_counts_.assign(ranks_, 0), work_counts_.assign(ranks_, 0);
+  for (int r = 0; r < ranks_; ++r) {
+    int lo, hi;
+    parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
+    work_counts_[r] = (hi - lo) * static_cast<int>(sizeof(double));
+    if (r == 0) lo = -1;
+    if (r == ranks_ - 1) hi = g_.ny + 1;
+    state_counts_[r] = static_cast<int>((hi - lo) * g_.stride * sizeof(R));
+  }
+}
+
+template <class R>
+void Simulation<R>::step_slab() {
+  compute_emitters();
+  const long s = g_.stride;
+  const size_t bytes = halo_e_in_.size() * sizeof(R);
+  auto pack = [&](const std::array<int, 3>& list, int j, R* to) {
+    for (int q = 0; q < 3 && list[q] >= 0; ++q)
+      std::memcpy(to + q * s, f_[list[q]].data() + g_.row_begin(j), s * sizeof(R));
+  };
+  auto unpack = [&](const std::array<int, 3>& list, int j, const R* from) {
+    for (int q = 0; q < 3 && list[q] >= 0; ++q)
+      std::memcpy(f_[list[q]].data() + g_.row_begin(j), from + q * s, s * sizeof(R));
+  };
+  if (up_ >= 0) parallel::receive_bytes(halo_e_in_.data(), bytes, up_, kTagE, halo_req_[0]);
+  if (down_ >= 0) {
+    pack(kHaloE, row0_, halo_e_out_.data());
+    parallel::send_bytes(halo_e_out_.data(), bytes, down_, kTagE, halo_req_[1]);
+    parallel::receive_bytes(halo_h_in_.data(), bytes, down_, kTagH, halo_req_[2]);
+  }
+  if (up_ >= 0) {
+    halo_req_[0].wait();
+    unpack(kHaloE, row1_, halo_e_in_.data());  // row ny is the ghost row of a periodic seam
+  }
+  const int rows = row1_ - row0_;
+#pragma omp parallel num_threads(threads_)
+  {
+    int a, b;
+    block_rows(rows, omp_get_thread_num(), omp_get_num_threads(), a, b);
+    a += row0_, b += row0_;
+    if (b > a) h_row(b - 1);
+#pragma omp barrier
+#pragma omp master
+    if (up_ >= 0) {
+      pack(kHaloH, row1_ - 1, halo_h_out_.data());
+      parallel::send_bytes(halo_h_out_.data(), bytes, up_, kTagH, halo_req_[3]);
+    }
+    if (a == row0_ && b > a) {  // the first block (the main thread's): E(lo) last, after the H halo
+      for (int j = a; j < b - 1; ++j) {
+        h_row(j);
+        if (j > a) e_row(j);
+      }
+      if (b - 1 > a) e_row(b - 1);
+      if (down_ >= 0) {
+        halo_req_[2].wait();
+        unpack(kHaloH, row0_ - 1, halo_h_in_.data());  // row -1 is the ghost row of a periodic seam
+      }
+      e_row(a);
+    } else {
+      for (int j = a; j < b - 1; ++j) {
+        h_row(j);
+        e_row(j);
+      }
+      if (b > a) e_row(b - 1);
+    }
+  }
+  halo_req_[1].wait();
+  halo_req_[3].wait();
+  ++n_;
+}
+
+template <class R>
+void Simulation<R>::gather_for_recorders(long k) {
+  if (std::binary_search(whole_steps_.begin(), whole_steps_.end(), k)) return gather_state();
+  if (recorder_rows_.empty()) return;
+  const long s = g_.stride;
+  const auto mine = [&](int j) { return (j >= row0_ || rank_ == 0) && (j < row1_ || rank_ == ranks_ - 1); };
+  R* buf = recorder_buf_.data();
+  size_t at = 0;
+  for (int j : recorder_rows_) {
+    if (mine(j))
+      for (int c = 0; c < 6; ++c) std::memcpy(buf + at + c * s, f_[c].data() + g_.row_begin(j), s * sizeof(R));
+    at += 6 * s;
+  }
+  // rows are sorted and slabs ascend with rank, so each rank's rows are one block in order
+  parallel::allgather_bytes(buf, recorder_counts_);
+  at = 0;
+  for (int j : recorder_rows_) {
+    if (!mine(j))
+      for (int c = 0; c < 6; ++c) std::memcpy(f_[c].data() + g_.row_begin(j), buf + at + c * s, s * sizeof(R));
+    at += 6 * s;
+  }
+}
+
+template <class R>
+void Simulation<R>::gather_state() {
+  if (ranks_ == 1) return;
+  for (int c = 0; c < 6; ++c) parallel::allgather_bytes(f_[c].data(), state_counts_);
+  parallel::allgather_bytes(injected_.data(), work_counts_);
+}
+
+#define TY_SLAB_STEP(R)                                    \
+  template void Simulation<R>::build_slabs();              \
+  template void Simulation<R>::step_slab();                \
+  template void Simulation<R>::gather_for_recorders(long); \
+  template void Simulation<R>::gather_state();
+TY_SLAB_STEP(float)
+TY_SLAB_STEP(double)
+#undef TY_SLAB_STEP
+
+}  // namespace ty

@@ -1,0 +1,66 @@
+/// \file check_ranks.cpp
+/// \brief `terayee check SCENE --ranks P`: how a run over P MPI ranks would cut the grid
+/// (slabs of whole rows, solver/parallel/slabs.h) and what crosses the cuts every step,
+/// with the communication time of a step on two typical networks (the model of
+/// docs/parallel.md: a message costs latency + bytes / bandwidth).
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <iostream>
+#include <tuple>
+
+#include "io/scene/scene_reader.h"
+#include "solver/grid/yee_grid.h"
+#include "solver/parallel/slabs.h"
+#include "tools/commands.h"
+
+namespace ty {
+
+int check_ranks(const std::string& path, const std::vector<std::string>& sets, int P) {
+  const Scene s = read_scene(path, sets);
+  const YeeGrid g = grid_for(s, 8);
+  const int b = s.time.precision == Precision::single ? 4 : 8;
+  const bool wrap = s.grid.by == Boundary::periodic;
+  std::cout << fmt::format("ranks: {} slab{} of whole rows over {} rows of {} cells", P, P == 1 ? "" : "s", g.ny, g.nx);
+  if (P == 1) {
+    std::cout << ": one process, nothing crosses\n";
+    return 0;
+  }
+  int lo, hi, fewest = g.ny;
+  std::cout << "\n";
+  for (int r = 0; r < P; ++r) {
+    parallel::slab_rows(g.ny, r, P, lo, hi);
+    fewest = std::min(fewest, hi - lo);
+    if (r < 4 || r == P - 1)
+      std::cout << fmt::format("  rank {}: rows {}..{} ({} rows)\n", r, lo, hi - 1, hi - lo);
+    else if (r == 4)
+      std::cout << "  ...\n";
+  }
+  const int cuts = P - 1 + (wrap ? 1 : 0);
+  const long per_cut = parallel::halo_bytes_per_cut(g.stride, b);
+  std::cout << fmt::format(
+      "  halo per step: {} cut{}{}, each {} bytes ({} E rows down, {} H rows up, {} values a row with its ghost "
+      "columns and padding); {} bytes in all, at most {} bytes in and out of one rank\n",
+      cuts, cuts == 1 ? "" : "s", wrap ? " (the periodic y seam is one of them)" : "", per_cut,
+      parallel::halo_components(true), parallel::halo_components(false), g.stride, per_cut * cuts,
+      std::min(cuts, 2) * per_cut);
+  // a rank waits for one message a step (the E rows; the H rows travel behind the interior update)
+  const double rank_bytes = 0.5 * per_cut;  // one rank's E exchange with its neighbour: Ex and Ez rows
+  for (const auto& [name, latency, bandwidth] :
+       {std::tuple{"a node's shared memory", 0.5e-6, 5e9}, std::tuple{"InfiniBand-class (2 us, 12 GB/s)", 2e-6, 12e9},
+        std::tuple{"10 Gb Ethernet (20 us, 1.2 GB/s)", 20e-6, 1.2e9}})
+    std::cout << fmt::format("  exposed halo time per step on {}: about {:.3g} us\n", name,
+                             1e6 * (latency + rank_bytes / bandwidth));
+  if (fewest < parallel::kMinRowsPerRank)
+    std::cout << fmt::format("  refused: a rank would hold {} row{}; {} ranks need at least {} rows\n", fewest,
+                             fewest == 1 ? "" : "s", P, P * parallel::kMinRowsPerRank);
+  for (const Body& body : s.bodies)
+    if (s.media.at(body.medium).magnet) {
+      std::cout << fmt::format("  refused: medium '{}' is magnetic, and magnetic cells are not yet split over ranks\n",
+                               s.media.at(body.medium).name);
+      break;
+    }
+  return 0;
+}
+
+}  // namespace ty
