@@ -25,6 +25,7 @@
 
 #include "io/scene/scene.h"
 #include "solver/grid/aligned.h"
+#include "solver/grid/boundaries/bloch.h"
 #include "solver/grid/boundaries/boundaries.h"
 #include "solver/grid/cpml.h"
 #include "solver/grid/yee_grid.h"
@@ -46,8 +47,11 @@ inline void block_rows(int n, int t, int nt, int& lo, int& hi) {
 template <class R>
 class Simulation {
  public:
-  /// threads = 0: the scene's setting (or all cores when that is auto).
-  explicit Simulation(const Scene& scene, int threads = 0);
+  /// threads = 0: the scene's setting (or all cores when that is auto). With Bloch x sides
+  /// (bloch.h) it builds and owns the sine copy too, and steps both.
+  explicit Simulation(const Scene& scene, int threads = 0) : Simulation(scene, threads, 0) {}
+  /// The sine copy of a scene with Bloch sides (its power-spectrum lines only), else null.
+  const Simulation* sine_copy() const { return twin_.get(); }
 
   const YeeGrid& grid() const { return g_; }
   const Scene& scene() const { return scene_; }
@@ -110,6 +114,7 @@ class Simulation {
     snaps_.visit_state(f);
     stop_.visit_state(f);
     f("guard/injected-work", injected_.data(), injected_.size());
+    if (twin_) twin_->visit_state([&f](const std::string& name, auto* data, auto count) { f("sine/" + name, data, count); });
     f("clock/steps", &n_, 1);
     for (auto& p : probes_) p.count = n_;
     for (auto& fl : power_spectra_) fl.steps = n_;
@@ -130,7 +135,10 @@ class Simulation {
   bool find_nonfinite(int& i, int& j, Component& c) const;
 
   std::vector<ProbeRecorder>& probes() { return probes_; }
-  const std::vector<PowerSpectrumRecorder>& power_spectra() const { return power_spectra_; }
+  /// With Bloch sides, the complex field's lines: each sum is the cosine copy's plus i times
+  /// the sine copy's (the sums are linear in the field), so the power through a line is that
+  /// of the wave exp(i k_x x) alone at each positive frequency.
+  const std::vector<PowerSpectrumRecorder>& power_spectra() const;
   const std::vector<SpectralMap>& spectral_maps() const { return maps_; }
   const SnapshotPlan& snapshot_plan() const { return snaps_.plan; }
   void set_snapshot_sink(SnapshotSink* sink) { sink_ = sink; }
@@ -205,6 +213,18 @@ class Simulation {
   std::vector<long> mag_tilted_;                  // per thread (every 8th): cell steps by the midpoint rule
   std::size_t bytes_ = 0;
   std::vector<std::string> warnings_, notes_;
+  // Bloch sides (bloch.h): the sine copy, owned by the cosine copy and stepped with it
+  std::unique_ptr<Simulation> twin_;
+  int copy_ = 0;  // 0: the cosine (or only) copy, 1: the sine copy
+  bloch::Phase phase_;
+  mutable std::vector<PowerSpectrumRecorder> joined_;
+
+  Simulation(const Scene& scene, int threads, int copy);
+  /// The step of a Bloch pair (bloch_pair.cpp): step_fused's sweep over both copies in
+  /// lock-step, the seam's ghosts written from both.
+  void step_pair();
+  void build_bloch_pair();
+  void pair_h_row(int j);
 
   void build_media(std::vector<double> (&cb)[3]);
   void node_coefficients(int c, int i, int j, double& a, double& b, std::vector<DispersiveNode>& out) const;
