@@ -19,8 +19,10 @@
 #pragma once
 #include <array>
 #include <complex>
+#include <functional>
 #include <memory>
 #include <string>
+#include <type_traits>
 #include <vector>
 
 #include "io/scene/scene.h"
@@ -114,13 +116,31 @@ class Simulation {
     snaps_.visit_state(f);
     stop_.visit_state(f);
     f("guard/injected-work", injected_.data(), injected_.size());
-    if (twin_) twin_->visit_state([&f](const std::string& name, auto* data, auto count) { f("sine/" + name, data, count); });
+    if (twin_) {  // the sine copy's, under sine/ (one visitor type, so the template stops here)
+      StateVisitor sine{[&f](const std::string& n, R* p, std::size_t k) { f("sine/" + n, p, k); },
+                        [&f](const std::string& n, double* p, std::size_t k) { f("sine/" + n, p, k); },
+                        [&f](const std::string& n, long* p, std::size_t k) { f("sine/" + n, p, k); }};
+      twin_->visit_state(sine);
+    }
     f("clock/steps", &n_, 1);
     for (auto& p : probes_) p.count = n_;
     for (auto& fl : power_spectra_) fl.steps = n_;
     for (auto& m : maps_) m.steps = n_;
     mag_.latest = static_cast<int>(n_ & 1);
   }
+  /// A visit_state visitor behind one type: the Bloch pair's cosine copy hands its sine copy
+  /// this, prefixing the names.
+  struct StateVisitor {
+    std::function<void(const std::string&, R*, std::size_t)> r;
+    std::function<void(const std::string&, double*, std::size_t)> d;
+    std::function<void(const std::string&, long*, std::size_t)> l;
+    template <class T>
+    void operator()(const std::string& n, T* p, std::size_t k) {
+      if constexpr (std::is_same_v<T, long>) l(n, p, k);
+      else if constexpr (std::is_same_v<T, double>) d(n, p, k);
+      else r(n, p, k);
+    }
+  };
   /// An upper bound of the energy the sources have put into the grid so far, J/m: the sum
   /// over every injection of the size of the change of its node's energy,
   /// (eps/2)|(F + v)^2 - F^2| dx dy (the signed sum swings with the reactive near field);

@@ -109,6 +109,17 @@ int plot_bloch_map(const RenderOptions& o, const std::string& dir) {
     for (double k : ks) z.push_back(by_k[k][fi]);
     for (double th : ma.x) ma.z.push_back(interpolate(ks, z, two_pi * freq[fi] * std::sin(th) / c0));
   }
+  // keep the angles the sweep reaches at some frequency
+  const size_t na = ma.x.size(), nf = freq.size();
+  size_t lo = na, hi = 0;
+  for (size_t a = 0; a < na; ++a)
+    for (size_t fi = 0; fi < nf; ++fi)
+      if (std::isfinite(ma.z[fi * na + a])) lo = std::min(lo, a), hi = std::max(hi, a);
+  if (lo > hi) throw BadInput(fmt::format("{}: error: the swept wavenumbers reach no angle at these frequencies", file));
+  std::vector<double> x(ma.x.begin() + lo, ma.x.begin() + hi + 1), z;
+  for (size_t fi = 0; fi < nf; ++fi)
+    for (size_t a = lo; a <= hi; ++a) z.push_back(ma.z[fi * na + a]);
+  ma.x = x, ma.z = z;
   ma.title = fmt::format("{} over the angle in vacuum and frequency", column);
   ma.xlabel = "angle from the normal (deg)", ma.ylabel = "frequency (THz)", ma.zlabel = column;
   ma.x_scale = 180 / constants::pi, ma.y_scale = 1e-12;

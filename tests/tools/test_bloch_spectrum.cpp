@@ -78,8 +78,8 @@ TEST_CASE("measure spectrum under Bloch sides: a half-space's R(f) at one k_x is
       const double s = ty::constants::c0 * kx / (2 * ty::constants::pi * r[0]);
       worst = std::max(worst, std::abs(r[1] - fresnel_R(pol == "Ez", n, s)));
     }
-    MESSAGE(pol << " wave: worst |R - R_Fresnel| " << worst << " over " << rows.size() << " frequencies, 0.6-1.3 THz");
-    CHECK(rows.size() == 15);
+    MESSAGE(pol << " wave: worst |R - R_Fresnel| " << worst << " over " << rows.size() << " frequencies, 0.7-1.3 THz");
+    CHECK(rows.size() == 13);
     CHECK(worst < 0.003);
   }
 }
@@ -106,9 +106,9 @@ TEST_CASE("a sweep over the Bloch wavenumber drawn as R(f, theta)") {
     if (std::abs(c[0]) < 1e-9) worst = std::max(worst, std::abs(c[2] - 1.0 / 9.0)), ++at_normal;
   }
   MESSAGE("bloch-map: " << filled << " cells filled, worst |R - 1/9| at normal incidence " << worst);
-  CHECK(at_normal == 15);
+  CHECK(at_normal == 13);
   CHECK(worst < 0.003);
-  CHECK(filled > 15);
+  CHECK(filled > 13);
 }
 
 TEST_CASE("bloch sides: refused along y, with magnets, and without a wavenumber") {

@@ -177,7 +177,7 @@ void SceneBuilder::read_boundaries(const YAML::Node& g) {
       if (b["y"])
         if (auto v = r_.choice<Boundary>(b["y"], "boundaries.y", opts)) {
           if (*v == Boundary::bloch) r_.error(b["y"], "'bloch' sides are along x only (the wavenumber is k_x)");
-          G.by = *v;
+          else G.by = *v;
         }
     }
   }
