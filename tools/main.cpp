@@ -195,7 +195,7 @@ int main(int argc, char** argv) {
   rd->add_option("--format", ro.format, "Stills and plots: png, pdf or svg");
   rd->add_option("--out", ro.out, "Folder for the pictures (default RUN/pictures)");
   rd->add_option("--plot", ro.plot, "A plot instead: spectrum, probes, shift, focus, or sweep or bloch-map (RUN is then a sweep's folder)")
-      ->check(CLI::IsMember({"spectrum", "probes", "shift", "focus", "sweep"}));
+      ->check(CLI::IsMember({"spectrum", "probes", "shift", "focus", "sweep", "bloch-map"}));
   rd->add_option("--predicted", ro.predicted,
                  "With --plot spectrum: a CSV written by `terayee medium --csv`; with --plot sweep: a CSV of the swept "
                  "value and the predicted number (SI), drawn dashed");

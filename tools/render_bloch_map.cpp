@@ -74,14 +74,15 @@ int plot_bloch_map(const RenderOptions& o, const std::string& dir) {
   std::map<double, std::vector<double>> by_k;
   std::vector<double> freq;
   for (const auto& p : j["points"]) {
-    const std::string name = p.value("name", ""), text = p["swept"].value(kKey, "");
+    const std::string name = p.value("point", ""), text = p["swept"].value(kKey, "");
     char* end = nullptr;
     const double k = std::strtod(text.c_str(), &end);
     std::vector<double> f, v;
     if (end == text.c_str() || !read_spectrum(fs::path(o.run) / "points" / name / "spectrum.csv", column, f, v))
-      throw BadInput(fmt::format("{}: error: point '{}' has no {} in points/{}/spectrum.csv (measure each point with "
-                                 "--measure \"spectrum --reference auto\")",
-                                 file, name, column, name));
+      throw BadInput(
+          fmt::format("{}: error: point '{}' has no {} in points/{}/spectrum.csv (measure each point with "
+                      "--measure \"spectrum --reference auto\")",
+                      file, name, column, name));
     if (freq.empty()) freq = f;
     if (f != freq) throw BadInput(fmt::format("{}: error: point '{}' has another band than the others", file, name));
     by_k[k] = v;
@@ -115,7 +116,8 @@ int plot_bloch_map(const RenderOptions& o, const std::string& dir) {
   for (size_t a = 0; a < na; ++a)
     for (size_t fi = 0; fi < nf; ++fi)
       if (std::isfinite(ma.z[fi * na + a])) lo = std::min(lo, a), hi = std::max(hi, a);
-  if (lo > hi) throw BadInput(fmt::format("{}: error: the swept wavenumbers reach no angle at these frequencies", file));
+  if (lo > hi)
+    throw BadInput(fmt::format("{}: error: the swept wavenumbers reach no angle at these frequencies", file));
   std::vector<double> x(ma.x.begin() + lo, ma.x.begin() + hi + 1), z;
   for (size_t fi = 0; fi < nf; ++fi)
     for (size_t a = lo; a <= hi; ++a) z.push_back(ma.z[fi * na + a]);

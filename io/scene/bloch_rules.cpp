@@ -16,8 +16,9 @@ void check_bloch(const Scene& s, Diagnostics& d) {
                            "use periodic sides at normal incidence, or a non-magnetic model of the medium");
   for (const auto& src : s.sources)
     if (src.kind != Source::Kind::point && std::abs(std::cos(src.angle)) > 1e-9)
-      d.error(src.where, "bloch sides: a plane wave or beam must travel along +y or -y; the sides set its "
-                         "transverse wavenumber k_x (grid.bloch)");
+      d.error(src.where,
+              "bloch sides: a plane wave or beam must travel along +y or -y; the sides set its "
+              "transverse wavenumber k_x (grid.bloch)");
 }
 
 }  // namespace ty

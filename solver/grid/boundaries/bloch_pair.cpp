@@ -14,13 +14,12 @@
 /// Magnetic cells are refused (io/scene/validation.cpp): the cells' gather and scatter reach
 /// across the seam in their own copy, and the midpoint step of tilted cells is not linear, so
 /// the copies would no longer combine into one complex solution.
+#include <fmt/format.h>
 #include <omp.h>
 
 #include <algorithm>
 #include <cmath>
 #include <stdexcept>
-
-#include <fmt/format.h>
 
 #include "io/scene/units.h"
 #include "solver/simulation.h"
@@ -38,9 +37,10 @@ void Simulation<R>::build_bloch_pair() {
   std::erase_if(sine.outputs, [](const Output& o) { return o.kind != Output::Kind::power_spectrum; });
   twin_.reset(new Simulation(sine, threads_, 1));
   bytes_ += twin_->bytes_;
-  notes_.push_back(fmt::format("bloch sides: k_x = {:.6g} rad/m (phase {:.6g} rad across the {:.6g} m cell); "
-                               "a second (sine) copy of the fields doubles the work",
-                               scene_.grid.bloch_kx, kl, g_.nx * g_.dx));
+  notes_.push_back(
+      fmt::format("bloch sides: k_x = {:.6g} rad/m (phase {:.6g} rad across the {:.6g} m cell); "
+                  "a second (sine) copy of the fields doubles the work",
+                  scene_.grid.bloch_kx, kl, g_.nx * g_.dx));
 }
 
 template <class R>
@@ -99,10 +99,10 @@ const std::vector<PowerSpectrumRecorder>& Simulation<R>::power_spectra() const {
   return joined_;
 }
 
-#define TY_BLOCH_PAIR(R)                                                                 \
-  template void Simulation<R>::build_bloch_pair();                                      \
-  template void Simulation<R>::pair_h_row(int);                                         \
-  template void Simulation<R>::step_pair();                                             \
+#define TY_BLOCH_PAIR(R)                           \
+  template void Simulation<R>::build_bloch_pair(); \
+  template void Simulation<R>::pair_h_row(int);    \
+  template void Simulation<R>::step_pair();        \
   template const std::vector<PowerSpectrumRecorder>& Simulation<R>::power_spectra() const;
 TY_BLOCH_PAIR(float)
 TY_BLOCH_PAIR(double)

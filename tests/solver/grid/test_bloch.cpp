@@ -114,11 +114,11 @@ TEST_CASE("Bloch sides: Fresnel reflection of a broadband pulse at one k_x, both
       if (!checked) fmin = f;
       fmax = f, ++checked;
     }
-    MESSAGE(std::string(component_name(pol)) << " wave, eps 4, k_x at 30 deg at 1 THz: worst | |r| - Fresnel | = " << worst
-                                << " over " << fmin / 1e12 << "-" << fmax / 1e12 << " THz (theta "
-                                << std::asin(constants::c0 * kx / (2 * constants::pi * fmax)) * 180 / constants::pi
-                                << "-" << std::asin(constants::c0 * kx / (2 * constants::pi * fmin)) * 180 / constants::pi
-                                << " deg)");
+    MESSAGE(std::string(component_name(pol))
+            << " wave, eps 4, k_x at 30 deg at 1 THz: worst | |r| - Fresnel | = " << worst << " over " << fmin / 1e12
+            << "-" << fmax / 1e12 << " THz (theta "
+            << std::asin(constants::c0 * kx / (2 * constants::pi * fmax)) * 180 / constants::pi << "-"
+            << std::asin(constants::c0 * kx / (2 * constants::pi * fmin)) * 180 / constants::pi << " deg)");
     // measured: 0.005 (Ez) and 0.0065 (Hz), largest at the band's low end; a pulse with
     // much of its spectrum at or below the light line c k_x / 2 pi (0.5 THz here) leaves
     // grazing waves that ring through the run and gave 0.04-0.08 over this band
@@ -144,7 +144,8 @@ TEST_CASE("Bloch sides at k_x = 0 are the periodic sides bit for bit") {
     CHECK(differ == 0);
     double sine = 0;  // the sine copy has no source and stays zero
     for (int j = 0; j < kNy; ++j)
-      for (int i = 0; i < kNx; ++i) sine = std::max(sine, std::abs(bloch.sine_copy()->field(pol)[bloch.grid().at(i, j)]));
+      for (int i = 0; i < kNx; ++i)
+        sine = std::max(sine, std::abs(bloch.sine_copy()->field(pol)[bloch.grid().at(i, j)]));
     CHECK(sine == 0);
   }
 }
