@@ -18,7 +18,7 @@ using constants::c0;
 using constants::eta0;
 
 template <class R>
-Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
+Simulation<R>::Simulation(const Scene& scene, int threads, int copy) : scene_(scene), copy_(copy) {
   const GridSpec& G = scene.grid;
   g_ = grid_for(scene, static_cast<int>(64 / sizeof(R)));
   total_steps_ = steps_for(scene, g_);
@@ -42,6 +42,7 @@ Simulation<R>::Simulation(const Scene& scene, int threads) : scene_(scene) {
   stop_ = StopRule(scene.time.auto_stop, plan, power_spectra_, maps_);
   // a magnetic cell costs about 7 vacuum cells (docs/magnets.md): 1 + 6 more
   if (chosen <= 0) threads_ = threads_for_work(double(g_.nx) * g_.ny + 6.0 * mag_.count(), threads_);
+  if (walls_.bloch_x) build_bloch_pair();
 }
 
 template <class R>
@@ -167,7 +168,7 @@ void Simulation<R>::e_row_update(int j) {
 
 template <class R>
 void Simulation<R>::step() {
-  if (ranks_ > 1) step_slab(); else if (mag_.empty()) step_fused(); else step_magnetic();
+  if (ranks_ > 1) step_slab(); else if (twin_) step_pair(); else if (mag_.empty()) step_fused(); else step_magnetic();
 }
 
 template <class R>
@@ -204,6 +205,7 @@ void Simulation<R>::record() {
   for (auto& m : maps_) m.record(k, total_steps_, F, g_, threads_);
   const std::vector<int> no_cells;
   snaps_.record(k, F, g_, mag_.empty() ? no_cells : mag_.cell_of, value, sink_);
+  if (twin_) twin_->record();
 }
 
 template <class R>

@@ -19,12 +19,15 @@
 #pragma once
 #include <array>
 #include <complex>
+#include <functional>
 #include <memory>
 #include <string>
+#include <type_traits>
 #include <vector>
 
 #include "io/scene/scene.h"
 #include "solver/grid/aligned.h"
+#include "solver/grid/boundaries/bloch.h"
 #include "solver/grid/boundaries/boundaries.h"
 #include "solver/grid/cpml.h"
 #include "solver/grid/yee_grid.h"
@@ -47,8 +50,11 @@ inline void block_rows(int n, int t, int nt, int& lo, int& hi) {
 template <class R>
 class Simulation {
  public:
-  /// threads = 0: the scene's setting (or all cores when that is auto).
-  explicit Simulation(const Scene& scene, int threads = 0);
+  /// threads = 0: the scene's setting (or all cores when that is auto). With Bloch x sides
+  /// (bloch.h) it builds and owns the sine copy too, and steps both.
+  explicit Simulation(const Scene& scene, int threads = 0) : Simulation(scene, threads, 0) {}
+  /// The sine copy of a scene with Bloch sides (its power-spectrum lines only), else null.
+  const Simulation* sine_copy() const { return twin_.get(); }
 
   const YeeGrid& grid() const { return g_; }
   const Scene& scene() const { return scene_; }
@@ -119,12 +125,31 @@ class Simulation {
     snaps_.visit_state(f);
     stop_.visit_state(f);
     f("guard/injected-work", injected_.data(), injected_.size());
+    if (twin_) {  // the sine copy's, under sine/ (one visitor type, so the template stops here)
+      StateVisitor sine{[&f](const std::string& n, R* p, std::size_t k) { f("sine/" + n, p, k); },
+                        [&f](const std::string& n, double* p, std::size_t k) { f("sine/" + n, p, k); },
+                        [&f](const std::string& n, long* p, std::size_t k) { f("sine/" + n, p, k); }};
+      twin_->visit_state(sine);
+    }
     f("clock/steps", &n_, 1);
     for (auto& p : probes_) p.count = n_;
     for (auto& fl : power_spectra_) fl.steps = n_;
     for (auto& m : maps_) m.steps = n_;
     mag_.latest = static_cast<int>(n_ & 1);
   }
+  /// A visit_state visitor behind one type: the Bloch pair's cosine copy hands its sine copy
+  /// this, prefixing the names.
+  struct StateVisitor {
+    std::function<void(const std::string&, R*, std::size_t)> r;
+    std::function<void(const std::string&, double*, std::size_t)> d;
+    std::function<void(const std::string&, long*, std::size_t)> l;
+    template <class T>
+    void operator()(const std::string& n, T* p, std::size_t k) {
+      if constexpr (std::is_same_v<T, long>) l(n, p, k);
+      else if constexpr (std::is_same_v<T, double>) d(n, p, k);
+      else r(n, p, k);
+    }
+  };
   /// An upper bound of the energy the sources have put into the grid so far, J/m: the sum
   /// over every injection of the size of the change of its node's energy,
   /// (eps/2)|(F + v)^2 - F^2| dx dy (the signed sum swings with the reactive near field);
@@ -139,7 +164,10 @@ class Simulation {
   bool find_nonfinite(int& i, int& j, Component& c) const;
 
   std::vector<ProbeRecorder>& probes() { return probes_; }
-  const std::vector<PowerSpectrumRecorder>& power_spectra() const { return power_spectra_; }
+  /// With Bloch sides, the complex field's lines: each sum is the cosine copy's plus i times
+  /// the sine copy's (the sums are linear in the field), so the power through a line is that
+  /// of the wave exp(i k_x x) alone at each positive frequency.
+  const std::vector<PowerSpectrumRecorder>& power_spectra() const;
   const std::vector<SpectralMap>& spectral_maps() const { return maps_; }
   const SnapshotPlan& snapshot_plan() const { return snaps_.plan; }
   void set_snapshot_sink(SnapshotSink* sink) { sink_ = sink; }
@@ -224,6 +252,18 @@ class Simulation {
   std::vector<R> recorder_buf_;
   std::vector<int> state_counts_, work_counts_;  // gather_state's bytes per rank
   std::vector<long> whole_steps_;  // steps after which a recorder reads the whole grid (snapshots)
+  // Bloch sides (bloch.h): the sine copy, owned by the cosine copy and stepped with it
+  std::unique_ptr<Simulation> twin_;
+  int copy_ = 0;  // 0: the cosine (or only) copy, 1: the sine copy
+  bloch::Phase phase_;
+  mutable std::vector<PowerSpectrumRecorder> joined_;
+
+  Simulation(const Scene& scene, int threads, int copy);
+  /// The step of a Bloch pair (bloch_pair.cpp): step_fused's sweep over both copies in
+  /// lock-step, the seam's ghosts written from both.
+  void step_pair();
+  void build_bloch_pair();
+  void pair_h_row(int j);
 
   void build_media(std::vector<double> (&cb)[3]);
   void node_coefficients(int c, int i, int j, double& a, double& b, std::vector<DispersiveNode>& out) const;

@@ -79,6 +79,9 @@ int render_command(const RenderOptions& o);
 int render_plot(const RenderOptions& o, const std::string& out_dir);
 /// `render DIR --plot sweep`: a sweep's results column against a swept value (render_sweep.cpp).
 int plot_sweep(const RenderOptions& o, const std::string& out_dir);
+/// `render DIR --plot bloch-map`: a sweep over the Bloch wavenumber as maps over frequency and
+/// k_x, and over frequency and angle (render_bloch_map.cpp).
+int plot_bloch_map(const RenderOptions& o, const std::string& out_dir);
 /// The layout file written beside a still: FILE.png -> FILE-layout.json.
 std::string plot_layout_path(const std::string& picture);
 /// `terayee sweep` (tools/sweep_command.cpp).

@@ -203,13 +203,13 @@ int main(int argc, char** argv) {
   rd->add_option("--size", ro.size, "The field panel's longer side, px")->check(CLI::Range(100, 8000));
   rd->add_option("--format", ro.format, "Stills and plots: png, pdf or svg");
   rd->add_option("--out", ro.out, "Folder for the pictures (default RUN/pictures)");
-  rd->add_option("--plot", ro.plot, "A plot instead: spectrum, probes, shift, focus, or sweep (RUN is then a sweep's folder)")
-      ->check(CLI::IsMember({"spectrum", "probes", "shift", "focus", "sweep"}));
+  rd->add_option("--plot", ro.plot, "A plot instead: spectrum, probes, shift, focus, or sweep or bloch-map (RUN is then a sweep's folder)")
+      ->check(CLI::IsMember({"spectrum", "probes", "shift", "focus", "sweep", "bloch-map"}));
   rd->add_option("--predicted", ro.predicted,
                  "With --plot spectrum: a CSV written by `terayee medium --csv`; with --plot sweep: a CSV of the swept "
                  "value and the predicted number (SI), drawn dashed");
   rd->add_option("--x", ro.x_key, "With --plot sweep: the swept key across");
-  rd->add_option("--y", ro.y_column, "With --plot sweep: the results column drawn (one line per value of the other keys)");
+  rd->add_option("--y", ro.y_column, "With --plot sweep: the results column drawn (one line per value of the other keys); with --plot bloch-map: reflectance (default) or transmittance");
   rd->add_flag("--with-map", ro.with_map, "With --plot sweep over two keys: also the column in colour over both");
 
   ty::SweepOptions sw;

@@ -327,6 +327,11 @@ std::string plot_layout_path(const std::string& picture) {
 }
 
 int render_command(const RenderOptions& o) {
+  if (o.plot == "bloch-map") {
+    if (o.format != "png" && o.format != "pdf" && o.format != "svg")
+      throw BadInput("terayee render: error: --format is png, pdf or svg");
+    return plot_bloch_map(o, o.out.empty() ? o.run + "/pictures" : o.out);
+  }
   if (o.plot == "sweep") {
     if (o.format != "png" && o.format != "pdf" && o.format != "svg")
       throw BadInput("terayee render: error: --format is png, pdf or svg");

@@ -270,6 +270,8 @@ void refuse_over_ranks(const Scene& scene, const RunOptions& o) {
                                 scene.media.at(b.medium).name));
       break;
     }
+  if (scene.grid.bx == Boundary::bloch || scene.grid.by == Boundary::bloch)
+    why.push_back("Bloch sides: their sine copy is not yet split over ranks");
   const YeeGrid g = grid_for(scene, 8);
   if (g.ny < P * parallel::kMinRowsPerRank)
     why.push_back(fmt::format("the grid has {} rows: {} ranks need at least {} ({} each)", g.ny, P,

@@ -24,6 +24,7 @@ const char* boundary_name(Boundary b) {
     case Boundary::periodic: return "periodic";
     case Boundary::electric_wall: return "electric-wall";
     case Boundary::magnetic_wall: return "magnetic-wall";
+    case Boundary::bloch: return "bloch";
   }
   return "?";
 }

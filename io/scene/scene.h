@@ -25,7 +25,9 @@ enum class Component : int { Ex = 0, Ey, Ez, Hx, Hy, Hz };
 const char* component_name(Component c);
 inline bool is_electric(Component c) { return static_cast<int>(c) < 3; }
 
-enum class Boundary { absorbing, periodic, electric_wall, magnetic_wall };
+/// bloch: periodic up to the phase exp(i k_x L_x) at the fixed transverse wavenumber
+/// GridSpec::bloch_kx (x sides only; solver/grid/boundaries/bloch.h).
+enum class Boundary { absorbing, periodic, electric_wall, magnetic_wall, bloch };
 const char* boundary_name(Boundary b);
 
 /// The absorbing layers. Two kinds: the convolutional PML (Roden & Gedney 2000):
@@ -56,6 +58,7 @@ struct GridSpec {
   Boundary bx = Boundary::absorbing, by = Boundary::absorbing;
   Absorber absorber;
   bool origin_corner = false;
+  double bloch_kx = 0;  ///< rad/m, the transverse wavenumber of `bloch` x sides
   Mark where;  ///< the `grid` section
 };
 

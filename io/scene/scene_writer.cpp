@@ -132,6 +132,9 @@ void grid_section(YAML::Emitter& e, const Scene& s) {
   vec2(e, {s.grid.dx, s.grid.dy}, Kind::length);
   e << YAML::Key << "boundaries" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "x" << YAML::Value
     << boundary_name(s.grid.bx) << YAML::Key << "y" << YAML::Value << boundary_name(s.grid.by) << YAML::EndMap;
+  if (s.grid.bx == Boundary::bloch)
+    e << YAML::Key << "bloch" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "wavenumber"
+      << YAML::Value << s.grid.bloch_kx << YAML::EndMap;
   const Absorber& a = s.grid.absorber;
   e << YAML::Key << "absorber" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "kind" << YAML::Value
     << (a.kind == Absorber::Kind::pml ? "pml" : a.kind == Absorber::Kind::graded ? "graded" : "auto") << YAML::Key

@@ -10,6 +10,7 @@
 #include <climits>
 #include <cmath>
 
+#include "io/scene/bloch_rules.h"
 #include "io/scene/constants.h"
 #include "io/scene/medium_lookup.h"
 
@@ -186,6 +187,7 @@ std::vector<std::string> validate_scene(const Scene& s, double memory_limit) {
   check_placement(s, d);
   if (d.empty()) check_launch(s, d);
   check_auto_stop(s, d);
+  check_bloch(s, d);
   d.throw_if_any();
   std::vector<std::string> w;
   warn_plane_sides(s, w);

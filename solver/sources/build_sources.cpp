@@ -26,6 +26,10 @@ template <class R>
 void Simulation<R>::add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau,
                                   int signal) {
   if (i < 0 || i >= g_.nx || j < 0 || j >= g_.ny) return;
+  // Bloch sides: every source runs as exp(i k_x x), its real part in the cosine copy and its
+  // imaginary part in the sine copy (bloch.h); k_x = 0 elsewhere, a factor of exactly 1
+  const double phase = scene_.grid.bloch_kx * g_.x(c, i);
+  A *= copy_ == 0 ? std::cos(phase) : std::sin(phase);
   const int slot = static_cast<int>(emitters_.size());
   emitters_.push_back({A, tau, signal, h_phase});
   (h_phase ? inj_h_ : inj_e_).push_back({g_.at(i, j), static_cast<int>(c), j, slot, 0.0});
@@ -140,7 +144,7 @@ void Simulation<R>::add_launch_sheet(const Source& src, int sig, const std::vect
     const double pos = xline ? g_.x(c, i) : g_.y(c, j);
     return fwd * (pos - x0) >= -0.25 * cell;
   };
-  const bool periodic_along = xline ? walls_.periodic_y : walls_.periodic_x;
+  const bool periodic_along = xline ? walls_.periodic_y : walls_.periodic_x || walls_.bloch_x;
   const double span = xline ? s.grid.extent.y : s.grid.extent.x;
   auto in_span = [&](Component c, int i, int j) {
     if (periodic_along) return true;

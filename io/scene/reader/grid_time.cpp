@@ -10,6 +10,7 @@
 namespace ty::reader {
 
 using constants::c0;
+using constants::pi;
 
 void SceneBuilder::prescan_sources(const YAML::Node& list) {
   Diagnostics quiet;  // errors are reported by read_source
@@ -51,7 +52,7 @@ void SceneBuilder::prescan_sources(const YAML::Node& list) {
 }
 
 void SceneBuilder::read_grid(const YAML::Node& g) {
-  r_.allow(g, {"extent", "cell", "cells-per-wavelength", "boundaries", "absorber", "origin"}, "grid");
+  r_.allow(g, {"extent", "cell", "cells-per-wavelength", "boundaries", "bloch", "absorber", "origin"}, "grid");
   GridSpec& G = scene_.grid;
   r_.require(g, "extent", "grid");
   G.where = r_.mark(g["extent"] ? g["extent"] : g);
@@ -131,6 +132,35 @@ bool SceneBuilder::read_cell(const YAML::Node& g) {
   return ok;
 }
 
+/// `bloch: {wavenumber: K}` (rad/m) or `bloch: {angle: A, at: F}` (k_x = 2 pi F sin(A) / c,
+/// the wavenumber of a plane wave in vacuum at angle A from the y axis at frequency F).
+void SceneBuilder::read_bloch(const YAML::Node& g) {
+  GridSpec& G = scene_.grid;
+  const auto& k = g["bloch"];
+  if (!k) {
+    if (G.bx == Boundary::bloch) r_.error(g["boundaries"], "'bloch' sides need 'grid.bloch' (wavenumber, or angle and at)");
+    return;
+  }
+  if (G.bx != Boundary::bloch) r_.error(k, "'grid.bloch' needs 'boundaries: {x: bloch}'");
+  if (!r_.is_map(k, "bloch")) return;
+  r_.allow(k, {"wavenumber", "angle", "at"}, "bloch");
+  if (k["wavenumber"] && (k["angle"] || k["at"])) {
+    r_.error(k, "'bloch': give either 'wavenumber' or 'angle' and 'at', not both");
+  } else if (k["wavenumber"]) {
+    if (auto v = r_.quantity(k["wavenumber"], "bloch.wavenumber", Kind::dimensionless)) G.bloch_kx = *v;
+  } else if (k["angle"] && k["at"]) {
+    const auto a = r_.quantity(k["angle"], "bloch.angle", Kind::angle);
+    const auto f = r_.quantity(k["at"], "bloch.at", Kind::frequency);
+    if (a && f) {
+      if (!(std::abs(*a) < 0.5 * pi)) r_.error(k["angle"], "'bloch.angle' must lie strictly between -90 and 90 deg");
+      if (!(*f > 0)) r_.error(k["at"], "'bloch.at' must be a positive frequency");
+      G.bloch_kx = 2 * pi * *f * std::sin(*a) / c0;
+    }
+  } else {
+    r_.error(k, "'bloch' needs 'wavenumber' (rad/m), or 'angle' and 'at' (a frequency)");
+  }
+}
+
 void SceneBuilder::read_boundaries(const YAML::Node& g) {
   GridSpec& G = scene_.grid;
   if (const auto& b = g["boundaries"]) {
@@ -140,13 +170,18 @@ void SceneBuilder::read_boundaries(const YAML::Node& g) {
           {"absorbing", Boundary::absorbing},
           {"periodic", Boundary::periodic},
           {"electric-wall", Boundary::electric_wall},
-          {"magnetic-wall", Boundary::magnetic_wall}};
+          {"magnetic-wall", Boundary::magnetic_wall},
+          {"bloch", Boundary::bloch}};
       if (b["x"])
         if (auto v = r_.choice<Boundary>(b["x"], "boundaries.x", opts)) G.bx = *v;
       if (b["y"])
-        if (auto v = r_.choice<Boundary>(b["y"], "boundaries.y", opts)) G.by = *v;
+        if (auto v = r_.choice<Boundary>(b["y"], "boundaries.y", opts)) {
+          if (*v == Boundary::bloch) r_.error(b["y"], "'bloch' sides are along x only (the wavenumber is k_x)");
+          else G.by = *v;
+        }
     }
   }
+  read_bloch(g);
   if (const auto& a = g["absorber"]) {
     if (r_.is_map(a, "absorber")) {
       r_.allow(a, {"kind", "cells", "grading", "strength", "kappa", "alpha"}, "absorber");

@@ -139,6 +139,7 @@ class SceneBuilder {
   void read_grid(const YAML::Node& g);
   bool read_cell(const YAML::Node& g);
   void read_boundaries(const YAML::Node& g);
+  void read_bloch(const YAML::Node& g);
   void read_time(const YAML::Node& t);
   void read_auto_stop(const YAML::Node& t);  ///< `stop: auto` and its keys
   // bodies.cpp

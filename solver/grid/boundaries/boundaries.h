@@ -10,6 +10,8 @@
 ///   before H of row j:    before_h_row (periodic x: E ghost column nx)
 ///   after all H of row j: after_h_row (magnetic walls; periodic x: H ghost columns)
 ///   before E of row 0:    before_first_e_row (periodic y: H row ny-1 to the ghost row -1)
+/// Bloch x sides (bloch.h) join two copies of the fields: Simulation::step_pair writes their
+/// ghosts at the points where the periodic x side writes its own; these hooks leave them.
 #pragma once
 #include <vector>
 
@@ -25,12 +27,14 @@ struct Boundaries {
   bool periodic_x = false, periodic_y = false;
   bool electric_x = false, electric_y = false;
   bool magnetic_x = false, magnetic_y = false;
+  bool bloch_x = false;
 
   static Boundaries of(const GridSpec& G) {
     Boundaries b;
     b.periodic_x = G.bx == Boundary::periodic, b.periodic_y = G.by == Boundary::periodic;
     b.electric_x = G.bx == Boundary::electric_wall, b.electric_y = G.by == Boundary::electric_wall;
     b.magnetic_x = G.bx == Boundary::magnetic_wall, b.magnetic_y = G.by == Boundary::magnetic_wall;
+    b.bloch_x = G.bx == Boundary::bloch;
     return b;
   }
 

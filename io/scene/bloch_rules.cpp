@@ -1,0 +1,24 @@
+/// \file bloch_rules.cpp
+/// \brief The rules of scenes with Bloch x sides (bloch_rules.h).
+#include "io/scene/bloch_rules.h"
+
+#include <cmath>
+
+namespace ty {
+
+void check_bloch(const Scene& s, Diagnostics& d) {
+  if (s.grid.bx != Boundary::bloch) return;
+  for (const auto& b : s.bodies)
+    if (s.media[b.medium].magnet)
+      d.error(b.where, "bloch sides: the magnetic medium '" + s.media[b.medium].name +
+                           "' is not supported with bloch sides (the sine and cosine copies are exact for a "
+                           "linear medium only, and the magnetic cells are not paired across the seam); "
+                           "use periodic sides at normal incidence, or a non-magnetic model of the medium");
+  for (const auto& src : s.sources)
+    if (src.kind != Source::Kind::point && std::abs(std::cos(src.angle)) > 1e-9)
+      d.error(src.where,
+              "bloch sides: a plane wave or beam must travel along +y or -y; the sides set its "
+              "transverse wavenumber k_x (grid.bloch)");
+}
+
+}  // namespace ty
