@@ -7,9 +7,10 @@
 /// the focus 1.02 mm behind the far face with a 0.64 mm FWHM across it (the paraxial
 /// b = |rho| d - a, rho = sqrt(mu_xx/eps) Re(1/mu_yy), says 1.74 mm: loss and the wide
 /// angles of a source this close move the focus in). The run's `measure focus` must find
-/// the focus behind the plate, where the prediction puts it within the 25 um grid's error,
-/// measured at 21% in the focal distance and 9% in the spot (12.5 um cells: 8% and 4%; the
-/// error falls with the cell, docs in the study's README), so the test allows 30% and 15%.
+/// the focus behind the plate, where the prediction puts it within the 25 um grid's error:
+/// measured 1.9% short in the focal distance and 0.2% in the spot (the earlier gather of G H
+/// to the magnetic cells: 18% and 6%, solver/media/magnetic_cells.h), so the test allows
+/// issue 12's 5% in both.
 #include <doctest/doctest.h>
 
 #include <filesystem>
@@ -39,8 +40,8 @@ TEST_CASE("slab-lens study: the focus lies where the transfer matrix puts it") {
                    << " mm, " << p_across * 1e6 << " um; paraxial " << img["paraxial"].get<double>() * 1e3 << " mm");
   CHECK(p_at > 0.5e-3);  // a real image behind the plate, not the face
   CHECK(std::abs(f["peak-position"][0].get<double>()) < 25e-6);  // on the axis
-  CHECK(std::abs(at / p_at - 1) < 0.30);
-  CHECK(std::abs(across / p_across - 1) < 0.15);
+  CHECK(std::abs(at / p_at - 1) < 0.05);
+  CHECK(std::abs(across / p_across - 1) < 0.05);
   fs::remove_all(run);
   fs::remove(pred);
 }
@@ -77,7 +78,6 @@ TEST_CASE("slab-lens convergence: focal distance at 25, 20 and 12.5 um cells" * 
   const double p1 = std::log(std::abs(err[0] / err[1])) / std::log(h[0] / h[1]);
   const double p2 = std::log(std::abs(err[1] / err[2])) / std::log(h[1] / h[2]);
   MESSAGE("observed order " << std::to_string(p1) << " (25/20 um), " << p2 << " (20/12.5 um)");
-  CHECK(std::abs(err[0]) < 0.05);  // issue 12's target at 25 um
-  CHECK(std::abs(err[2]) < std::abs(err[0]));
+  for (double e : err) CHECK(std::abs(e) < 0.05);  // issue 12's target, at 25 um and finer
   fs::remove(pred);
 }

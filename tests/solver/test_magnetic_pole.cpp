@@ -14,6 +14,7 @@
 
 #include "io/scene/scene_reader.h"
 #include "materials/magnetic/linear_response.h"
+#include "materials/magnetic/state_choice.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
 
@@ -27,8 +28,8 @@ constexpr double kProbe = -1.35e-3;  // behind the one-sided launch line at -1.2
 double predicted_R(const Scene& s, double f) {
   const Medium& m = s.media[0];
   const MagnetModel M(*m.magnet, s.bias);
-  const auto gs = find_ground_states(M);
-  const Mat3c mu = Mat3c::Identity() + susceptibility(M, gs.ground, 2 * constants::pi * f);
+  const MagneticState st = choose_state(*m.magnet, s.bias).state;  // the state the solver starts in
+  const Mat3c mu = Mat3c::Identity() + susceptibility(M, st, 2 * constants::pi * f);
   const std::complex<double> muv = voigt_permeability(mu, 0);
   std::complex<double> n2 = std::sqrt(m.permittivity[2] * muv);
   if (n2.imag() < 0) n2 = -n2;  // the transmitted wave decays away from the interface
@@ -50,10 +51,10 @@ Result reflectance(double cell) {
   Scene ref = s;
   ref.bodies.clear();
   double dt = 0;
-  auto series = [&](const Scene& sc, double x) {
+  auto series = [&](const Scene& sc, double x) {  // x in the scene file's coordinates
     Simulation<double> sim(sc, 2);
     dt = sim.grid().dt;
-    return test::probe_series(sim, Component::Ez, {x, 0.0}, sim.total_steps());
+    return test::probe_series(sim, Component::Ez, {x + sc.origin_shift.x, sc.origin_shift.y}, sim.total_steps());
   };
   const auto reflected = series(s, kProbe), incident = series(ref, 0.0);
   Result out;
