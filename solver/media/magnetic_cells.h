@@ -17,20 +17,25 @@
 /// boundary keeps equal to Hx(0) (solver/grid/boundaries/periodic.h).
 ///
 /// Time: M and H at half steps. Faraday's law advances B = mu0 (H + M) (h* = H - c dt curl E),
-/// then each cell's magnetization moves from n-1/2 to n+1/2 with the field taken as
-/// varying linearly between b(n-1/2) (gathered before Faraday's law moves H) and
-/// b(n+1/2) = G h* - G P dM, the cell's own share of G P dM (1/2, 1/2, 1) taken inside the
-/// step, its neighbours' share from their previous step (taken off both ends alike); then
-/// H = h* - P dM exactly.
+/// then each cell's magnetization moves from n-1/2 to n+1/2 in the field
+///   b(t) = G B(t) / mu0 - mu0 dM(t)   (dM: the deviation from the ground state),
+/// G B taken as varying linearly between G B(n-1/2) and G B(n+1/2) (the gathered
+/// H plus G P dM(n-1/2) at both ends: gathered before Faraday's law moves H, and G h*), the
+/// cell's own M taken off whole inside the step (self field 1 along x and y; along z G P = 1
+/// and the own reaction does it); then H = h* - P dM exactly. This is the field of the energy
+///   mu0 H^2 / 2 at the nodes + (|mu0 dM|^2 - |P mu0 dM|^2) / (2 mu0) per cell,
+/// non-negative because |P v| <= |v|, so the coupled step keeps its energy bounded
+/// (magnetic_energy() adds the second term).
 ///
-/// Surface cells: on a face between a magnetic cell and a non-magnetic one, the normal
-/// component of H jumps by M (B_n is continuous), and the H node on the face holds the mean
-/// of its two sides, B_n/mu0 - M/2. The cell's field on its side of the face is that less
-/// M/2, so its gathered field is G h less M/4 per such face along the face's normal: a self
-/// field, part of the cell's step (llg_linear.h), like the averaging of the inverse
-/// permittivity for normal E at dielectric interfaces. Without it a gyrotropic surface
-/// reflects with a phase error of first order in the cell (measured: 0.022 rad at 25 um,
-/// 0.010 at 12.5 um, at 292 GHz near an MnF2 line; with it 0.003 and 0.001).
+/// Why not G H alone (the earlier rule): G P is not the identity along x and y, so a cell saw
+/// its own and its neighbours' M through (1/2, 1/4, 1/4) weights: a longitudinal field
+/// -cos^2(k dx/2) M_x instead of -M_x, which moves the pole of the Voigt permeability
+/// (mu_xx = 0) and made a half-space's reflectance there wrong by far more than the cell
+/// squared (measured in docs/magnets.md); surface cells needed a hand-made self field of M/4
+/// per face. With b = G B / mu0 - M the
+/// demagnetizing field of a plane wave (B_x = 0: H_x = -M_x) and of a uniformly magnetized
+/// surface cell (B_n continuous) are exact, and only B is interpolated (cos(k dx / 2)).
+///
 /// Absorbing layers: a side whose layer holds magnetic cells takes the graded loss on E and
 /// H (solver/grid/graded_loss.h), the cells' own step unchanged; a PML there can amplify the backward waves a hyperbolic or
 /// negative-permeability medium carries (Becache, Fauqueux & Joly, J. Comput. Phys. 188,
@@ -41,6 +46,7 @@
 /// read and write contiguous stretches of the field rows and the solver can move a row's
 /// cells in the same sweep as the row's fields.
 #pragma once
+#include <array>
 #include <vector>
 
 #include "materials/magnetic/cell_step.h"
@@ -71,11 +77,21 @@ struct MagneticCells {
   std::vector<CellStep> steps;
   std::vector<MagnetModel> models;
   std::vector<MagneticState> ground;
+  /// mu0 Ms of each sublattice (0 for a missing second one) and the ground state's net mu0 M
+  /// (T): mu0 (M - M_ground) = mu[0] m1 + mu[1] m2 - net_ground
+  std::vector<std::array<double, 5>> net;
   std::vector<int> cell_of;  ///< grid cell (j * nx + i) -> list index, -1 if not magnetic
   int longest_row = 0;  ///< most cells in one row
 
   long count() const { return static_cast<long>(ci.size()); }
   bool empty() const { return ci.empty(); }
+
+  /// mu0 (M - M_ground) along c (0, 1, 2) of cell k in the state m[p]; 0 for k = count()
+  double deviation(int p, int c, long k) const {
+    if (k == count()) return 0.0;
+    const std::array<double, 5>& a = net[medium[k]];
+    return a[0] * m[p][c][k] + a[1] * m[p][3 + c][k] - a[2 + c];
+  }
 
   /// The largest angle (rad) between a sublattice and its ground-state direction over the
   /// cells inside (absorber = true) or outside the absorbing layers (npx, npy cells a side of

@@ -7,7 +7,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <map>
 
 #include "io/scene/medium_lookup.h"
 #include "io/scene/units.h"
@@ -42,7 +41,6 @@ void Simulation<R>::build_magnets() {
   const Scene& s = scene_;
   MagneticCells& M = mag_;
   const int nx = g_.nx, ny = g_.ny;
-  const std::array<double, 3> own{0.5, 0.5, 1.0};  // the cell's own share of G P
   M.cell_of.assign(static_cast<size_t>(nx) * ny, -1);
   std::vector<int> slot_of_medium(s.media.size(), -1);
   std::vector<double> f_max_of;
@@ -58,6 +56,9 @@ void Simulation<R>::build_magnets() {
     const auto f = resonances(M.models.back(), M.ground.back());
     const double f_max = f.empty() ? M.models.back().gamma[0] * 1.0 / (2 * constants::pi) : f.back();
     f_max_of.push_back(f_max);
+    const MagnetModel& mm = M.models.back();
+    const Vec3 mg = mm.net(M.ground.back().m);
+    M.net.push_back({mm.mu[0], mm.n == 2 ? mm.mu[1] : 0.0, mg[0], mg[1], mg[2]});
     notes_.push_back(fmt::format("magnetic medium '{}': starts in {}; cells tilted past {:g} rad take the "
                                  "midpoint rule in {} sub-step{} per time step",
                                  s.media[k].name, chosen.how, CellStep::kTilt,
@@ -75,31 +76,21 @@ void Simulation<R>::build_magnets() {
       const int med = medium_at(s, {g_.x(Component::Hz, i), g_.y(Component::Hz, j)});
       if (med >= 0) slot[static_cast<size_t>(j) * nx + i] = slot_of_medium[med];
     }
-  // Faces on a non-magnetic neighbour: there the normal component of H jumps by M, and the
-  // H node on the face holds the mean of its two sides; the cell's field is its inner side,
-  // G h less 1/4 of the cell's own M per such face along the face's normal (magnetic_cells.h).
-  auto outside = [&](int i, int j) {  // a neighbouring cell of the grid that is not magnetic
-    if (!walls_.neighbour(i, j, nx, ny)) return false;  // the body runs on through the absorber
-    return slot[static_cast<size_t>(j) * nx + i] < 0;
-  };
-  // The absorbing layers need no change to the magnets: a side whose layer holds magnetic
-  // cells takes the graded loss, in which nothing amplifies (solver/grid/graded_loss.h).
-  std::map<std::array<int, 3>, int> step_of;  // (medium, faces along x and y) -> M.steps
-  auto step_for = [&](int med, int fx, int fy) {
-    const auto key = std::array<int, 3>{med, fx, fy};
-    if (auto it = step_of.find(key); it != step_of.end()) return it->second;
-    const std::array<double, 3> self{0.25 * fx, 0.25 * fy, 0.0};
-    M.steps.push_back(CellStep::from(M.models[med], M.ground[med], g_.dt, f_max_of[med], own, self));
-    return step_of[key] = static_cast<int>(M.steps.size()) - 1;
-  };
-  // cells row by row, left to right; a run per stretch of one step (medium, faces)
+  // The cell's field is G B / mu0 - mu0 dM (magnetic_cells.h): along x and y its own M is a
+  // self field of 1, along z (G P = 1) its own reaction; one step per medium, whatever the
+  // cell's neighbours (a surface cell needs no term of its own). The absorbing layers need no
+  // change to the magnets: a side whose layer holds magnetic cells takes the graded loss, in
+  // which nothing amplifies (solver/grid/graded_loss.h).
+  for (size_t med = 0; med < M.models.size(); ++med)
+    M.steps.push_back(CellStep::from(M.models[med], M.ground[med], g_.dt, f_max_of[med], {0.0, 0.0, 1.0},
+                                     {1.0, 1.0, 0.0}));
+  // cells row by row, left to right; a run per stretch of one medium
   for (int j = 0; j < ny; ++j) {
     M.row_runs[j] = static_cast<int>(M.runs.size());
     int prev = -1;
     for (int i = 0; i < nx; ++i) {
       const int med = slot[static_cast<size_t>(j) * nx + i];
-      const int st = med < 0 ? -1
-                             : step_for(med, outside(i - 1, j) + outside(i + 1, j), outside(i, j - 1) + outside(i, j + 1));
+      const int st = med;
       if (st >= 0) {
         if (st != prev) M.runs.push_back({i, i, M.count(), st});
         M.runs.back().i1 = i + 1;
@@ -184,35 +175,25 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
   const R* hy = f_[4].data() + o;
   R* hz = f_[5].data() + o;
   const R* hy_up = hy_above(j);
-  const double *dxp = M.dM[prev][0].data(), *dyp = M.dM[prev][1].data();
   const double *dx = M.dM[cur][0].data(), *dz = M.dM[cur][2].data();
   for (int r = r0; r < r1; ++r) {
     const MagneticCells::Run& run = M.runs[r];
     const long k0 = run.k0, len = run.i1 - run.i0;
     const int i0 = run.i0;
-    // b(n-1/2) = G H(n-1/2) as gathered, b(n+1/2) = G h* - share, the share being the
-    // neighbours' part of G P dM from their previous step (1/4 of each neighbour's change
-    // along the component's axis); left and right neighbours inside a run are k -+ 1
-    const int *D = M.down.data() + k0, *U = M.up.data() + k0;
+    // b(n-1/2) = G H(n-1/2) as gathered before Faraday's law, b(n+1/2) = G h*, each plus
+    // G P (mu0 dM(n-1/2)): G B / mu0 at the step's ends (B is what Faraday's law moves); the
+    // cell's own M comes off whole inside the step (magnetic_cells.h). Left and right
+    // neighbours inside a run are k -+ 1, at its ends they come from the list.
+    const int *D = M.down.data() + k0, *U = M.up.data() + k0, *L = M.left.data() + k0, *Rt = M.right.data() + k0;
     const double *o0 = old + (k0 - first), *o1 = o0 + w, *o2 = o1 + w;
-#pragma omp simd
     for (long q = 0; q < len; ++q) {
-      const long i = i0 + q;
-      const double sy = 0.25 * (dyp[D[q]] + dyp[U[q]]);
-      b0[0][q] = o0[q], b0[1][q] = o1[q], b0[2][q] = o2[q];
-      gather(hx, hy, hy_up, hz, i, b1[0][q], b1[1][q], b1[2][q]);
-      b1[1][q] -= sy;
-    }
-    const double* xp = dxp + k0;
-#pragma omp simd
-    for (long q = 1; q < len - 1; ++q) {
-      b1[0][q] -= 0.25 * (xp[q - 1] + xp[q + 1]);
-    }
-    for (long q : {0L, len - 1}) {  // the run's ends find their neighbours along x through the list
-      const double sx = 0.25 * (dxp[q > 0 ? k0 + q - 1 : M.left[k0]] + dxp[q < len - 1 ? k0 + q + 1 : M.right[k0 + q]]);
-      double by, bz;
-      gather(hx, hy, hy_up, hz, i0 + q, b1[0][q], by, bz);
-      b1[0][q] -= sx;
+      const long k = k0 + q;
+      const double vx = 0.5 * M.deviation(prev, 0, k) +
+                        0.25 * (M.deviation(prev, 0, q > 0 ? k - 1 : L[q]) + M.deviation(prev, 0, q < len - 1 ? k + 1 : Rt[q]));
+      const double vy = 0.5 * M.deviation(prev, 1, k) + 0.25 * (M.deviation(prev, 1, D[q]) + M.deviation(prev, 1, U[q]));
+      gather(hx, hy, hy_up, hz, i0 + q, b1[0][q], b1[1][q], b1[2][q]);
+      b0[0][q] = o0[q] + vx, b0[1][q] = o1[q] + vy, b0[2][q] = o2[q];
+      b1[0][q] += vx, b1[1][q] += vy;
     }
     const double* mi[6];
     double* mo[6];
@@ -336,6 +317,24 @@ double Simulation<R>::magnetic_energy() const {
     const auto& s = M.m[M.latest];
     const std::array<Vec3, 2> m{Vec3(s[0][k], s[1][k], s[2][k]), Vec3(s[3][k], s[4][k], s[5][k])};
     e += mm.energy(m) - M.ground[M.medium[k]].energy;
+  }
+  {
+    // the cells' own field G B / mu0 - M holds the energy (|M|^2 - |P M|^2) / 2 beside
+    // mu0 H^2 / 2 at the nodes (magnetic_cells.h): along x and y, each face node once
+    const int p = M.latest;
+    const long none = M.count();
+    for (long k = 0; k < M.count(); ++k) {
+      const double mx = M.deviation(p, 0, k), my = M.deviation(p, 1, k);
+      e += 0.5 * (mx * mx + my * my);
+      auto face = [&](int c, long other) {
+        const double v = 0.5 * (M.deviation(p, c, k) + M.deviation(p, c, other));
+        e -= 0.5 * v * v;
+      };
+      face(0, M.left[k]);
+      face(1, M.down[k]);
+      if (M.right[k] == none && (M.ci[k] + 1 < g_.nx || walls_.periodic_x)) face(0, none);
+      if (M.up[k] == none && (M.cj[k] + 1 < g_.ny || walls_.periodic_y)) face(1, none);
+    }
   }
   return e / constants::mu0 * g_.dx * g_.dy;
 }

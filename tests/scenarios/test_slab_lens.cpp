@@ -7,9 +7,10 @@
 /// the focus 1.02 mm behind the far face with a 0.64 mm FWHM across it (the paraxial
 /// b = |rho| d - a, rho = sqrt(mu_xx/eps) Re(1/mu_yy), says 1.74 mm: loss and the wide
 /// angles of a source this close move the focus in). The run's `measure focus` must find
-/// the focus behind the plate, where the prediction puts it within the 25 um grid's error,
-/// measured at 21% in the focal distance and 9% in the spot (12.5 um cells: 8% and 4%; the
-/// error falls with the cell, docs in the study's README), so the test allows 30% and 15%.
+/// the focus behind the plate, where the prediction puts it within the 25 um grid's error:
+/// measured 1.9% short in the focal distance and 0.2% in the spot (the earlier gather of G H
+/// to the magnetic cells: 18% and 6%, solver/media/magnetic_cells.h), so the test allows
+/// issue 12's 5% in both.
 #include <doctest/doctest.h>
 
 #include <filesystem>
@@ -39,8 +40,44 @@ TEST_CASE("slab-lens study: the focus lies where the transfer matrix puts it") {
                    << " mm, " << p_across * 1e6 << " um; paraxial " << img["paraxial"].get<double>() * 1e3 << " mm");
   CHECK(p_at > 0.5e-3);  // a real image behind the plate, not the face
   CHECK(std::abs(f["peak-position"][0].get<double>()) < 25e-6);  // on the axis
-  CHECK(std::abs(at / p_at - 1) < 0.30);
-  CHECK(std::abs(across / p_across - 1) < 0.15);
+  CHECK(std::abs(at / p_at - 1) < 0.05);
+  CHECK(std::abs(across / p_across - 1) < 0.05);
   fs::remove_all(run);
+  fs::remove(pred);
+}
+
+// The convergence of the focal distance with the cell (long: the 12.5 um run alone takes
+// about half an hour on 2 cores; skipped by default):
+//   ./build/terayee_studies -tc="slab-lens convergence*" --no-skip
+// The face and the source sit on nodes at every size here (they divide 0.25 mm), so the
+// error is the grid's own; the order comes from three sizes in the ratio 1 : 0.8 : 0.5.
+TEST_CASE("slab-lens convergence: focal distance at 25, 20 and 12.5 um cells" * doctest::skip()) {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/slab-lens/slab-lens.yaml";
+  const std::string bin = TERAYEE_BINARY;
+  const fs::path pred = fs::temp_directory_path() / "terayee-test-slab-lens-conv.json";
+  REQUIRE(shell(bin + " medium '" + scene + "' --medium mnf2 --from '262.5 GHz' --to '262.5 GHz' --count 1 "
+                      "--thickness '3 mm' --source-distance '0.25 mm' --image-range '4 mm' --json '" + pred.string() +
+                      "'") == 0);
+  const double p_at = read_json(pred.string())["rows"][0]["image"]["focus"].get<double>();
+  std::vector<double> h, err;
+  for (double cell : {25.0, 20.0, 12.5}) {
+    const fs::path run = fs::temp_directory_path() / ("terayee-test-slab-lens-" + std::to_string(int(cell * 10)));
+    fs::remove_all(run);
+    REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet --set 'grid.cell=" +
+                  std::to_string(cell) + " um'") == 0);
+    REQUIRE(shell(bin + " measure focus '" + run.string() + "' --map image --axis y --face '1 mm'") == 0);
+    const double at = read_json((run / "focus.json").string())["distance-from-face"].get<double>();
+    h.push_back(cell);
+    err.push_back(at / p_at - 1);
+    MESSAGE(std::to_string(cell) << " um: focus " << at * 1e3 << " mm behind the plate, prediction " << p_at * 1e3 << " mm, error "
+                 << 100 * err.back() << "%");
+    fs::remove_all(run);
+  }
+  // observed order from the two finer pairs (Roache, Verification and Validation in
+  // Computational Science and Engineering, 1998: p = ln(e1/e2)/ln(h1/h2) for each pair)
+  const double p1 = std::log(std::abs(err[0] / err[1])) / std::log(h[0] / h[1]);
+  const double p2 = std::log(std::abs(err[1] / err[2])) / std::log(h[1] / h[2]);
+  MESSAGE("observed order " << std::to_string(p1) << " (25/20 um), " << p2 << " (20/12.5 um)");
+  for (double e : err) CHECK(std::abs(e) < 0.05);  // issue 12's target, at 25 um and finer
   fs::remove(pred);
 }

@@ -31,8 +31,10 @@ void check_quiet(const AbsorberCase& c) {
       o.tilt_out, o.energy_end / o.injected, o.steps, o.guard.empty() ? "" : "; guard: " + o.guard));
   CHECK(o.guard.empty());
   // the measured energy (E at n, H at n-1/2) swings by O(w dt) about the conserved one, a
-  // few 1e-3 at 50 um; growth would be orders of magnitude more
-  if (!c.cw) CHECK(o.rise < 1e-2);
+  // few 1e-3 at 50 um (1.1e-2 and 1.3e-2 at 250 GHz since the cells' energy holds their own
+  // field's share, solver/media/magnetic_cells.h, with the end energy 6e-4 and 4e-4 of the
+  // injected); growth would be orders of magnitude more
+  if (!c.cw) CHECK(o.rise < 2e-2);
   CHECK(o.tilt_in <= o.tilt_out);
   CHECK(o.energy_end < o.injected);
 }
