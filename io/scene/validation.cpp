@@ -160,12 +160,6 @@ void check_placement(const Scene& s, Diagnostics& d) {
     b.shape.bounds(lo, hi);
     if (hi.x <= 0 || hi.y <= 0 || lo.x >= e.x || lo.y >= e.y)
       d.error(b.where, "the body lies wholly outside the grid's extent");
-    const Medium& m = s.media[b.medium];
-    if (m.tensor && !m.tensor->diagonal_in_plane())
-      d.error(b.where, fmt::format("the body's medium '{}' has its in-plane axes u, v rotated off x and y with "
-                                   "u and v unlike: the time stepping holds only eps_xy = 0 (rotate a multiple "
-                                   "of 90 deg); `terayee medium` takes any rotation",
-                                   m.name));
   }
   for (const auto& src : s.sources) {
     if (src.kind == Source::Kind::point && !inside(src.at))
