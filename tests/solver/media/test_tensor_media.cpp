@@ -154,7 +154,6 @@ TEST_CASE("Tensor media: reflectance of a rotated phonon crystal half-space agai
     const double r_tmm = std::abs(stack_response(st, 2 * pi * f, 0).r[1][1]);
     const double measured = std::abs(test::dft(refl, dt, f) / test::dft(inc, dt, f));
     worst = std::max(worst, std::abs(measured - r));
-    if (std::getenv("TY_DEBUG")) printf("%g %g %g\n", f / 1e12, r, measured);
     worst_tmm = std::max(worst_tmm, std::abs(r_tmm - r));
     lo = std::min(lo, measured), hi = std::max(hi, measured);
     ++checked;
