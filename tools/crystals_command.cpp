@@ -48,10 +48,12 @@ void show(const Crystal& c, double t) {
                              p.term.f_to / 1e12, p.term.delta_eps, p.term.damping / 1e12);
   if (!c.phonons.empty()) {
     std::string bg;
-    for (int k = 0; k < 3; ++k) bg += fmt::format("{}{} {:g}", k ? ", " : "", "abc"[k], crystal_axis_model(c, k).eps_inf);
-    std::cout << fmt::format("  a medium naming {} takes them: a dispersive permittivity, background {} (the static "
-                             "value less the phonons' strengths); 'permittivity' beside 'crystal' replaces it\n",
-                             c.name, bg);
+    for (int k = 0; k < 3; ++k)
+      bg += fmt::format("{}{} {:g}", k ? ", " : "", "abc"[k], crystal_axis_model(c, k).eps_inf);
+    std::cout << fmt::format(
+        "  a medium naming {} takes them: a dispersive permittivity, background {} (the static "
+        "value less the phonons' strengths); 'permittivity' beside 'crystal' replaces it\n",
+        c.name, bg);
   }
   if (!c.note.empty()) std::cout << fmt::format("  note: {}\n", c.note);
   Magnet g = crystal_magnet(c);

@@ -122,8 +122,8 @@ void Simulation<R>::mark_tensor_nodes(std::vector<char> (&in)[2]) const {
     const int si = c == 0 ? 1 : -1, sj = -si;  // the neighbours' offsets (tensor_cells.cpp)
     for (int j = 0; j < ny; ++j)
       for (int i = 0; i < nx; ++i)
-        in[c][size_t(j) * nx + i] = on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) || on(1 - c, i, j + sj) ||
-                                    on(1 - c, i + si, j + sj);
+        in[c][size_t(j) * nx + i] =
+            on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) || on(1 - c, i, j + sj) || on(1 - c, i + si, j + sj);
   }
 }
 
@@ -154,14 +154,15 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
   }
   join_dispersive_nodes(found);
   walls_.hold_e_coefficients(ca, cb, nx, ny);  // electric walls
-  std::vector<TensorNode> tensor_nodes;  // those an electric wall holds stay out
+  std::vector<TensorNode> tensor_nodes;        // those an electric wall holds stay out
   for (auto& row : tensor_found)
     for (auto& t : row)
-      if (ca[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0 && cb[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0)
+      if (ca[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0 &&
+          cb[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0)
         tensor_nodes.push_back(std::move(t));
   tensor_ = join_tensor_nodes(tensor_nodes, g_, s.grid.bx == Boundary::periodic, s.grid.by == Boundary::periodic);
-  bytes_ += tensor_.index.size() * (sizeof(long) + sizeof(int) + 4 * (sizeof(int) + sizeof(long) + sizeof(double)) +
-                                    12 * sizeof(double)) +
+  bytes_ += tensor_.index.size() *
+                (sizeof(long) + sizeof(int) + 4 * (sizeof(int) + sizeof(long) + sizeof(double)) + 12 * sizeof(double)) +
             tensor_.poles.size() * (sizeof(TensorPole) + 2 * sizeof(double));
 
   // run-length rows
@@ -200,7 +201,7 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
 #define TY_INSTANTIATE(R)                                                                                              \
   template void Simulation<R>::build_media(std::vector<double>(&)[3]);                                                 \
   template void Simulation<R>::node_coefficients(int, int, int, double&, double&, std::vector<DispersiveNode>&) const; \
-  template void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>&);          \
+  template void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>&);                       \
   template void Simulation<R>::mark_tensor_nodes(std::vector<char>(&)[2]) const;
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)

@@ -57,14 +57,14 @@ struct TensorNode {
 };
 
 struct TensorCells {
-  std::vector<long> index;  ///< field index of the node
-  std::vector<int> comp;    ///< 0 Ex, 1 Ey
-  std::vector<double> k_own, k_cross;             ///< row comp of K
-  std::vector<double> y_own, y_cross, x_sigma;    ///< row comp of Y + x_s, and x_s
-  std::vector<std::array<int, 4>> nb;             ///< list index of the four neighbours, -1 none
-  std::vector<std::array<long, 4>> nb_field;      ///< their field index, -1 outside the grid
-  std::vector<std::array<double, 4>> w;           ///< pair weights
-  std::vector<int> pole_first;                    ///< poles of node q: [pole_first[q], pole_first[q+1])
+  std::vector<long> index;                      ///< field index of the node
+  std::vector<int> comp;                        ///< 0 Ex, 1 Ey
+  std::vector<double> k_own, k_cross;           ///< row comp of K
+  std::vector<double> y_own, y_cross, x_sigma;  ///< row comp of Y + x_s, and x_s
+  std::vector<std::array<int, 4>> nb;           ///< list index of the four neighbours, -1 none
+  std::vector<std::array<long, 4>> nb_field;    ///< their field index, -1 outside the grid
+  std::vector<std::array<double, 4>> w;         ///< pair weights
+  std::vector<int> pole_first;                  ///< poles of node q: [pole_first[q], pole_first[q+1])
   std::vector<TensorPole> poles;
   std::vector<double> d, e_own, e_other;  ///< state per node: D/eps0 (V/m), E and the other component
   std::vector<double> p, j;               ///< state per pole

@@ -42,7 +42,7 @@ TEST_CASE("crystal phonons: NiO's phonon makes its medium dispersive, eps(0) as 
   for (int c = 0; c < 3; ++c) {
     const PermittivityModel& a = m.tensor->axis[c];
     REQUIRE(a.lorentz.size() == 1);
-    CHECK(a.eps_inf == doctest::Approx(5.7));  // the phonon source's eps_inf (from memory)
+    CHECK(a.eps_inf == doctest::Approx(5.7));                          // the phonon source's eps_inf (from memory)
     CHECK(axis_permittivity(a, 0.0).real() == doctest::Approx(12.0));  // its eps(0)
     CHECK(m.permittivity[c] == doctest::Approx(5.7));                  // the background the time step sees
     const double lo = lo_frequency(a, a.lorentz[0]);
@@ -59,7 +59,8 @@ TEST_CASE("crystal phonons: a permittivity beside the crystal replaces the libra
   const Scene s = read_scene_text(scene_with("    crystal: NiO\n    permittivity: 9\n"), "scene.yaml");
   CHECK(!s.media[0].tensor);
   CHECK(s.media[0].permittivity[1] == doctest::Approx(9));
-  const Scene t = read_scene_text(scene_with("    crystal: MnF2\n    rotation: [30 deg, 0 deg, 0 deg]\n"), "scene.yaml");
+  const Scene t =
+      read_scene_text(scene_with("    crystal: MnF2\n    rotation: [30 deg, 0 deg, 0 deg]\n"), "scene.yaml");
   CHECK(!t.media[0].tensor);  // isotropic and constant: the plain diagonal, as before
   CHECK(t.media[0].permittivity[0] == doctest::Approx(5.5));
 }

@@ -88,8 +88,9 @@ TEST_CASE("Tensor media: the walk-off of the extraordinary beam in a rotated uni
   const PermittivityTensor p = uniaxial(t);
   const Mat3c e = tensor_permittivity(p, 2 * pi * kF);
   const double expected = e(0, 1).real() / e(0, 0).real();  // tan(rho), Born & Wolf sec. 15.2
-  const double ne2 = 6, no2 = 2, yy = (ne2 - no2) * std::sin(t) * std::cos(t) /
-                                     (ne2 * std::cos(t) * std::cos(t) + no2 * std::sin(t) * std::sin(t));
+  const double ne2 = 6, no2 = 2,
+               yy = (ne2 - no2) * std::sin(t) * std::cos(t) /
+                    (ne2 * std::cos(t) * std::cos(t) + no2 * std::sin(t) * std::sin(t));
   CHECK(expected == doctest::Approx(yy).epsilon(1e-12));  // the same closed form, Yariv & Yeh's way
   Scene s = test::box_scene(130, 170, kCell, Boundary::absorbing, Boundary::absorbing, 0.95, 14e-12);
   s.media.push_back(tensor_medium("calcite-like", p));
@@ -105,7 +106,8 @@ TEST_CASE("Tensor media: the walk-off of the extraordinary beam in a rotated uni
   Simulation<double> sim(s, 2);
   REQUIRE(sim.tensor_cells().count() > 0);
   const YeeGrid& g = sim.grid();
-  const int i1 = static_cast<int>(g.fi(Component::Hz, 50 * kCell)), i2 = static_cast<int>(g.fi(Component::Hz, 110 * kCell));
+  const int i1 = static_cast<int>(g.fi(Component::Hz, 50 * kCell)),
+            i2 = static_cast<int>(g.fi(Component::Hz, 110 * kCell));
   const long steps = static_cast<long>(14e-12 / g.dt), tail = static_cast<long>(2 / kF / g.dt);
   std::vector<double> a(g.ny, 0.0), c(g.ny, 0.0);
   for (long n = 0; n < steps; ++n) {
@@ -118,8 +120,8 @@ TEST_CASE("Tensor media: the walk-off of the extraordinary beam in a rotated uni
   }
   const int j0 = g.npml_y, j1 = g.ny - g.npml_y;
   const double dx = (i2 - i1) * kCell, dy = centroid(c, g, j0, j1) - centroid(a, g, j0, j1);
-  MESSAGE("beam centroid moved " << dy * 1e6 << " um over " << dx * 1e6 << " um: tan(rho) " << dy / dx
-                                 << " against " << expected << " (rho " << std::atan(expected) * 180 / pi << " deg)");
+  MESSAGE("beam centroid moved " << dy * 1e6 << " um over " << dx * 1e6 << " um: tan(rho) " << dy / dx << " against "
+                                 << expected << " (rho " << std::atan(expected) * 180 / pi << " deg)");
   CHECK(dy / dx == doctest::Approx(expected).epsilon(0.05));
 }
 
@@ -158,8 +160,8 @@ TEST_CASE("Tensor media: reflectance of a rotated phonon crystal half-space agai
     lo = std::min(lo, measured), hi = std::max(hi, measured);
     ++checked;
   }
-  MESSAGE("worst |r| error " << worst << " over " << checked << " frequencies 4-12 THz (|r| from " << lo << " to "
-                             << hi << "); the 4x4 matrix against the closed form: " << worst_tmm);
+  MESSAGE("worst |r| error " << worst << " over " << checked << " frequencies 4-12 THz (|r| from " << lo << " to " << hi
+                             << "); the 4x4 matrix against the closed form: " << worst_tmm);
   CHECK(checked >= 40);
   CHECK(hi - lo > 0.3);  // the bands stand out
   CHECK(worst < 0.01);
