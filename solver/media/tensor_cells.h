@@ -94,23 +94,27 @@ bool tensor_node(const Scene& s, const YeeGrid& g, int c, int i, int j, TensorNo
 /// (wrapped across the seam of a periodic axis).
 TensorCells join_tensor_nodes(std::vector<TensorNode>& nodes, const YeeGrid& g, bool wrap_x, bool wrap_y);
 
+/// Below this many nodes the passes run on one thread: three parallel regions per step cost
+/// more than the work (and, on a loaded machine, a time slice per barrier).
+constexpr long kSerialNodes = 4096;
+
 template <class R>
 void TensorCells::step(R* const* E, int threads) {
   const long n = count();
   const double a = half_dt;
-#pragma omp parallel for schedule(static) num_threads(threads)
+#pragma omp parallel for schedule(static) num_threads(threads) if (n > kSerialNodes)
   for (long q = 0; q < n; ++q) {  // F = D + g - Q - (Y + x_s) E
     g[q] = static_cast<double>(E[comp[q]][index[q]]) - e_own[q];
     f[q] = d[q] + g[q] - q_of(static_cast<int>(q)) - y_own[q] * e_own[q] - y_cross[q] * e_other[q];
   }
-#pragma omp parallel for schedule(static) num_threads(threads)
+#pragma omp parallel for schedule(static) num_threads(threads) if (n > kSerialNodes)
   for (long q = 0; q < n; ++q) {  // E' = K F, the other component's F averaged
     double e = k_own[q] * f[q];
     for (int m = 0; m < 4; ++m)
       if (nb[q][m] >= 0) e += w[q][m] * f[nb[q][m]];
     E[comp[q]][index[q]] = static_cast<R>(e);
   }
-#pragma omp parallel for schedule(static) num_threads(threads)
+#pragma omp parallel for schedule(static) num_threads(threads) if (n > kSerialNodes)
   for (long q = 0; q < n; ++q) {  // D and the poles with E' + E
     const double own = static_cast<double>(E[comp[q]][index[q]]);
     double other = 0;

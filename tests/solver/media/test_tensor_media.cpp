@@ -122,7 +122,7 @@ TEST_CASE("Tensor media: the walk-off of the extraordinary beam in a rotated uni
   const double dx = (i2 - i1) * kCell, dy = centroid(c, g, j0, j1) - centroid(a, g, j0, j1);
   MESSAGE("beam centroid moved " << dy * 1e6 << " um over " << dx * 1e6 << " um: tan(rho) " << dy / dx << " against "
                                  << expected << " (rho " << std::atan(expected) * 180 / pi << " deg)");
-  CHECK(dy / dx == doctest::Approx(expected).epsilon(0.05));
+  CHECK(dy / dx == doctest::Approx(expected).epsilon(0.02));  // measured 0.4%
 }
 
 TEST_CASE("Tensor media: reflectance of a rotated phonon crystal half-space against Fresnel and the 4x4 matrix") {
