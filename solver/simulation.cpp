@@ -190,6 +190,7 @@ void Simulation<R>::step_fused() {
     }
     if (j1 > j0) e_row(j1 - 1);
   }
+  if (!tensor_.empty()) tensor_.step(F.data(), threads_);  // tensor_cells.h
   ++n_;
 }
 

@@ -33,6 +33,7 @@
 #include "solver/grid/yee_grid.h"
 #include "solver/media/dispersive_cells.h"
 #include "solver/media/magnetic_cells.h"
+#include "solver/media/tensor_cells.h"
 #include "solver/parallel/ranks.h"
 #include "solver/recorders/recorders.h"
 #include "solver/sources/waveform.h"
@@ -99,6 +100,7 @@ class Simulation {
   }
   MagneticCells& magnets() { return mag_; }
   const DispersiveCells& dispersive() const { return disp_; }
+  const TensorCells& tensor_cells() const { return tensor_; }
   /// Value of a magnetic output field (Mx, Lx, dLx, M1x, ...) in list cell k.
   double magnetic_value(const std::string& field, long k) const;
   /// Every piece of state a resumed run needs, one call per array, f(name, data, count),
@@ -119,6 +121,11 @@ class Simulation {
     }
     f("media/polarization", disp_.p.data(), disp_.p.size());
     f("media/polarization-rate", disp_.j.data(), disp_.j.size());
+    f("media/tensor-displacement", tensor_.d.data(), tensor_.d.size());
+    f("media/tensor-e", tensor_.e_own.data(), tensor_.e_own.size());
+    f("media/tensor-e-other", tensor_.e_other.data(), tensor_.e_other.size());
+    f("media/tensor-polarization", tensor_.p.data(), tensor_.p.size());
+    f("media/tensor-polarization-rate", tensor_.j.data(), tensor_.j.size());
     for (auto& p : probes_) p.visit_state(f);
     for (auto& fl : power_spectra_) fl.visit_state(f);
     for (auto& m : maps_) m.visit_state(f);
@@ -238,6 +245,7 @@ class Simulation {
   int map_nx_ = 0, map_ny_ = 0;
   MagneticCells mag_;
   DispersiveCells disp_;
+  TensorCells tensor_;  // in-plane nodes with eps_xy != 0, stepped after the sweep
   std::vector<std::vector<double>> mag_scratch_;  // per thread: b(n+1/2) of one row's cells
   std::vector<long> mag_tilted_;                  // per thread (every 8th): cell steps by the midpoint rule
   std::size_t bytes_ = 0;
@@ -268,6 +276,7 @@ class Simulation {
   void build_media(std::vector<double> (&cb)[3]);
   void node_coefficients(int c, int i, int j, double& a, double& b, std::vector<DispersiveNode>& out) const;
   void join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>& found);
+  void mark_tensor_nodes(std::vector<char> (&in)[2]) const;
   // the absorber's hooks (absorber_hooks.cpp): its strips, and the CPML correction of the
   // H and E updates of row j (Roden & Gedney 2000)
   void build_pml(const std::vector<double> (&cb)[3]);

@@ -6,6 +6,7 @@
 #include <iostream>
 
 #include "io/scene/crystals/crystal_magnet.h"
+#include "io/scene/crystals/crystal_permittivity.h"
 #include "io/scene/diagnostics.h"
 #include "materials/crystals/temperature.h"
 #include "materials/magnetic/linear_response.h"
@@ -41,10 +42,19 @@ void show(const Crystal& c, double t) {
   if (c.lowest > 0) std::cout << fmt::format("  not below {:g} K: {}\n", c.lowest, c.lowest_why);
   const char* axes[3] = {"permittivity a", "permittivity b", "permittivity c"};
   for (int k = 0; k < 3; ++k) line(axes[k], c.permittivity[k], "");
-  std::cout << fmt::format("  phonons (Lorentz terms, for a dispersive permittivity): {}\n", c.phonon_source);
+  std::cout << fmt::format("  phonons (Lorentz terms): {}\n", c.phonon_source);
   for (const auto& p : c.phonons)
     std::cout << fmt::format("    axis {}: f_TO {:g} THz, strength {:g}, damping {:g} THz\n", "abc"[p.axis],
                              p.term.f_to / 1e12, p.term.delta_eps, p.term.damping / 1e12);
+  if (!c.phonons.empty()) {
+    std::string bg;
+    for (int k = 0; k < 3; ++k)
+      bg += fmt::format("{}{} {:g}", k ? ", " : "", "abc"[k], crystal_axis_model(c, k).eps_inf);
+    std::cout << fmt::format(
+        "  a medium naming {} takes them: a dispersive permittivity, background {} (the static "
+        "value less the phonons' strengths); 'permittivity' beside 'crystal' replaces it\n",
+        c.name, bg);
+  }
   if (!c.note.empty()) std::cout << fmt::format("  note: {}\n", c.note);
   Magnet g = crystal_magnet(c);
   if (t >= 0) g.thermal.temperature = t;

@@ -90,10 +90,11 @@ void check_placement(const Scene& s, Diagnostics& d) {
     if (hi.x <= 0 || hi.y <= 0 || lo.x >= e.x || lo.y >= e.y)
       d.error(b.where, "the body lies wholly outside the grid's extent");
     const Medium& m = s.media[b.medium];
-    if (m.tensor && !m.tensor->diagonal_in_plane())
-      d.error(b.where, fmt::format("the body's medium '{}' has its in-plane axes u, v rotated off x and y with "
-                                   "u and v unlike: the time stepping holds only eps_xy = 0 (rotate a multiple "
-                                   "of 90 deg); `terayee medium` takes any rotation",
+    if (m.tensor && !m.tensor->diagonal_in_plane() && m.tensor->dispersive())
+      d.error(b.where, fmt::format("the body's medium '{}' is dispersive with its in-plane axes u, v rotated off x "
+                                   "and y: the time stepping holds rotated tensors only without poles for now (a "
+                                   "lossless one grows without bound); rotate a multiple of 90 deg, or drop the "
+                                   "poles; `terayee medium` takes any rotation",
                                    m.name));
   }
   for (const auto& src : s.sources) {

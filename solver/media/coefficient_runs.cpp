@@ -1,7 +1,8 @@
 /// \file coefficient_runs.cpp
 /// \brief The media of a Simulation as E-update coefficients: each E node's ca, cb from the
 /// medium averaged over its cell (4 x 4 sub-samples; perfect conductors zero both; dispersive
-/// nodes also go to the compact list of solver/media/dispersive_cells.h), then
+/// nodes also go to the compact list of solver/media/dispersive_cells.h; in-plane nodes
+/// where eps_xy != 0, and their neighbours, to solver/media/tensor_cells.h), then
 /// rows of run-length coefficient runs (Run{i0, i1, ca, kx, ky}), a vacuum-like row marked
 /// for the fused constant-coefficient loop; and the medium map of the extent's cells.
 #include <algorithm>
@@ -92,6 +93,40 @@ void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode
             d.poles.size() * (sizeof(AdePole) + 2 * sizeof(double));
 }
 
+/// The in-plane nodes the tensor list steps (tensor_cells.h): those sampling a medium with
+/// eps_xy != 0, and their four neighbours of the other component (the off-diagonal
+/// coupling reaches them); none where no medium is rotated.
+template <class R>
+void Simulation<R>::mark_tensor_nodes(std::vector<char> (&in)[2]) const {
+  const Scene& s = scene_;
+  const int nx = g_.nx, ny = g_.ny;
+  const bool any = std::any_of(s.media.begin(), s.media.end(), [](const Medium& m) {
+    return !m.perfect_conductor && m.tensor && !m.tensor->diagonal_in_plane();
+  });
+  if (!any || s.bodies.empty()) return;
+  std::vector<char> rot[2];
+  for (int c = 0; c < 2; ++c) {
+    rot[c].assign(static_cast<size_t>(nx) * ny, 0);
+#pragma omp parallel for schedule(static) num_threads(threads_)
+    for (int j = 0; j < ny; ++j)
+      for (int i = 0; i < nx; ++i) rot[c][static_cast<size_t>(j) * nx + i] = samples_rotated(s, g_, c, i, j);
+  }
+  const bool wx = s.grid.bx == Boundary::periodic, wy = s.grid.by == Boundary::periodic;
+  auto on = [&](int c, int i, int j) {
+    if (wx) i = (i + nx) % nx;
+    if (wy) j = (j + ny) % ny;
+    return i >= 0 && j >= 0 && i < nx && j < ny && rot[c][size_t(j) * nx + i];
+  };
+  for (int c = 0; c < 2; ++c) {
+    in[c].assign(static_cast<size_t>(nx) * ny, 0);
+    const int si = c == 0 ? 1 : -1, sj = -si;  // the neighbours' offsets (tensor_cells.cpp)
+    for (int j = 0; j < ny; ++j)
+      for (int i = 0; i < nx; ++i)
+        in[c][size_t(j) * nx + i] =
+            on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) || on(1 - c, i, j + sj) || on(1 - c, i + si, j + sj);
+  }
+}
+
 template <class R>
 void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
   const Scene& s = scene_;
@@ -99,6 +134,9 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
   std::vector<double> ca[3];
   // per row, the dispersive nodes found there (joined in row order below)
   std::vector<std::vector<DispersiveNode>> found(ny);
+  std::vector<char> in_tensor[2];  // in-plane nodes stepped by the tensor list
+  std::vector<std::vector<TensorNode>> tensor_found(ny);
+  mark_tensor_nodes(in_tensor);
   for (int c = 0; c < 3; ++c) {
     ca[c].assign(static_cast<size_t>(nx) * ny, 1.0);
     cb[c].assign(static_cast<size_t>(nx) * ny, 1.0);
@@ -107,11 +145,25 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
     for (int j = 0; j < ny; ++j)
       for (int i = 0; i < nx; ++i) {
         const size_t at = static_cast<size_t>(j) * nx + i;
-        node_coefficients(c, i, j, ca[c][at], cb[c][at], found[j]);
+        TensorNode t;
+        if (c < 2 && !in_tensor[c].empty() && in_tensor[c][at] && tensor_node(s, g_, c, i, j, t))
+          tensor_found[j].push_back(std::move(t));  // swept as vacuum: ca = cb = 1
+        else
+          node_coefficients(c, i, j, ca[c][at], cb[c][at], found[j]);
       }
   }
   join_dispersive_nodes(found);
   walls_.hold_e_coefficients(ca, cb, nx, ny);  // electric walls
+  std::vector<TensorNode> tensor_nodes;        // those an electric wall holds stay out
+  for (auto& row : tensor_found)
+    for (auto& t : row)
+      if (ca[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0 &&
+          cb[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0)
+        tensor_nodes.push_back(std::move(t));
+  tensor_ = join_tensor_nodes(tensor_nodes, g_, s.grid.bx == Boundary::periodic, s.grid.by == Boundary::periodic);
+  bytes_ += tensor_.index.size() *
+                (sizeof(long) + sizeof(int) + 4 * (sizeof(int) + sizeof(long) + sizeof(double)) + 12 * sizeof(double)) +
+            tensor_.poles.size() * (sizeof(TensorPole) + 2 * sizeof(double));
 
   // run-length rows
   row_runs_.assign(static_cast<size_t>(3) * ny + 1, 0);
@@ -149,7 +201,8 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
 #define TY_INSTANTIATE(R)                                                                                              \
   template void Simulation<R>::build_media(std::vector<double>(&)[3]);                                                 \
   template void Simulation<R>::node_coefficients(int, int, int, double&, double&, std::vector<DispersiveNode>&) const; \
-  template void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>&);
+  template void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>&);                       \
+  template void Simulation<R>::mark_tensor_nodes(std::vector<char>(&)[2]) const;
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)
 #undef TY_INSTANTIATE

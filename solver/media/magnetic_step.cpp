@@ -304,6 +304,7 @@ void Simulation<R>::step_magnetic() {
     if (j0 == 0 && j1 > 0) walls_.before_first_e_row(F.data(), g_);
     if (j1 > j0) e_row(j0);
   }
+  if (!tensor_.empty()) tensor_.step(F.data(), threads_);  // tensor_cells.h
   ++n_;
   M.latest = static_cast<int>(n_ & 1);
 }

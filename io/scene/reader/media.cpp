@@ -50,8 +50,10 @@ void SceneBuilder::read_media(const YAML::Node& m) {
         med.tensor = read_permittivity_map(r_, p, where);
         if (med.tensor) med.permittivity = background_diagonal(*med.tensor);
       } else if (p.IsSequence()) {
+        med.tensor.reset();  // a crystal's dispersive tensor gives way to the scene's value
         if (auto e = r_.vec3(p, "permittivity", Kind::dimensionless)) med.permittivity = *e;
       } else if (auto e = r_.quantity(p, "permittivity", Kind::dimensionless)) {
+        med.tensor.reset();
         med.permittivity = {*e, *e, *e};
       }
       for (double e : med.permittivity)

@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "io/scene/crystals/crystal_magnet.h"
+#include "io/scene/crystals/crystal_permittivity.h"
 #include "io/scene/reader/reader.h"
 
 namespace ty::reader {
@@ -28,11 +29,27 @@ std::optional<Magnet> SceneBuilder::read_crystal(const YAML::Node& v, const std:
   if (v["rotation"])
     if (auto e = r_.vec3(v["rotation"], "rotation", Kind::angle)) r = euler_rotation((*e)[0], (*e)[1], (*e)[2]) * r;
   const Magnet g = crystal_magnet(*c, r);
+  if (v["permittivity"]) return g;  // the scene's permittivity wins (media.cpp)
+  // the library's phonons, and an in-plane turn, make a tensor (crystal_permittivity.h);
+  // a constant crystal whose turned tensor stays diagonal keeps the plain diagonal
   const std::array<double, 3> eps{c->permittivity[0].value, c->permittivity[1].value, c->permittivity[2].value};
-  if (!rotate_diagonal(r, eps, med.permittivity) && !v["permittivity"])
-    r_.error(v["rotation"], fmt::format("{}: turned this way, {}'s permittivity is not diagonal in the scene's axes, "
-                                        "which a constant medium cannot hold; give 'permittivity' beside the crystal",
+  PermittivityTensor t;
+  const bool held = crystal_permittivity(*c, r, t);
+  if (held && (t.dispersive() || !t.diagonal_in_plane())) {
+    const double cs = std::cos(t.rotate), sn = std::sin(t.rotate), u = t.axis[0].eps_inf, w = t.axis[1].eps_inf;
+    med.tensor = t;
+    med.permittivity = {u * cs * cs + w * sn * sn, u * sn * sn + w * cs * cs, t.axis[2].eps_inf};
+  } else if (!held && !c->phonons.empty()) {
+    r_.error(v["rotation"], fmt::format("{}: turned this way, no axis of {} lies along z (nor two alike with the "
+                                        "third in the plane): its dispersive tensor would couple Ez with Ex, Ey, "
+                                        "which the grid does not hold; give 'permittivity' beside the crystal",
                                         where, c->name));
+  } else if (!rotate_diagonal(r, eps, med.permittivity)) {
+    r_.error(v["rotation"], fmt::format("{}: turned this way, {}'s permittivity couples Ez with Ex, Ey, which the "
+                                        "grid does not hold (turn it about z, after a cut); give 'permittivity' "
+                                        "beside the crystal",
+                                        where, c->name));
+  }
   return g;
 }
 
