@@ -59,7 +59,7 @@ void Simulation<R>::build_magnets() {
     const double f_max = f.empty() ? M.models.back().gamma[0] * 1.0 / (2 * constants::pi) : f.back();
     f_max_of.push_back(f_max);
     notes_.push_back(fmt::format("magnetic medium '{}': starts in {}; cells tilted past {:g} rad take the "
-                                 "midpoint rule in {} sub-step{} per time step",
+                                 "exponential midpoint, past 7 degrees the midpoint rule in {} sub-step{} per time step",
                                  s.media[k].name, chosen.how, CellStep::kTilt,
                                  LlgCoefficients::from(M.models.back(), g_.dt, f_max).substeps,
                                  LlgCoefficients::from(M.models.back(), g_.dt, f_max).substeps == 1 ? "" : "s"));
