@@ -2,7 +2,8 @@
 /// \brief `terayee bench [--case C]`: cell-updates per second of the full step on a square
 /// grid, for each case: vacuum (periodic sides), dielectric (a disc of eps = 4 inside
 /// 16-cell absorbers), absorber (CPML auxiliaries on both axes in every cell), magnetic
-/// (every cell MnF2 under 0.5 T, 20 um cells), recorders (vacuum with two 1001-frequency
+/// (every cell MnF2 under 0.5 T, 20 um cells), tilted (the same with every cell forced onto
+/// the large-tilt path, the midpoint rule), recorders (vacuum with two 1001-frequency
 /// power-spectrum lines, a whole-grid spectral map and four probes); each with its cost
 /// relative to a vacuum cell. Median of several timed samples. The last line is
 /// machine-readable: cell_updates_per_s=<rate of the last case printed>.
@@ -74,8 +75,10 @@ Scene bench_scene(int n, bool dielectric, bool magnetic = false) {
 }
 
 template <class R>
-double rate_of(const Scene& scene, int threads, double seconds, int samples) {
+double rate_of(const Scene& scene, int threads, double seconds, int samples, bool tilted = false) {
   Simulation<R> sim(scene, threads);
+  if (tilted)  // every magnetic cell on the large-tilt path (the midpoint rule), whatever its tilt
+    for (CellStep& c : sim.magnets().steps) c.tilt2 = -1;
   const double cells = static_cast<double>(sim.grid().cells());
   long steps = 1;
   for (;;) {  // calibrate
@@ -126,12 +129,12 @@ double measure_magnetic_rate(const Scene& scene, int medium, int threads, double
 
 namespace {
 
-const char* const kCases[] = {"vacuum", "dielectric", "absorber", "magnetic", "recorders"};
+const char* const kCases[] = {"vacuum", "dielectric", "absorber", "magnetic", "tilted", "recorders"};
 
 /// The scene of one bench case on an n x n grid.
 Scene case_scene(const std::string& name, int n) {
   if (name == "vacuum") return bench_scene(n, false);
-  if (name == "magnetic") return bench_scene(n, false, true);
+  if (name == "magnetic" || name == "tilted") return bench_scene(n, false, true);
   Scene s = bench_scene(n, name == "dielectric");
   if (name == "absorber") {  // the whole grid absorbing: every cell carries CPML auxiliaries on both axes
     s.grid.bx = s.grid.by = Boundary::absorbing;
@@ -166,8 +169,11 @@ Scene case_scene(const std::string& name, int n) {
   return s;
 }
 
-double case_rate(const Scene& s, int threads, bool single, double seconds, int samples) {
-  return single ? rate_of<float>(s, threads, seconds, samples) : rate_of<double>(s, threads, seconds, samples);
+double case_rate(const std::string& name, int n, int threads, bool single, double seconds, int samples) {
+  const Scene s = case_scene(name, n);
+  const bool tilted = name == "tilted";
+  return single ? rate_of<float>(s, threads, seconds, samples, tilted)
+                : rate_of<double>(s, threads, seconds, samples, tilted);
 }
 
 }  // namespace
@@ -181,10 +187,10 @@ int bench_command(int size, int threads, const std::string& precision, double se
   if (cases.empty()) throw BadInput(fmt::format("terayee bench: error: unknown case '{}'", which));
   std::cout << fmt::format("# terayee bench: {}x{} cells, {} precision, {} threads, median of 5 samples\n", size, size,
                            precision, nt);
-  const double vac = case_rate(case_scene("vacuum", size), nt, single, seconds, 5);
+  const double vac = case_rate("vacuum", size, nt, single, seconds, 5);
   double last = vac;
   for (const auto& c : cases) {
-    const double r = c == "vacuum" ? vac : case_rate(case_scene(c, size), nt, single, seconds, 5);
+    const double r = c == "vacuum" ? vac : case_rate(c, size, nt, single, seconds, 5);
     std::cout << fmt::format("{:<11} {:.4g} cell-updates/s, {:.2f}x the cost of a vacuum cell\n", c, r, vac / r);
     last = r;
   }

@@ -238,8 +238,8 @@ int main(int argc, char** argv) {
   double seconds = 0.5;
   std::string precision = "double", bench_case = "all";
   auto* b = app.add_subcommand("bench", "Measure cell-updates per second");
-  b->add_option("--case", bench_case, "vacuum, dielectric, absorber, magnetic, recorders or all")
-      ->check(CLI::IsMember({"vacuum", "dielectric", "absorber", "magnetic", "recorders", "all"}));
+  b->add_option("--case", bench_case, "vacuum, dielectric, absorber, magnetic, tilted, recorders or all")
+      ->check(CLI::IsMember({"vacuum", "dielectric", "absorber", "magnetic", "tilted", "recorders", "all"}));
   b->add_option("--size", size, "Cells per side of the square grid")->check(CLI::Range(16, 16384));
   b->add_option("--threads", threads, "OpenMP threads (default: all)")->check(CLI::PositiveNumber);
   b->add_option("--precision", precision, "double or single")->check(CLI::IsMember({"double", "single"}));

@@ -1,32 +1,42 @@
 /// \file cell_step.h
 /// \brief One time step of the magnetic cells of one medium, as the solver calls it: the
 /// exact small-signal step (llg_linear.h) for every cell whose sublattices stay within a
-/// small tilt of the ground state, and the implicit midpoint rule of the full nonlinear
-/// equations (llg_cell.h) for the cells tilted further.
+/// small tilt of the ground state; for the cells tilted further, the exponential midpoint
+/// (llg_exponential.h: the small-signal step plus the nonlinear remainder at the midpoint,
+/// one step, two or three passes) up to kChart2 (|x_s| = 0.12, 7 degrees),
+/// and the plain implicit midpoint rule of the full equations (llg_cell.h, sub-steps of
+/// fixed-point passes) beyond it or where the exponential passes do not converge.
 ///
 /// The small-signal step leaves out terms of relative size |x_s| (the tilt, in rad); up to
 /// `tilt` = 1e-4 rad that is below the midpoint rule's own error at the production step
 /// (phase 6e-5, llg_cell.h), so the switch costs no accuracy, and it keeps the common case
 /// (waves of up to ~10 kV/m in a fluoride away from its lines) at the price of one 4x4
-/// matrix-vector product per cell. Cells are taken in blocks of eight: the midpoint rule runs
-/// for a block only when one of its cells needs it, starting from the small-signal result as
-/// its predictor, and each cell keeps the result its own tilt calls for, so the outcome does
-/// not depend on the block boundaries.
+/// matrix-vector product per cell. Cells are taken in blocks of eight: the large-tilt paths
+/// run for a block only when one of its cells needs them, starting from the small-signal
+/// result as their predictor, and each cell keeps the result its own tilt calls for (each
+/// lane of the exponential passes stops on its own test), so the outcome does not depend on
+/// the block boundaries.
 #pragma once
 #include <algorithm>
 #include <array>
 
 #include "materials/magnetic/llg_cell.h"
+#include "materials/magnetic/llg_exponential.h"
 #include "materials/magnetic/llg_linear.h"
 
 namespace ty {
 
 struct CellStep {
   static constexpr double kTilt = 1e-4;  ///< rad, see above
+  /// |x_s|^2 beyond which the plain midpoint rule takes over from the exponential one
+  /// (|x_s| = 0.12, a tilt of 7 degrees: beyond it the exponential rule loses accuracy to
+  /// the plain one, llg_exponential.h)
+  static constexpr double kChart2 = 0.0144;
   LinearStep linear;
   LlgCoefficients midpoint;
   double r[3] = {0, 0, 0};  ///< the cell's own reaction weights (0 for a prescribed field)
   double tilt2 = kTilt * kTilt;
+  double chart2 = kChart2;  ///< < 0: every tilted cell takes the plain midpoint rule (tests)
 
   /// f_max: the highest linear resonance (Hz), which sets the midpoint rule's sub-steps; r the
   /// cell's own reaction weights, self its self field (llg_linear.h).
@@ -44,6 +54,31 @@ struct CellStep {
   }
 };
 
+/// The plain midpoint rule (llg_cell.h) for the lanes of block k0 that are tilted past the
+/// chart limit or whose exponential passes did not converge; ml: the small-signal result
+/// (its predictor), m0 the state at the step's start, q and ok as exponential_lanes left them.
+template <int W>
+inline void midpoint_block(const CellStep& p, int nl, long k0, double* const* mn,
+                           const double* const* b0, const double* const* b1, double* const* dM, const double* x2,
+                           const double (*ml)[W], const double (*m0)[W], const double* q, const double* ok) {
+  double mo[6][W], guess[6][W], d[3][W];
+  double* mp[6];
+  const double* gp[6];
+  for (int c = 0; c < 6; ++c) {
+    mp[c] = mo[c], gp[c] = guess[c];
+    for (int l = 0; l < nl; ++l) mo[c][l] = m0[c][l], guess[c][l] = ml[c][l] - m0[c][l];
+  }
+  double* dp[3] = {d[0], d[1], d[2]};
+  const double* bo[3] = {b0[0] + k0, b0[1] + k0, b0[2] + k0};
+  const double* bn[3] = {b1[0] + k0, b1[1] + k0, b1[2] + k0};
+  llg_cells(p.midpoint, nl, mp, gp, bo, bn, p.r, dp);
+  for (int l = 0; l < nl; ++l) {
+    if (x2[k0 + l] <= p.tilt2 || (ok[l] > 0 && x2[k0 + l] <= p.chart2 && q[l] <= p.chart2)) continue;
+    for (int c = 0; c < 6; ++c) mn[c][k0 + l] = mo[c][l];
+    for (int c = 0; c < 3; ++c) dM[c][k0 + l] = d[c][l];
+  }
+}
+
 template <int N>
 inline long step_cells_n(const CellStep& p, long count, const double* const* m, double* const* mn,
                          const double* const* b0, const double* const* b1, double* const* dM, double* x2) {
@@ -55,30 +90,26 @@ inline long step_cells_n(const CellStep& p, long count, const double* const* m, 
     bool any = false;
     for (int l = 0; l < nl; ++l) any |= x2[k0 + l] > p.tilt2;
     if (!any) continue;
-    // the midpoint rule for the block, from the small-signal step as its predictor; each
-    // cell then keeps the result its own tilt calls for
-    const double* mi[6];
-    double* mo[6];
-    const double* gp[6];
-    double guess[6][W], keep[6][W], kd[3][W];
-    for (int c = 0; c < 6; ++c) {
-      mi[c] = m[c] + k0, mo[c] = mn[c] + k0, gp[c] = guess[c];
-      for (int l = 0; l < nl; ++l) keep[c][l] = mo[c][l], guess[c][l] = mo[c][l] - mi[c][l], mo[c][l] = mi[c][l];
+    // the exponential midpoint (llg_exponential.h) for the block, from the small-signal step
+    double m0[6][W], ml[6][W], bo[3][W], bn[3][W], me[6][W], de[3][W], q[W], ok[W];
+    for (int l = 0; l < W; ++l) {
+      const long k = k0 + std::min(l, nl - 1);  // unused lanes repeat the last cell
+      for (int c = 0; c < 6; ++c) m0[c][l] = m[c][k], ml[c][l] = mn[c][k];
+      for (int c = 0; c < 3; ++c) bo[c][l] = b0[c][k], bn[c][l] = b1[c][k];
     }
-    const double* bo[3] = {b0[0] + k0, b0[1] + k0, b0[2] + k0};
-    const double* bn[3] = {b1[0] + k0, b1[1] + k0, b1[2] + k0};
-    double* dp[3] = {dM[0] + k0, dM[1] + k0, dM[2] + k0};
-    for (int c = 0; c < 3; ++c)
-      for (int l = 0; l < nl; ++l) kd[c][l] = dp[c][l];
-    llg_cells(p.midpoint, nl, mo, gp, bo, bn, p.r, dp);
+    exponential_lanes(p.linear, p.midpoint, p.r, m0, ml, bo, bn, me, de, q, ok);
+    bool far = false;
     for (int l = 0; l < nl; ++l) {
-      if (x2[k0 + l] > p.tilt2) {
-        ++tilted;
-        continue;
+      if (x2[k0 + l] <= p.tilt2) continue;
+      ++tilted;
+      if (ok[l] > 0 && x2[k0 + l] <= p.chart2 && q[l] <= p.chart2) {
+        for (int c = 0; c < 6; ++c) mn[c][k0 + l] = me[c][l];
+        for (int c = 0; c < 3; ++c) dM[c][k0 + l] = de[c][l];
+      } else {
+        far = true;
       }
-      for (int c = 0; c < 6; ++c) mo[c][l] = keep[c][l];
-      for (int c = 0; c < 3; ++c) dp[c][l] = kd[c][l];
     }
+    if (far) midpoint_block<W>(p, nl, k0, mn, b0, b1, dM, x2, ml, m0, q, ok);
   }
   return tilted;
 }

@@ -50,6 +50,8 @@ LinearStep LinearStep::from(const MagnetModel& model, const MagneticState& groun
   for (int i = 0; i < nt; ++i) {
     for (int j = 0; j < nt; ++j) p.phi[i][j] = Phi(i, j);
     for (int c = 0; c < 3; ++c) p.psi0[i][c] = Psi0(i, c), p.psi1[i][c] = Psi1(i, c);
+    for (int j = 0; j < nt; ++j) p.a[i][j] = A(i, j), p.hphi1[i][j] = dt * phi1(i, j);
+    for (int c = 0; c < 3; ++c) p.ct[i][c] = Ct(i, c);
   }
   return p;
 }

@@ -39,6 +39,9 @@ struct LinearStep {
   double mu[2] = {0, 0};                           ///< mu0 Ms per sublattice, T
   double phi[4][4] = {};                           ///< x' = phi x + psi0 b0 + psi1 b1
   double psi0[4][3] = {}, psi1[4][3] = {};
+  /// for the large-tilt path (llg_exponential.h): dx/dt = A x + Ct b' of the linearised
+  /// equations, and h phi1(hA)
+  double a[4][4] = {}, ct[4][3] = {}, hphi1[4][4] = {};
 
   /// The step over dt about `ground`, with the cell's own reaction weights r (0 for a
   /// prescribed field) and its self field N = diag(self) (0 inside a body).

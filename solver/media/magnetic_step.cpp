@@ -60,7 +60,7 @@ void Simulation<R>::build_magnets() {
     const Vec3 mg = mm.net(M.ground.back().m);
     M.net.push_back({mm.mu[0], mm.n == 2 ? mm.mu[1] : 0.0, mg[0], mg[1], mg[2]});
     notes_.push_back(fmt::format("magnetic medium '{}': starts in {}; cells tilted past {:g} rad take the "
-                                 "midpoint rule in {} sub-step{} per time step",
+                                 "exponential midpoint, past 7 degrees the midpoint rule in {} sub-step{} per time step",
                                  s.media[k].name, chosen.how, CellStep::kTilt,
                                  LlgCoefficients::from(M.models.back(), g_.dt, f_max).substeps,
                                  LlgCoefficients::from(M.models.back(), g_.dt, f_max).substeps == 1 ? "" : "s"));
