@@ -7,10 +7,6 @@
 /// (tests/solver/grid/test_absorber_stability.cpp).
 #include <doctest/doctest.h>
 
-#include <fmt/format.h>
-
-#include <cstdlib>
-
 #include "tests/solver/absorber_cases.h"
 
 using namespace ty;
@@ -43,29 +39,23 @@ TEST_CASE("guard: a run with too large a time step is stopped early, saying wher
   }
 }
 
-TEST_CASE("guard, trace: forced PML on MnF2" * doctest::skip()) {
+TEST_CASE("guard, long: a PML forced on MnF2 in its hyperbolic band grows slowly and is stopped early" *
+          doctest::skip()) {
+  // The plain PML amplifies the backward waves of the band (Becache, Fauqueux & Joly,
+  // J. Comput. Phys. 188, 399 (2003): stable only where k_x and the group velocity along x
+  // agree in sign; in a-cut MnF2 on 261.4-263.1 GHz they do not along the side layers).
+  // Measured at 20 um, 2 ns: the period-averaged energy rose 0.34 after the pulse, the
+  // absorber tilted 4.5e-7 rad against 5.3e-8 inside -- below both blow-up limits.
+  //   ./build/terayee_tests -tc="guard\, long*" --no-skip -s
   test::AbsorberCase c;
-  c.cell = std::getenv("TY_CELL") ? std::atof(std::getenv("TY_CELL")) * 1e-6 : 20e-6;
+  c.cell = 20e-6;
+  c.stop = 2e-9;
   c.kind = Absorber::Kind::pml;
-  c.stop = std::getenv("TY_STOP") ? std::atof(std::getenv("TY_STOP")) * 1e-9 : 2e-9;
-  if (std::getenv("TY_KIND")) c.kind = Absorber::Kind::automatic;
-  if (std::getenv("TY_CW")) c.cw = true;
-  if (std::getenv("TY_F")) c.frequency = std::atof(std::getenv("TY_F")) * 1e9;
-  if (std::getenv("TY_PLATE")) c.plate = true;
-  Scene s = test::absorber_scene(c);
-  Simulation<double> sim(s, 2);
-  GrowthGuard<double> guard(sim);
-  const long n = sim.total_steps(), every = std::max(1L, n / 100);
-  const YeeGrid& g = sim.grid();
-  for (long k = 0; k < n; ++k) {
-    sim.step();
-    if ((k + 1) % every == 0) {
-      const std::string e = guard.check(sim);
-      fmt::print("{:.1f} ps W {:.4e} inj {:.3e} Tabs {:.3e} Tin {:.3e} {}\n", (k + 1) * g.dt * 1e12,
-                 sim.field_energy() + sim.magnetic_energy(), sim.injected_energy(),
-                 sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y),
-                 sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y), e);
-      if (!e.empty()) break;
-    }
-  }
+  const auto o = test::run_absorber_case(c);
+  MESSAGE("stopped at step " << o.guard_step << " of " << o.steps << ": " << o.guard);
+  REQUIRE(!o.guard.empty());
+  CHECK(o.guard.find("the run is growing slowly") != std::string::npos);
+  CHECK(o.guard.find("cell (") != std::string::npos);
+  CHECK(o.guard.find("side the absorbing layers") != std::string::npos);
+  CHECK(o.guard_step < o.steps * 95 / 100);
 }
