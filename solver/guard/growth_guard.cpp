@@ -191,8 +191,8 @@ std::string GrowthGuard<R>::slow_energy(const Simulation<R>& sim, double w) {
   return fmt::format(
       "the run is growing slowly: its sources stopped at t = {:.4g} ps, and by step {} (t = {:.4g} ps) the energy "
       "held has risen to {:.3g} J/m, {:.3g} times the lowest since ({:.3g} J/m), rising over each of the last {} "
-      "checks; the largest field is at {}. If that is inside the absorbing layers, use grid.absorber.kind auto or "
-      "graded; else run again with a smaller time.step-fraction to see whether it is a stability problem",
+      "checks; the largest field is at {}. Growth in the absorbing layers: use grid.absorber.kind auto or graded; "
+      "elsewhere: run again with a smaller time.step-fraction to see whether it is a stability problem",
       sources_end_ * 1e12, n, n * g.dt * 1e12, w, w / w_low_, w_low_, 2 * kWindow, where(sim, bi, bj));
 }
 
