@@ -153,7 +153,8 @@ std::string GrowthGuard<R>::slow_tilt(const Simulation<R>& sim, double in, long 
   const MagneticCells& M = sim.magnets();
   return fmt::format(
       "the run is growing slowly in the absorbing layers: by step {} (t = {:.4g} ps) their magnets tilt {:.3g} rad, "
-      "{:.3g} times the most the interior's ever did ({:.3g} rad), and rising at each of the last {} checks ({:.3g} rad "
+      "{:.3g} times the most the interior's ever did ({:.3g} rad), and rising at each of the last {} checks ({:.3g} "
+      "rad "
       "then); the largest tilt is at {}. The absorber amplifies the backward waves of this medium: use "
       "grid.absorber.kind auto or graded",
       n, n * g.dt * 1e12, in, in / interior_peak_, interior_peak_, kWindow, tilt_seen_[k - kWindow],

@@ -34,8 +34,8 @@
 /// The guard is checked every 1% of the run, so either stops a slow growth within a few
 /// windows (a few percent of the run) of its becoming visible.
 #pragma once
-#include <string>
 #include <array>
+#include <string>
 
 #include "solver/simulation.h"
 
@@ -69,12 +69,12 @@ class GrowthGuard {
   double tilt_limit_ = 0, linear_tilt_ = 0;
   double most_injected_ = 0;
   long last_good_ = 0;
-  double sources_end_ = 0;                     ///< s; infinity with a cw source
-  double w_peak_ = 0, w_low_ = -1;             ///< the largest W; the lowest since the sources stopped (-1: not yet)
+  double sources_end_ = 0;          ///< s; infinity with a cw source
+  double w_peak_ = 0, w_low_ = -1;  ///< the largest W; the lowest since the sources stopped (-1: not yet)
   static constexpr int kHistory = 2 * kWindow + 1;
   std::array<double, kHistory> w_seen_{}, tilt_seen_{};  ///< W after the sources stopped; the absorber's largest tilt
   int ws_ = 0, tilts_ = 0;                               ///< how many of each seen
-  double interior_peak_ = 0;                   ///< the largest tilt ever seen outside the absorbing layers
+  double interior_peak_ = 0;                             ///< the largest tilt ever seen outside the absorbing layers
   std::string where(const Simulation<R>& sim, int i, int j) const;
   std::string slow_energy(const Simulation<R>& sim, double w);
   std::string slow_tilt(const Simulation<R>& sim, double in, long at_in, double out);

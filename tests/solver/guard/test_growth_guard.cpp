@@ -4,7 +4,9 @@
 /// leapfrog step has growing modes), in vacuum and with an MnF2 crystal through the
 /// absorbers. The guard must stop each within a few percent of its run time, naming the
 /// step and a cell with its medium; it stays quiet on the same runs at a stable step
-/// (tests/solver/grid/test_absorber_stability.cpp).
+/// (tests/solver/grid/test_absorber_stability.cpp). The long case: a PML forced on an MnF2
+/// half-space in its hyperbolic band, whose slow growth stays below both blow-up limits and
+/// must be stopped by the guard's slow checks.
 #include <doctest/doctest.h>
 
 #include "tests/solver/absorber_cases.h"
