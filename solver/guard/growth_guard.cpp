@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <limits>
 
@@ -15,10 +16,28 @@
 
 namespace ty {
 
+namespace {
+
+/// Appends v to a history of the last kHistory values (newest last), counting them.
+template <size_t N>
+void push(std::array<double, N>& h, int& count, double v) {
+  std::copy(h.begin() + 1, h.end(), h.begin());
+  h.back() = v;
+  ++count;
+}
+
+bool in_absorber(const YeeGrid& g, int i, int j) {
+  return i < g.npml_x || i >= g.nx - g.npml_x || j < g.npml_y || j >= g.ny - g.npml_y;
+}
+
+}  // namespace
+
 template <class R>
 GrowthGuard<R>::GrowthGuard(const Simulation<R>& sim) {
   const Scene& s = sim.scene();
   const MagneticCells& M = sim.magnets();
+  sources_end_ = 0;
+  for (const Source& src : s.sources) sources_end_ = std::max(sources_end_, source_end(src));
   if (M.models.empty()) return;
   double worst = 0;
   for (const Source& src : s.sources) {
@@ -56,7 +75,7 @@ std::string GrowthGuard<R>::where(const Simulation<R>& sim, int i, int j) const 
   const Scene& s = sim.scene();
   const Vec2 p{g.x(Component::Hz, i), g.y(Component::Hz, j)};
   const int m = medium_at(s, p);
-  const bool in = i < g.npml_x || i >= g.nx - g.npml_x || j < g.npml_y || j >= g.ny - g.npml_y;
+  const bool in = in_absorber(g, i, j);
   return fmt::format("cell ({}, {}) at x = {:.4g} mm, y = {:.4g} mm, in {}, {} the absorbing layers", i, j,
                      (p.x - s.origin_shift.x) * 1e3, (p.y - s.origin_shift.y) * 1e3,
                      m >= 0 ? "'" + s.media[m].name + "'" : std::string("vacuum"), in ? "inside" : "outside");
@@ -67,27 +86,28 @@ std::string GrowthGuard<R>::check(const Simulation<R>& sim) {
   const YeeGrid& g = sim.grid();
   const long n = sim.steps_done();
   most_injected_ = std::max(most_injected_, sim.injected_energy());
-  if (tilt_limit_ > 0) {  // tilt first: it is the earlier sign in a magnet
-    const MagneticCells& M = sim.magnets();
-    double worst = 0;
-    long at = -1;
-    for (long k = 0; k < M.count(); ++k) {
-      const MagneticState& g0 = M.ground[M.medium[k]];
-      for (int sl = 0; sl < 2; ++sl) {
-        const Vec3 now(M.m[M.latest][3 * sl][k], M.m[M.latest][3 * sl + 1][k], M.m[M.latest][3 * sl + 2][k]);
-        if (now.squaredNorm() == 0) continue;
-        const double t = std::atan2(now.cross(g0.m[sl]).norm(), now.dot(g0.m[sl]));
-        if (t > worst) worst = t, at = k;
-      }
+  // the largest tilt inside and outside the absorbing layers, and where
+  const MagneticCells& M = sim.magnets();
+  double worst[2] = {0, 0};  // outside, inside
+  long at[2] = {-1, -1};
+  for (long k = 0; k < M.count(); ++k) {
+    const MagneticState& g0 = M.ground[M.medium[k]];
+    const int side = in_absorber(g, M.ci[k], M.cj[k]) ? 1 : 0;
+    for (int sl = 0; sl < 2; ++sl) {
+      const Vec3 now(M.m[M.latest][3 * sl][k], M.m[M.latest][3 * sl + 1][k], M.m[M.latest][3 * sl + 2][k]);
+      if (now.squaredNorm() == 0) continue;
+      const double t = std::atan2(now.cross(g0.m[sl]).norm(), now.dot(g0.m[sl]));
+      if (t > worst[side] || !std::isfinite(t)) worst[side] = t, at[side] = k;
     }
-    if (worst > tilt_limit_)
-      return fmt::format(
-          "the run is growing: by step {} (t = {:.4g} ps; all was well at step {}) a magnetic cell tilted to {:.3g} "
-          "rad, where the linear response of the sources allows about {:.2g} rad; the largest tilt is at {}. If the "
-          "growth is inside the absorbing layers, check grid.absorber.kind (auto gives magnets the graded loss); else "
-          "run again with a smaller time.step-fraction to see whether it is a stability problem",
-          n, n * g.dt * 1e12, last_good_, worst, linear_tilt_, where(sim, M.ci[at], M.cj[at]));
   }
+  const int s = worst[1] > worst[0] ? 1 : 0;
+  if (tilt_limit_ > 0 && at[s] >= 0 && !(worst[s] <= tilt_limit_))  // tilt first: the earlier sign in a magnet
+    return fmt::format(
+        "the run is growing: by step {} (t = {:.4g} ps; all was well at step {}) a magnetic cell tilted to {:.3g} "
+        "rad, where the linear response of the sources allows about {:.2g} rad; the largest tilt is at {}. If the "
+        "growth is inside the absorbing layers, check grid.absorber.kind (auto gives magnets the graded loss); else "
+        "run again with a smaller time.step-fraction to see whether it is a stability problem",
+        n, n * g.dt * 1e12, last_good_, worst[s], linear_tilt_, where(sim, M.ci[at[s]], M.cj[at[s]]));
   const double w = sim.field_energy() + sim.magnetic_energy();
   const double floor = 1e-30 + 1e-12 * most_injected_;
   if (!(w <= kEnergyFactor * most_injected_ + floor)) {  // NaN too
@@ -111,8 +131,70 @@ std::string GrowthGuard<R>::check(const Simulation<R>& sim) {
         "smaller time.step-fraction to see whether it is a stability problem",
         n, n * g.dt * 1e12, last_good_, w, kEnergyFactor, most_injected_, where(sim, bi, bj));
   }
+  if (std::string e = slow_tilt(sim, worst[1], at[1], worst[0]); !e.empty()) return e;
+  if (std::string e = slow_energy(sim, w); !e.empty()) return e;
   last_good_ = n;
   return {};
+}
+
+template <class R>
+std::string GrowthGuard<R>::slow_tilt(const Simulation<R>& sim, double in, long at_in, double out) {
+  // the absorber's largest tilt, kWindow checks back: past kTiltRatio times the interior's
+  // largest ever, grown by kTiltGrowth and rising at each check
+  interior_peak_ = std::max(interior_peak_, out);
+  push(tilt_seen_, tilts_, in);
+  const int k = kHistory - 1;  // the newest
+  if (tilts_ <= kWindow || !(in > kTiltRatio * interior_peak_) || interior_peak_ <= 0) return {};
+  if (!(in > kTiltGrowth * tilt_seen_[k - kWindow])) return {};
+  for (int q = k - kWindow + 1; q <= k; ++q)
+    if (!(tilt_seen_[q] > tilt_seen_[q - 1])) return {};
+  const YeeGrid& g = sim.grid();
+  const long n = sim.steps_done();
+  const MagneticCells& M = sim.magnets();
+  return fmt::format(
+      "the run is growing slowly in the absorbing layers: by step {} (t = {:.4g} ps) their magnets tilt {:.3g} rad, "
+      "{:.3g} times the most the interior's ever did ({:.3g} rad), and rising at each of the last {} checks ({:.3g} "
+      "rad "
+      "then); the largest tilt is at {}. The absorber amplifies the backward waves of this medium: use "
+      "grid.absorber.kind auto or graded",
+      n, n * g.dt * 1e12, in, in / interior_peak_, interior_peak_, kWindow, tilt_seen_[k - kWindow],
+      where(sim, M.ci[at_in], M.cj[at_in]));
+}
+
+template <class R>
+std::string GrowthGuard<R>::slow_energy(const Simulation<R>& sim, double w) {
+  // after the sources have stopped: W past (1 + kEnergyRise) times its lowest since, and
+  // rising over each of the last two windows of kWindow checks
+  w_peak_ = std::max(w_peak_, w);
+  const YeeGrid& g = sim.grid();
+  const long n = sim.steps_done();
+  if (!(n * g.dt >= sources_end_)) return {};
+  w_low_ = w_low_ < 0 ? w : std::min(w_low_, w);
+  push(w_seen_, ws_, w);
+  const int k = kHistory - 1;  // the newest
+  if (ws_ <= 2 * kWindow) return {};
+  const double base = std::max(w_low_, kEnergyFloor * w_peak_);
+  if (!(w - w_low_ > kEnergyRise * base)) return {};
+  const double w1 = w_seen_[k - kWindow], w2 = w_seen_[k - 2 * kWindow];
+  if (!(w > w1 && w1 > w2)) return {};
+  // where: the node of largest energy density, as for the fast growth
+  double best = -1;
+  int bi = 0, bj = 0;
+  for (int j = 0; j < g.ny; ++j)
+    for (int i = 0; i < g.nx; ++i) {
+      double e = 0;
+      for (int c = 0; c < 6; ++c) {
+        const double v = sim.field(static_cast<Component>(c))[g.at(i, j)];
+        e += v * v;
+      }
+      if (e > best) best = e, bi = i, bj = j;
+    }
+  return fmt::format(
+      "the run is growing slowly: its sources stopped at t = {:.4g} ps, and by step {} (t = {:.4g} ps) the energy "
+      "held has risen to {:.3g} J/m, {:.3g} times the lowest since ({:.3g} J/m), rising over each of the last {} "
+      "checks; the largest field is at {}. Growth in the absorbing layers: use grid.absorber.kind auto or graded; "
+      "elsewhere: run again with a smaller time.step-fraction to see whether it is a stability problem",
+      sources_end_ * 1e12, n, n * g.dt * 1e12, w, w / w_low_, w_low_, 2 * kWindow, where(sim, bi, bj));
 }
 
 template class GrowthGuard<float>;

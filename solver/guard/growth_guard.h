@@ -18,7 +18,23 @@
 /// source's band taken. A cell tilted past max(kTiltMargin times that, kTiltFloor) rad means
 /// growth; the check is off when that limit passes kTiltOff (the sources themselves ask for
 /// large angles, or an undamped line lies inside their band).
+///
+/// Slow growth (an absorber that amplifies a little each pass, far below both limits above):
+/// - after every source has stopped (source_end) nothing may gain energy: the energy is
+///   conserved or lost (the leapfrog step, the graded loss, Gilbert damping), and the PML
+///   loses it for every wave it is stable for. The guard keeps the lowest W seen since, and
+///   stops the run once W has risen kEnergyRise above it and kept rising over the last two
+///   windows of kWindow checks (the swing of the measured W, O(w dt), a few 1e-3 at 50 um
+///   cells, stays far below). Rises below kEnergyFloor of the largest W seen are not
+///   counted (round-off in a domain the field has left).
+/// - the magnets of the absorbing layers tilt no more than the waves that enter it from the
+///   interior: a layer whose largest tilt exceeds kTiltRatio times the largest ever seen
+///   outside it and has grown by kTiltGrowth over the last kWindow checks (rising at each
+///   of them) is amplifying.
+/// The guard is checked every 1% of the run, so either stops a slow growth within a few
+/// windows (a few percent of the run) of its becoming visible.
 #pragma once
+#include <array>
 #include <string>
 
 #include "solver/simulation.h"
@@ -32,6 +48,11 @@ class GrowthGuard {
   static constexpr double kTiltMargin = 100.0;
   static constexpr double kTiltFloor = 0.01;  ///< rad
   static constexpr double kTiltOff = 0.3;     ///< rad: sources asking for more are nonlinear studies
+  static constexpr double kEnergyRise = 0.05;
+  static constexpr double kEnergyFloor = 1e-3;
+  static constexpr double kTiltRatio = 3.0;
+  static constexpr double kTiltGrowth = 1.5;
+  static constexpr int kWindow = 4;  ///< checks
 
   explicit GrowthGuard(const Simulation<R>& sim);
 
@@ -48,7 +69,15 @@ class GrowthGuard {
   double tilt_limit_ = 0, linear_tilt_ = 0;
   double most_injected_ = 0;
   long last_good_ = 0;
+  double sources_end_ = 0;          ///< s; infinity with a cw source
+  double w_peak_ = 0, w_low_ = -1;  ///< the largest W; the lowest since the sources stopped (-1: not yet)
+  static constexpr int kHistory = 2 * kWindow + 1;
+  std::array<double, kHistory> w_seen_{}, tilt_seen_{};  ///< W after the sources stopped; the absorber's largest tilt
+  int ws_ = 0, tilts_ = 0;                               ///< how many of each seen
+  double interior_peak_ = 0;                             ///< the largest tilt ever seen outside the absorbing layers
   std::string where(const Simulation<R>& sim, int i, int j) const;
+  std::string slow_energy(const Simulation<R>& sim, double w);
+  std::string slow_tilt(const Simulation<R>& sim, double in, long at_in, double out);
 };
 
 extern template class GrowthGuard<float>;

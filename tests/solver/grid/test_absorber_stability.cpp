@@ -8,7 +8,7 @@
 /// energy (field + magnetic) averaged over a period never rises, and the absorber's cells
 /// never tilt more than the interior's. The guard (solver/guard/growth_guard.h) stays quiet.
 /// The long version (5-50 um, pulsed and cw, 4 ns) is the skipped case "absorbers, long":
-///   ./build/terayee_tests -tc="absorbers, long*" --no-skip     (or tools/absorber-check.sh)
+///   ./build/terayee_tests -tc="absorbers\, long*" --no-skip     (or tools/absorber-check.sh)
 #include <doctest/doctest.h>
 #include <fmt/format.h>
 
