@@ -270,6 +270,12 @@ void refuse_over_ranks(const Scene& scene, const RunOptions& o) {
                                 scene.media.at(b.medium).name));
       break;
     }
+  for (const Body& b : scene.bodies)
+    if (const Medium& m = scene.media.at(b.medium); m.tensor && !m.tensor->diagonal_in_plane()) {
+      why.push_back(fmt::format("medium '{}' has rotated in-plane axes: its Ex-Ey step is not yet split over ranks",
+                                m.name));
+      break;
+    }
   if (scene.grid.bx == Boundary::bloch || scene.grid.by == Boundary::bloch)
     why.push_back("Bloch sides: their sine copy is not yet split over ranks");
   const YeeGrid g = grid_for(scene, 8);

@@ -14,6 +14,11 @@ void check_bloch(const Scene& s, Diagnostics& d) {
                            "' is not supported with bloch sides (the sine and cosine copies are exact for a "
                            "linear medium only, and the magnetic cells are not paired across the seam); "
                            "use periodic sides at normal incidence, or a non-magnetic model of the medium");
+  for (const auto& b : s.bodies)
+    if (const Medium& m = s.media[b.medium]; m.tensor && !m.tensor->diagonal_in_plane())
+      d.error(b.where, "bloch sides: the medium '" + m.name +
+                           "' has its in-plane axes rotated off x and y; its coupled Ex-Ey step is not yet paired "
+                           "across the seam (use periodic sides, or axes along x and y)");
   for (const auto& src : s.sources)
     if (src.kind != Source::Kind::point && std::abs(std::cos(src.angle)) > 1e-9)
       d.error(src.where,
