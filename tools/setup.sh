@@ -8,7 +8,7 @@
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 packages=(cmake g++ make libhdf5-dev libyaml-cpp-dev libfmt-dev nlohmann-json3-dev libeigen3-dev doctest-dev libcli11-dev libexpat1-dev
-  pkg-config libcairo2-dev fonts-dejavu-core libplplot-dev plplot-driver-cairo ffmpeg)
+  pkg-config libcairo2-dev fonts-dejavu-core libplplot-dev plplot-driver-cairo ffmpeg universal-ctags)
 mpi="${MPI:-OFF}"
 [ "$mpi" = "ON" ] && packages+=(openmpi-bin libopenmpi-dev libhdf5-openmpi-dev)
 missing=()

@@ -135,30 +135,11 @@ void RunFolder::frame(std::size_t k, double, std::size_t field, const double* da
   h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
 }
 
-void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
-                       const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary) {
-  // The closing datasets go into a copy, so the partial file stays as the checkpoint
-  // knows it until fields.h5 is in place (a kill here leaves a run that resumes).
-  h5_.reset();
-  const std::string result = path("fields.h5"), tmp = temporary_name(result);
-  fs::copy_file(path(kPartial), tmp, fs::copy_options::overwrite_existing);
-  h5_ = std::make_unique<h5::File>(h5::File::open_rw(tmp));
-  h5::File& f = *h5_;
-  if (frames_planned_ > plan_.steps.size()) {  // stopped by itself before the last planned frames
-    for (const auto& sf : plan_.fields) f.shrink_frames("/snapshots/" + sf.name, plan_.steps.size());
-    f.remove("/snapshots/time");
-    f.write("/snapshots/time", {plan_.times.size()}, plan_.times.data(), "s");
-  }
-  // Per-frame views of the series for fields.xmf (write_xdmf): ParaView's XDMF 3 reader
-  // does not take HyperSlab items into a series, but reads plain 2D datasets; the views
-  // hold no data of their own.
-  for (size_t k = 0; k < plan_.times.size(); ++k)
-    for (const auto& sf : plan_.fields) {
-      const std::string view = frame_view_path(k, sf.name);
-      f.frame_view(view, "/snapshots/" + sf.name, k);
-      f.attribute(view, "units", sf.units);
-      f.attribute(view, "time-offset", sf.time_offset);
-    }
+namespace {
+
+/// The spectral maps: each field's complex amplitude (or the complex Poynting vector) per
+/// frequency on the map's Ez nodes.
+void write_spectral_maps(h5::File& f, const std::vector<SpectralMap>& maps) {
   for (const auto& m : maps) {
     const std::string base = "/spectral-maps/" + m.name;
     f.write(base + "/frequency", {m.freq.size()}, m.freq.data(), "Hz");
@@ -192,6 +173,11 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
       f.write(base + "/" + name + "/imag", shape, im.data(), field_units(name));
     }
   }
+}
+
+/// The power-spectrum lines: the net power, the windows, the transformed fields and the line.
+void write_power_spectra(h5::File& f, const std::vector<PowerSpectrumRecorder>& power_spectra, double dt,
+                         Vec2 origin_shift) {
   for (const auto& fl : power_spectra) {
     const std::string base = "/power-spectra/" + fl.name;
     const auto P = line_power(fl, [&](size_t a, size_t b, int c) { return fl.field(a, b, c); });
@@ -215,13 +201,17 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
     f.write(base + "/fields/real", {fl.freq.size(), np, 6}, re.data(), "V/m (E), A/m (H)");
     f.write(base + "/fields/imag", {fl.freq.size(), np, 6}, im.data(), "V/m (E), A/m (H)");
     f.attribute(base + "/fields/real", "layout", "[frequency][point][Ex Ey Ez Hx Hy Hz]");
-    for (const auto& p : fl.points) px.push_back(p.x - scene_.origin_shift.x), py.push_back(p.y - scene_.origin_shift.y);
+    for (const auto& p : fl.points) px.push_back(p.x - origin_shift.x), py.push_back(p.y - origin_shift.y);
     f.write(base + "/points/x", {np}, px.data(), "m");
     f.write(base + "/points/y", {np}, py.data(), "m");
     f.write(base + "/weights", {np}, fl.weight.data(), "m");
     const double n[2] = {fl.normal.x, fl.normal.y};
     f.write(base + "/normal", {2}, n, "");
   }
+}
+
+/// The probes' series on the E time axis.
+void write_probes(h5::File& f, const std::vector<ProbeRecorder>& probes, double dt, Vec2 origin_shift) {
   for (const auto& p : probes) {
     std::vector<double> t(p.count);
     for (long k = 0; k < p.count; ++k) t[k] = (k + 1) * dt;
@@ -232,9 +222,40 @@ void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vect
       const auto v = p.series(name);
       f.write(base + "/" + name, {v.size()}, v.data(), field_units(name));
     }
-    const double at[2] = {p.at.x - scene_.origin_shift.x, p.at.y - scene_.origin_shift.y};
+    const double at[2] = {p.at.x - origin_shift.x, p.at.y - origin_shift.y};
     f.write(base + "/at", {2}, at, "m");
   }
+}
+
+}  // namespace
+
+void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
+                       const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary) {
+  // The closing datasets go into a copy, so the partial file stays as the checkpoint
+  // knows it until fields.h5 is in place (a kill here leaves a run that resumes).
+  h5_.reset();
+  const std::string result = path("fields.h5"), tmp = temporary_name(result);
+  fs::copy_file(path(kPartial), tmp, fs::copy_options::overwrite_existing);
+  h5_ = std::make_unique<h5::File>(h5::File::open_rw(tmp));
+  h5::File& f = *h5_;
+  if (frames_planned_ > plan_.steps.size()) {  // stopped by itself before the last planned frames
+    for (const auto& sf : plan_.fields) f.shrink_frames("/snapshots/" + sf.name, plan_.steps.size());
+    f.remove("/snapshots/time");
+    f.write("/snapshots/time", {plan_.times.size()}, plan_.times.data(), "s");
+  }
+  // Per-frame views of the series for fields.xmf (write_xdmf): ParaView's XDMF 3 reader
+  // does not take HyperSlab items into a series, but reads plain 2D datasets; the views
+  // hold no data of their own.
+  for (size_t k = 0; k < plan_.times.size(); ++k)
+    for (const auto& sf : plan_.fields) {
+      const std::string view = frame_view_path(k, sf.name);
+      f.frame_view(view, "/snapshots/" + sf.name, k);
+      f.attribute(view, "units", sf.units);
+      f.attribute(view, "time-offset", sf.time_offset);
+    }
+  write_spectral_maps(f, maps);
+  write_power_spectra(f, power_spectra, dt, scene_.origin_shift);
+  write_probes(f, probes, dt, scene_.origin_shift);
   f.flush();
   h5_.reset();  // closes the file
   kill_point(KillPoint::result);

@@ -36,6 +36,39 @@ inline void gather(const R* hx, const R* hy, const R* hy_up, const R* hz, long i
 constexpr long kRowScratch = 16;
 }
 
+namespace {
+
+/// The magnetic cells row by row, left to right, with a run per stretch of one medium; slot:
+/// each grid cell's medium slot (-1: not magnetic).
+void list_cells_by_row(MagneticCells& M, const std::vector<int>& slot, int nx, int ny) {
+  for (int j = 0; j < ny; ++j) {
+    M.row_runs[j] = static_cast<int>(M.runs.size());
+    int prev = -1;
+    for (int i = 0; i < nx; ++i) {
+      const int med = slot[static_cast<size_t>(j) * nx + i];
+      const int st = med;
+      if (st >= 0) {
+        if (st != prev) M.runs.push_back({i, i, M.count(), st});
+        M.runs.back().i1 = i + 1;
+        M.cell_of[static_cast<size_t>(j) * nx + i] = static_cast<int>(M.count());
+        M.ci.push_back(i);
+        M.cj.push_back(j);
+        M.medium.push_back(med);
+      }
+      prev = st;
+    }
+  }
+  M.row_runs[ny] = static_cast<int>(M.runs.size());
+  for (int j = 0; j < ny; ++j)
+    if (M.row_runs[j + 1] > M.row_runs[j]) {
+      const auto& a = M.runs[M.row_runs[j]];
+      const auto& b = M.runs[M.row_runs[j + 1] - 1];
+      M.longest_row = std::max(M.longest_row, static_cast<int>(b.k0 + (b.i1 - b.i0) - a.k0));
+    }
+}
+
+}  // namespace
+
 template <class R>
 void Simulation<R>::build_magnets() {
   const Scene& s = scene_;
@@ -84,32 +117,8 @@ void Simulation<R>::build_magnets() {
   for (size_t med = 0; med < M.models.size(); ++med)
     M.steps.push_back(CellStep::from(M.models[med], M.ground[med], g_.dt, f_max_of[med], {0.0, 0.0, 1.0},
                                      {1.0, 1.0, 0.0}));
-  // cells row by row, left to right; a run per stretch of one medium
-  for (int j = 0; j < ny; ++j) {
-    M.row_runs[j] = static_cast<int>(M.runs.size());
-    int prev = -1;
-    for (int i = 0; i < nx; ++i) {
-      const int med = slot[static_cast<size_t>(j) * nx + i];
-      const int st = med;
-      if (st >= 0) {
-        if (st != prev) M.runs.push_back({i, i, M.count(), st});
-        M.runs.back().i1 = i + 1;
-        M.cell_of[static_cast<size_t>(j) * nx + i] = static_cast<int>(M.count());
-        M.ci.push_back(i);
-        M.cj.push_back(j);
-        M.medium.push_back(med);
-      }
-      prev = st;
-    }
-  }
-  M.row_runs[ny] = static_cast<int>(M.runs.size());
+  list_cells_by_row(M, slot, nx, ny);
   const long n = M.count();
-  for (int j = 0; j < ny; ++j)
-    if (M.row_runs[j + 1] > M.row_runs[j]) {
-      const auto& a = M.runs[M.row_runs[j]];
-      const auto& b = M.runs[M.row_runs[j + 1] - 1];
-      M.longest_row = std::max(M.longest_row, static_cast<int>(b.k0 + (b.i1 - b.i0) - a.k0));
-    }
   auto cell = [&](int i, int j) -> int {  // neighbouring cell, wrapped on periodic sides; n if none
     if (!walls_.neighbour(i, j, nx, ny)) return static_cast<int>(n);
     const int c = M.cell_of[static_cast<size_t>(j) * nx + i];

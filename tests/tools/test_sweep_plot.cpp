@@ -49,8 +49,9 @@ std::vector<std::vector<std::string>> read_csv(const fs::path& p) {
 using ty::test::capture;
 
 /// A 3 × 2 sweep (bias.2 × grid.cell) with a shift column; the point at 0 T, 12.5 um failed.
-fs::path table() {
-  const fs::path dir = fs::temp_directory_path() / "terayee-test-sweep-plot";
+/// Each test case has its own folder (`ctest -j` runs them at once).
+fs::path table(const std::string& name) {
+  const fs::path dir = fs::temp_directory_path() / ("terayee-test-sweep-plot-" + name);
   fs::remove_all(dir);
   fs::create_directories(dir);
   std::ofstream(dir / "sweep.json") << R"({"zip": false})";
@@ -73,7 +74,7 @@ fs::path table() {
 }  // namespace
 
 TEST_CASE("render --plot sweep: lines and a map of a results column, their data the numbers of results.csv") {
-  const fs::path dir = table();
+  const fs::path dir = table("lines");
   const std::string base = std::string(TERAYEE_BINARY) + " render '" + dir.string() + "' --plot sweep";
   REQUIRE(shell(base + " --x bias.2 --y shift.run.shift --with-map") == 0);
   const fs::path lines = dir / "pictures" / "sweep-shift.run.shift-vs-bias.2.png";
@@ -136,7 +137,7 @@ TEST_CASE("render --plot sweep: lines and a map of a results column, their data 
 }
 
 TEST_CASE("render --plot sweep: an unknown key or column, or a map of one key, is refused with the names that exist") {
-  const fs::path dir = table();
+  const fs::path dir = table("refused");
   const std::string base = std::string(TERAYEE_BINARY) + " render '" + dir.string() + "' --plot sweep";
   const std::string err = capture(base + " --x bias.3 --y shift.run.shfit 2>&1");
   CHECK(err.find("--x 'bias.3' is not a swept key; the sweep varies: bias.2, grid.cell") != std::string::npos);

@@ -18,8 +18,8 @@ namespace {
 constexpr double kWavenumber = 29.9792458e9;  // Hz per cm^-1
 constexpr double kRoot3 = 1.7320508075688772, kRoot6 = 2.449489742783178;
 
-std::vector<Crystal> build() {
-  std::vector<Crystal> t;
+/// MnF2 and FeF2: uniaxial two-sublattice antiferromagnets.
+void add_uniaxial_antiferromagnets(std::vector<Crystal>& t) {
   t.push_back(Crystal{
       .name = "MnF2",
       .kind = "antiferromagnet, uniaxial (easy axis c), two sublattices",
@@ -58,6 +58,10 @@ std::vector<Crystal> build() {
                       "Ohlmann & Tinkham, Phys. Rev. 123, 425 (1961): 52.7 cm^-1 at 4.2 K, "
                       "from memory"}},
       .note = "the resonance lies near 1.58 THz; spin-flop above 40 T"});
+}
+
+/// NiO (easy plane and in-plane axis) and alpha-Fe2O3 (Dzyaloshinskii-Moriya).
+void add_easy_plane_and_canted(std::vector<Crystal>& t) {
   t.push_back(Crystal{
       .name = "NiO",
       .kind = "antiferromagnet, biaxial (hard axis [111], easy axis [11-2] in the (111) plane; one T-domain), "
@@ -108,6 +112,10 @@ std::vector<Crystal> build() {
       .phonon_source = "not recorded (no source at hand)",
       .resonances = {{0.17e12, "from memory: the out-of-plane (quasi-antiferromagnetic) mode at room temperature"}},
       .note = "the in-plane anisotropy is left out, so the in-plane direction of the Neel vector is set by `order`"});
+}
+
+/// An orthoferrite (YFeO3) and Cr2O3.
+void add_orthoferrite_and_chromia(std::vector<Crystal>& t) {
   t.push_back(Crystal{
       .name = "YFeO3",
       .kind = "orthoferrite: antiferromagnet with Dzyaloshinskii-Moriya canting (Neel vector along a, weak moment "
@@ -152,6 +160,10 @@ std::vector<Crystal> build() {
               .phonon_source = "not recorded (no source at hand)",
               .resonances = {{0.165e12, "from memory (Foner, Phys. Rev. 130, 183 (1963): about 5.5 cm^-1 at 4.2 K)"}},
               .note = "magnetoelectric; the model leaves that out. Spin-flop near 5.9 T along c"});
+}
+
+/// YIG and a barium hexaferrite.
+void add_ferrimagnets_and_ferrites(std::vector<Crystal>& t) {
   t.push_back(
       Crystal{.name = "YIG",
               .kind = "ferrimagnet (Y3Fe5O12) taken as one sublattice of its net moment (a ferromagnet)",
@@ -188,6 +200,14 @@ std::vector<Crystal> build() {
       .phonon_source = "not recorded (no source at hand)",
       .resonances = {{47.6e9, "from memory: natural resonance near 48 GHz (gamma mu0 H_A, no demagnetization)"}},
       .note = "a reversed bias below mu0 H_A leaves the moment metastable against it: choose it with `state`"});
+}
+
+std::vector<Crystal> build() {
+  std::vector<Crystal> t;
+  add_uniaxial_antiferromagnets(t);
+  add_easy_plane_and_canted(t);
+  add_orthoferrite_and_chromia(t);
+  add_ferrimagnets_and_ferrites(t);
   return t;
 }
 
