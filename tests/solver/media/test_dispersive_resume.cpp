@@ -3,12 +3,8 @@
 /// a straight run: the poles' polarization and its rate are part of the saved state.
 #include <doctest/doctest.h>
 
-#include <cstring>
-#include <filesystem>
-
-#include "io/run/checkpoint.h"
-#include "solver/simulation.h"
 #include "tests/helpers.h"
+#include "tests/solver/media/resume_pair.h"
 
 using namespace ty;
 
@@ -29,20 +25,9 @@ TEST_CASE("checkpoint: a dispersive run resumed gives the bits of a straight run
   s.bodies.push_back(b);
   s.sources.push_back(test::point_source(Component::Ez, {20e-6, 40e-6}, 6e12, 0.1e-12, 0.3e-12, 1e-3));
   s.sources.push_back(test::point_source(Component::Hz, {25e-6, 30e-6}, 6e12, 0.1e-12, 0.3e-12, 1.0));
-  const std::string yaml = "title: t";
-  const std::filesystem::path path = std::filesystem::temp_directory_path() / "ty-checkpoint-dispersive.h5";
-  Simulation<double> straight(s, 2), first(s, 2);
-  for (int n = 0; n < 400; ++n) straight.step();
-  for (int n = 0; n < 150; ++n) first.step();
-  save_checkpoint(path.string(), first, yaml);
-  Simulation<double> resumed(s, 2);
-  load_checkpoint(path.string(), resumed, yaml);
-  for (int n = 150; n < 400; ++n) resumed.step();
-  std::filesystem::remove(path);
-  REQUIRE(straight.dispersive().count() > 0);
-  CHECK(straight.dispersive().p == resumed.dispersive().p);
-  CHECK(straight.dispersive().j == resumed.dispersive().j);
-  for (int q = 0; q < 6; ++q)
-    CHECK(std::memcmp(straight.field(static_cast<Component>(q)), resumed.field(static_cast<Component>(q)),
-                      straight.grid().size() * sizeof(double)) == 0);
+  const test::ResumePair r = test::run_straight_and_resumed(s, "dispersive", 150, 400);
+  REQUIRE(r.straight->dispersive().count() > 0);
+  CHECK(r.straight->dispersive().p == r.resumed->dispersive().p);
+  CHECK(r.straight->dispersive().j == r.resumed->dispersive().j);
+  CHECK(r.same_fields());
 }

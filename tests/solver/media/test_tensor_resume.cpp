@@ -4,12 +4,8 @@
 /// kept E and poles are part of the saved state.
 #include <doctest/doctest.h>
 
-#include <cstring>
-#include <filesystem>
-
-#include "io/run/checkpoint.h"
-#include "solver/simulation.h"
 #include "tests/helpers.h"
+#include "tests/solver/media/resume_pair.h"
 
 using namespace ty;
 
@@ -32,20 +28,9 @@ TEST_CASE("checkpoint: a run with a rotated dispersive tensor resumed gives the 
   b.shape.radius = 20e-6;
   s.bodies.push_back(b);
   s.sources.push_back(test::point_source(Component::Hz, {25e-6, 30e-6}, 6e12, 0.1e-12, 0.3e-12, 1.0));
-  const std::string yaml = "title: t";
-  const std::filesystem::path path = std::filesystem::temp_directory_path() / "ty-checkpoint-tensor.h5";
-  Simulation<double> straight(s, 2), first(s, 2);
-  for (int n = 0; n < 400; ++n) straight.step();
-  for (int n = 0; n < 150; ++n) first.step();
-  save_checkpoint(path.string(), first, yaml);
-  Simulation<double> resumed(s, 2);
-  load_checkpoint(path.string(), resumed, yaml);
-  for (int n = 150; n < 400; ++n) resumed.step();
-  std::filesystem::remove(path);
-  REQUIRE(straight.tensor_cells().count() > 0);
-  CHECK(straight.tensor_cells().p == resumed.tensor_cells().p);
-  CHECK(straight.tensor_cells().d == resumed.tensor_cells().d);
-  for (int q = 0; q < 6; ++q)
-    CHECK(std::memcmp(straight.field(static_cast<Component>(q)), resumed.field(static_cast<Component>(q)),
-                      straight.grid().size() * sizeof(double)) == 0);
+  const test::ResumePair r = test::run_straight_and_resumed(s, "tensor", 150, 400);
+  REQUIRE(r.straight->tensor_cells().count() > 0);
+  CHECK(r.straight->tensor_cells().p == r.resumed->tensor_cells().p);
+  CHECK(r.straight->tensor_cells().d == r.resumed->tensor_cells().d);
+  CHECK(r.same_fields());
 }
