@@ -1,10 +1,11 @@
 /// \file cli_measure.cpp
-/// \brief The options of `terayee measure` (spectrum, material, focus, angle, shift) and what
+/// \brief The options of `terayee measure` (spectrum, material, polarization, focus, angle, shift) and what
 /// each does once parsed.
 #include <fmt/format.h>
 
 #include <memory>
 
+#include "io/analysis/spectroscopy/eo_detector.h"
 #include "io/scene/diagnostics.h"
 #include "tools/cli.h"
 #include "tools/commands.h"
@@ -38,7 +39,7 @@ bool axis_value(const std::string& text, char& axis, double& value, const std::s
 
 Command add_material(CLI::App& m) {
   struct Options : MaterialOptions {
-    std::string thickness_text, perm_text, from_text, to_text, front_text;
+    std::string thickness_text, perm_text, from_text, to_text, front_text, detector_text;
   };
   auto o = std::make_shared<Options>();
   auto* mm = m.add_subcommand("material", "A slab's t(f), n + i kappa (and mu, eps) from a probe behind it against the reference run");
@@ -58,6 +59,9 @@ Command add_material(CLI::App& m) {
   mm->add_option("--reflected-probe", o->reflected_probe, "A probe before the slab: eps and mu from r and t");
   mm->add_option("--front", o->front_text, "With --reflected-probe: the slab's front face, x=VALUE or y=VALUE");
   mm->add_option("--json", o->json, "Write the spectra to this JSON file");
+  mm->add_option("--detector", o->detector, "An electro-optic detector crystal (ZnTe or GaP): the traces as it records them");
+  mm->add_option("--detector-thickness", o->detector_text, "With --detector: the crystal's thickness, e.g. \"1 mm\"");
+  mm->add_option("--traces", o->traces, "Write the traces analysed (detected, with --detector) to this CSV file");
 
   return {mm, [o] {
             o->thickness = quantity(o->thickness_text, Kind::length, "--thickness");
@@ -71,7 +75,51 @@ Command add_material(CLI::App& m) {
               throw BadInput("terayee measure material: error: --reflected-probe and --front go together");
             if (!o->front_text.empty() && !axis_value(o->front_text, o->front_axis, o->front, "--front"))
               throw BadInput("terayee measure material: error: --front must be x=VALUE or y=VALUE");
+            if (o->detector.empty() != o->detector_text.empty())
+              throw BadInput("terayee measure material: error: --detector and --detector-thickness go together");
+            if (!o->detector.empty()) {
+              eo_crystal(o->detector);  // refused here, before any run folder is read
+              o->detector_thickness = quantity(o->detector_text, Kind::length, "--detector-thickness");
+              if (!(o->detector_thickness > 0))
+                throw BadInput("terayee measure material: error: --detector-thickness must be positive");
+            }
             return measure_material(*o);
+          }};
+}
+
+Command add_polarization(CLI::App& m) {
+  struct Options : PolarizationOptions {
+    std::string from_text, to_text;
+  };
+  auto o = std::make_shared<Options>();
+  auto* mp = m.add_subcommand("polarization",
+                              "The Jones matrix, Faraday or Kerr rotation and ellipticity from runs driven by each "
+                              "polarization against their reference runs");
+  mp->add_option("runs", o->runs, "Run folder(s): one per input polarization (Ez wave, Hz wave), one or two")
+      ->required()
+      ->expected(1, 2)
+      ->check(CLI::ExistingDirectory);
+  mp->add_option("--reference", o->references, "Each run's reference run (terayee run --reference), in the same order")
+      ->required()
+      ->expected(1, 2)
+      ->check(CLI::ExistingDirectory);
+  mp->add_option("--probe", o->probe, "The probe (recording Ez and Hz): behind the sample, or before it with --reflected")
+      ->required();
+  mp->add_flag("--reflected", o->reflected, "The probe is before the sample: the Jones matrix of reflection (Kerr)");
+  mp->add_option("--from", o->from_text, "Lowest frequency (default: where the reference spectrum is above 1% of its peak)");
+  mp->add_option("--to", o->to_text, "Highest frequency");
+  mp->add_option("--count", o->count, "Frequencies")->check(CLI::Range(2, 100000));
+  mp->add_option("--json", o->json, "Write J, the rotation and ellipticity (and the prediction) to this JSON file");
+  mp->add_option("--csv", o->csv, "Write the same to this CSV file");
+  mp->add_option("--plot", o->plot, "Draw the rotation and ellipticity, measured and predicted: FILE.png, .pdf or .svg");
+
+  return {mp, [o] {
+            if (!o->from_text.empty()) o->from = quantity(o->from_text, Kind::frequency, "--from");
+            if (!o->to_text.empty()) o->to = quantity(o->to_text, Kind::frequency, "--to");
+            if (o->from_text.empty() != o->to_text.empty() ||
+                (!o->from_text.empty() && !(o->to > o->from && o->from > 0)))
+              throw BadInput("terayee measure polarization: error: --from and --to go together, 0 < --from < --to");
+            return measure_polarization(*o);
           }};
 }
 
@@ -153,7 +201,7 @@ Command add_shift(CLI::App& m) {
 std::vector<Command> add_measure(CLI::App& app) {
   auto* m = app.add_subcommand("measure", "Numbers from a run folder");
   m->require_subcommand(1);
-  return {add_spectrum(*m), add_material(*m), add_focus(*m), add_angle(*m), add_shift(*m)};
+  return {add_spectrum(*m), add_material(*m), add_polarization(*m), add_focus(*m), add_angle(*m), add_shift(*m)};
 }
 
 }  // namespace ty::cli

@@ -39,6 +39,7 @@ struct MediumOptions {
   double source_distance = 0, image_range = 0;  ///< line-source image behind a slab
   double line_distance = 0;  ///< where the beam-summed shift is seen: a line this far before the interface
   std::string plot;          ///< also draw the table: FILE.png, .pdf or .svg
+  bool polarization = false; ///< also print the Jones, Faraday and Kerr table
   int count = 101;
 };
 int medium_command(const MediumOptions& o);
@@ -57,8 +58,20 @@ struct MaterialOptions {
   std::optional<std::complex<double>> permittivity;
   char front_axis = 'x';  ///< --front x=VALUE: the slab's front face
   double front = 0;
+  std::string detector;           ///< an EO crystal (ZnTe, GaP): the traces as it records them
+  double detector_thickness = 0;  ///< m
+  std::string traces;             ///< write the (detected) traces to this CSV file
 };
 int measure_material(const MaterialOptions& o);
+/// `terayee measure polarization` (tools/measure_polarization.cpp).
+struct PolarizationOptions {
+  std::vector<std::string> runs, references;  ///< one or two, in the same order
+  std::string probe, json, csv, plot;
+  bool reflected = false;
+  double from = 0, to = 0;  ///< Hz (0, 0: the band the first reference pulse covers)
+  int count = 101;
+};
+int measure_polarization(const PolarizationOptions& o);
 struct ShiftOptions {
   std::string run, reference, map, reversed, reversed_reference;
   char line_axis = 'y';

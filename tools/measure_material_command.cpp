@@ -4,13 +4,16 @@
 /// its unwrapped phase, the slab's n + i kappa, with --permittivity its mu, and with a
 /// reflected probe before it both eps and mu (io/analysis/spectroscopy/tds_analysis.h and
 /// slab_retrieval.h hold the numerics and their sources). Prints a table; --json FILE holds
-/// `frequency` (Hz) and the complex arrays as {real: [...], imag: [...]}.
+/// `frequency` (Hz) and the complex arrays as {real: [...], imag: [...]}. --detector CRYSTAL
+/// --detector-thickness D: the traces as an EO crystal records them (eo_detector.h) before
+/// anything else; --traces FILE writes the traces analysed.
 #include <fmt/format.h>
 
 #include <cmath>
 #include <iostream>
 #include <nlohmann/json.hpp>
 
+#include "io/analysis/spectroscopy/eo_detector.h"
 #include "io/analysis/spectroscopy/slab_retrieval.h"
 #include "io/analysis/spectroscopy/slab_transfer.h"
 #include "io/analysis/spectroscopy/tds_analysis.h"
@@ -31,10 +34,24 @@ nlohmann::json complex_array(const std::vector<std::complex<double>>& v) {
 
 bool is_magnetic_h(const std::string& field) { return !field.empty() && field[0] == 'H'; }
 
+/// The probe's trace, as the EO detector of --detector records it (eo_detector.h).
+ProbeTrace detected_trace(const MaterialOptions& o, const std::string& run, const std::string& probe) {
+  ProbeTrace p = read_probe_trace(run, probe, o.field);
+  if (!o.detector.empty()) p.value = eo_detected(eo_crystal(o.detector), o.detector_thickness, p.time, p.value);
+  return p;
+}
+
+void write_traces(const MaterialOptions& o, const ProbeTrace& s, const ProbeTrace& r) {
+  std::string csv = fmt::format("time_s,sample_{0},reference_{0}\n", o.field);
+  for (size_t k = 0; k < s.time.size(); ++k) csv += fmt::format("{:.10g},{:.10g},{:.10g}\n", s.time[k], s.value[k], r.value[k]);
+  write_text_atomically(o.traces, csv);
+}
+
 }  // namespace
 
 int measure_material(const MaterialOptions& o) {
-  const ProbeTrace s = read_probe_trace(o.run, o.probe, o.field), r = read_probe_trace(o.reference, o.probe, o.field);
+  const ProbeTrace s = detected_trace(o, o.run, o.probe), r = detected_trace(o, o.reference, o.probe);
+  if (!o.traces.empty()) write_traces(o, s, r);
   TdsOptions t;
   t.window = o.window, t.thickness = o.thickness, t.from = o.from, t.to = o.to, t.count = o.count;
   t.permittivity = o.permittivity;
@@ -51,6 +68,9 @@ int measure_material(const MaterialOptions& o) {
   nlohmann::json j;
   j["run"] = o.run, j["reference"] = o.reference, j["probe"] = o.probe, j["field"] = o.field;
   j["thickness"] = o.thickness;
+  if (!o.detector.empty())
+    j["detector"] = {{"crystal", eo_crystal(o.detector).name}, {"thickness", o.detector_thickness},
+                     {"response", "eo_detector.h: Gallot & Grischkowsky, JOSA B 16, 1204 (1999)"}};
   j["window"] = res.window.describe();
   j["echoes-modelled"] = res.echoes;
   j["convention"] = "fields ~ exp(-i omega t); n = n' + i kappa, kappa > 0 for loss; t = sample / reference";
@@ -64,8 +84,7 @@ int measure_material(const MaterialOptions& o) {
   j["newton-iterations"] = res.iterations;
   std::vector<std::complex<double>> eps, mu = res.mu, n_shown = res.n;
   if (both) {
-    const ProbeTrace rs = read_probe_trace(o.run, o.reflected_probe, o.field);
-    const ProbeTrace rr = read_probe_trace(o.reference, o.reflected_probe, o.field);
+    const ProbeTrace rs = detected_trace(o, o.run, o.reflected_probe), rr = detected_trace(o, o.reference, o.reflected_probe);
     const double at = o.front_axis == 'x' ? rs.x : rs.y;
     std::vector<std::complex<double>> t_slab;
     for (size_t m = 0; m < res.freq.size(); ++m)  // undo the reference's vacuum path: H = t_slab e^{-i k0 d}

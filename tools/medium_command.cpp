@@ -13,7 +13,9 @@
 /// (materials/angular_spectrum.h). With --thickness and --source-distance it also predicts
 /// where the slab images a line source and how large the spot is, from the source's angular
 /// spectrum through the transfer matrix, beside the paraxial estimate. The permittivity is
-/// the medium's eps(omega) tensor (materials/permittivity/permittivity.h).
+/// the medium's eps(omega) tensor (materials/permittivity/permittivity.h). The Jones matrices of
+/// reflection and transmission and the Faraday and Kerr rotation and ellipticity are in every
+/// CSV row and JSON row, and printed with --polarization (tools/medium_jones.h).
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
@@ -31,6 +33,7 @@
 #include "materials/magnetic/state_choice.h"
 #include "materials/permittivity/permittivity.h"
 #include "tools/commands.h"
+#include "tools/medium_jones.h"
 
 namespace ty {
 namespace {
@@ -301,19 +304,31 @@ int medium_command(const MediumOptions& o) {
   print_header(scene, s.medium, o);
   const double cell_n = s.normal == 0 ? scene.grid.dx : scene.grid.dy;  // the cell across the interface
   std::string csv = kCsvHeader;
+  csv.insert(csv.size() - 1, jones_csv_header());
   nlohmann::json rows = nlohmann::json::array();
   std::vector<Point> points;
+  std::vector<JonesPrediction> jones;  // the polarization columns (medium_jones.h)
+  int k = 0;
+  while (scene.media[k].name != o.medium) ++k;  // setup_for found it
+  const SlabModel slab = slab_model(scene, k, o.thickness, s.normal);
   bool coupling_told = false;
   for (int q = 0; q < o.count; ++q) {
     const double f = o.count == 1 ? o.from : o.from + (o.to - o.from) * q / (o.count - 1);
     const Point p = evaluate(s, o, f, cell_n);
+    jones.push_back(predict_jones(slab, f, o.angle));
     print_coupling_once(p, coupling_told);
     print_point(p);
-    csv += csv_line(p);
+    std::string line = csv_line(p);
+    csv += line.insert(line.size() - 1, jones_csv(jones.back()));
     nlohmann::json row = json_row(p);
+    row["polarization"] = jones_json(jones.back());
     if (o.source_distance > 0) row["image"] = line_image(s, o, f);
     rows.push_back(row);
     points.push_back(p);
+  }
+  if (o.polarization) {
+    print_jones_header(o.thickness > 0);
+    for (size_t q = 0; q < points.size(); ++q) print_jones_row(points[q].f, jones[q]);
   }
   if (!o.plot.empty()) write_medium_plot(s, scene, o, points);
   if (!o.csv.empty()) write_text_atomically(o.csv, csv);

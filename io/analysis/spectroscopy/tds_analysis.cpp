@@ -52,7 +52,9 @@ TimeWindow main_pulse_window(const ProbeTrace& s, const ProbeTrace& r, double d,
   return TimeWindow{s.time.front() - taper - (s.time[1] - s.time[0]), ts + half, taper};
 }
 
-std::vector<double> default_band(const ProbeTrace& r) {
+}  // namespace
+
+std::vector<double> reference_band(const ProbeTrace& r) {
   const double dt = r.time[1] - r.time[0];
   std::vector<double> f;
   const int probe_count = 400;
@@ -67,8 +69,6 @@ std::vector<double> default_band(const ProbeTrace& r) {
   while (hi + 1 < R.size() && std::abs(R[hi + 1]) > floor) ++hi;
   return {f[lo], f[hi]};
 }
-
-}  // namespace
 
 TdsResult analyse_transmission(const ProbeTrace& s, const ProbeTrace& r, const TdsOptions& o) {
   if (s.time != r.time)
@@ -85,7 +85,7 @@ TdsResult analyse_transmission(const ProbeTrace& s, const ProbeTrace& r, const T
     throw BadInput(fmt::format("terayee measure material: error: --window '{}': main or all", o.window));
   double from = o.from, to = o.to;
   if (!(to > from)) {
-    const auto band = default_band(r);
+    const auto band = reference_band(r);
     from = band[0], to = band[1];
   }
   const int count = std::max(2, o.count);

@@ -38,6 +38,10 @@ struct TdsResult {
   std::vector<int> iterations;
 };
 
+/// {from, to}: where the reference trace's spectrum is above 1% of its peak (up to a quarter of
+/// the sampling rate).
+std::vector<double> reference_band(const ProbeTrace& reference);
+
 /// sample and reference: the same probe and field in the two runs (BadInput where their time
 /// axes differ).
 TdsResult analyse_transmission(const ProbeTrace& sample, const ProbeTrace& reference, const TdsOptions& o);

@@ -1,0 +1,21 @@
+/// \file medium_jones.h
+/// \brief `terayee medium`'s polarization columns: the Jones matrices of the slab (or
+/// half-space) from the 4x4 transfer matrix and the Faraday and Kerr rotation and ellipticity
+/// of each input (io/analysis/spectroscopy/jones_prediction.h), for the table, CSV and JSON.
+#pragma once
+#include <nlohmann/json.hpp>
+#include <string>
+
+#include "io/analysis/spectroscopy/jones_prediction.h"
+
+namespace ty {
+
+/// The CSV columns appended to medium's table (leading comma, no newline).
+std::string jones_csv_header();
+std::string jones_csv(const JonesPrediction& p);
+nlohmann::json jones_json(const JonesPrediction& p);
+/// The printed table (with --polarization): its header, and one row.
+void print_jones_header(bool slab);
+void print_jones_row(double f, const JonesPrediction& p);
+
+}  // namespace ty
