@@ -122,7 +122,8 @@ Command add_medium(CLI::App& app) {
   md->add_option("--image-range", o->range_text, "How far behind the slab to look for the image (default 6 wavelengths)");
   md->add_option("--plot", o->plot, "Also draw the table: FILE.png, .pdf or .svg");
   md->add_flag("--polarization", o->polarization,
-               "Also print the Jones matrices and the Faraday and Kerr rotation and ellipticity of each input wave");
+               "Also the Jones matrices and the Faraday and Kerr rotation and ellipticity of each input wave (printed, and "
+               "appended to the CSV and JSON rows)");
   md->add_option("--csv", o->csv, "Also write the table to this CSV file");
   md->add_option("--json", o->json, "Also write the results to this JSON file");
   md->add_option("--set", o->sets, "Override a scene value: key.path=value (repeatable)");

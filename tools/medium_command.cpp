@@ -14,8 +14,8 @@
 /// where the slab images a line source and how large the spot is, from the source's angular
 /// spectrum through the transfer matrix, beside the paraxial estimate. The permittivity is
 /// the medium's eps(omega) tensor (materials/permittivity/permittivity.h). The Jones matrices of
-/// reflection and transmission and the Faraday and Kerr rotation and ellipticity are in every
-/// CSV row and JSON row, and printed with --polarization (tools/medium_jones.h).
+/// reflection and transmission and the Faraday and Kerr rotation and ellipticity: with
+/// --polarization, printed and appended to every CSV and JSON row (tools/medium_jones.h).
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
@@ -304,7 +304,7 @@ int medium_command(const MediumOptions& o) {
   print_header(scene, s.medium, o);
   const double cell_n = s.normal == 0 ? scene.grid.dx : scene.grid.dy;  // the cell across the interface
   std::string csv = kCsvHeader;
-  csv.insert(csv.size() - 1, jones_csv_header());
+  if (o.polarization) csv.insert(csv.size() - 1, jones_csv_header());
   nlohmann::json rows = nlohmann::json::array();
   std::vector<Point> points;
   std::vector<JonesPrediction> jones;  // the polarization columns (medium_jones.h)
@@ -319,9 +319,9 @@ int medium_command(const MediumOptions& o) {
     print_coupling_once(p, coupling_told);
     print_point(p);
     std::string line = csv_line(p);
-    csv += line.insert(line.size() - 1, jones_csv(jones.back()));
+    csv += o.polarization ? line.insert(line.size() - 1, jones_csv(jones.back())) : line;
     nlohmann::json row = json_row(p);
-    row["polarization"] = jones_json(jones.back());
+    if (o.polarization) row["polarization"] = jones_json(jones.back());
     if (o.source_distance > 0) row["image"] = line_image(s, o, f);
     rows.push_back(row);
     points.push_back(p);

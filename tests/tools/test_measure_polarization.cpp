@@ -7,7 +7,8 @@
 /// matrix's J of the same crystal's linear response (io/analysis/spectroscopy/jones_prediction.h,
 /// itself checked against the circular eigenwaves' closed form in test_jones.cpp). The same
 /// bench with a dielectric plate (eps 5.5, no magnet) must give a diagonal J and no rotation
-/// (an isotropic plate at normal incidence: Born & Wolf sec. 7.6). Bad arguments: exit status 2.
+/// (an isotropic plate at normal incidence: Born & Wolf sec. 7.6). `medium --polarization` on the
+/// same scene must give the rotation measured. Bad arguments: exit status 2.
 #include <doctest/doctest.h>
 
 #include <cmath>
@@ -76,7 +77,10 @@ TEST_CASE("measure polarization: Faraday and Kerr rotation of a biased MnF2 plat
   const std::string hz_run = run("hz", hz), hz_ref = run("hz-ref", "--reference " + hz);
   const std::string runs = "'" + ez_run + "' '" + hz_run + "'", refs = "'" + ez_ref + "' '" + hz_ref + "'";
 
-  const auto t = measure(runs, refs, "--probe behind");
+  const std::string png = (fs::temp_directory_path() / "terayee-test-faraday.png").string();
+  fs::remove(png);
+  const auto t = measure(runs, refs, "--probe behind --plot '" + png + "'");
+  CHECK(fs::file_size(png) > 10000);  // the overlay of measured and predicted rotation and ellipticity
   REQUIRE(t.contains("predicted"));
   const Errors et = compare(t, "faraday");
   MESSAGE("transmitted, 230-300 GHz: |J - J_tm| <= " << et.J << ", rotation within " << et.theta
@@ -86,6 +90,19 @@ TEST_CASE("measure polarization: Faraday and Kerr rotation of a biased MnF2 plat
   CHECK(et.J < 0.01);  // measured 0.0033
   CHECK(et.theta < 0.2);  // measured 0.049 deg
   CHECK(et.eta < 0.2);    // measured 0.052 deg
+
+  // `medium --polarization` gives the same transfer-matrix rotation (the plate: 200 um along x)
+  const std::string mj = (fs::temp_directory_path() / "terayee-test-faraday-medium.json").string();
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " medium '" + kScene + "' --medium mnf2 --from 230GHz --to 300GHz "
+                "--count 71 --normal x --thickness 200um --polarization --json '" + mj + "' > /dev/null") == 0);
+  std::ifstream min(mj);
+  const auto medium = nlohmann::json::parse(min);
+  double worst_medium = 0;
+  for (size_t k = 0; k < 71; ++k)
+    worst_medium = std::max(worst_medium, std::abs(medium["rows"][k]["polarization"]["faraday"]["Ez-input"]["rotation-deg"].get<double>() -
+                                                   t["faraday"]["Ez-input"]["rotation-deg"][k].get<double>()));
+  MESSAGE("medium --polarization against the measured Faraday rotation: within " << worst_medium << " deg");
+  CHECK(worst_medium < 0.2);
 
   const auto r = measure(runs, refs, "--probe before --reflected");
   REQUIRE(r.contains("predicted"));
@@ -113,6 +130,31 @@ TEST_CASE("measure polarization: Faraday and Kerr rotation of a biased MnF2 plat
   CHECK(cross < 1e-6);  // measured 0: no magnet, nothing couples the two waves
   CHECK(rot < 1e-4);
   CHECK(diag < 1e-6);   // measured 1.4e-11: at normal incidence both waves see the same 1D scheme
+
+  // An EO detector (eo_detector.h) on sample and reference alike cancels in t = S/R (a fact of
+  // ratio measurements), though it reshapes each trace.
+  auto material = [&](const std::string& extra, const std::string& name) {
+    const std::string json = (fs::temp_directory_path() / ("terayee-test-faraday-" + name + ".json")).string();
+    REQUIRE(shell(std::string(TERAYEE_BINARY) + " measure material '" + g_ez + "' --reference '" + ez_ref +
+                  "' --probe behind --thickness 200um --window all --from 230GHz --to 300GHz --json '" + json + "' " +
+                  extra + " > /dev/null") == 0);
+    std::ifstream in(json);
+    return nlohmann::json::parse(in);
+  };
+  const std::string traces = (fs::temp_directory_path() / "terayee-test-faraday-traces.csv").string();
+  const auto plain = material("", "plain"), eo = material("--detector ZnTe --detector-thickness 1mm --traces '" + traces + "'", "eo");
+  double dt = 0;
+  for (size_t k = 0; k < plain["t"]["real"].size(); ++k)
+    dt = std::max(dt, std::abs(cd(plain["t"]["real"][k], plain["t"]["imag"][k]) - cd(eo["t"]["real"][k], eo["t"]["imag"][k])));
+  MESSAGE("t with a 1 mm ZnTe detector against t without: within " << dt);
+  CHECK(dt < 1e-4);
+  CHECK(eo["detector"]["crystal"] == "ZnTe");
+  CHECK(fs::file_size(traces) > 1000);
+  const std::string mat = std::string(TERAYEE_BINARY) + " measure material '" + g_ez + "' --reference '" + ez_ref +
+                          "' --probe behind --thickness 200um ";
+  CHECK(shell(mat + "--detector quartz --detector-thickness 1mm") == 2);
+  CHECK(shell(mat + "--detector ZnTe") == 2);
+  CHECK(shell(mat + "--detector ZnTe --detector-thickness 0mm") == 2);
 }
 
 TEST_CASE("measure polarization: bad arguments are refused with exit status 2") {
