@@ -58,7 +58,7 @@ TEST_CASE("EO detector: the response tends to 1 at low frequency and chi2 vanish
   CHECK_THROWS(eo_crystal("quartz"));
 }
 
-TEST_CASE("EO detector: a response applied to sample and reference cancels in t(f); the trace's spectrum is R X") {
+TEST_CASE("EO detector: a response applied to sample and reference cancels in t(f), and the trace spectrum is R X") {
   // A single-cycle reference pulse and a sample pulse delayed by tau and scaled by a: t = a e^{i w tau}.
   const double dt = 20e-15, t0 = 5e-12, s = 0.25e-12, tau = 1.7e-12, a = 0.6;
   std::vector<double> time, ref, smp;

@@ -96,7 +96,7 @@ TEST_CASE("Jones: thin, nearly matched gyrotropic slab: theta_F = (n_b - n_a) om
   }
 }
 
-TEST_CASE("Jones: MnF2 biased along the propagation is gyrotropic; its slab follows the circular eigenwaves") {
+TEST_CASE("Jones: MnF2 biased along the propagation is gyrotropic, and its slab follows the circular eigenwaves") {
   // The linear response of the crystal (easy axis and 0.3 T along x) gives the Faraday form of mu.
   Magnet mag = test::mnf2(1e-3);
   mag.anisotropy[0].axis = {1, 0, 0}, mag.order = {1, 0, 0};
