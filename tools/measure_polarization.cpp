@@ -76,7 +76,8 @@ std::optional<Geometry> geometry_of(const std::string& run, const ProbeTrace& pr
 
 nlohmann::json element_json(const std::vector<double>& freq, const std::vector<cd>& v) {
   nlohmann::json re, im, amp, ph;
-  for (const cd& z : v) re.push_back(z.real()), im.push_back(z.imag()), amp.push_back(std::abs(z)), ph.push_back(std::arg(z));
+  for (const cd& z : v)
+    re.push_back(z.real()), im.push_back(z.imag()), amp.push_back(std::abs(z)), ph.push_back(std::arg(z));
   return {{"real", re}, {"imag", im}, {"amplitude", amp}, {"phase", ph}, {"phase-unwrapped", unwrapped_phase(freq, v)}};
 }
 
@@ -105,8 +106,10 @@ nlohmann::json table_json(const std::vector<double>& freq, const Table& t, const
       j["jones"][kElement[out][in]] = element_json(freq, v);
     }
     nlohmann::json th, et, thd, etd;
-    for (const auto& s : t.state[in]) th.push_back(s.theta), et.push_back(s.eta), thd.push_back(s.theta * kDeg), etd.push_back(s.eta * kDeg);
-    j[reflected ? "kerr" : "faraday"][kInput[in]] = {{"rotation-rad", th}, {"rotation-deg", thd}, {"ellipticity-rad", et}, {"ellipticity-deg", etd}};
+    for (const auto& s : t.state[in])
+      th.push_back(s.theta), et.push_back(s.eta), thd.push_back(s.theta * kDeg), etd.push_back(s.eta * kDeg);
+    j[reflected ? "kerr" : "faraday"][kInput[in]] = {
+        {"rotation-rad", th}, {"rotation-deg", thd}, {"ellipticity-rad", et}, {"ellipticity-deg", etd}};
   }
   return j;
 }
@@ -114,15 +117,17 @@ nlohmann::json table_json(const std::vector<double>& freq, const Table& t, const
 std::string csv_of(const std::vector<double>& freq, const Table& m, const Table* p, const bool columns[2]) {
   std::ostringstream csv;
   csv << "frequency_Hz";
-  const std::vector<std::pair<std::string, const Table*>> sets = p ? std::vector<std::pair<std::string, const Table*>>{{"", &m}, {"predicted_", p}}
-                                                                  : std::vector<std::pair<std::string, const Table*>>{{"", &m}};
+  const std::vector<std::pair<std::string, const Table*>> sets =
+      p ? std::vector<std::pair<std::string, const Table*>>{{"", &m}, {"predicted_", p}}
+        : std::vector<std::pair<std::string, const Table*>>{{"", &m}};
   for (const auto& [prefix, t] : sets)
     for (int in = 0; in < 2; ++in) {
       if (!columns[in]) continue;
       for (int out = 0; out < 2; ++out)
-        csv << fmt::format(",{0}J_{1}_real,{0}J_{1}_imag,{0}J_{1}_amplitude,{0}J_{1}_phase_rad", prefix, kElement[out][in]);
-      csv << fmt::format(",{0}{1}_rotation_rad,{0}{1}_ellipticity_rad,{0}{1}_rotation_deg,{0}{1}_ellipticity_deg", prefix,
-                         in == 0 ? "ez" : "hz");
+        csv << fmt::format(",{0}J_{1}_real,{0}J_{1}_imag,{0}J_{1}_amplitude,{0}J_{1}_phase_rad", prefix,
+                           kElement[out][in]);
+      csv << fmt::format(",{0}{1}_rotation_rad,{0}{1}_ellipticity_rad,{0}{1}_rotation_deg,{0}{1}_ellipticity_deg",
+                         prefix, in == 0 ? "ez" : "hz");
     }
   csv << "\n";
   for (size_t k = 0; k < freq.size(); ++k) {
@@ -142,7 +147,8 @@ std::string csv_of(const std::vector<double>& freq, const Table& m, const Table*
   return csv.str();
 }
 
-void print_table(const std::vector<double>& freq, const Table& m, const Table* p, const bool columns[2], bool reflected) {
+void print_table(const std::vector<double>& freq, const Table& m, const Table* p, const bool columns[2],
+                 bool reflected) {
   const char* what = reflected ? "Kerr" : "Faraday";
   std::string head = fmt::format("{:>14s}", "frequency/GHz");
   for (int in = 0; in < 2; ++in)
@@ -151,9 +157,10 @@ void print_table(const std::vector<double>& freq, const Table& m, const Table* p
       head += fmt::format("  {:>10s} {:>10s}", fmt::format("{}:rot/deg", w), fmt::format("{}:ell/deg", w));
       if (p) head += fmt::format(" {:>10s} {:>10s}", "predicted", "predicted");
     }
-  std::cout << fmt::format("{} rotation and ellipticity of each input (deg; polarization.h: counterclockwise for an "
-                           "observer facing the wave is positive)\n",
-                           what)
+  std::cout << fmt::format(
+                   "{} rotation and ellipticity of each input (deg; polarization.h: counterclockwise for an "
+                   "observer facing the wave is positive)\n",
+                   what)
             << head << "\n";
   for (size_t k = 0; k < freq.size(); ++k) {
     std::string row = fmt::format("{:14.4f}", freq[k] / 1e9);
@@ -177,7 +184,8 @@ void write_overlay_plot(const std::string& path, const std::vector<double>& freq
     for (int which = 0; which < (p ? 2 : 1); ++which) {
       const Table& t = which == 0 ? m : *p;
       PlotSeries a, b;
-      a.label = b.label = fmt::format("{} input, {}", in == 0 ? "Ez" : "Hz", which == 0 ? "measured" : "transfer matrix");
+      a.label = b.label =
+          fmt::format("{} input, {}", in == 0 ? "Ez" : "Hz", which == 0 ? "measured" : "transfer matrix");
       a.style = b.style = which == 0 ? PlotSeries::Style::points : PlotSeries::Style::line;
       a.colour = b.colour = 2 * in + which;
       for (size_t k = 0; k < freq.size(); ++k) {
@@ -203,13 +211,15 @@ int measure_polarization(const PolarizationOptions& o) {
     throw BadInput(fmt::format("{}: error: {} run(s) but {} --reference: give one reference per run, in the same order",
                                cmd, o.runs.size(), o.references.size()));
   if (!o.plot.empty() && !o.csv.empty() && plot_data_path(o.plot) == o.csv)
-    throw BadInput(fmt::format("{}: error: --csv {} is where --plot writes its own data: choose another name", cmd, o.csv));
+    throw BadInput(
+        fmt::format("{}: error: --csv {} is where --plot writes its own data: choose another name", cmd, o.csv));
   std::vector<PolarizedRuns> runs;
   for (size_t q = 0; q < o.runs.size(); ++q) runs.push_back(read_polarized_runs(o.runs[q], o.references[q], o.probe));
   if (runs.size() == 2 && runs[0].input == runs[1].input)
-    throw BadInput(fmt::format("{}: error: both runs are driven by the {} wave (from their references): the second "
-                               "column of J needs a run driven by the other polarization",
-                               cmd, runs[0].input == 0 ? "Ez" : "Hz"));
+    throw BadInput(
+        fmt::format("{}: error: both runs are driven by the {} wave (from their references): the second "
+                    "column of J needs a run driven by the other polarization",
+                    cmd, runs[0].input == 0 ? "Ez" : "Hz"));
   std::vector<double> freq;
   double from = o.from, to = o.to;
   if (!(to > from)) {

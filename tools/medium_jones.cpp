@@ -27,7 +27,9 @@ nlohmann::json states_json(const PolarizationState s[2]) {
   nlohmann::json j;
   const char* names[2] = {"Ez-input", "Hz-input"};
   for (int in = 0; in < 2; ++in)
-    j[names[in]] = {{"rotation-rad", s[in].theta}, {"ellipticity-rad", s[in].eta}, {"rotation-deg", s[in].theta * kDeg},
+    j[names[in]] = {{"rotation-rad", s[in].theta},
+                    {"ellipticity-rad", s[in].eta},
+                    {"rotation-deg", s[in].theta * kDeg},
                     {"ellipticity-deg", s[in].eta * kDeg}};
   return j;
 }
@@ -66,8 +68,11 @@ void print_jones_header(bool slab) {
   std::cout << "Jones matrices from the 4x4 transfer matrix, basis (E.z, E.u), u = z x k (docs/measurements.md); "
                "rotation counterclockwise for an observer facing the wave is positive\n";
   std::string h = fmt::format("{:>11s}", "f/GHz");
-  if (slab) h += fmt::format(" {:>8s} {:>8s} {:>9s} {:>9s} {:>9s} {:>9s}", "|t_zz|", "|t_uz|", "F_Ez/deg", "eF_Ez/deg", "F_Hz/deg", "eF_Hz/deg");
-  h += fmt::format(" {:>8s} {:>8s} {:>9s} {:>9s} {:>9s} {:>9s}", "|r_zz|", "|r_uz|", "K_Ez/deg", "eK_Ez/deg", "K_Hz/deg", "eK_Hz/deg");
+  if (slab)
+    h += fmt::format(" {:>8s} {:>8s} {:>9s} {:>9s} {:>9s} {:>9s}", "|t_zz|", "|t_uz|", "F_Ez/deg", "eF_Ez/deg",
+                     "F_Hz/deg", "eF_Hz/deg");
+  h += fmt::format(" {:>8s} {:>8s} {:>9s} {:>9s} {:>9s} {:>9s}", "|r_zz|", "|r_uz|", "K_Ez/deg", "eK_Ez/deg",
+                   "K_Hz/deg", "eK_Hz/deg");
   std::cout << h << "\n  (F: Faraday rotation, eF: its ellipticity; K, eK: Kerr; per input wave)\n";
 }
 

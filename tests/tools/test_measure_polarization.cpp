@@ -29,7 +29,8 @@ const std::string kScene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/farada
 
 std::string run(const std::string& out, const std::string& args) {
   const std::string dir = (fs::temp_directory_path() / ("terayee-test-faraday-" + out)).string();
-  REQUIRE(shell(std::string(TERAYEE_BINARY) + " run '" + kScene + "' -o '" + dir + "' --quiet --overwrite " + args) == 0);
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " run '" + kScene + "' -o '" + dir + "' --quiet --overwrite " + args) ==
+          0);
   return dir;
 }
 
@@ -44,7 +45,8 @@ nlohmann::json measure(const std::string& runs, const std::string& refs, const s
 
 std::vector<cd> element(const nlohmann::json& j, const char* e) {
   std::vector<cd> v;
-  for (size_t k = 0; k < j["jones"][e]["real"].size(); ++k) v.emplace_back(j["jones"][e]["real"][k], j["jones"][e]["imag"][k]);
+  for (size_t k = 0; k < j["jones"][e]["real"].size(); ++k)
+    v.emplace_back(j["jones"][e]["real"][k], j["jones"][e]["imag"][k]);
   return v;
 }
 
@@ -84,23 +86,26 @@ TEST_CASE("measure polarization: Faraday and Kerr rotation of a biased MnF2 plat
   REQUIRE(t.contains("predicted"));
   const Errors et = compare(t, "faraday");
   MESSAGE("transmitted, 230-300 GHz: |J - J_tm| <= " << et.J << ", rotation within " << et.theta
-                                                       << " deg, ellipticity within " << et.eta << " deg (largest rotation "
-                                                       << et.largest_theta << " deg)");
+                                                     << " deg, ellipticity within " << et.eta
+                                                     << " deg (largest rotation " << et.largest_theta << " deg)");
   CHECK(et.largest_theta > 5);  // the bias does rotate: a missing coupling would fail the comparison
-  CHECK(et.J < 0.01);  // measured 0.0033
-  CHECK(et.theta < 0.2);  // measured 0.049 deg
-  CHECK(et.eta < 0.2);    // measured 0.052 deg
+  CHECK(et.J < 0.01);           // measured 0.0033
+  CHECK(et.theta < 0.2);        // measured 0.049 deg
+  CHECK(et.eta < 0.2);          // measured 0.052 deg
 
   // `medium --polarization` gives the same transfer-matrix rotation (the plate: 200 um along x)
   const std::string mj = (fs::temp_directory_path() / "terayee-test-faraday-medium.json").string();
-  REQUIRE(shell(std::string(TERAYEE_BINARY) + " medium '" + kScene + "' --medium mnf2 --from 230GHz --to 300GHz "
-                "--count 71 --normal x --thickness 200um --polarization --json '" + mj + "' > /dev/null") == 0);
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " medium '" + kScene +
+                "' --medium mnf2 --from 230GHz --to 300GHz "
+                "--count 71 --normal x --thickness 200um --polarization --json '" +
+                mj + "' > /dev/null") == 0);
   std::ifstream min(mj);
   const auto medium = nlohmann::json::parse(min);
   double worst_medium = 0;
   for (size_t k = 0; k < 71; ++k)
-    worst_medium = std::max(worst_medium, std::abs(medium["rows"][k]["polarization"]["faraday"]["Ez-input"]["rotation-deg"].get<double>() -
-                                                   t["faraday"]["Ez-input"]["rotation-deg"][k].get<double>()));
+    worst_medium = std::max(
+        worst_medium, std::abs(medium["rows"][k]["polarization"]["faraday"]["Ez-input"]["rotation-deg"].get<double>() -
+                               t["faraday"]["Ez-input"]["rotation-deg"][k].get<double>()));
   MESSAGE("medium --polarization against the measured Faraday rotation: within " << worst_medium << " deg");
   CHECK(worst_medium < 0.2);
 
@@ -124,12 +129,14 @@ TEST_CASE("measure polarization: Faraday and Kerr rotation of a biased MnF2 plat
   for (size_t k = 0; k < zz.size(); ++k) {
     cross = std::max({cross, std::abs(uz[k]), std::abs(zu[k])});
     diag = std::max(diag, std::abs(zz[k] - uu[k]));
-    for (const char* in : {"Ez-input", "Hz-input"}) rot = std::max(rot, std::abs(g["faraday"][in]["rotation-deg"][k].get<double>()));
+    for (const char* in : {"Ez-input", "Hz-input"})
+      rot = std::max(rot, std::abs(g["faraday"][in]["rotation-deg"][k].get<double>()));
   }
-  MESSAGE("dielectric plate: |J_uz|, |J_zu| <= " << cross << ", |J_zz - J_uu| <= " << diag << ", rotation <= " << rot << " deg");
+  MESSAGE("dielectric plate: |J_uz|, |J_zu| <= " << cross << ", |J_zz - J_uu| <= " << diag << ", rotation <= " << rot
+                                                 << " deg");
   CHECK(cross < 1e-6);  // measured 0: no magnet, nothing couples the two waves
   CHECK(rot < 1e-4);
-  CHECK(diag < 1e-6);   // measured 1.4e-11: at normal incidence both waves see the same 1D scheme
+  CHECK(diag < 1e-6);  // measured 1.4e-11: at normal incidence both waves see the same 1D scheme
 
   // An EO detector (eo_detector.h) on sample and reference alike cancels in t = S/R (a fact of
   // ratio measurements), though it reshapes each trace.
@@ -142,10 +149,12 @@ TEST_CASE("measure polarization: Faraday and Kerr rotation of a biased MnF2 plat
     return nlohmann::json::parse(in);
   };
   const std::string traces = (fs::temp_directory_path() / "terayee-test-faraday-traces.csv").string();
-  const auto plain = material("", "plain"), eo = material("--detector ZnTe --detector-thickness 1mm --traces '" + traces + "'", "eo");
+  const auto plain = material("", "plain"),
+             eo = material("--detector ZnTe --detector-thickness 1mm --traces '" + traces + "'", "eo");
   double dt = 0;
   for (size_t k = 0; k < plain["t"]["real"].size(); ++k)
-    dt = std::max(dt, std::abs(cd(plain["t"]["real"][k], plain["t"]["imag"][k]) - cd(eo["t"]["real"][k], eo["t"]["imag"][k])));
+    dt = std::max(
+        dt, std::abs(cd(plain["t"]["real"][k], plain["t"]["imag"][k]) - cd(eo["t"]["real"][k], eo["t"]["imag"][k])));
   MESSAGE("t with a 1 mm ZnTe detector against t without: within " << dt);
   CHECK(dt < 1e-4);
   CHECK(eo["detector"]["crystal"] == "ZnTe");
@@ -164,7 +173,8 @@ TEST_CASE("measure polarization: bad arguments are refused with exit status 2") 
   CHECK(shell(bin + one + " --probe behind > /dev/null") == 0);  // one column alone is measured
   CHECK(shell(bin + one + " --probe nowhere") == 2);
   CHECK(shell(bin + "'" + ez_run + "' '" + ez_run + "' --reference '" + ez_ref + "' --probe behind") == 2);
-  CHECK(shell(bin + "'" + ez_run + "' '" + ez_run + "' --reference '" + ez_ref + "' '" + ez_ref + "' --probe behind") == 2);
+  CHECK(shell(bin + "'" + ez_run + "' '" + ez_run + "' --reference '" + ez_ref + "' '" + ez_ref + "' --probe behind") ==
+        2);
   CHECK(shell(bin + one + " --probe behind --from 300GHz") == 2);
   CHECK(shell(bin + one + " --probe behind --from 300GHz --to 200GHz") == 2);
   CHECK(shell(bin + one + " --probe behind --count 1") == 2);

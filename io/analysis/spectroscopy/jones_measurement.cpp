@@ -24,9 +24,10 @@ double peak(const std::vector<double>& v) {
 
 void same_axis(const ProbeTrace& a, const ProbeTrace& b) {
   if (a.time != b.time)
-    throw BadInput(fmt::format("{}: error: probe '{}' has a different time axis from {}'s: the runs must share the "
-                               "scene's grid and time step",
-                               b.file, b.name, a.file));
+    throw BadInput(
+        fmt::format("{}: error: probe '{}' has a different time axis from {}'s: the runs must share the "
+                    "scene's grid and time step",
+                    b.file, b.name, a.file));
 }
 
 }  // namespace

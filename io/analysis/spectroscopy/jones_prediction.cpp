@@ -46,8 +46,10 @@ LayerStack slab_stack(const SlabModel& m, double f) {
   const Mat3c mu = m.magnetic ? Mat3c(Mat3c::Identity() + susceptibility(m.model, m.state, w)) : Mat3c::Identity();
   LayerStack st;
   st.normal = m.normal;
-  if (m.thickness > 0) st.layers = {{eps, mu, m.thickness}};
-  else st.eps_out = eps, st.mu_out = mu;
+  if (m.thickness > 0)
+    st.layers = {{eps, mu, m.thickness}};
+  else
+    st.eps_out = eps, st.mu_out = mu;
   return st;
 }
 

@@ -54,9 +54,9 @@ JonesPrediction predict_jones(const SlabModel& m, double f, double angle = 0);
 Jones with_vacuum_path(const Jones& J, double f, double d);
 
 /// The one sample body of a scene as a slab across the path of a plane wave along `axis`
-/// (0: x, 1: y; direction +1 or -1): an unrotated rectangle that reaches across the grid. Its medium, front face (the face the wave meets first) and thickness
-/// (0 where it reaches past the grid's far edge: a half-space). std::nullopt, with `why`,
-/// where the scene has no such body.
+/// (0: x, 1: y; direction +1 or -1): an unrotated rectangle that reaches across the grid. Its medium, front face (the
+/// face the wave meets first) and thickness (0 where it reaches past the grid's far edge: a half-space). std::nullopt,
+/// with `why`, where the scene has no such body.
 struct SampleSlab {
   int medium = 0;
   double front = 0, thickness = 0;  ///< internal coordinates, m

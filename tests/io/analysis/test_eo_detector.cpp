@@ -70,7 +70,8 @@ TEST_CASE("EO detector: a response applied to sample and reference cancels in t(
   const EoCrystal c = eo_crystal("ZnTe");
   const auto ref_d = eo_detected(c, 1e-3, time, ref), smp_d = eo_detected(c, 1e-3, time, smp);
   double change = 0, peak = 0;
-  for (size_t k = 0; k < ref.size(); ++k) change = std::max(change, std::abs(ref_d[k] - ref[k])), peak = std::max(peak, std::abs(ref[k]));
+  for (size_t k = 0; k < ref.size(); ++k)
+    change = std::max(change, std::abs(ref_d[k] - ref[k])), peak = std::max(peak, std::abs(ref[k]));
   CHECK(change > 0.05 * peak);  // the crystal does reshape the pulse
   const std::vector<double> freq = {0.2e12, 0.5e12, 1.0e12, 1.5e12, 2.0e12};
   const auto R = fourier(time, ref, freq, {}), Rd = fourier(time, ref_d, freq, {}), Sd = fourier(time, smp_d, freq, {});

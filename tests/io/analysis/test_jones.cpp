@@ -34,7 +34,9 @@ const cd I(0, 1);
 
 /// The Airy transmission (exit face over entrance face) of a slab of index n and relative
 /// impedance z in vacuum, normal incidence (Born & Wolf sec. 7.6).
-cd airy_t(cd n, cd z, double k0, double d) { return 1.0 / (std::cos(n * k0 * d) - 0.5 * I * (z + 1.0 / z) * std::sin(n * k0 * d)); }
+cd airy_t(cd n, cd z, double k0, double d) {
+  return 1.0 / (std::cos(n * k0 * d) - 0.5 * I * (z + 1.0 / z) * std::sin(n * k0 * d));
+}
 
 /// The closed-form Jones matrix of the gyrotropic slab (see the file's header).
 Jones circular_jones(cd eps, cd mu, cd kappa, double f, double d) {
@@ -62,7 +64,8 @@ StackResponse gyrotropic_slab(cd eps, cd mu, cd kappa, double f, double d) {
 
 TEST_CASE("Jones: a gyrotropic slab in the Faraday geometry against the circular eigenwaves (Airy per wave)") {
   const double d = 150e-6;
-  for (auto [eps, mu, kappa] : {std::tuple<cd, cd, cd>{5.5, 1.02, 0.15}, {5.5, cd(0.9, 0.05), cd(0.4, 0.1)}, {12.0, 1.0, -0.3}})
+  for (auto [eps, mu, kappa] :
+       {std::tuple<cd, cd, cd>{5.5, 1.02, 0.15}, {5.5, cd(0.9, 0.05), cd(0.4, 0.1)}, {12.0, 1.0, -0.3}})
     for (double f : {0.2e12, 0.45e12, 0.9e12}) {
       const Jones want = circular_jones(eps, mu, kappa, f, d);
       const Jones got = transmission_jones(gyrotropic_slab(eps, mu, kappa, f, d));
