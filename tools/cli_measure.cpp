@@ -37,6 +37,15 @@ bool axis_value(const std::string& text, char& axis, double& value, const std::s
   return true;
 }
 
+/// --from and --to of a measure command: both or neither, 0 < --from < --to.
+void read_band(const std::string& from_text, const std::string& to_text, double& from, double& to,
+               const std::string& command) {
+  if (!from_text.empty()) from = quantity(from_text, Kind::frequency, "--from");
+  if (!to_text.empty()) to = quantity(to_text, Kind::frequency, "--to");
+  if (from_text.empty() != to_text.empty() || (!from_text.empty() && !(to > from && from > 0)))
+    throw BadInput(fmt::format("terayee measure {}: error: --from and --to go together, 0 < --from < --to", command));
+}
+
 Command add_material(CLI::App& m) {
   struct Options : MaterialOptions {
     std::string thickness_text, perm_text, from_text, to_text, front_text, detector_text;
@@ -65,11 +74,7 @@ Command add_material(CLI::App& m) {
 
   return {mm, [o] {
             o->thickness = quantity(o->thickness_text, Kind::length, "--thickness");
-            if (!o->from_text.empty()) o->from = quantity(o->from_text, Kind::frequency, "--from");
-            if (!o->to_text.empty()) o->to = quantity(o->to_text, Kind::frequency, "--to");
-            if (o->from_text.empty() != o->to_text.empty() ||
-                (!o->from_text.empty() && !(o->to > o->from && o->from > 0)))
-              throw BadInput("terayee measure material: error: --from and --to go together, 0 < --from < --to");
+            read_band(o->from_text, o->to_text, o->from, o->to, "material");
             if (!o->perm_text.empty()) o->permittivity = complex_number(o->perm_text, "--permittivity");
             if (o->reflected_probe.empty() != o->front_text.empty())
               throw BadInput("terayee measure material: error: --reflected-probe and --front go together");
@@ -114,11 +119,7 @@ Command add_polarization(CLI::App& m) {
   mp->add_option("--plot", o->plot, "Draw the rotation and ellipticity, measured and predicted: FILE.png, .pdf or .svg");
 
   return {mp, [o] {
-            if (!o->from_text.empty()) o->from = quantity(o->from_text, Kind::frequency, "--from");
-            if (!o->to_text.empty()) o->to = quantity(o->to_text, Kind::frequency, "--to");
-            if (o->from_text.empty() != o->to_text.empty() ||
-                (!o->from_text.empty() && !(o->to > o->from && o->from > 0)))
-              throw BadInput("terayee measure polarization: error: --from and --to go together, 0 < --from < --to");
+            read_band(o->from_text, o->to_text, o->from, o->to, "polarization");
             return measure_polarization(*o);
           }};
 }

@@ -16,10 +16,10 @@ namespace ty {
 
 namespace {
 
+/// The largest |value| of a trace.
 double peak(const std::vector<double>& v) {
-  double m = 0;
-  for (double x : v) m = std::max(m, std::abs(x));
-  return m;
+  const auto by_size = [](double a, double b) { return std::abs(a) < std::abs(b); };
+  return v.empty() ? 0.0 : std::abs(*std::max_element(v.begin(), v.end(), by_size));
 }
 
 void same_axis(const ProbeTrace& a, const ProbeTrace& b) {
