@@ -108,8 +108,8 @@ Command add_polarization(CLI::App& m) {
       ->required()
       ->expected(1, 2)
       ->check(CLI::ExistingDirectory);
-  mp->add_option("--probe", o->probe, "The probe (recording Ez and Hz): behind the sample, or before it with --reflected")
-      ->required();
+  mp->add_option("--probe", o->probe, "The probe (recording Ez and Hz): behind the sample, or before it with --reflected");
+  mp->add_option("--line", o->line, "Or a power-spectrum line (its own frequencies)");
   mp->add_flag("--reflected", o->reflected, "The probe is before the sample: the Jones matrix of reflection (Kerr)");
   mp->add_option("--from", o->from_text, "Lowest frequency (default: where the reference spectrum is above 1% of its peak)");
   mp->add_option("--to", o->to_text, "Highest frequency");

@@ -66,7 +66,7 @@ int measure_material(const MaterialOptions& o);
 /// `terayee measure polarization` (tools/measure_polarization.cpp).
 struct PolarizationOptions {
   std::vector<std::string> runs, references;  ///< one or two, in the same order
-  std::string probe, json, csv, plot;
+  std::string probe, line, json, csv, plot;  ///< probe or line: where the fields are taken
   bool reflected = false;
   double from = 0, to = 0;  ///< Hz (0, 0: the band the first reference pulse covers)
   int count = 101;

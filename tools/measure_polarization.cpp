@@ -1,5 +1,6 @@
 /// \file measure_polarization.cpp
-/// \brief `terayee measure polarization RUN [RUN2] --reference REF [REF2] --probe NAME`: the 2x2
+/// \brief `terayee measure polarization RUN [RUN2] --reference REF [REF2] --probe NAME` (or
+/// --line NAME, a power-spectrum line): the 2x2
 /// Jones matrix of transmission (or, with --reflected, of reflection) in the (Ez-wave, Hz-wave)
 /// basis, one column per run driven by that input polarization against its reference run
 /// (io/analysis/spectroscopy/jones_measurement.h), and the Faraday (Kerr) rotation and
@@ -18,7 +19,7 @@
 
 #include "io/analysis/spectroscopy/jones_measurement.h"
 #include "io/analysis/spectroscopy/jones_prediction.h"
-#include "io/analysis/spectroscopy/tds_analysis.h"
+#include "io/analysis/spectroscopy/trace_spectrum.h"
 #include "io/pictures/plot.h"
 #include "io/run/atomic_file.h"
 #include "io/scene/constants.h"
@@ -42,33 +43,39 @@ struct Geometry {
   double probe_to_front = 0;  ///< m
 };
 
-std::optional<Geometry> geometry_of(const std::string& run, const ProbeTrace& probe, bool reflected) {
+/// Where the probe or line `name` crosses the axis, internal coordinates (NaN: not found).
+double output_position(const Scene& scene, const std::string& name, int axis) {
+  for (const Output& o : scene.outputs)
+    if (o.name == name) {
+      const Vec2 p = o.kind == Output::Kind::probe ? o.at : o.from;
+      return axis == 0 ? p.x : p.y;
+    }
+  return std::nan("");
+}
+
+std::optional<Geometry> geometry_of(const std::string& run, const std::string& name, bool reflected) {
   const std::string file = run + "/scene.yaml";
-  std::string why;
+  std::string why = "the run folder has no scene.yaml";
   if (std::filesystem::exists(file)) {
     const Scene scene = read_scene(file);
     const Source* plane = nullptr;
     for (const Source& s : scene.sources)
       if (s.kind == Source::Kind::plane) plane = &s;
     const double c = plane ? std::cos(plane->angle) : 0, sn = plane ? std::sin(plane->angle) : 0;
+    const int axis = std::abs(c) > 0.5 ? 0 : 1, direction = (axis == 0 ? c : sn) > 0 ? 1 : -1;
     if (!plane || !(std::abs(c) > 1 - 1e-12 || std::abs(sn) > 1 - 1e-12)) {
       why = "no plane wave along x or y";
-    } else {
-      const int axis = std::abs(c) > 0.5 ? 0 : 1, direction = (axis == 0 ? c : sn) > 0 ? 1 : -1;
-      if (const auto slab = sample_slab(scene, axis, direction, why)) {
-        if (!reflected && slab->thickness == 0) {
-          why = "the sample is a half-space: nothing is transmitted";
-        } else {
-          Geometry g;
-          g.model = slab_model(scene, slab->medium, slab->thickness, axis);
-          const double shift = axis == 0 ? scene.origin_shift.x : scene.origin_shift.y;
-          g.probe_to_front = std::abs(slab->front - shift - (axis == 0 ? probe.x : probe.y));
-          return g;
-        }
+    } else if (const auto slab = sample_slab(scene, axis, direction, why)) {
+      if (!reflected && slab->thickness == 0) {
+        why = "the sample is a half-space: nothing is transmitted";
+      } else {
+        Geometry g;
+        g.model = slab_model(scene, slab->medium, slab->thickness, axis);
+        g.probe_to_front = std::abs(slab->front - output_position(scene, name, axis));
+        if (!reflected || std::isfinite(g.probe_to_front)) return g;
+        why = fmt::format("the scene has no output '{}'", name);
       }
     }
-  } else {
-    why = "the run folder has no scene.yaml";
   }
   std::cout << fmt::format("no transfer-matrix prediction: {}\n", why);
   return std::nullopt;
@@ -207,28 +214,30 @@ void write_overlay_plot(const std::string& path, const std::vector<double>& freq
 
 int measure_polarization(const PolarizationOptions& o) {
   const std::string cmd = "terayee measure polarization";
+  if (o.probe.empty() == o.line.empty()) throw BadInput(fmt::format("{}: error: give one of --probe and --line", cmd));
+  if (!o.line.empty() && o.to > o.from)
+    throw BadInput(fmt::format("{}: error: --from and --to are for a probe: a line has its own frequencies", cmd));
   if (o.runs.size() != o.references.size())
     throw BadInput(fmt::format("{}: error: {} run(s) but {} --reference: give one reference per run, in the same order",
                                cmd, o.runs.size(), o.references.size()));
   if (!o.plot.empty() && !o.csv.empty() && plot_data_path(o.plot) == o.csv)
     throw BadInput(
         fmt::format("{}: error: --csv {} is where --plot writes its own data: choose another name", cmd, o.csv));
-  std::vector<PolarizedRuns> runs;
-  for (size_t q = 0; q < o.runs.size(); ++q) runs.push_back(read_polarized_runs(o.runs[q], o.references[q], o.probe));
-  if (runs.size() == 2 && runs[0].input == runs[1].input)
+  std::vector<double> freq;
+  if (o.to > o.from)
+    for (int m = 0; m < o.count; ++m) freq.push_back(o.from + (o.to - o.from) * m / (o.count - 1));
+  std::vector<PolarizedSpectra> inputs;
+  for (size_t q = 0; q < o.runs.size(); ++q)
+    inputs.push_back(o.line.empty() ? probe_spectra(o.runs[q], o.references[q], o.probe, freq, o.count)
+                                    : line_spectra(o.runs[q], o.references[q], o.line, freq));
+  if (inputs.size() == 2 && inputs[0].input == inputs[1].input)
     throw BadInput(
         fmt::format("{}: error: both runs are driven by the {} wave (from their references): the second "
                     "column of J needs a run driven by the other polarization",
-                    cmd, runs[0].input == 0 ? "Ez" : "Hz"));
-  std::vector<double> freq;
-  double from = o.from, to = o.to;
-  if (!(to > from)) {
-    const auto band = reference_band(runs[0].input == 0 ? runs[0].ez_ref : runs[0].hz_ref);
-    from = band[0], to = band[1];
-  }
-  for (int m = 0; m < o.count; ++m) freq.push_back(from + (to - from) * m / (o.count - 1));
-  const auto geo = geometry_of(o.runs[0], runs[0].ez, o.reflected);
-  const JonesSpectrum js = measure_jones(runs, freq, o.reflected, geo ? geo->probe_to_front : -1.0);
+                    cmd, inputs[0].input == 0 ? "Ez" : "Hz"));
+  const std::string name = o.line.empty() ? o.probe : o.line;
+  const auto geo = geometry_of(o.runs[0], name, o.reflected);
+  const JonesSpectrum js = measure_jones(inputs, freq, o.reflected, geo ? geo->probe_to_front : -1.0);
   const Table measured = table_of(js.J, js.columns, o.reflected);
   std::optional<Table> predicted;
   if (geo) {
@@ -242,12 +251,13 @@ int measure_polarization(const PolarizationOptions& o) {
   const Table* pred = predicted ? &*predicted : nullptr;
   print_table(freq, measured, pred, js.columns, o.reflected);
   nlohmann::json j = table_json(freq, measured, js.columns, o.reflected);
-  j["runs"] = o.runs, j["references"] = o.references, j["probe"] = o.probe;
+  j["runs"] = o.runs, j["references"] = o.references;
+  j[o.line.empty() ? "probe" : "line"] = name;
   j["geometry"] = o.reflected ? "reflected" : "transmitted";
   j["convention"] =
       "fields ~ exp(-i omega t); Jones basis (E.z, E.u), u = z x k of the incident wave; J[out][in]; rotation "
       "counterclockwise for an observer facing the wave is positive (docs/measurements.md)";
-  j["referred-to"] = o.reflected && geo ? "the sample's front face" : "the probe";
+  j["referred-to"] = o.reflected && geo ? "the sample's front face" : o.line.empty() ? "the probe" : "the line";
   j["frequency"] = freq;
   if (pred) j["predicted"] = table_json(freq, *pred, js.columns, o.reflected);
   if (!o.json.empty()) write_text_atomically(o.json, j.dump(2) + "\n");

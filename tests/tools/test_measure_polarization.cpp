@@ -34,11 +34,12 @@ std::string run(const std::string& out, const std::string& args) {
   return dir;
 }
 
-nlohmann::json measure(const std::string& runs, const std::string& refs, const std::string& args) {
+nlohmann::json measure(const std::string& runs, const std::string& refs, const std::string& args,
+                       const std::string& band = "--from 230GHz --to 300GHz --count 71") {
   const std::string json = (fs::temp_directory_path() / "terayee-test-faraday.json").string();
   fs::remove(json);
-  REQUIRE(shell(std::string(TERAYEE_BINARY) + " measure polarization " + runs + " --reference " + refs +
-                " --from 230GHz --to 300GHz --count 71 --json '" + json + "' " + args + " > /dev/null") == 0);
+  REQUIRE(shell(std::string(TERAYEE_BINARY) + " measure polarization " + runs + " --reference " + refs + " " + band +
+                " --json '" + json + "' " + args + " > /dev/null") == 0);
   std::ifstream in(json);
   return nlohmann::json::parse(in);
 }
@@ -92,6 +93,15 @@ TEST_CASE("measure polarization: Faraday and Kerr rotation of a biased MnF2 plat
   CHECK(et.J < 0.01);           // measured 0.0033
   CHECK(et.theta < 0.2);        // measured 0.049 deg
   CHECK(et.eta < 0.2);          // measured 0.052 deg
+
+  // the same from the power-spectrum line behind the plate (its own 15 frequencies)
+  const auto tl = measure(runs, refs, "--line transmitted", "");
+  REQUIRE(tl["frequency"].size() == 15);
+  const Errors el = compare(tl, "faraday");
+  MESSAGE("line: |J - J_tm| <= " << el.J << ", rotation within " << el.theta << " deg, ellipticity within " << el.eta);
+  CHECK(el.J < 0.01);
+  CHECK(el.theta < 0.2);
+  CHECK(el.eta < 0.2);
 
   // `medium --polarization` gives the same transfer-matrix rotation (the plate: 200 um along x)
   const std::string mj = (fs::temp_directory_path() / "terayee-test-faraday-medium.json").string();
@@ -178,5 +188,9 @@ TEST_CASE("measure polarization: bad arguments are refused with exit status 2") 
   CHECK(shell(bin + one + " --probe behind --from 300GHz") == 2);
   CHECK(shell(bin + one + " --probe behind --from 300GHz --to 200GHz") == 2);
   CHECK(shell(bin + one + " --probe behind --count 1") == 2);
-  CHECK(shell(bin + one) == 2);  // no probe
+  CHECK(shell(bin + one) == 2);  // neither probe nor line
+  CHECK(shell(bin + one + " --probe behind --line transmitted") == 2);
+  CHECK(shell(bin + one + " --line transmitted --from 230GHz --to 300GHz") == 2);
+  CHECK(shell(bin + one + " --line nowhere") == 2);
+  CHECK(shell(bin + one + " --probe behind --plot /tmp/x.png --csv /tmp/x.csv") == 2);  // the plot's own data file
 }

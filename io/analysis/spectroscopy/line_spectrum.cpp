@@ -8,8 +8,6 @@
 
 namespace ty {
 
-namespace {
-
 std::complex<double> line_mean(const PowerSpectrumLine& a, const PowerSpectrumLine* minus, size_t f, int c) {
   std::complex<double> s = 0;
   double w = 0;
@@ -19,8 +17,6 @@ std::complex<double> line_mean(const PowerSpectrumLine& a, const PowerSpectrumLi
   }
   return s / w;
 }
-
-}  // namespace
 
 int dominant_polarization(const PowerSpectrumLine& ref) {
   double ez = 0, hz = 0;

@@ -19,6 +19,10 @@
 
 namespace ty {
 
+/// <F> of component c at frequency index f: the weighted mean over the line's points (of the
+/// difference a - minus, with minus the reference run's line).
+std::complex<double> line_mean(const PowerSpectrumLine& a, const PowerSpectrumLine* minus, size_t f, int c);
+
 /// 2 (Ez) or 5 (Hz): the component whose reference line mean is the larger over the band.
 int dominant_polarization(const PowerSpectrumLine& reference);
 
