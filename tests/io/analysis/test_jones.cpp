@@ -14,6 +14,8 @@
 ///   magnitude (n_+ - n_-) omega d / 2c of the texts, with + the counterclockwise wave, and the
 ///   sign of our convention).
 /// - A non-magnetic slab: J diagonal, J_zz = J_uu = the Airy t, no rotation.
+/// - The Voigt geometry: linear eigenwaves, the Hz wave with the Voigt permeability; a tilted
+///   axis: energy conserved per input column (lossless tensors).
 #include <doctest/doctest.h>
 
 #include <cmath>
@@ -149,4 +151,55 @@ TEST_CASE("Jones: a dielectric slab gives a diagonal J, the Airy t on it, and no
         CHECK(std::abs(p.kerr[in].eta) < 1e-12);
       }
     }
+}
+
+TEST_CASE("Jones: Voigt geometry (bias across the path, in the plane): linear eigenwaves, the Hz wave sees mu_V") {
+  // propagation along x, gyrotropy about y: in the (z, x) plane mu = [[mu, -i kappa], [i kappa, mu]],
+  // mu_yy = 1. The Ez wave (H along y) sees mu_yy; the Hz wave (H in the z-x plane, B_x = 0) the
+  // Voigt permeability mu_V = (mu^2 - kappa^2) / mu (Gurevich & Melkov, Magnetization
+  // Oscillations and Waves (1996), ch. 1 -- from memory). Each crosses by the Airy formula.
+  const double d = 120e-6;
+  const cd eps = 5.5, mu = cd(1.3, 0.02), kappa = cd(0.5, 0.01);
+  LayerStack s;
+  s.normal = 0;
+  Mat3c m = Mat3c::Identity();
+  m(2, 2) = m(0, 0) = mu;
+  m(2, 0) = -I * kappa, m(0, 2) = I * kappa;
+  s.layers = {{Mat3c::Identity() * eps, m, d}};
+  const cd muV = (mu * mu - kappa * kappa) / mu;
+  for (double f : {0.15e12, 0.4e12, 0.8e12}) {
+    const Jones J = transmission_jones(stack_response(s, 2 * pi * f, 0.0));
+    const double k0 = 2 * pi * f / c0;
+    CHECK(std::abs(J[0][0] - airy_t(std::sqrt(eps), 1.0 / std::sqrt(eps), k0, d)) < 1e-10);
+    CHECK(std::abs(J[1][1] - airy_t(std::sqrt(eps * muV), std::sqrt(muV / eps), k0, d)) < 1e-10);
+    CHECK(std::abs(J[0][1]) + std::abs(J[1][0]) < 1e-12);
+  }
+}
+
+TEST_CASE("Jones: a lossless slab with a tilted gyrotropy axis conserves energy in each input's column") {
+  // The axis between x and y couples the waves; with Hermitian eps and mu no power is lost:
+  // sum over outputs |J_t|^2 + |J_r|^2 = 1 per input (Poynting's theorem; vacuum on both sides).
+  const double d = 80e-6, c = std::cos(0.6), sn = std::sin(0.6);
+  const cd mu = 1.2, kappa = 0.35;
+  Mat3c m = Mat3c::Identity() * mu;  // gyrotropic about a = (c, sn, 0): mu (1 - aa) + aa + i kappa [a]x
+  const Eigen::Vector3cd a(c, sn, 0);
+  m -= (mu - 1.0) * a * a.transpose();
+  Mat3c cross;
+  cross << 0, -a(2), a(1), a(2), 0, -a(0), -a(1), a(0), 0;
+  m += I * kappa * cross;
+  CHECK((m - m.adjoint()).norm() < 1e-12);
+  LayerStack s;
+  s.normal = 0;
+  s.layers = {{Mat3c::Identity() * 4.0, m, d}};
+  for (double f : {0.2e12, 0.6e12}) {
+    const StackResponse r = stack_response(s, 2 * pi * f, 0.0);
+    const Jones Jt = transmission_jones(r), Jr = reflection_jones(r);
+    double coupled = 0;
+    for (int in = 0; in < 2; ++in) {
+      const double sum = std::norm(Jt[0][in]) + std::norm(Jt[1][in]) + std::norm(Jr[0][in]) + std::norm(Jr[1][in]);
+      CHECK(sum == doctest::Approx(1.0).epsilon(1e-10));
+      coupled = std::max(coupled, std::abs(Jt[1 - in][in]));
+    }
+    CHECK(coupled > 1e-3);  // the tilted axis does couple the waves
+  }
 }
