@@ -9,6 +9,7 @@
 #include "../../helpers.h"
 #include "io/scene/diagnostics.h"
 #include "io/scene/scene_reader.h"
+#include "io/scene/scene_writer.h"
 #include "materials/magnetic/domain_state.h"
 #include "materials/magnetic/linear_response.h"
 #include "solver/simulation.h"
@@ -123,6 +124,10 @@ sources:
   REQUIRE(s.bodies.size() == 2);
   CHECK_FALSE(s.bodies[0].magnetic.given());
   CHECK(s.bodies[1].magnetic.reversed);
+  // the resolved scene (a run's scene.yaml, read back to resume) keeps the body's order
+  const Scene back = read_scene_text(resolved_scene_yaml(s), "back.yaml");
+  CHECK(back.bodies[1].magnetic.reversed);
+  CHECK_FALSE(back.bodies[0].magnetic.given());
   Simulation<double> sim(s);
   const MagneticCells& M = sim.magnets();
   REQUIRE(M.models.size() == 2);
