@@ -16,7 +16,7 @@
 #include "materials/dielectric.h"
 #include "materials/crystals/temperature.h"
 #include "materials/magnetic/linear_response.h"
-#include "materials/magnetic/state_choice.h"
+#include "materials/magnetic/domain_state.h"
 #include "materials/permittivity/permittivity.h"
 #include "solver/grid/yee_grid.h"
 #include "solver/stop_rule.h"
@@ -46,6 +46,41 @@ std::string band_list(const std::vector<Band>& bands) {
   return out;
 }
 
+/// The state each body of magnetic medium k starts from: the medium's, or its own (an
+/// antiferromagnetic domain: `order`, `state` on the body; materials/magnetic/domain_state.h).
+void report_bodies(const Scene& s, size_t k, const MagnetModel& M) {
+  for (size_t b = 0; b < s.bodies.size(); ++b) {
+    const Body& body = s.bodies[b];
+    if (body.medium != static_cast<int>(k)) continue;
+    if (!body.magnetic.given()) {
+      std::cout << fmt::format("    body {} (line {}): the medium's state\n", b + 1, body.where.line);
+      continue;
+    }
+    const ChosenState own = choose_body_state(*s.media[k].magnet, body.magnetic, s.bias);
+    std::cout << fmt::format("    body {} (line {}): its own state, {}\n", b + 1, body.where.line, own.how);
+    for (int q = 0; q < M.n; ++q) std::cout << fmt::format("      sublattice {}: {}\n", q + 1, direction(own.state.m[q]));
+    const Vec3 net = M.net(own.state.m);
+    std::cout << fmt::format("      net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", clean(net.x()), clean(net.y()),
+                             clean(net.z()));
+  }
+}
+
+/// A medium's temperature: how its values were scaled, and the damping its linewidth table set.
+void report_thermal(const Medium& med, const MagnetModel& M) {
+  if (const Thermal& th = med.magnet->thermal; th.active()) {
+    const ThermalScale t = thermal_scale(th);
+    std::cout << fmt::format("    {} at {:g} K (values given at {:g} K): mu0*Ms x {:.4f}, exchange and DM fields "
+                             "x {:.4f}, anisotropy fields x {:.4f}\n",
+                             med.crystal.empty() ? "thermal data" : med.crystal, th.temperature, th.reference,
+                             t.magnetization, t.magnetization, t.anisotropy);
+    if (!th.linewidth.empty())
+      std::cout << fmt::format("    damping {:.4g} at {:g} K: the zero-field line's width there, {:.4g} GHz, from the "
+                               "linewidth table ({} points, {:g}-{:g} K)\n",
+                               M.alpha[0], th.temperature, thermal_linewidth(th) / 1e9, th.linewidth.size(),
+                               th.linewidth.front()[0], th.linewidth.back()[0]);
+  }
+}
+
 /// Ground state, resonances and negative-permeability bands of each magnetic medium;
 /// returns the number of warnings.
 int report_magnets(const Scene& s, double f_lo, double f_hi, const std::array<bool, 2>& uniform) {
@@ -59,13 +94,7 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, const std::array<bo
     const MagneticState& st0 = chosen.state;
     std::cout << fmt::format("  magnetic medium '{}' ({} sublattice{}), bias [{}, {}, {}] T:\n", med.name, M.n,
                              M.n == 1 ? "" : "s", s.bias[0], s.bias[1], s.bias[2]);
-    if (const Thermal& th = med.magnet->thermal; th.active()) {
-      const ThermalScale t = thermal_scale(th);
-      std::cout << fmt::format("    {} at {:g} K (values given at {:g} K): mu0*Ms x {:.4f}, exchange and DM fields "
-                               "x {:.4f}, anisotropy fields x {:.4f}\n",
-                               med.crystal.empty() ? "thermal data" : med.crystal, th.temperature, th.reference,
-                               t.magnetization, t.magnetization, t.anisotropy);
-    }
+    report_thermal(med, M);
     const auto all = listed_states(gs);
     std::cout << "    states under this bias (choose one with 'state: N' in the magnet block):\n";
     for (size_t q = 0; q < all.size(); ++q)
@@ -81,6 +110,7 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, const std::array<bo
     const Vec3 net = M.net(st0.m);
     std::cout << fmt::format("      net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", clean(net.x()), clean(net.y()),
                              clean(net.z()));
+    report_bodies(s, k, M);
     if (std::hypot(net.x(), net.y()) > 1e-9) {
       std::cout << "    warning: the ground state has a net moment in the plane; the static field inside a body would "
                    "differ from the bias (terayee does not solve static demagnetization)\n";

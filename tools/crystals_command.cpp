@@ -36,6 +36,18 @@ void show(const Crystal& c, double t) {
     line(what.c_str(), c.dzyaloshinskii, " T");
   }
   line("damping", c.damping, "");
+  if (!c.linewidth.empty()) {
+    std::cout << fmt::format("  zero-field line width against temperature (FWHM; with `temperature` and no damping "
+                             "given it sets the damping)  [{}]\n",
+                             c.linewidth_source);
+    for (const auto& p : c.linewidth) {
+      Magnet g = crystal_magnet(c);
+      g.thermal.temperature = p.temperature;
+      g.thermal.linewidth = {{p.temperature, p.fwhm}};
+      std::cout << fmt::format("    {:6.1f} K: {:8.4g} GHz  (damping {:.3g})\n", p.temperature, p.fwhm / 1e9,
+                               MagnetModel(g, {0, 0, 0}).alpha[0]);
+    }
+  }
   line("spin S", c.spin, "");
   line("ordering temperature", c.ordering, " K");
   line("anisotropy power", c.anisotropy_power, "");
@@ -58,6 +70,11 @@ void show(const Crystal& c, double t) {
   if (!c.note.empty()) std::cout << fmt::format("  note: {}\n", c.note);
   Magnet g = crystal_magnet(c);
   if (t >= 0) g.thermal.temperature = t;
+  if (t >= 0 && !c.linewidth.empty()) {  // as a scene with `temperature` and no damping takes it
+    for (const auto& p : c.linewidth) g.thermal.linewidth.push_back({p.temperature, p.fwhm});
+    std::cout << fmt::format("  at {:g} K the line is {:.4g} GHz wide: damping {:.3g}\n", t,
+                             thermal_linewidth(g.thermal) / 1e9, MagnetModel(g, {0, 0, 0}).alpha[0]);
+  }
   const MagnetModel M(g, {0, 0, 0});
   const auto f = resonances(M, choose_state(g, {0, 0, 0}).state);
   std::string model;

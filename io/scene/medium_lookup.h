@@ -10,5 +10,8 @@ namespace ty {
 /// on top. Positions outside the extent are moved to its nearest edge first, so bodies
 /// continue straight through the absorbing layers.
 int medium_at(const Scene& s, Vec2 p);
+/// The body holding p (the last in the list; -1: vacuum), with the same clamping: a body
+/// may carry its own magnetic order (Body::magnetic).
+int body_at(const Scene& s, Vec2 p);
 
 }  // namespace ty

@@ -105,6 +105,9 @@ struct Thermal {
   double spin = 0;         ///< S of the mean-field Brillouin law
   double ordering = 0;     ///< Neel or Curie temperature, K
   double anisotropy_power = 3;  ///< K(T)/K(ref) = (m(T)/m(ref))^power; 3 = Callen-Callen, l = 2
+  /// the zero-field line's full width at half maximum against temperature, (K, Hz), rising
+  /// in K; when given, it sets the damping at `temperature` (materials/crystals/temperature.h)
+  std::vector<std::array<double, 2>> linewidth;
   bool active() const { return spin > 0; }
 };
 
@@ -151,10 +154,21 @@ struct Shape {
   void bounds(Vec2& lo, Vec2& hi) const;
 };
 
+/// A body's own magnetic order (an antiferromagnetic domain): its cells start from this
+/// state instead of the medium's (materials/magnetic/domain_state.h).
+struct BodyOrder {
+  bool reversed = false;                 ///< `order: reversed`: the state of equal energy with sublattice 1 turned over
+  std::array<double, 3> order{0, 0, 0};  ///< `order: [x, y, z]`: the magnet's `order` for this body
+  std::string state;                     ///< `state: ...` as in the magnet block (empty: the medium's)
+  Mark where;
+  bool given() const { return reversed || order != std::array<double, 3>{0, 0, 0} || !state.empty(); }
+};
+
 struct Body {
   int medium = 0;  ///< index into Scene::media
   Shape shape;
   bool sample = false;
+  BodyOrder magnetic;  ///< per-body state of a magnetic medium (none given: the medium's)
   Mark where;
 };
 

@@ -44,9 +44,12 @@ void permittivity_tensor(YAML::Emitter& e, const PermittivityTensor& t) {
 void magnet(YAML::Emitter& e, const Magnet& g) {
   e << YAML::Key << "magnet" << YAML::Value << YAML::Flow << YAML::BeginMap;
   e << YAML::Key << "sublattices" << YAML::Value << YAML::Flow << YAML::BeginSeq;
-  for (const auto& sl : g.sublattices)
+  for (const auto& sl : g.sublattices) {  // a linewidth table sets the damping (thermal below)
     e << YAML::Flow << YAML::BeginMap << YAML::Key << "saturation" << YAML::Value << q(sl.saturation, Kind::magnetic_field)
-      << YAML::Key << "g" << YAML::Value << sl.g << YAML::Key << "damping" << YAML::Value << sl.damping << YAML::EndMap;
+      << YAML::Key << "g" << YAML::Value << sl.g;
+    if (g.thermal.linewidth.empty()) e << YAML::Key << "damping" << YAML::Value << sl.damping;
+    e << YAML::EndMap;
+  }
   e << YAML::EndSeq;
   const bool two = g.sublattices.size() == 2;
   if (two) e << YAML::Key << "exchange-constant" << YAML::Value << g.lambda;
@@ -71,7 +74,14 @@ void magnet(YAML::Emitter& e, const Magnet& g) {
     e << YAML::Key << "thermal" << YAML::Value << YAML::Flow << YAML::BeginMap << YAML::Key << "spin" << YAML::Value
       << g.thermal.spin << YAML::Key << "ordering" << YAML::Value << q(g.thermal.ordering, Kind::temperature)
       << YAML::Key << "reference" << YAML::Value << q(g.thermal.reference, Kind::temperature) << YAML::Key
-      << "anisotropy-power" << YAML::Value << g.thermal.anisotropy_power << YAML::EndMap;
+      << "anisotropy-power" << YAML::Value << g.thermal.anisotropy_power;
+  if (g.thermal.active() && !g.thermal.linewidth.empty()) {
+    e << YAML::Key << "linewidth" << YAML::Value << YAML::Flow << YAML::BeginSeq;
+    for (const auto& p : g.thermal.linewidth)
+      e << YAML::Flow << YAML::BeginSeq << q(p[0], Kind::temperature) << q(p[1], Kind::frequency) << YAML::EndSeq;
+    e << YAML::EndSeq;
+  }
+  if (g.thermal.active()) e << YAML::EndMap;
   if (!g.state.history.empty()) {
     e << YAML::Key << "history" << YAML::Value << YAML::Flow << YAML::BeginSeq;
     for (const auto& b : g.state.history) vec3(e, b, Kind::magnetic_field);
@@ -211,7 +221,15 @@ void bodies_section(YAML::Emitter& e, const Scene& s) {
   for (const auto& b : s.bodies) {
     e << YAML::Flow << YAML::BeginMap << YAML::Key << "medium" << YAML::Value << s.media[b.medium].name;
     shape(e, s, b.shape);
-    e << YAML::Key << "sample" << YAML::Value << b.sample << YAML::EndMap;
+    e << YAML::Key << "sample" << YAML::Value << b.sample;
+    const BodyOrder& o = b.magnetic;  // a body's own magnetic order (an antiferromagnetic domain)
+    if (o.reversed) e << YAML::Key << "order" << YAML::Value << "reversed";
+    if (o.order != std::array<double, 3>{0, 0, 0}) {
+      e << YAML::Key << "order" << YAML::Value;
+      vec3(e, o.order, Kind::dimensionless);
+    }
+    if (!o.state.empty()) e << YAML::Key << "state" << YAML::Value << o.state;
+    e << YAML::EndMap;
   }
   e << YAML::EndSeq;
 }

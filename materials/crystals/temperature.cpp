@@ -5,6 +5,8 @@
 
 #include <cmath>
 
+#include "io/scene/constants.h"
+
 namespace ty {
 
 double brillouin(double S, double x) {
@@ -34,6 +36,26 @@ ThermalScale thermal_scale(const Thermal& th) {
   const double m_ref = mean_field_magnetization(th.spin, th.reference / th.ordering);
   const double r = m / m_ref;
   return {r, std::pow(r, th.anisotropy_power - 1)};
+}
+
+double thermal_linewidth(const Thermal& th) {
+  const auto& t = th.linewidth;
+  if (t.empty()) return 0;
+  const double T = th.temperature;
+  if (T <= t.front()[0]) return t.front()[1];
+  if (T >= t.back()[0]) return t.back()[1];
+  size_t k = 1;
+  while (t[k][0] < T) ++k;
+  const double u = (T - t[k - 1][0]) / (t[k][0] - t[k - 1][0]);
+  return (1 - u) * t[k - 1][1] + u * t[k][1];
+}
+
+double damping_from_linewidth(double fwhm, double gamma, double b_exchange, double b_anisotropy) {
+  // G (1 + alpha^2) = alpha gamma (B_E + B_A), G = pi fwhm: the smaller root in alpha
+  const double r = constants::pi * fwhm / (gamma * (b_exchange + b_anisotropy));
+  if (r <= 0) return 0;
+  if (r >= 0.5) return 1;  // wider than any Gilbert damping of this line can make it
+  return (1 - std::sqrt(1 - 4 * r * r)) / (2 * r);
 }
 
 }  // namespace ty

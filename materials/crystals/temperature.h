@@ -25,4 +25,18 @@ struct ThermalScale {
 };
 ThermalScale thermal_scale(const Thermal& th);
 
+/// The full width at half maximum of the zero-field line at th.temperature, Hz, from the
+/// table th.linewidth (K, Hz): straight lines between its points, its end values held
+/// beyond them. 0 without a table.
+double thermal_linewidth(const Thermal& th);
+
+/// The Gilbert damping that gives a two-sublattice uniaxial antiferromagnet's zero-field line
+/// the width `fwhm` (Hz): linearising the LLG equation about the collinear state gives the
+/// modes exp(-i w t - G t) with G = alpha gamma (B_E + B_A) / (1 + alpha^2) (the exchange-
+/// enhanced width, with the 1 + alpha^2 of Gilbert's form as for one sublattice; derived, as
+/// in Gurevich & Melkov, Magnetization Oscillations and Waves (CRC 1996), ch. 1; to O(B_A/B_E)
+/// against the model's damped modes, checked in test_linewidth.cpp), and the line's full width
+/// is 2G/2pi. The smaller root in alpha; 1 where no alpha gives the width.
+double damping_from_linewidth(double fwhm, double gamma, double b_exchange, double b_anisotropy);
+
 }  // namespace ty

@@ -26,6 +26,14 @@ MagnetModel::MagnetModel(const Magnet& m, const std::array<double, 3>& b0) {
   }
   b_d = t.magnetization * Vec3(m.dzyaloshinskii[0], m.dzyaloshinskii[1], m.dzyaloshinskii[2]);
   mu_d = n == 2 ? std::sqrt(mu[0] * mu[1]) : 0.0;
+  if (!m.thermal.linewidth.empty() && n == 2) {
+    // the damping from the line's width at this temperature (temperature.h); the easy axis
+    // is the largest positive anisotropy field (the reader allows the table on such magnets)
+    double b_easy = 0;
+    for (double b : b_a) b_easy = std::max(b_easy, b);
+    for (int s = 0; s < n; ++s)
+      alpha[s] = damping_from_linewidth(thermal_linewidth(m.thermal), gamma[s], lambda * std::sqrt(mu[0] * mu[1]), b_easy);
+  }
   bias = Vec3(b0[0], b0[1], b0[2]);
   order = Vec3(m.order[0], m.order[1], m.order[2]);
 }

@@ -11,7 +11,8 @@
 ///   B_DM,1 = (mu_D/mu_1) B_D x m_2,   B_DM,2 = (mu_D/mu_2) m_1 x B_D,
 /// and the Landau-Lifshitz-Gilbert equation dm_s/dt = -gamma_s m_s x B_eff,s + alpha_s m_s x dm_s/dt.
 /// A magnet with thermal data takes its values at its temperature (materials/crystals/
-/// temperature.h): mu_s and B_D scaled by m(T)/m(ref), B_A,k by its power law, lambda kept.
+/// temperature.h): mu_s and B_D scaled by m(T)/m(ref), B_A,k by its power law, lambda kept;
+/// with a linewidth table the damping alpha_s is the one that gives the table's width there.
 #pragma once
 #include <Eigen/Dense>
 #include <array>

@@ -12,7 +12,7 @@
 #include "io/scene/units.h"
 #include "materials/dielectric.h"
 #include "materials/magnetic/linear_response.h"
-#include "materials/magnetic/state_choice.h"
+#include "solver/media/magnet_slots.h"
 #include "solver/simulation.h"
 
 namespace ty {
@@ -75,39 +75,18 @@ void Simulation<R>::build_magnets() {
   MagneticCells& M = mag_;
   const int nx = g_.nx, ny = g_.ny;
   M.cell_of.assign(static_cast<size_t>(nx) * ny, -1);
-  std::vector<int> slot_of_medium(s.media.size(), -1);
   std::vector<double> f_max_of;
-  for (size_t k = 0; k < s.media.size(); ++k) {
-    if (!s.media[k].magnet) continue;
-    bool used = false;
-    for (const Body& b : s.bodies) used |= b.medium == static_cast<int>(k);
-    if (!used) continue;
-    slot_of_medium[k] = static_cast<int>(M.models.size());
-    M.models.emplace_back(*s.media[k].magnet, s.bias);
-    const ChosenState chosen = choose_state(*s.media[k].magnet, s.bias);
-    M.ground.push_back(chosen.state);
-    const auto f = resonances(M.models.back(), M.ground.back());
-    const double f_max = f.empty() ? M.models.back().gamma[0] * 1.0 / (2 * constants::pi) : f.back();
-    f_max_of.push_back(f_max);
-    const MagnetModel& mm = M.models.back();
-    const Vec3 mg = mm.net(M.ground.back().m);
-    M.net.push_back({mm.mu[0], mm.n == 2 ? mm.mu[1] : 0.0, mg[0], mg[1], mg[2]});
-    notes_.push_back(fmt::format("magnetic medium '{}': starts in {}; cells tilted past {:g} rad take the "
-                                 "exponential midpoint, past 7 degrees the midpoint rule in {} sub-step{} per time step",
-                                 s.media[k].name, chosen.how, CellStep::kTilt,
-                                 LlgCoefficients::from(M.models.back(), g_.dt, f_max).substeps,
-                                 LlgCoefficients::from(M.models.back(), g_.dt, f_max).substeps == 1 ? "" : "s"));
-  }
+  const std::vector<int> slot_of_body = magnet_slots(s, g_.dt, M, f_max_of, notes_);
   M.row_runs.assign(static_cast<size_t>(ny) + 1, 0);
   if (M.models.empty()) return;
-  // the medium slot of every grid cell (-1: not magnetic; none on a magnetic wall, where
-  // tangential H is held at zero)
+  // the slot of every grid cell (-1: not magnetic; none on a magnetic wall, where
+  // tangential H is held at zero): the body holding its centre decides
   std::vector<int> slot(static_cast<size_t>(nx) * ny, -1);
   for (int j = 0; j < ny; ++j)
     for (int i = 0; i < nx; ++i) {
       if (!walls_.cell_allowed(i, j, nx, ny)) continue;
-      const int med = medium_at(s, {g_.x(Component::Hz, i), g_.y(Component::Hz, j)});
-      if (med >= 0) slot[static_cast<size_t>(j) * nx + i] = slot_of_medium[med];
+      const int b = body_at(s, {g_.x(Component::Hz, i), g_.y(Component::Hz, j)});
+      if (b >= 0) slot[static_cast<size_t>(j) * nx + i] = slot_of_body[b];
     }
   // The cell's field is G B / mu0 - mu0 dM (magnetic_cells.h): along x and y its own M is a
   // self field of 1, along z (G P = 1) its own reaction; one step per medium, whatever the

@@ -15,7 +15,10 @@ Magnet crystal_magnet(const Crystal& c, const Rot3& r) {
     g.dzyaloshinskii = r * d;
   }
   g.order = r * c.order;
-  g.thermal = {c.reference, c.reference, c.spin.value, c.ordering.value, c.anisotropy_power.value};
+  g.thermal.temperature = g.thermal.reference = c.reference;
+  g.thermal.spin = c.spin.value;
+  g.thermal.ordering = c.ordering.value;
+  g.thermal.anisotropy_power = c.anisotropy_power.value;
   return g;
 }
 

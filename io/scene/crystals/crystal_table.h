@@ -36,6 +36,13 @@ struct CrystalAxisTerm {
   Cited field;                          ///< mu0*H_A, T; > 0 easy, < 0 hard
 };
 
+/// One point of a line's width against temperature: the zero-field resonance's full width at
+/// half maximum (a published table, read off or recalled as its source says).
+struct LinewidthPoint {
+  double temperature = 0;  ///< K
+  double fwhm = 0;         ///< Hz
+};
+
 struct Crystal {
   std::string_view name;
   std::string_view kind;  ///< what the model takes it as
@@ -48,6 +55,10 @@ struct Crystal {
   Cited dzyaloshinskii;                  ///< mu0*H_D along dm_axis, T
   std::array<double, 3> order{0, 0, 1};  ///< sublattice 1's side, crystal frame
   Cited damping;                         ///< Gilbert alpha (0 with no source: none published here)
+  /// the zero-field line's width against temperature (empty: none): with `temperature` and
+  /// no damping given, it sets the damping (materials/crystals/temperature.h)
+  std::vector<LinewidthPoint> linewidth;
+  std::string_view linewidth_source;
   Cited spin;                            ///< S of the Brillouin law
   Cited ordering;                        ///< Neel or Curie temperature, K
   double reference = 0;                  ///< K, where the magnetic values hold

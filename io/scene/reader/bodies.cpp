@@ -8,10 +8,11 @@ namespace ty::reader {
 
 void SceneBuilder::read_body(const YAML::Node& b) {
   if (!r_.is_map(b, "bodies item")) return;
-  r_.allow(b, {"medium", "rectangle", "circle", "polygon", "sample"}, "a body");
+  r_.allow(b, {"medium", "rectangle", "circle", "polygon", "sample", "order", "state"}, "a body");
   Body body;
   body.where = r_.mark(b);
   bool ok = read_body_medium(b, body);
+  if (ok) read_body_order(b, body);
   int shapes = 0;
   for (auto k : {"rectangle", "circle", "polygon"}) shapes += b[k] ? 1 : 0;
   if (shapes != 1) {
@@ -100,6 +101,40 @@ bool SceneBuilder::read_body_medium(const YAML::Node& b, Body& body) {
     }
   }
   return ok;
+}
+
+/// A body's own magnetic order (an antiferromagnetic domain): `order: reversed` or a
+/// direction, and `state`, for the cells of this body only (materials/magnetic/domain_state.h).
+void SceneBuilder::read_body_order(const YAML::Node& b, Body& body) {
+  if (!b["order"] && !b["state"]) return;
+  const Medium& med = scene_.media[body.medium];
+  const std::string here = fmt::format("body of medium '{}'", med.name);
+  if (!med.magnet) {
+    for (auto k : {"order", "state"})
+      if (b[k])
+        r_.error(b[k], fmt::format("{}: '{}' chooses a magnetic state, and medium '{}' has no 'magnet' (nor a "
+                                   "magnetic crystal)",
+                                   here, k, med.name));
+    return;
+  }
+  BodyOrder& o = body.magnetic;
+  if (const auto& v = b["order"]) {
+    o.where = r_.mark(v);
+    if (v.IsScalar()) {
+      if (v.Scalar() == "reversed")
+        o.reversed = true;
+      else
+        r_.error(v, fmt::format("{}: 'order' is 'reversed' (the state of equal energy with sublattice 1 turned "
+                                "over) or a direction [x, y, z]; got '{}'",
+                                here, v.Scalar()));
+    } else if (auto d = unit_vector(v, "order")) {
+      o.order = *d;
+    }
+  }
+  if (const auto& v = b["state"]) {
+    o.where = r_.mark(v);  // a missing state is the likelier error when both are given
+    if (auto t = state_pick(v, here)) o.state = *t;
+  }
 }
 
 }  // namespace ty::reader

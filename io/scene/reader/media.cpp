@@ -126,6 +126,7 @@ std::optional<Magnet> SceneBuilder::read_magnet(const YAML::Node& m, const std::
       ok = false;
   }
   if (m["thermal"]) read_thermal(m["thermal"], here, g.thermal);
+  if (m["thermal"] && m["thermal"].IsMap() && m["thermal"]["linewidth"]) check_linewidth(m, here, g);
   read_state(m, here, g);
   if (!ok) return std::nullopt;
   return g;

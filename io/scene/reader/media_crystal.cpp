@@ -75,11 +75,20 @@ void SceneBuilder::read_temperature(const YAML::Node& v, const std::string& wher
   if (const Crystal* c = find_crystal(med.crystal); c && *k < c->lowest)
     r_.error(t, fmt::format("{}: {} is described from {:g} K up: {}", where, c->name, c->lowest, c->lowest_why));
   th.temperature = *k;
+  // the library's linewidth table sets the damping at this temperature, unless the scene
+  // gives the damping (or a table of its own)
+  const Crystal* c = find_crystal(med.crystal);
+  if (!c || c->linewidth.empty() || !th.linewidth.empty()) return;
+  if (const auto& m = v["magnet"]; m && m.IsMap())
+    if (const auto& subs = m["sublattices"]; subs && subs.IsSequence())
+      for (const auto& sl : subs)
+        if (sl.IsMap() && sl["damping"]) return;
+  for (const auto& p : c->linewidth) th.linewidth.push_back({p.temperature, p.fwhm});
 }
 
 void SceneBuilder::read_thermal(const YAML::Node& t, const std::string& here, Thermal& th) {
   if (!r_.is_map(t, "thermal")) return;
-  r_.allow(t, {"spin", "ordering", "reference", "anisotropy-power"}, here + ": thermal");
+  r_.allow(t, {"spin", "ordering", "reference", "anisotropy-power", "linewidth"}, here + ": thermal");
   for (auto k : {"spin", "ordering"})
     if (!t[k] && !th.active()) r_.error(t, fmt::format("{}: 'thermal' needs '{}'", here, k));
   if (t["spin"])
@@ -95,22 +104,70 @@ void SceneBuilder::read_thermal(const YAML::Node& t, const std::string& here, Th
   if (t["anisotropy-power"])
     if (auto v = r_.positive(t["anisotropy-power"], "anisotropy-power", Kind::dimensionless)) th.anisotropy_power = *v;
   th.temperature = th.reference;
+  if (t["linewidth"]) read_linewidth(t["linewidth"], here, th);
+}
+
+/// `thermal: {linewidth: [[T, width], ...]}`: the zero-field line's full width at half maximum
+/// against temperature, rising in T; it sets the damping (materials/crystals/temperature.h).
+void SceneBuilder::read_linewidth(const YAML::Node& w, const std::string& here, Thermal& th) {
+  if (!r_.is_seq(w, "linewidth")) return;
+  if (w.size() == 0) r_.error(w, fmt::format("{}: 'linewidth' lists [temperature, width] pairs; it is empty", here));
+  th.linewidth.clear();
+  for (const auto& p : w) {
+    if (!p.IsSequence() || p.size() != 2) {
+      r_.error(p, fmt::format("{}: each 'linewidth' entry is [temperature, width], e.g. [4.2 K, 0.3 GHz]", here));
+      continue;
+    }
+    const auto T = r_.quantity(p[0], "linewidth temperature", Kind::temperature);
+    const auto f = r_.quantity(p[1], "linewidth width", Kind::frequency);
+    if (!T || !f) continue;
+    if (!(*T >= 0) || !(*f > 0)) {
+      r_.error(p, fmt::format("{}: a 'linewidth' entry needs a temperature from 0 K and a positive width", here));
+      continue;
+    }
+    if (!th.linewidth.empty() && !(*T > th.linewidth.back()[0]))
+      r_.error(p[0], fmt::format("{}: the 'linewidth' temperatures must rise ({:g} K follows {:g} K)", here, *T,
+                                 th.linewidth.back()[0]));
+    th.linewidth.push_back({*T, *f});
+  }
+}
+
+/// A linewidth table sets the damping of a two-sublattice magnet with an easy axis; a
+/// sublattice's `damping` beside it would be overruled, so it is an error.
+void SceneBuilder::check_linewidth(const YAML::Node& m, const std::string& here, const Magnet& g) {
+  const YAML::Node& w = m["thermal"]["linewidth"];
+  bool easy = false;
+  for (const auto& a : g.anisotropy) easy |= a.field > 0;
+  if (g.sublattices.size() != 2 || !easy)
+    r_.error(w, fmt::format("{}: 'linewidth' sets the damping from the line of a two-sublattice antiferromagnet "
+                            "with an easy axis (a positive anisotropy field); this magnet is not one",
+                            here));
+  if (const auto& subs = m["sublattices"]; subs && subs.IsSequence())
+    for (const auto& sl : subs)
+      if (sl.IsMap() && sl["damping"])
+        r_.error(sl["damping"], fmt::format("{}: give a sublattice's 'damping' or the thermal 'linewidth', not both "
+                                            "(the linewidth sets the damping)",
+                                            here));
+}
+
+/// A `state` value (the magnet block's or a body's): lowest, a number, or a kind.
+std::optional<std::string> SceneBuilder::state_pick(const YAML::Node& s, const std::string& here) {
+  auto t = r_.text(s, "state");
+  if (!t) return std::nullopt;
+  bool number = !t->empty() && t->find_first_not_of("0123456789") == std::string::npos;
+  const bool known = *t == "lowest" || *t == "collinear" || *t == "spin-flop" || *t == "canted" || *t == "aligned";
+  if (number && (t->size() > 3 || std::stoi(*t) < 1)) number = false;
+  if (number || known) return t;
+  r_.error(s, fmt::format("{}: 'state' must be lowest, a state's number as `terayee check` lists them (1, 2, "
+                          "...), or a kind (collinear, spin-flop, canted, aligned); got '{}'",
+                          here, *t));
+  return std::nullopt;
 }
 
 void SceneBuilder::read_state(const YAML::Node& m, const std::string& here, Magnet& g) {
   if (const auto& s = m["state"]) {
     g.state.where = r_.mark(s);
-    if (auto t = r_.text(s, "state")) {
-      bool number = !t->empty() && t->find_first_not_of("0123456789") == std::string::npos;
-      const bool known = *t == "lowest" || *t == "collinear" || *t == "spin-flop" || *t == "canted" || *t == "aligned";
-      if (number && (t->size() > 3 || std::stoi(*t) < 1)) number = false;
-      if (!number && !known)
-        r_.error(s, fmt::format("{}: 'state' must be lowest, a state's number as `terayee check` lists them (1, 2, "
-                                "...), or a kind (collinear, spin-flop, canted, aligned); got '{}'",
-                                here, *t));
-      else
-        g.state.pick = *t;
-    }
+    if (auto t = state_pick(s, here)) g.state.pick = *t;
   }
   if (const auto& h = m["history"]) {
     if (m["state"])

@@ -133,7 +133,10 @@ class SceneBuilder {
   std::optional<Magnet> read_crystal(const YAML::Node& v, const std::string& where, Medium& med);
   void read_temperature(const YAML::Node& v, const std::string& where, Medium& med);
   void read_thermal(const YAML::Node& t, const std::string& here, Thermal& th);
+  void read_linewidth(const YAML::Node& w, const std::string& here, Thermal& th);
+  void check_linewidth(const YAML::Node& m, const std::string& here, const Magnet& g);
   void read_state(const YAML::Node& m, const std::string& here, Magnet& g);
+  std::optional<std::string> state_pick(const YAML::Node& s, const std::string& here);
   // grid_time.cpp
   void prescan_sources(const YAML::Node& list);
   void read_grid(const YAML::Node& g);
@@ -145,6 +148,7 @@ class SceneBuilder {
   // bodies.cpp
   void read_body(const YAML::Node& b);
   bool read_body_medium(const YAML::Node& b, Body& body);
+  void read_body_order(const YAML::Node& b, Body& body);
   // sources.cpp
   Waveform read_waveform(const YAML::Node& w, double f);
   void read_file_waveform(const YAML::Node& w, Waveform& wf);
