@@ -26,7 +26,7 @@
 #include <vector>
 
 #include "io/scene/scene.h"
-#include "solver/blocking/wavefront.h"
+#include "solver/blocking/progress.h"
 #include "solver/grid/aligned.h"
 #include "solver/grid/boundaries/bloch.h"
 #include "solver/grid/boundaries/boundaries.h"

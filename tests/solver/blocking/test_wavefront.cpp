@@ -16,6 +16,7 @@
 #include <map>
 
 #include "io/scene/permittivity_model.h"
+#include "solver/blocking/wavefront.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
 
