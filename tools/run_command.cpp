@@ -114,9 +114,8 @@ struct Runner {
     return sig ? 128 + sig : 0;
   }
 
-  /// Steps from n to the next step at which the loop looks at the run (the progress line,
-  /// a checkpoint, --stop-at-step, the stop rule's check, the end): a block of steps
-  /// (solver/blocking/) ends there.
+  /// Steps from n to the next step the loop looks at (progress line, checkpoint, --stop-at-step,
+  /// stop rule, end): a block of steps (solver/blocking/) ends there.
   long steps_to_event(long n, long N, long every) const {
     auto to_multiple = [n](long m) { return m - n % m; };
     long k = std::min(N - n, to_multiple(every));

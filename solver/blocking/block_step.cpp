@@ -14,9 +14,9 @@
 namespace ty {
 
 namespace {
-// the cache a block's band of rows should fit: L2 of one core (1 MiB on the machine of
-// docs/performance.md) plus a share of the L3
-constexpr std::size_t kBandBytes = std::size_t(4) << 20;
+// the bytes a block's band of rows should fit: about two cores' L2 (1 MiB each here); at
+// 1024^2 double it allows 16 steps, at 4096^2 4 (docs/performance.md: measured)
+constexpr std::size_t kBandBytes = std::size_t(2) << 20;
 }  // namespace
 
 template <class R>
