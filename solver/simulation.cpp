@@ -74,7 +74,7 @@ void Simulation<R>::build_recorders(const StopPlan& plan) {
 }
 
 template <class R>
-void Simulation<R>::h_row(int j) {
+void Simulation<R>::h_row(int j, const double* ev) {
   const int nx = g_.nx;
   const long o = g_.at(0, j), s = g_.stride;
   R* __restrict hx = f_[3].data() + o;
@@ -97,7 +97,7 @@ void Simulation<R>::h_row(int j) {
   if (in_absorber(j)) pml_h_row(j);
   for (int q = inj_h_row_[j]; q < inj_h_row_[j + 1]; ++q) {
     const Injection& e = inj_h_[q];
-    const double F = f_[e.comp][e.index], v = emitter_value_[e.slot];
+    const double F = f_[e.comp][e.index], v = ev[e.slot];
     injected_[j] += e.weight * std::abs((2 * F + v) * v);
     f_[e.comp][e.index] += static_cast<R>(v);
   }
@@ -108,16 +108,16 @@ void Simulation<R>::h_row(int j) {
 }
 
 template <class R>
-void Simulation<R>::e_row(int j) {
+void Simulation<R>::e_row(int j, const double* ev) {
   const bool dispersive = disp_.row_first[j + 1] > disp_.row_first[j];
   R* const E[3] = {f_[0].data(), f_[1].data(), f_[2].data()};
   if (dispersive) disp_.before_row(j, E);
-  e_row_update(j);
+  e_row_update(j, ev);
   if (dispersive) disp_.after_row(j, E);
 }
 
 template <class R>
-void Simulation<R>::e_row_update(int j) {
+void Simulation<R>::e_row_update(int j, const double* ev) {
   const int nx = g_.nx;
   const long o = g_.at(0, j), s = g_.stride;
   R* __restrict ex = f_[0].data() + o;
@@ -159,7 +159,7 @@ void Simulation<R>::e_row_update(int j) {
   if (in_absorber(j)) pml_e_row(j);
   for (int q = inj_e_row_[j]; q < inj_e_row_[j + 1]; ++q) {
     const Injection& e = inj_e_[q];
-    const double F = f_[e.comp][e.index], v = emitter_value_[e.slot];
+    const double F = f_[e.comp][e.index], v = ev[e.slot];
     injected_[j] += e.weight * std::abs((2 * F + v) * v);
     f_[e.comp][e.index] += static_cast<R>(v);
   }

@@ -26,6 +26,7 @@
 #include <vector>
 
 #include "io/scene/scene.h"
+#include "solver/blocking/progress.h"
 #include "solver/grid/aligned.h"
 #include "solver/grid/boundaries/bloch.h"
 #include "solver/grid/boundaries/boundaries.h"
@@ -76,6 +77,19 @@ class Simulation {
   void gather_state();
   /// One time step, then the recorders.
   void advance();
+  /// Steps per pass over the rows (temporal blocking, solver/blocking/): 1 = one pass per
+  /// step (the default), 0 = auto (fitted to the caches), N; a scene with something that
+  /// reaches across rows or steps keeps 1, and block_note() says why.
+  void set_block_depth(int requested);
+  int block_depth() const { return block_depth_; }
+  const std::string& block_note() const { return block_why_; }
+  /// Up to `most` steps, each followed by the recorders where they read it; several at once
+  /// (a block of block_depth() steps at most) where none reads the steps inside. Returns the
+  /// steps taken. The fields are the same bits as after as many advance() calls.
+  long advance_up_to(long most);
+  /// `depth` steps in one wavefront pass (block_step.cpp), without recorders; a depth
+  /// above 1 needs set_block_depth to have allowed at least that depth.
+  void step_block(int depth);
   /// `stop: auto`: whether the run is done now (looked at every stop_rule().plan().check
   /// steps; false between checks and for runs of fixed length).
   bool settled();
@@ -310,14 +324,28 @@ class Simulation {
   void scatter_hy(int j);
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);
   void compute_emitters();
-  void h_row(int j);
+  /// The injections' values of step `step` (H at step dt, E at (step + 1/2) dt) into out.
+  void emitters_at(long step, double* out) const;
+  /// H of row j; ev: the step's injection values (emitter_value_ for the step now, or a
+  /// wavefront step's own, solver/blocking/)
+  void h_row(int j, const double* ev);
+  void h_row(int j) { h_row(j, emitter_value_.data()); }
   std::array<R*, 6> fields() { return {f_[0].data(), f_[1].data(), f_[2].data(), f_[3].data(), f_[4].data(), f_[5].data()}; }
   /// The edges' hook after everything that adds to H row j (boundaries.h).
   void h_boundaries(int j) { walls_.after_h_row(fields().data(), j, g_); }
   /// E of row j: the update below, with the dispersive nodes' polarization currents around it.
-  void e_row(int j);
-  void e_row_update(int j);  ///< runs, absorber, sources
+  void e_row(int j, const double* ev);
+  void e_row(int j) { e_row(j, emitter_value_.data()); }
+  void e_row_update(int j, const double* ev);  ///< runs, absorber, sources
   void record();
+  // temporal blocking (solver/blocking/block_step.cpp)
+  int block_depth_ = 1;
+  std::string block_why_ = "one pass per step";
+  std::vector<double> emitter_block_;  // [step of the block][emitter]
+  blocking::Progress progress_;
+  blocking::DepthChoice block_choice(int requested) const;
+  /// The first step from n_ on whose fields a recorder reads (LONG_MAX: none).
+  long next_read_step() const;
 };
 
 extern template class Simulation<float>;

@@ -272,6 +272,7 @@ int check_command(const std::string& path, const std::vector<std::string>& sets,
                            est.built ? "the scene's own simulation, " : "a cell-rate model (too large to build here), ");
   for (const auto& p : est.parts)
     if (p.seconds > 0) std::cout << fmt::format("    {}: {} ({})\n", p.what, format_duration(p.seconds), p.count);
+  if (!est.blocking.empty()) std::cout << fmt::format("  block depth (run --block-depth auto): {}\n", est.blocking);
   std::cout << fmt::format("check passed with {} warning{}\n", warnings, warnings == 1 ? "" : "s");
   return 0;
 }

@@ -23,6 +23,8 @@ struct Command {
 double quantity(const std::string& text, Kind k, const std::string& what);
 /// A complex number "RE", "RE+IMi" or "RE-IMi" (a permittivity).
 std::complex<double> complex_number(const std::string& text, const std::string& what);
+/// --block-depth: auto (0) or a whole number of steps from 1 to 64; BadInput otherwise.
+int block_depth(const std::string& text, const std::string& what);
 
 Command add_run(CLI::App& app);
 Command add_check(CLI::App& app);

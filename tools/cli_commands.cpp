@@ -37,6 +37,15 @@ std::complex<double> complex_number(const std::string& text, const std::string& 
   return {re, im};
 }
 
+int block_depth(const std::string& text, const std::string& what) {
+  if (text == "auto") return 0;
+  char* end = nullptr;
+  const long d = std::strtol(text.c_str(), &end, 10);
+  if (end == text.c_str() || *end != '\0' || d < 1 || d > 64)
+    throw BadInput(fmt::format("terayee: error: {}: '{}' is not auto or a whole number from 1 to 64", what, text));
+  return static_cast<int>(d);
+}
+
 Command add_run(CLI::App& app) {
   auto o = std::make_shared<RunOptions>();
   auto* r = app.add_subcommand("run", "Run a scene and write its run folder");
@@ -54,10 +63,16 @@ Command add_run(CLI::App& app) {
       ->check(CLI::PositiveNumber);
   r->add_option("--checkpoint-steps", o->checkpoint_steps, "Also write a checkpoint every this many steps (0: no)")
       ->check(CLI::NonNegativeNumber);
+  auto depth = std::make_shared<std::string>("auto");
+  r->add_option("--block-depth", *depth,
+                "Time steps per pass over the rows: auto (default), 1 (one pass per step) or N (temporal blocking)");
   r->add_flag("--overwrite", o->overwrite,
               "Replace the results of an earlier run in the run folder (without it, a folder that is not empty is refused)");
 
-  return {r, [o] { return run_command(*o); }};
+  return {r, [o, depth] {
+            o->block_depth = block_depth(*depth, "--block-depth");
+            return run_command(*o);
+          }};
 }
 
 Command add_check(CLI::App& app) {
@@ -233,7 +248,7 @@ Command add_bench(CLI::App& app) {
   struct Options {
     int size = 1024, threads = 0;
     double seconds = 0.5;
-    std::string precision = "double", bench_case = "all";
+    std::string precision = "double", bench_case = "all", depth = "1";
   };
   auto o = std::make_shared<Options>();
   auto* b = app.add_subcommand("bench", "Measure cell-updates per second");
@@ -244,7 +259,11 @@ Command add_bench(CLI::App& app) {
   b->add_option("--precision", o->precision, "double or single")->check(CLI::IsMember({"double", "single"}));
   b->add_option("--seconds", o->seconds, "Length of one timed sample")->check(CLI::Range(0.05, 60.0));
 
-  return {b, [o] { return bench_command(o->size, o->threads, o->precision, o->seconds, o->bench_case); }};
+  b->add_option("--block-depth", o->depth, "Time steps per pass over the rows: 1 (default), N or auto");
+  return {b, [o] {
+            return bench_command(o->size, o->threads, o->precision, o->seconds, o->bench_case,
+                                 block_depth(o->depth, "--block-depth"));
+          }};
 }
 
 }  // namespace ty::cli

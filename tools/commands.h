@@ -23,6 +23,7 @@ struct RunOptions {
   long stop_at_step = 0;          ///< stop (with a checkpoint) after this step (0: no)
   long checkpoint_steps = 0;      ///< also a checkpoint every this many steps (0: no)
   bool overwrite = false;         ///< replace the results in a run folder that is not empty
+  int block_depth = 0;            ///< steps per pass over the rows (0: auto, 1: one pass; solver/blocking/)
 };
 
 int run_command(const RunOptions& o);
@@ -116,7 +117,8 @@ struct SweepOptions {
 int sweep_command(SweepOptions o);
 int write_job_script(const SweepOptions& o, int points);
 
-int bench_command(int size, int threads, const std::string& precision, double seconds, const std::string& which);
+int bench_command(int size, int threads, const std::string& precision, double seconds, const std::string& which,
+                  int block_depth = 1);
 
 /// Cell-updates per second of a square vacuum grid with periodic sides (used by bench
 /// and by check's run-time estimate).

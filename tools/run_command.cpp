@@ -114,6 +114,17 @@ struct Runner {
     return sig ? 128 + sig : 0;
   }
 
+  /// Steps from n to the next step the loop looks at (progress line, checkpoint, --stop-at-step,
+  /// stop rule, end): a block of steps (solver/blocking/) ends there.
+  long steps_to_event(long n, long N, long every) const {
+    auto to_multiple = [n](long m) { return m - n % m; };
+    long k = std::min(N - n, to_multiple(every));
+    if (o.checkpoint_steps > 0) k = std::min(k, to_multiple(o.checkpoint_steps));
+    if (o.stop_at_step > n) k = std::min(k, o.stop_at_step - n);
+    if (sim.stop_rule().on()) k = std::min(k, to_multiple(std::max(1L, sim.stop_rule().plan().check)));
+    return std::max(1L, k);
+  }
+
   /// Steps to the end; returns -1 when done, else the exit status.
   int loop() {
     const YeeGrid& g = sim.grid();
@@ -128,8 +139,9 @@ struct Runner {
       int sig = StopSignals::received();
       if (sim.ranks() > 1) sig = n % 16 == 0 ? static_cast<int>(parallel::max_over_ranks(sig)) : 0;
       if (sig) return stop(n, sig);
-      sim.advance();
-      kill_point(KillPoint::step, n + 1);
+      const long took = sim.advance_up_to(steps_to_event(n, N, every));  // one step, or a block ending at the next event
+      for (long m = n + 1; m <= n + took; ++m) kill_point(KillPoint::step, m);
+      n += took - 1;  // the loop's body below sees n + 1 = the steps done
       if (sim.settled()) break;  // `stop: auto`: done before the limit
       if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
       const bool by_time = o.checkpoint_minutes > 0 && sim.ranks() == 1 &&
@@ -315,6 +327,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
   for (const auto& w : scene.warnings) log.warn(w);
 
   Simulation<R> sim(scene, o.threads);
+  sim.set_block_depth(o.block_depth);
   const YeeGrid& g = sim.grid();
   for (const auto& w : sim.warnings()) log.warn(w);
   for (const auto& n : sim.notes()) log.info(n);

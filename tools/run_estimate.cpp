@@ -108,6 +108,8 @@ RunTimeEstimate timed(const Scene& s, int threads) {
   const double c0 = cpu_now();
   Simulation<R> sim(s, threads);  // built by one thread: its CPU time is its time alone
   e.parts.push_back({"building the simulation", std::min(since(t0), cpu_now() - c0), "once"});
+  sim.set_block_depth(0);  // what `run` takes by default
+  e.blocking = sim.block_note();
   const YeeGrid& g = sim.grid();
   const long N = sim.total_steps();
   e.threads = sim.threads(), e.steps = N;

@@ -26,6 +26,7 @@ struct RunTimeEstimate {
   long steps = 0;
   bool built = true;  ///< false: the scene was too large to build here, the cell-rate model was used
   std::vector<TimePart> parts;
+  std::string blocking;  ///< the steps per pass `run` would take (block depth auto) and why
   double total() const;
 };
 

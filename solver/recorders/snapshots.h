@@ -82,6 +82,13 @@ class SnapshotRecorder {
     }
     if (!e_before_.empty() && next_frame < frames && plan.steps[next_frame] == k + 1) keep_e(F, g);
   }
+  /// The first step from `from` on whose fields record() reads (the next frame's, or the
+  /// step before it when a Poynting frame keeps E); -1 when none is left.
+  long next_read(long from) const {
+    if (next_frame >= static_cast<long>(plan.steps.size())) return -1;
+    const long s = plan.steps[next_frame] - (e_before_.empty() ? 0 : 1);
+    return s < from ? from : s;
+  }
   template <class Fn>
   void visit_state(Fn&& f) {
     f("clock/frames", &next_frame, 1);

@@ -190,7 +190,12 @@ void Simulation<R>::add_launch_sheet(const Source& src, int sig, const std::vect
 
 template <class R>
 void Simulation<R>::compute_emitters() {
-  const double th = n_ * g_.dt, te = (n_ + 0.5) * g_.dt;
+  emitters_at(n_, emitter_value_.data());
+}
+
+template <class R>
+void Simulation<R>::emitters_at(long step, double* out) const {
+  const double th = step * g_.dt, te = (step + 0.5) * g_.dt;
   const long n = static_cast<long>(emitters_.size());
   // a point source's footprint shares one signal value: evaluate it once per run of emitters
   int last_signal = -1;
@@ -200,7 +205,7 @@ void Simulation<R>::compute_emitters() {
     const Emitter& e = emitters_[k];
     const double t = (e.h_phase ? th : te) - e.tau;
     if (e.signal != last_signal || t != last_t) g = signals_[e.signal](t), last_signal = e.signal, last_t = t;
-    emitter_value_[k] = (e.A * g).real();
+    out[k] = (e.A * g).real();
   }
 }
 
@@ -209,7 +214,8 @@ void Simulation<R>::compute_emitters() {
   template void Simulation<R>::build_sources(const std::vector<double>(&)[3]);                              \
   template void Simulation<R>::add_point_source(const Source&, int, const std::vector<double>(&)[3]);       \
   template void Simulation<R>::add_launch_sheet(const Source&, int, const std::vector<double>(&)[3]);       \
-  template void Simulation<R>::compute_emitters();
+  template void Simulation<R>::compute_emitters();                                                           \
+  template void Simulation<R>::emitters_at(long, double*) const;
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)
 #undef TY_INSTANTIATE

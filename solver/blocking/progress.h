@@ -1,0 +1,45 @@
+/// \file progress.h
+/// \brief What a Simulation holds for temporal blocking (wavefront.h): the per-step row
+/// counters of a block, and the depth a scene may use with the reason.
+#pragma once
+#include <atomic>
+#include <cstddef>
+#include <memory>
+#include <string>
+
+namespace ty::blocking {
+
+/// The per-step row counters of one block (allocated once, outside the time loop).
+class Progress {
+ public:
+  void resize(int depth) {
+    done_ = std::make_unique<std::atomic<int>[]>(static_cast<std::size_t>(depth));
+    n_ = depth;
+  }
+  int size() const { return n_; }
+  void reset(int depth) {
+    for (int t = 0; t < depth; ++t) done_[t].store(0, std::memory_order_relaxed);
+  }
+  void finished(int t, int rows) { done_[t].store(rows, std::memory_order_release); }
+  /// Waits until step t has finished `rows` rows; spins briefly, then yields the core (a
+  /// partner thread may not be running on a shared machine: solver/threads/wait_policy.h).
+  void wait(int t, int rows, int& seen) const;
+
+ private:
+  std::unique_ptr<std::atomic<int>[]> done_;
+  int n_ = 0;
+};
+
+/// The depth a scene may use and why: 1 with the reason when something in it reaches
+/// across rows or steps outside the row's own work.
+struct DepthChoice {
+  int depth = 1;
+  std::string why;
+};
+
+/// Depth `auto` on a grid of nx columns, `bytes` per value: deep enough to reuse each row
+/// several times, shallow enough that the band of rows (skew * depth + 2 rows of six
+/// arrays) stays within `cache` bytes.
+int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache);
+
+}  // namespace ty::blocking
