@@ -168,7 +168,10 @@ void Simulation<R>::e_row_update(int j) {
 
 template <class R>
 void Simulation<R>::step() {
-  if (ranks_ > 1) step_slab(); else if (twin_) step_pair(); else if (mag_.empty()) step_fused(); else step_magnetic();
+  if (ranks_ > 1) step_slab();
+  else if (twin_) mag_.empty() ? step_pair() : step_pair_magnetic();
+  else if (mag_.empty()) step_fused();
+  else step_magnetic();
 }
 
 template <class R>

@@ -130,6 +130,8 @@ struct Runner {
       if (sig) return stop(n, sig);
       sim.advance();
       kill_point(KillPoint::step, n + 1);
+      // Bloch sides with magnets: a cell past the small-signal step breaks the pair's superposition
+      if (const std::string e = sim.bloch_superposition_broken(); !e.empty()) return growing(e);
       if (sim.settled()) break;  // `stop: auto`: done before the limit
       if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
       const bool by_time = o.checkpoint_minutes > 0 && sim.ranks() == 1 &&
