@@ -245,7 +245,9 @@ double Simulation<R>::field_energy() const {
         wh += h * h;
       }
   }
-  return 0.5 * (constants::eps0 * we + constants::mu0 * wh) * g_.dx * g_.dy;
+  // a Bloch pair's energy is that of the complex field A + iB: both copies' (they exchange it
+  // across the seam, so either alone swings)
+  return 0.5 * (constants::eps0 * we + constants::mu0 * wh) * g_.dx * g_.dy + (twin_ ? twin_->field_energy() : 0.0);
 }
 
 template <class R>

@@ -85,7 +85,8 @@ class Simulation {
   const R* field(Component c) const { return f_[static_cast<int>(c)].data(); }
   R& at(Component c, int i, int j) { return f_[static_cast<int>(c)][g_.at(i, j)]; }
 
-  /// Electromagnetic energy per unit length in z, J/m (E at n, H at n-1/2).
+  /// Electromagnetic energy per unit length in z, J/m (E at n, H at n-1/2); with Bloch sides
+  /// both copies' (the complex field's).
   double field_energy() const;
   /// Energy of the magnetic media relative to their ground states (exchange, anisotropy,
   /// bias, DM; the wave-field coupling is in field_energy), J/m.
@@ -169,7 +170,7 @@ class Simulation {
   double injected_energy() const {
     double w = 0;
     for (double v : injected_) w += v;
-    return w;
+    return twin_ ? w + twin_->injected_energy() : w;  // a Bloch pair: both copies' sources
   }
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
   bool find_nonfinite(int& i, int& j, Component& c) const;

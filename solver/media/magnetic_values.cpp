@@ -44,7 +44,7 @@ double Simulation<R>::magnetic_energy() const {
       if (M.up[k] == none && (M.cj[k] + 1 < g_.ny || walls_.periodic_y)) face(1, none);
     }
   }
-  return e / constants::mu0 * g_.dx * g_.dy;
+  return e / constants::mu0 * g_.dx * g_.dy + (twin_ ? twin_->magnetic_energy() : 0.0);  // both copies
 }
 
 template <class R>
