@@ -280,6 +280,9 @@ class Simulation {
   void pair_h_row(int j);
   /// Both copies' H ghost columns of row j (bloch.h), after their final H of the row.
   void pair_h_ghosts(int j);
+  /// Both copies' sources and edges before the sweep, and before E of row 0.
+  void pair_before_sweep();
+  void pair_before_first_e_row();
   /// step_magnetic's sweep over both copies of a pair with magnetic cells (bloch_magnets.cpp).
   void step_pair_magnetic();
   /// The value, for this copy, of a magnetic cell's quantity across the Bloch seam: own and

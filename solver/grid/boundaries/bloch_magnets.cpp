@@ -29,12 +29,7 @@ namespace ty {
 template <class R>
 void Simulation<R>::step_pair_magnetic() {
   Simulation& b = *twin_;
-  compute_emitters();
-  b.compute_emitters();
-  const auto F = fields();
-  const auto G = b.fields();
-  walls_.before_sweep(F.data(), g_);
-  b.walls_.before_sweep(G.data(), g_);
+  pair_before_sweep();
   const int ny = g_.ny;
   const long w = mag_.longest_row;
 #pragma omp parallel num_threads(threads_)
@@ -81,10 +76,7 @@ void Simulation<R>::step_pair_magnetic() {
       pair_h_ghosts(j0);
     }
 #pragma omp barrier
-    if (j0 == 0 && j1 > 0) {
-      walls_.before_first_e_row(F.data(), g_);
-      b.walls_.before_first_e_row(G.data(), g_);
-    }
+    if (j0 == 0 && j1 > 0) pair_before_first_e_row();
     if (j1 > j0) e_row(j0), b.e_row(j0);
   }
   ++n_;

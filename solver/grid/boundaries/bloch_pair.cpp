@@ -91,24 +91,31 @@ std::string Simulation<R>::bloch_superposition_broken() const {
 }
 
 template <class R>
-void Simulation<R>::step_pair() {
+void Simulation<R>::pair_before_sweep() {
   Simulation& b = *twin_;
   compute_emitters();
   b.compute_emitters();
-  const auto F = fields();
-  const auto G = b.fields();
-  walls_.before_sweep(F.data(), g_);
-  b.walls_.before_sweep(G.data(), g_);
+  walls_.before_sweep(fields().data(), g_);
+  b.walls_.before_sweep(b.fields().data(), g_);
+}
+
+template <class R>
+void Simulation<R>::pair_before_first_e_row() {
+  walls_.before_first_e_row(fields().data(), g_);
+  twin_->walls_.before_first_e_row(twin_->fields().data(), g_);
+}
+
+template <class R>
+void Simulation<R>::step_pair() {
+  Simulation& b = *twin_;
+  pair_before_sweep();
 #pragma omp parallel num_threads(threads_)
   {
     int j0, j1;
     block_rows(g_.ny, omp_get_thread_num(), omp_get_num_threads(), j0, j1);
     if (j1 > j0) pair_h_row(j1 - 1);
 #pragma omp barrier
-    if (j0 == 0 && j1 > 0) {
-      walls_.before_first_e_row(F.data(), g_);
-      b.walls_.before_first_e_row(G.data(), g_);
-    }
+    if (j0 == 0 && j1 > 0) pair_before_first_e_row();
     for (int j = j0; j < j1 - 1; ++j) {
       pair_h_row(j);
       e_row(j);
@@ -139,6 +146,8 @@ const std::vector<PowerSpectrumRecorder>& Simulation<R>::power_spectra() const {
   template void Simulation<R>::build_bloch_pair(); \
   template void Simulation<R>::pair_h_row(int);    \
   template void Simulation<R>::pair_h_ghosts(int); \
+  template void Simulation<R>::pair_before_sweep(); \
+  template void Simulation<R>::pair_before_first_e_row(); \
   template double Simulation<R>::seam_value(double, double, bool) const; \
   template std::string Simulation<R>::bloch_superposition_broken() const; \
   template void Simulation<R>::step_pair();        \
