@@ -114,7 +114,7 @@ TEST_CASE("a sweep over the Bloch wavenumber drawn as R(f, theta)") {
   CHECK(filled > 13);
 }
 
-TEST_CASE("bloch sides: refused along y and without a wavenumber; magnets run, and stop past the small-signal tilt") {
+TEST_CASE("bloch sides: refused along y and without a wavenumber - magnets run and stop past the small-signal tilt") {
   const std::string bin = TERAYEE_BINARY;
   CHECK(shell(bin + " check '" + kScene + "' --set grid.boundaries.y=bloch") == 2);
   CHECK(shell(bin + " check '" + kScene + "' --set grid.bloch.wavenumber=100") == 2);  // both forms
