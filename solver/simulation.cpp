@@ -168,7 +168,10 @@ void Simulation<R>::e_row_update(int j, const double* ev) {
 
 template <class R>
 void Simulation<R>::step() {
-  if (ranks_ > 1) step_slab(); else if (twin_) step_pair(); else if (mag_.empty()) step_fused(); else step_magnetic();
+  if (ranks_ > 1) step_slab();
+  else if (twin_) mag_.empty() ? step_pair() : step_pair_magnetic();
+  else if (mag_.empty()) step_fused();
+  else step_magnetic();
 }
 
 template <class R>
@@ -242,7 +245,9 @@ double Simulation<R>::field_energy() const {
         wh += h * h;
       }
   }
-  return 0.5 * (constants::eps0 * we + constants::mu0 * wh) * g_.dx * g_.dy;
+  // a Bloch pair's energy is that of the complex field A + iB: both copies' (they exchange it
+  // across the seam, so either alone swings)
+  return 0.5 * (constants::eps0 * we + constants::mu0 * wh) * g_.dx * g_.dy + (twin_ ? twin_->field_energy() : 0.0);
 }
 
 template <class R>

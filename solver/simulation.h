@@ -99,7 +99,8 @@ class Simulation {
   const R* field(Component c) const { return f_[static_cast<int>(c)].data(); }
   R& at(Component c, int i, int j) { return f_[static_cast<int>(c)][g_.at(i, j)]; }
 
-  /// Electromagnetic energy per unit length in z, J/m (E at n, H at n-1/2).
+  /// Electromagnetic energy per unit length in z, J/m (E at n, H at n-1/2); with Bloch sides
+  /// both copies' (the complex field's).
   double field_energy() const;
   /// Energy of the magnetic media relative to their ground states (exchange, anisotropy,
   /// bias, DM; the wave-field coupling is in field_energy), J/m.
@@ -112,6 +113,10 @@ class Simulation {
     for (size_t t = 0; t < mag_tilted_.size(); t += 8) s += mag_tilted_[t];
     return s;
   }
+  /// With Bloch sides and magnetic cells: why the two copies no longer add up to one complex
+  /// solution (a cell of either copy tilted past the small-signal step, whose nonlinear
+  /// steps do not superpose), else empty. The run stops on it (tools/run_command.cpp).
+  std::string bloch_superposition_broken() const;
   MagneticCells& magnets() { return mag_; }
   const DispersiveCells& dispersive() const { return disp_; }
   const TensorCells& tensor_cells() const { return tensor_; }
@@ -179,7 +184,7 @@ class Simulation {
   double injected_energy() const {
     double w = 0;
     for (double v : injected_) w += v;
-    return w;
+    return twin_ ? w + twin_->injected_energy() : w;  // a Bloch pair: both copies' sources
   }
   /// The first node holding a NaN or infinity, if any (row-major, E before H).
   bool find_nonfinite(int& i, int& j, Component& c) const;
@@ -276,6 +281,7 @@ class Simulation {
   std::vector<long> whole_steps_;  // steps after which a recorder reads the whole grid (snapshots)
   // Bloch sides (bloch.h): the sine copy, owned by the cosine copy and stepped with it
   std::unique_ptr<Simulation> twin_;
+  Simulation* partner_ = nullptr;  // the other copy of the pair (either way), else null
   int copy_ = 0;  // 0: the cosine (or only) copy, 1: the sine copy
   bloch::Phase phase_;
   mutable std::vector<PowerSpectrumRecorder> joined_;
@@ -286,6 +292,18 @@ class Simulation {
   void step_pair();
   void build_bloch_pair();
   void pair_h_row(int j);
+  /// Both copies' H ghost columns of row j (bloch.h), after their final H of the row.
+  void pair_h_ghosts(int j);
+  /// Both copies' sources and edges before the sweep, and before E of row 0.
+  void pair_before_sweep();
+  void pair_before_first_e_row();
+  /// step_magnetic's sweep over both copies of a pair with magnetic cells (bloch_magnets.cpp).
+  void step_pair_magnetic();
+  /// The value, for this copy, of a magnetic cell's quantity across the Bloch seam: own and
+  /// other are this copy's and the partner's value in that cell; left: the cell seen at column
+  /// -1 (cell nx-1 moved by -L_x), else at column nx (cell 0 moved by +L_x). Without a pair:
+  /// own (the periodic neighbour).
+  double seam_value(double own, double other, bool left) const;
 
   void build_media(std::vector<double> (&cb)[3]);
   void node_coefficients(int c, int i, int j, double& a, double& b, std::vector<DispersiveNode>& out) const;
@@ -320,6 +338,9 @@ class Simulation {
   /// The magnetic cells of row j (old: their field at n-1/2 from gather_row): the field at
   /// n+1/2, their step, and the scatter into Hx and Hz.
   void magnetic_row(int j, const double* old, double* scratch, long& tilted);
+  /// The scatter into the Hx nodes at the ends of row j's runs (after magnetic_row(j), and on
+  /// a Bloch pair after both copies' magnetic_row(j): the seam's node takes the other's change).
+  void scatter_run_ends(int j);
   /// The scatter into the Hy nodes of row j (from cell rows j and j-1).
   void scatter_hy(int j);
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);

@@ -142,6 +142,9 @@ struct Runner {
       const long took = sim.advance_up_to(steps_to_event(n, N, every));  // one step, or a block ending at the next event
       for (long m = n + 1; m <= n + took; ++m) kill_point(KillPoint::step, m);
       n += took - 1;  // the loop's body below sees n + 1 = the steps done
+      // Bloch sides with magnets (always one step a block): a cell past the small-signal step
+      // breaks the pair's superposition
+      if (const std::string e = sim.bloch_superposition_broken(); !e.empty()) return growing(e);
       if (sim.settled()) break;  // `stop: auto`: done before the limit
       if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
       const bool by_time = o.checkpoint_minutes > 0 && sim.ranks() == 1 &&

@@ -9,12 +9,6 @@ namespace ty {
 void check_bloch(const Scene& s, Diagnostics& d) {
   if (s.grid.bx != Boundary::bloch) return;
   for (const auto& b : s.bodies)
-    if (s.media[b.medium].magnet)
-      d.error(b.where, "bloch sides: the magnetic medium '" + s.media[b.medium].name +
-                           "' is not supported with bloch sides (the sine and cosine copies are exact for a "
-                           "linear medium only, and the magnetic cells are not paired across the seam); "
-                           "use periodic sides at normal incidence, or a non-magnetic model of the medium");
-  for (const auto& b : s.bodies)
     if (const Medium& m = s.media[b.medium]; m.tensor && !m.tensor->diagonal_in_plane())
       d.error(b.where, "bloch sides: the medium '" + m.name +
                            "' has its in-plane axes rotated off x and y; its coupled Ex-Ey step is not yet paired "

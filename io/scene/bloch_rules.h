@@ -7,9 +7,9 @@
 
 namespace ty {
 
-/// Magnetic bodies are refused (the sine-cosine copies combine into one complex solution only
-/// for a linear medium stepped the same way in both, and the magnetic cells' seam coupling is
-/// not paired yet); plane sources must travel along +y or -y (the sides set k_x).
+/// Media with rotated in-plane axes are refused (their coupled Ex-Ey step is not paired across
+/// the seam); plane sources must travel along +y or -y (the sides set k_x). Magnetic bodies are
+/// allowed: a run stops if a cell leaves the small-signal step (bloch_magnets.cpp).
 void check_bloch(const Scene& s, Diagnostics& d);
 
 }  // namespace ty

@@ -1,7 +1,7 @@
 /// \file magnetic_step.cpp
-/// \brief The magnetic cells of a Simulation: building the compact list, the time step
-/// of a scene that holds magnets (H sweep, magnetic cells, scatter, E sweep), and the
-/// magnetic energy and output values. Placement and time centring: magnetic_cells.h.
+/// \brief The magnetic cells of a Simulation: building the compact list and the time step
+/// of a scene that holds magnets (H sweep, magnetic cells, scatter, E sweep); their energy
+/// and output values are in magnetic_values.cpp. Placement and time centring: magnetic_cells.h.
 #include <fmt/format.h>
 #include <omp.h>
 
@@ -164,6 +164,12 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
   R* hz = f_[5].data() + o;
   const R* hy_up = hy_above(j);
   const double *dx = M.dM[cur][0].data(), *dz = M.dM[cur][2].data();
+  // mu0 dM_x(n-1/2) of the cell beside a run's end; across the Bloch seam, the pair's
+  // phase-shifted value of that cell (seam_value), else the cell's own
+  auto beside = [&](long k, bool seam, bool left) {
+    const double own = M.deviation(prev, 0, k);
+    return seam && partner_ && k < none ? seam_value(own, partner_->mag_.deviation(prev, 0, k), left) : own;
+  };
   for (int r = r0; r < r1; ++r) {
     const MagneticCells::Run& run = M.runs[r];
     const long k0 = run.k0, len = run.i1 - run.i0;
@@ -177,7 +183,8 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
     for (long q = 0; q < len; ++q) {
       const long k = k0 + q;
       const double vx = 0.5 * M.deviation(prev, 0, k) +
-                        0.25 * (M.deviation(prev, 0, q > 0 ? k - 1 : L[q]) + M.deviation(prev, 0, q < len - 1 ? k + 1 : Rt[q]));
+                        0.25 * ((q > 0 ? M.deviation(prev, 0, k - 1) : beside(L[q], i0 == 0, true)) +
+                                (q < len - 1 ? M.deviation(prev, 0, k + 1) : beside(Rt[q], run.i1 == g_.nx, false)));
       const double vy = 0.5 * M.deviation(prev, 1, k) + 0.25 * (M.deviation(prev, 1, D[q]) + M.deviation(prev, 1, U[q]));
       gather(hx, hy, hy_up, hz, i0 + q, b1[0][q], b1[1][q], b1[2][q]);
       b0[0][q] = o0[q] + vx, b0[1][q] = o1[q] + vy, b0[2][q] = o2[q];
@@ -197,15 +204,32 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
 #pragma omp simd
     for (long q = 1; q < len; ++q) hx[i0 + q] -= static_cast<R>(c0 * 0.5 * (ex[q] + ex[q - 1]));
   }
+}
+
+template <class R>
+void Simulation<R>::scatter_run_ends(int j) {
   // the Hx nodes at the runs' ends, each once: the left face of every run (with the cell
-  // on its left, if any), the right face of a run with no magnetic cell after it
+  // on its left, if any), the right face of a run with no magnetic cell after it. Across a
+  // Bloch seam the node Hx(0) takes the change of cell nx-1 moved by -L_x (bloch.h): the
+  // phase-shifted change of both copies, so the partner's cells of row j must have stepped.
+  const MagneticCells& M = mag_;
+  const int r0 = M.row_runs[j], r1 = M.row_runs[j + 1];
+  if (r0 == r1) return;
+  const int cur = static_cast<int>(n_ & 1);
+  const long none = M.count();
+  const double* dx = M.dM[cur][0].data();
+  const double* other = partner_ ? partner_->mag_.dM[cur][0].data() : nullptr;
+  R* hx = f_[3].data() + g_.at(0, j);
   for (int r = r0; r < r1; ++r) {
     const MagneticCells::Run& run = M.runs[r];
     const long first_k = run.k0, last = run.k0 + (run.i1 - run.i0) - 1;
-    hx[run.i0] -= static_cast<R>(c0 * 0.5 * (dx[first_k] + dx[M.left[first_k]]));
+    const long lk = M.left[first_k];
+    const double left = other && run.i0 == 0 && lk < none ? seam_value(dx[lk], other[lk], true) : dx[lk];
+    hx[run.i0] -= static_cast<R>(c0 * 0.5 * (dx[first_k] + left));
     if (M.right[last] < none) continue;  // the next magnetic cell writes the shared node
     if (run.i1 < g_.nx) hx[run.i1] -= static_cast<R>(c0 * 0.5 * (dx[last] + dx[none]));
     else if (walls_.periodic_x) hx[0] -= static_cast<R>(c0 * 0.5 * (dx[last] + dx[none]));
+    else if (other) hx[0] -= static_cast<R>(c0 * 0.5 * (seam_value(dx[last], other[last], true) + dx[none]));
   }
 }
 
@@ -274,6 +298,7 @@ void Simulation<R>::step_magnetic() {
       if (j + 1 < j1 - 1) gather_row(j + 1, ring[(j + 1) & 1]);
       if (j + 1 < j1) h_row(j + 1);
       magnetic_row(j, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
+      scatter_run_ends(j);
       if (in_absorber(j)) graded_decay(j, false, 5);  // the graded loss on the row's final Hx, Hz
       if (j > j0) {
         scatter_hy(j);
@@ -297,64 +322,14 @@ void Simulation<R>::step_magnetic() {
   M.latest = static_cast<int>(n_ & 1);
 }
 
-template <class R>
-double Simulation<R>::magnetic_energy() const {
-  const MagneticCells& M = mag_;
-  double e = 0;
-  for (long k = 0; k < M.count(); ++k) {
-    const MagnetModel& mm = M.models[M.medium[k]];
-    const auto& s = M.m[M.latest];
-    const std::array<Vec3, 2> m{Vec3(s[0][k], s[1][k], s[2][k]), Vec3(s[3][k], s[4][k], s[5][k])};
-    e += mm.energy(m) - M.ground[M.medium[k]].energy;
-  }
-  {
-    // the cells' own field G B / mu0 - M holds the energy (|M|^2 - |P M|^2) / 2 beside
-    // mu0 H^2 / 2 at the nodes (magnetic_cells.h): along x and y, each face node once
-    const int p = M.latest;
-    const long none = M.count();
-    for (long k = 0; k < M.count(); ++k) {
-      const double mx = M.deviation(p, 0, k), my = M.deviation(p, 1, k);
-      e += 0.5 * (mx * mx + my * my);
-      auto face = [&](int c, long other) {
-        const double v = 0.5 * (M.deviation(p, c, k) + M.deviation(p, c, other));
-        e -= 0.5 * v * v;
-      };
-      face(0, M.left[k]);
-      face(1, M.down[k]);
-      if (M.right[k] == none && (M.ci[k] + 1 < g_.nx || walls_.periodic_x)) face(0, none);
-      if (M.up[k] == none && (M.cj[k] + 1 < g_.ny || walls_.periodic_y)) face(1, none);
-    }
-  }
-  return e / constants::mu0 * g_.dx * g_.dy;
-}
-
-template <class R>
-double Simulation<R>::magnetic_value(const std::string& f, long k) const {
-  const MagneticCells& M = mag_;
-  const int slot = M.medium[k];
-  const MagnetModel& mm = M.models[slot];
-  const MagneticState& g0 = M.ground[slot];
-  const int c = f.back() - 'x';
-  const double m1 = M.m[M.latest][c][k], m2 = mm.n == 2 ? M.m[M.latest][3 + c][k] : 0.0;
-  if (f[0] == 'M' && f.size() == 2)  // mu0 times the deviation of the total magnetization, T
-    return mm.mu[0] * (m1 - g0.m[0][c]) + (mm.n == 2 ? mm.mu[1] * (m2 - g0.m[1][c]) : 0.0);
-  if (f.rfind("M1", 0) == 0) return mm.mu[0] * m1;
-  if (f.rfind("M2", 0) == 0) return mm.n == 2 ? mm.mu[1] * m2 : 0.0;
-  const double l = mm.n == 2 ? 0.5 * (m1 - m2) : m1;  // Neel unit vector (m1 - m2)/2
-  if (f[0] == 'L') return l;
-  const double l0 = mm.n == 2 ? 0.5 * (g0.m[0][c] - g0.m[1][c]) : g0.m[0][c];
-  return l - l0;  // dL
-}
-
 #define TY_INSTANTIATE(R)                                                     \
   template void Simulation<R>::build_magnets();                               \
   template void Simulation<R>::magnetic_row(int, const double*, double*, long&); \
   template void Simulation<R>::gather_row(int, double*) const;                \
   template const R* Simulation<R>::hy_above(int) const;                       \
+  template void Simulation<R>::scatter_run_ends(int);                         \
   template void Simulation<R>::scatter_hy(int);                               \
-  template void Simulation<R>::step_magnetic();                               \
-  template double Simulation<R>::magnetic_energy() const;                     \
-  template double Simulation<R>::magnetic_value(const std::string&, long) const;
+  template void Simulation<R>::step_magnetic();
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)
 #undef TY_INSTANTIATE

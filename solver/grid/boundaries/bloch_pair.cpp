@@ -11,9 +11,12 @@
 /// dispersive nodes, the absorber along y, sources) is the ordinary one, so each copy is an
 /// exact real solution and F = A + iB the Bloch-periodic complex one.
 ///
-/// Magnetic cells are refused (io/scene/validation.cpp): the cells' gather and scatter reach
-/// across the seam in their own copy, and the midpoint step of tilted cells is not linear, so
-/// the copies would no longer combine into one complex solution.
+/// Magnetic cells: each copy carries its own cells (their deviation from the shared ground
+/// state, the same coefficients), stepped from its own fields; across the seam a cell's
+/// neighbour and the node Hx(0) take the phase-shifted values of both copies (seam_value), and
+/// the pair's sweep is step_magnetic's (bloch_magnets.cpp). That is exact while every cell takes
+/// the small-signal step, which is linear; a cell tilted past it (cell_step.h) breaks the
+/// superposition, and the run stops (bloch_superposition_broken).
 #include <fmt/format.h>
 #include <omp.h>
 
@@ -31,11 +34,11 @@ void Simulation<R>::build_bloch_pair() {
   const double kl = scene_.grid.bloch_kx * g_.nx * g_.dx;  // k_x L_x, the phase across the cell
   phase_ = {std::cos(kl), std::sin(kl)};
   if (copy_ != 0) return;
-  if (!mag_.empty())  // validate_scene refuses these first
-    throw std::invalid_argument("bloch sides with magnetic cells reached the solver");
   Scene sine = scene_;
   std::erase_if(sine.outputs, [](const Output& o) { return o.kind != Output::Kind::power_spectrum; });
   twin_.reset(new Simulation(sine, threads_, 1));
+  partner_ = twin_.get();
+  twin_->partner_ = this;
   bytes_ += twin_->bytes_;
   notes_.push_back(
       fmt::format("bloch sides: k_x = {:.6g} rad/m (phase {:.6g} rad across the {:.6g} m cell); "
@@ -55,24 +58,64 @@ void Simulation<R>::pair_h_row(int j) {
 }
 
 template <class R>
-void Simulation<R>::step_pair() {
+void Simulation<R>::pair_h_ghosts(int j) {
+  Simulation& b = *twin_;
+  h_boundaries(j);
+  b.h_boundaries(j);
+  const long o = g_.at(0, j);
+  bloch::h_ghosts_x(f_[3].data() + o, f_[4].data() + o, f_[5].data() + o, b.f_[3].data() + o, b.f_[4].data() + o,
+                    b.f_[5].data() + o, g_.nx, phase_);
+}
+
+template <class R>
+double Simulation<R>::seam_value(double own, double other, bool left) const {
+  if (!partner_) return own;
+  const double a = copy_ == 0 ? own : other, b = copy_ == 0 ? other : own;
+  double ag, bg;
+  if (left) bloch::left_ghost(ag, bg, a, b, phase_);
+  else bloch::right_ghost(ag, bg, a, b, phase_);
+  return copy_ == 0 ? ag : bg;
+}
+
+template <class R>
+std::string Simulation<R>::bloch_superposition_broken() const {
+  if (!twin_ || mag_.empty()) return {};
+  const long n = midpoint_cell_steps() + twin_->midpoint_cell_steps();
+  if (n == 0) return {};
+  return fmt::format(
+      "bloch sides: {} magnetic cell-step{} tilted past the small-signal limit ({:g} rad) by step {}; the "
+      "nonlinear step of such cells does not superpose, so the sine and cosine copies no longer add up to one "
+      "Bloch wave. Lower the sources' amplitude (the linear response scales with it), or use periodic sides at "
+      "normal incidence for a nonlinear study",
+      n, n == 1 ? "" : "s", CellStep::kTilt, n_);
+}
+
+template <class R>
+void Simulation<R>::pair_before_sweep() {
   Simulation& b = *twin_;
   compute_emitters();
   b.compute_emitters();
-  const auto F = fields();
-  const auto G = b.fields();
-  walls_.before_sweep(F.data(), g_);
-  b.walls_.before_sweep(G.data(), g_);
+  walls_.before_sweep(fields().data(), g_);
+  b.walls_.before_sweep(b.fields().data(), g_);
+}
+
+template <class R>
+void Simulation<R>::pair_before_first_e_row() {
+  walls_.before_first_e_row(fields().data(), g_);
+  twin_->walls_.before_first_e_row(twin_->fields().data(), g_);
+}
+
+template <class R>
+void Simulation<R>::step_pair() {
+  Simulation& b = *twin_;
+  pair_before_sweep();
 #pragma omp parallel num_threads(threads_)
   {
     int j0, j1;
     block_rows(g_.ny, omp_get_thread_num(), omp_get_num_threads(), j0, j1);
     if (j1 > j0) pair_h_row(j1 - 1);
 #pragma omp barrier
-    if (j0 == 0 && j1 > 0) {
-      walls_.before_first_e_row(F.data(), g_);
-      b.walls_.before_first_e_row(G.data(), g_);
-    }
+    if (j0 == 0 && j1 > 0) pair_before_first_e_row();
     for (int j = j0; j < j1 - 1; ++j) {
       pair_h_row(j);
       e_row(j);
@@ -102,6 +145,11 @@ const std::vector<PowerSpectrumRecorder>& Simulation<R>::power_spectra() const {
 #define TY_BLOCH_PAIR(R)                           \
   template void Simulation<R>::build_bloch_pair(); \
   template void Simulation<R>::pair_h_row(int);    \
+  template void Simulation<R>::pair_h_ghosts(int); \
+  template void Simulation<R>::pair_before_sweep(); \
+  template void Simulation<R>::pair_before_first_e_row(); \
+  template double Simulation<R>::seam_value(double, double, bool) const; \
+  template std::string Simulation<R>::bloch_superposition_broken() const; \
   template void Simulation<R>::step_pair();        \
   template const std::vector<PowerSpectrumRecorder>& Simulation<R>::power_spectra() const;
 TY_BLOCH_PAIR(float)

@@ -45,9 +45,11 @@ struct Boundaries {
   bool cell_allowed(int i, int j, int nx, int ny) const {
     return !magnetic_wall::on_wall(i, j, nx, ny, magnetic_x, magnetic_y);
   }
-  /// Cell (i, j) wrapped across periodic edges; false when it lies off the grid.
+  /// Cell (i, j) wrapped across periodic edges (and Bloch x sides, where the neighbour's value
+  /// is the phase-shifted one of both copies: Simulation::seam_value); false when it lies off
+  /// the grid.
   bool neighbour(int& i, int& j, int nx, int ny) const {
-    if (periodic_x) i = periodic::wrap(i, nx);
+    if (periodic_x || bloch_x) i = periodic::wrap(i, nx);
     if (periodic_y) j = periodic::wrap(j, ny);
     return i >= 0 && i < nx && j >= 0 && j < ny;
   }

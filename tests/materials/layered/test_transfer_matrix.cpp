@@ -133,3 +133,40 @@ TEST_CASE("transfer matrix: a canted slab converts polarization and conserves en
     CHECK(std::abs(mu(0, 2)) > 1e-6);
   }
 }
+
+TEST_CASE("transfer matrix: frustrated total reflection through a vacuum gap between two glass half-spaces") {
+  // Glass n = 1.5 on both sides of a vacuum gap d, incidence past the critical angle (41.8 deg):
+  // the gap's field decays as exp(-kappa y), kappa = k0 sqrt(n^2 sin^2 theta - 1), and the
+  // transmittance is the barrier formula 1/T = 1 + ((q1^2 + kappa^2) / (2 q1 kappa))^2
+  // sinh^2(kappa d), q1 = n k0 cos(theta) for the Ez (TE) wave and q1 / n^2 (with kappa / 1)
+  // for the Hz (TM) wave (Born & Wolf, Principles of Optics, sec. 1.6.4; Zhu et al., Am. J.
+  // Phys. 54, 601 (1986), from memory); R = 1 - T, lossless.
+  const double n = 1.5, f = 1e12, k0 = 2 * constants::pi * f / constants::c0;
+  LayerStack s;
+  s.n_in = n;
+  s.eps_out = iso(n * n);
+  double worst = 0;
+  int checked = 0;
+  for (double d : {20e-6, 60e-6, 150e-6})
+    for (double deg : {45.0, 60.0, 80.0}) {
+      s.layers = {{iso(1), iso(1), d}};
+      const double th = deg * constants::pi / 180, kappa = k0 * std::sqrt(n * n * std::sin(th) * std::sin(th) - 1);
+      const auto r = stack_response(s, 2 * constants::pi * f, th);
+      for (int p = 0; p < 2; ++p) {
+        const double q1 = n * k0 * std::cos(th) / (p == 0 ? 1.0 : n * n);
+        const double a = (q1 * q1 + kappa * kappa) / (2 * q1 * kappa), sh = std::sinh(kappa * d);
+        const double T = 1 / (1 + a * a * sh * sh);
+        INFO("d " << d << " angle " << deg << " polarization " << p);
+        CHECK(r.T[p] == doctest::Approx(T).epsilon(1e-9));
+        CHECK(r.R[p][p] == doctest::Approx(1 - T).epsilon(1e-9));
+        worst = std::max(worst, std::abs(r.T[p] - T));
+        ++checked;
+      }
+    }
+  MESSAGE("frustrated total reflection: worst |T - T_barrier| " << worst << " over " << checked << " cases");
+  // a gap of 0 is no interface at all; a wide gap is total reflection
+  s.layers = {{iso(1), iso(1), 0.0}};
+  CHECK(stack_response(s, 2 * constants::pi * f, 1.0).T[0] == doctest::Approx(1.0).epsilon(1e-12));
+  s.layers = {{iso(1), iso(1), 2e-3}};
+  CHECK(stack_response(s, 2 * constants::pi * f, 1.0).R[0][0] == doctest::Approx(1.0).epsilon(1e-9));
+}
