@@ -25,9 +25,9 @@ namespace {
 void check_quiet(const AbsorberCase& c) {
   const auto o = run_absorber_case(c);
   MESSAGE(fmt::format(
-      "{} {} um {:.1f} GHz {}: energy rise after the pulse {:.2e}, tilt in absorber {:.2e} rad, "
+      "{} {} um {:.1f} GHz {}: energy rise after the pulse {:.2e} (plain sum {:.2e}), tilt in absorber {:.2e} rad, "
       "interior {:.2e} rad, energy end/injected {:.3g}, {} steps{}",
-      c.plate ? "plate" : "half-space", c.cell * 1e6, c.frequency / 1e9, c.cw ? "cw" : "pulse", o.rise, o.tilt_in,
+      c.plate ? "plate" : "half-space", c.cell * 1e6, c.frequency / 1e9, c.cw ? "cw" : "pulse", o.rise, o.rise_plain, o.tilt_in,
       o.tilt_out, o.energy_end / o.injected, o.steps, o.guard.empty() ? "" : "; guard: " + o.guard));
   CHECK(o.guard.empty());
   // the measured energy (E at n, H at n-1/2) swings by O(w dt) about the conserved one, a
