@@ -6,6 +6,7 @@
 #include <string>
 
 #include "io/scene/units.h"
+#include "materials/magnetic/energy_above.h"
 #include "solver/simulation.h"
 
 namespace ty {
@@ -18,7 +19,7 @@ double Simulation<R>::magnetic_energy() const {
     const MagnetModel& mm = M.models[M.medium[k]];
     const auto& s = M.m[M.latest];
     const std::array<Vec3, 2> m{Vec3(s[0][k], s[1][k], s[2][k]), Vec3(s[3][k], s[4][k], s[5][k])};
-    e += mm.energy(m) - M.ground[M.medium[k]].energy;
+    e += energy_above(mm, M.ground[M.medium[k]].m, m);  // from the deviations (energy_above.h)
   }
   {
     // the cells' own field G B / mu0 - M holds the energy (|M|^2 - |P M|^2) / 2 beside

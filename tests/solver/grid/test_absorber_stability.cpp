@@ -9,10 +9,13 @@
 /// never tilt more than the interior's. The guard (solver/guard/growth_guard.h) stays quiet.
 /// The long version (5-50 um, pulsed and cw, 4 ns) is the skipped case "absorbers, long":
 ///   ./build/terayee_tests -tc="absorbers\, long*" --no-skip     (or tools/absorber-check.sh)
+/// TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="plate pulse 250" picks cases.
 #include <doctest/doctest.h>
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cstdlib>
+#include <string>
 
 #include "tests/solver/absorber_cases.h"
 
@@ -25,16 +28,17 @@ namespace {
 void check_quiet(const AbsorberCase& c) {
   const auto o = run_absorber_case(c);
   MESSAGE(fmt::format(
-      "{} {} um {:.1f} GHz {}: energy rise after the pulse {:.2e}, tilt in absorber {:.2e} rad, "
+      "{} {} um {:.1f} GHz {}: energy rise after the pulse {:.2e} (plain sum {:.2e}), tilt in absorber {:.2e} rad, "
       "interior {:.2e} rad, energy end/injected {:.3g}, {} steps{}",
-      c.plate ? "plate" : "half-space", c.cell * 1e6, c.frequency / 1e9, c.cw ? "cw" : "pulse", o.rise, o.tilt_in,
+      c.plate ? "plate" : "half-space", c.cell * 1e6, c.frequency / 1e9, c.cw ? "cw" : "pulse", o.rise, o.rise_plain, o.tilt_in,
       o.tilt_out, o.energy_end / o.injected, o.steps, o.guard.empty() ? "" : "; guard: " + o.guard));
   CHECK(o.guard.empty());
-  // the measured energy (E at n, H at n-1/2) swings by O(w dt) about the conserved one, a
-  // few 1e-3 at 50 um (1.1e-2 and 1.3e-2 at 250 GHz since the cells' energy holds their own
-  // field's share, solver/media/magnetic_cells.h, with the end energy 6e-4 and 4e-4 of the
-  // injected); growth would be orders of magnitude more
-  if (!c.cw) CHECK(o.rise < 2e-2);
+  // the leapfrog's own energy with the magnets' from their deviations (absorber_cases.h,
+  // test_absorber_energy.cpp), averaged over each period: it fell at every period in every
+  // run measured (rise exactly 0: the CI cases, and at 50 um over 4 ns the pulsed half-space
+  // and plate at 250 GHz, where the old measure "rose" 0.24 and 0.26); 1e-9 is room for the
+  // rounding of the sums (1e4 nodes x 1e-16), not for growth
+  if (!c.cw) CHECK(o.rise < 1e-9);
   CHECK(o.tilt_in <= o.tilt_out);
   CHECK(o.energy_end < o.injected);
 }
@@ -56,10 +60,19 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
   // TERAYEE_ABSORBER_CELL (um) runs one cell size only (tools/absorber-check.sh runs them in turn)
   std::vector<double> cells{50e-6, 20e-6, 10e-6, 5e-6};
   if (const char* only = std::getenv("TERAYEE_ABSORBER_CELL")) cells = {std::atof(only) * 1e-6};
+  // and TERAYEE_ABSORBER_PICK (e.g. "plate pulse 250") only the cases whose name holds each word
+  const std::string pick = std::getenv("TERAYEE_ABSORBER_PICK") ? std::getenv("TERAYEE_ABSORBER_PICK") : "";
   for (double cell : cells)
     for (bool plate : {false, true})
       for (bool cw : {false, true})
         for (double f : {250e9, 262.5e9, 275e9}) {
+          const std::string name = fmt::format("{} {} {:g}", plate ? "plate" : "half-space", cw ? "cw" : "pulse", f / 1e9);
+          bool wanted = true;
+          for (size_t a = 0, b; a < pick.size(); a = b + 1) {
+            b = std::min(pick.find(' ', a), pick.size());
+            wanted &= name.find(pick.substr(a, b - a)) != std::string::npos;
+          }
+          if (!wanted) continue;
           AbsorberCase c;
           c.cell = cell;
           c.frequency = f;
