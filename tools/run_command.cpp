@@ -1,10 +1,9 @@
 /// \file run_command.cpp
-/// \brief `terayee run SCENE -o RUN`: reads and checks the scene, steps the simulation
-/// with a progress line, and writes the run folder. A stop (Ctrl-C, SIGTERM, SIGHUP,
-/// --stop-at-step) writes a checkpoint first; nothing is left that looks like a result.
-/// Exit status: 0 done or stopped as asked, 128 + signal when stopped by a signal, 1 a
-/// field that became non-finite, a run the growth guard stopped (solver/guard/growth_guard.h)
-/// or a write error, 2 bad input.
+/// \brief `terayee run SCENE -o RUN`: reads and checks the scene, steps the simulation with a progress
+/// line, and writes the run folder. A stop (Ctrl-C, SIGTERM, SIGHUP, --stop-at-step) writes a checkpoint
+/// first; nothing is left that looks like a result. Exit status: 0 done or stopped as asked, 128 + signal
+/// when stopped by a signal, 1 a field that became non-finite, a run the growth guard stopped
+/// (solver/guard/growth_guard.h) or a write error, 2 bad input.
 #include <fmt/format.h>
 #include <unistd.h>
 
@@ -134,22 +133,19 @@ struct Runner {
     const long N = sim.total_steps(), first = sim.steps_done(), every = std::max(1L, N / 100);
     int last_plain = -1;
     for (long n = first; n < N; ++n) {
-      // over ranks every rank stops at the same step: the largest signal any of them saw, asked
-      // every 16 steps (a collective each step would cost a latency each step; the flag stays set)
+      // over ranks all stop at one step: the largest signal seen, asked every 16 steps (the flag stays set)
       int sig = StopSignals::received();
       if (sim.ranks() > 1) sig = n % 16 == 0 ? static_cast<int>(parallel::max_over_ranks(sig)) : 0;
       if (sig) return stop(n, sig);
       const long took = sim.advance_up_to(steps_to_event(n, N, every));  // one step, or a block ending at the next event
       for (long m = n + 1; m <= n + took; ++m) kill_point(KillPoint::step, m);
       n += took - 1;  // the loop's body below sees n + 1 = the steps done
-      // Bloch sides with magnets (always one step a block): a cell past the small-signal step
-      // breaks the pair's superposition
+      // Bloch pair with magnets (one step a block): past the small-signal step it cannot superpose
       if (const std::string e = sim.bloch_superposition_broken(); !e.empty()) return growing(e);
       if (sim.settled()) break;  // `stop: auto`: done before the limit
       if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
-      const bool by_time = o.checkpoint_minutes > 0 && sim.ranks() == 1 &&
-                           std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >
-                               60 * o.checkpoint_minutes;
+      const double since = std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count();
+      const bool by_time = o.checkpoint_minutes > 0 && sim.ranks() == 1 && since > 60 * o.checkpoint_minutes;
       if ((by_time || (o.checkpoint_steps > 0 && (n + 1) % o.checkpoint_steps == 0)) && n + 1 < N) {
         if (const int rc = save(n + 1)) return rc;
         last_checkpoint = std::chrono::steady_clock::now();
