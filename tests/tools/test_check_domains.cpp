@@ -5,21 +5,17 @@
 /// D x L changes sign; Gurevich & Melkov, Magnetization Oscillations and Waves, ch. 1).
 #include <doctest/doctest.h>
 
-#include <array>
-#include <cstdio>
 #include <regex>
 #include <string>
 #include <vector>
 
+#include "tests/tools/capture.h"
+
 namespace {
 std::string check_output(const std::string& scene) {
-  const std::string cmd = std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/" + scene + "' 2>&1";
-  std::string out;
-  FILE* p = popen(cmd.c_str(), "r");
-  REQUIRE(p);
-  std::array<char, 4096> buf{};
-  while (fgets(buf.data(), buf.size(), p)) out += buf.data();
-  REQUIRE(pclose(p) == 0);
+  const std::string out = ty::test::capture(std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/" + scene +
+                                            "' 2>&1; echo \"exit status $?\"");
+  REQUIRE(out.ends_with("exit status 0\n"));
   return out;
 }
 }  // namespace
