@@ -330,6 +330,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
   const YeeGrid& g = sim.grid();
   for (const auto& w : sim.warnings()) log.warn(w);
   for (const auto& n : sim.notes()) log.info(n);
+  log.info("time blocking: " + sim.block_note());  // the depth `run --block-depth` took, and why
   log.info(
       fmt::format("grid {} x {} cells ({} x {} absorbing), cell {:.4g} x {:.4g} um, time step {:.5g} fs, {} steps, "
                   "{} thread{}{}, {} precision, {:.1f} MB",
