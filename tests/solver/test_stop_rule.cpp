@@ -60,7 +60,7 @@ std::vector<double> power(const Simulation<double>& sim, int line) {
 
 }  // namespace
 
-TEST_CASE("stop: auto ends a pulsed run when the pulse has left; its reflectance is Fresnel's") {
+TEST_CASE("stop: auto ends a pulsed run when the pulse has left, and its reflectance is Fresnel's") {
   const Source src = test::plane_pulse(Component::Ez, kLaunch, 0.6e12, 1.0e-12, 3.0e-12, 1e3);
   const double eps = 4.0, n = 2.0, R_fresnel = std::pow((1 - n) / (1 + n), 2);
   Simulation<double> sample(scene(eps, src), 2), reference(scene(1.0, src), 2);
@@ -85,7 +85,7 @@ TEST_CASE("stop: auto ends a pulsed run when the pulse has left; its reflectance
   CHECK(worst < 0.01);  // the grid's own error at >= 33 cells per wavelength in the medium (test_fresnel: 0.5%)
 }
 
-TEST_CASE("stop: auto ends a cw run when two blocks of its spectra agree; the wave it keeps is Fresnel's") {
+TEST_CASE("stop: auto ends a cw run when two blocks of its spectra agree, and the wave it keeps is Fresnel's") {
   Source src = test::plane_pulse(Component::Ez, kLaunch, 0.5e12, 0, 0, 1e3);
   src.waveform = Waveform{};
   src.waveform.kind = Waveform::Kind::cw;

@@ -216,7 +216,7 @@ TEST_CASE("plots: a known curve decodes at the requested size and its data file 
   CHECK(fs::file_size(dir / "sine.svg") > 1000);
 }
 
-TEST_CASE("plots: medium --plot draws the table it prints; render --plot probes draws the recorded traces") {
+TEST_CASE("plots: medium --plot draws the table it prints, and render --plot probes draws the recorded traces") {
   const fs::path dir = fs::temp_directory_path() / "terayee-test-medium-plot";
   fs::remove_all(dir);
   fs::create_directories(dir);

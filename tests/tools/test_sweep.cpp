@@ -22,7 +22,7 @@ std::string slurp(const fs::path& p) {
 }
 }  // namespace
 
-TEST_CASE("sweep: three points, one reference, one table; a second call runs nothing") {
+TEST_CASE("sweep: three points, one reference, one table, and a second call runs nothing") {
   const fs::path dir = fs::temp_directory_path() / "terayee-test-sweep";
   fs::remove_all(dir);
   const std::string base = std::string(TERAYEE_BINARY) + " sweep " + TERAYEE_SOURCE_DIR +

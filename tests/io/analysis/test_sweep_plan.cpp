@@ -22,7 +22,7 @@ TEST_CASE("sweep axes: lists, ranges with a count, and their errors") {
   CHECK_THROWS_AS(parse_axis("k=@/nonexistent/file"), BadInput);
 }
 
-TEST_CASE("sweep points: a grid of every combination, the last axis fastest; zipped axes in step") {
+TEST_CASE("sweep points: a grid of every combination, the last axis fastest, and zipped axes in step") {
   const std::vector<SweepAxis> ax{{"a", {"1", "2"}}, {"b", {"x", "y", "z"}}};
   const auto g = expand(ax, false);
   REQUIRE(g.size() == 6);

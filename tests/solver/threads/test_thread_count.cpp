@@ -27,7 +27,7 @@ TEST_CASE("threads fitted to the work: one for a small grid, all cores for a lar
   CHECK(threads_for_work(4096.0 * 4096, 1) == 1);
 }
 
-TEST_CASE("a small scene left to choose runs on one thread; an explicit count is kept") {
+TEST_CASE("a small scene left to choose runs on one thread, and an explicit count is kept") {
   Scene s = test::box_scene(64, 8, 10e-6, Boundary::periodic, Boundary::periodic, 0.9, 1e-12);
   s.time.threads = 0;  // auto
   CHECK(Simulation<double>(s).threads() == 1);
