@@ -22,6 +22,7 @@
 #include "solver/stop_rule.h"
 #include "tools/check_waves.h"
 #include "tools/commands.h"
+#include "tools/medium_jones.h"
 #include "tools/run_estimate.h"
 
 namespace ty {
@@ -258,6 +259,7 @@ int check_command(const std::string& path, const std::vector<std::string>& sets,
     f_lo = std::min(f_lo, std::max(b.lo, 0.01 * src.frequency)), f_hi = std::max(f_hi, b.hi);
   }
   warnings += report_magnets(s, f_lo, f_hi, uniform);
+  report_scene_jones(s, f_lo, f_hi);  // Faraday and Kerr of a magnetic sample slab, as `medium --polarization`
   // the coarser counted axis (an axis along which nothing varies does not count)
   const double counted_cell = uniform[0] && uniform[1] ? 0.0
                               : uniform[0]             ? G.dy

@@ -58,20 +58,13 @@ std::optional<Geometry> geometry_of(const std::string& run, const std::string& n
   std::string why = "the run folder has no scene.yaml";
   if (std::filesystem::exists(file)) {
     const Scene scene = read_scene(file);
-    const Source* plane = nullptr;
-    for (const Source& s : scene.sources)
-      if (s.kind == Source::Kind::plane) plane = &s;
-    const double c = plane ? std::cos(plane->angle) : 0, sn = plane ? std::sin(plane->angle) : 0;
-    const int axis = std::abs(c) > 0.5 ? 0 : 1, direction = (axis == 0 ? c : sn) > 0 ? 1 : -1;
-    if (!plane || !(std::abs(c) > 1 - 1e-12 || std::abs(sn) > 1 - 1e-12)) {
-      why = "no plane wave along x or y";
-    } else if (const auto slab = sample_slab(scene, axis, direction, why)) {
-      if (!reflected && slab->thickness == 0) {
+    if (const auto sample = scene_sample(scene, why)) {
+      if (!reflected && sample->slab.thickness == 0) {
         why = "the sample is a half-space: nothing is transmitted";
       } else {
         Geometry g;
-        g.model = slab_model(scene, slab->medium, slab->thickness, axis);
-        g.probe_to_front = std::abs(slab->front - output_position(scene, name, axis));
+        g.model = sample->model;
+        g.probe_to_front = std::abs(sample->slab.front - output_position(scene, name, sample->axis));
         if (!reflected || std::isfinite(g.probe_to_front)) return g;
         why = fmt::format("the scene has no output '{}'", name);
       }

@@ -4,16 +4,25 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 #include <iostream>
+#include <vector>
 
 #include "io/scene/constants.h"
+#include "materials/magnetic/linear_response.h"
 
 namespace ty {
 
 namespace {
 
 constexpr double kDeg = 180 / constants::pi;
+
+/// An angle in degrees as printed to 4 decimals, with no "-0.0000".
+double shown_deg(double rad) {
+  const double d = rad * kDeg;
+  return std::abs(d) < 5e-5 ? 0.0 : d;
+}
 const char* const kElement[2][2] = {{"zz", "zu"}, {"uz", "uu"}};  // [out][in]
 
 nlohmann::json matrix_json(const Jones& J) {
@@ -80,11 +89,33 @@ void print_jones_row(double f, const JonesPrediction& p) {
   std::string row = fmt::format("{:11.4f}", f / 1e9);
   auto part = [&](const Jones& J, const PolarizationState s[2]) {
     row += fmt::format(" {:8.5f} {:8.5f} {:9.4f} {:9.4f} {:9.4f} {:9.4f}", std::abs(J[0][0]), std::abs(J[1][0]),
-                       s[0].theta * kDeg, s[0].eta * kDeg, s[1].theta * kDeg, s[1].eta * kDeg);
+                       shown_deg(s[0].theta), shown_deg(s[0].eta), shown_deg(s[1].theta), shown_deg(s[1].eta));
   };
   if (p.has_t) part(p.t, p.faraday);
   part(p.r, p.kerr);
   std::cout << row << "\n";
+}
+
+bool report_scene_jones(const Scene& scene, double f_lo, double f_hi) {
+  std::string why;
+  const auto sample = scene_sample(scene, why);
+  if (!sample || !sample->model.magnetic) return false;  // only a magnetic sample turns the polarization
+  std::cout << fmt::format("  polarization of the sample slab (medium '{}', {}), normal incidence:\n",
+                           scene.media[sample->slab.medium].name,
+                           sample->slab.thickness > 0 ? fmt::format("{:.4g} um thick", sample->slab.thickness * 1e6)
+                                                      : std::string("a half-space"));
+  print_jones_header(sample->slab.thickness > 0);
+  // even steps over the band, and each resonance of the sample's state inside it 2% below and above
+  // (where the rotation changes fastest)
+  std::vector<double> freq;
+  const int count = f_hi > f_lo ? 7 : 1;
+  for (int k = 0; k < count; ++k) freq.push_back(count == 1 ? f_hi : f_lo + (f_hi - f_lo) * k / (count - 1));
+  for (const double r : resonances(sample->model.model, sample->model.state))
+    for (const double x : {0.98 * r, 1.02 * r})
+      if (x > f_lo && x < f_hi) freq.push_back(x);
+  std::sort(freq.begin(), freq.end());
+  for (const double f : freq) print_jones_row(f, predict_jones(sample->model, f));
+  return true;
 }
 
 }  // namespace ty

@@ -17,5 +17,9 @@ nlohmann::json jones_json(const JonesPrediction& p);
 /// The printed table (with --polarization): its header, and one row.
 void print_jones_header(bool slab);
 void print_jones_row(double f, const JonesPrediction& p);
+/// `check`'s polarization lines: where the scene has a plane wave along x or y and one
+/// magnetic sample slab across it, the table above at a few frequencies of [f_lo, f_hi].
+/// Returns whether it printed.
+bool report_scene_jones(const Scene& scene, double f_lo, double f_hi);
 
 }  // namespace ty

@@ -104,4 +104,23 @@ std::optional<SampleSlab> sample_slab(const Scene& scene, int axis, int directio
   return slab;
 }
 
+std::optional<SceneSample> scene_sample(const Scene& scene, std::string& why) {
+  const Source* plane = nullptr;
+  for (const Source& s : scene.sources)
+    if (s.kind == Source::Kind::plane) plane = &s;
+  const double c = plane ? std::cos(plane->angle) : 0, sn = plane ? std::sin(plane->angle) : 0;
+  if (!plane || !(std::abs(c) > 1 - 1e-12 || std::abs(sn) > 1 - 1e-12)) {
+    why = "no plane wave along x or y";
+    return std::nullopt;
+  }
+  SceneSample out;
+  out.axis = std::abs(c) > 0.5 ? 0 : 1;
+  out.direction = (out.axis == 0 ? c : sn) > 0 ? 1 : -1;
+  const auto slab = sample_slab(scene, out.axis, out.direction, why);
+  if (!slab) return std::nullopt;
+  out.slab = *slab;
+  out.model = slab_model(scene, slab->medium, slab->thickness, out.axis);
+  return out;
+}
+
 }  // namespace ty

@@ -63,4 +63,14 @@ struct SampleSlab {
 };
 std::optional<SampleSlab> sample_slab(const Scene& scene, int axis, int direction, std::string& why);
 
+/// The scene's plane wave along x or y and its one sample slab, as the transfer matrix sees
+/// them (used by `measure polarization` and `check`). std::nullopt, with `why`, where the
+/// scene has no plane wave along an axis or no such slab.
+struct SceneSample {
+  SampleSlab slab;
+  SlabModel model;
+  int axis = 0, direction = 1;  ///< the wave's axis (0: x, 1: y) and sense
+};
+std::optional<SceneSample> scene_sample(const Scene& scene, std::string& why);
+
 }  // namespace ty

@@ -24,6 +24,7 @@
 #include "io/scene/constants.h"
 #include "materials/magnetic/linear_response.h"
 #include "tests/helpers.h"
+#include "tests/io/analysis/circular_waves.h"
 
 using namespace ty;
 using constants::c0;
@@ -33,24 +34,8 @@ using cd = std::complex<double>;
 namespace {
 
 const cd I(0, 1);
-
-/// The Airy transmission (exit face over entrance face) of a slab of index n and relative
-/// impedance z in vacuum, normal incidence (Born & Wolf sec. 7.6).
-cd airy_t(cd n, cd z, double k0, double d) {
-  return 1.0 / (std::cos(n * k0 * d) - 0.5 * I * (z + 1.0 / z) * std::sin(n * k0 * d));
-}
-
-/// The closed-form Jones matrix of the gyrotropic slab (see the file's header).
-Jones circular_jones(cd eps, cd mu, cd kappa, double f, double d) {
-  const double k0 = 2 * pi * f / c0;
-  const cd ta = airy_t(std::sqrt(eps * (mu + kappa)), std::sqrt((mu + kappa) / eps), k0, d);
-  const cd tb = airy_t(std::sqrt(eps * (mu - kappa)), std::sqrt((mu - kappa) / eps), k0, d);
-  Jones J{};
-  J[0][0] = J[1][1] = 0.5 * (ta + tb);
-  J[1][0] = -0.5 * I * (ta - tb);  // E.u out of an Ez input
-  J[0][1] = 0.5 * I * (ta - tb);
-  return J;
-}
+using test::airy_t;
+using test::circular_jones;
 
 StackResponse gyrotropic_slab(cd eps, cd mu, cd kappa, double f, double d) {
   LayerStack s;
