@@ -133,7 +133,29 @@ bool SceneBuilder::read_cell(const YAML::Node& g) {
 }
 
 /// `bloch: {wavenumber: K}` (rad/m) or `bloch: {angle: A, at: F}` (k_x = 2 pi F sin(A) / c,
-/// the wavenumber of a plane wave in vacuum at angle A from the y axis at frequency F).
+/// the wavenumber of a plane wave in vacuum at angle A from the y axis at frequency F), or
+/// with `in: MEDIUM` the wave's angle inside that medium (a prism): k_x = 2 pi F n sin(A) / c,
+/// n = sqrt(eps) of an isotropic, non-dispersive, non-magnetic medium (phase matching across
+/// the faces parallel to x, Snell's law: Born & Wolf, Principles of Optics, sec. 1.5.1).
+double SceneBuilder::bloch_index(const YAML::Node& in) {
+  if (!in) return 1.0;
+  const auto name = r_.text(in, "bloch.in");
+  if (!name) return 1.0;
+  const auto it = std::find_if(scene_.media.begin(), scene_.media.end(), [&](const Medium& m) { return m.name == *name; });
+  if (it == scene_.media.end()) {
+    r_.error(in, fmt::format("'bloch.in': medium '{}' is not defined under 'media'", *name));
+    return 1.0;
+  }
+  const auto& e = it->permittivity;
+  if (it->magnet || it->tensor || it->perfect_conductor || it->conductivity != 0 || e[0] != e[1] || e[1] != e[2]) {
+    r_.error(in, fmt::format("'bloch.in': medium '{}' must be an isotropic, non-dispersive, lossless dielectric "
+                             "(its index is the angle's scale); give 'wavenumber' otherwise",
+                             *name));
+    return 1.0;
+  }
+  return std::sqrt(e[0]);
+}
+
 void SceneBuilder::read_bloch(const YAML::Node& g) {
   GridSpec& G = scene_.grid;
   const auto& k = g["bloch"];
@@ -143,7 +165,9 @@ void SceneBuilder::read_bloch(const YAML::Node& g) {
   }
   if (G.bx != Boundary::bloch) r_.error(k, "'grid.bloch' needs 'boundaries: {x: bloch}'");
   if (!r_.is_map(k, "bloch")) return;
-  r_.allow(k, {"wavenumber", "angle", "at"}, "bloch");
+  r_.allow(k, {"wavenumber", "angle", "at", "in"}, "bloch");
+  const double n = bloch_index(k["in"]);
+  if (k["in"] && !k["angle"]) r_.error(k["in"], "'bloch.in' goes with 'angle' and 'at' (the angle inside that medium)");
   if (k["wavenumber"] && (k["angle"] || k["at"])) {
     r_.error(k, "'bloch': give either 'wavenumber' or 'angle' and 'at', not both");
   } else if (k["wavenumber"]) {
@@ -154,7 +178,7 @@ void SceneBuilder::read_bloch(const YAML::Node& g) {
     if (a && f) {
       if (!(std::abs(*a) < 0.5 * pi)) r_.error(k["angle"], "'bloch.angle' must lie strictly between -90 and 90 deg");
       if (!(*f > 0)) r_.error(k["at"], "'bloch.at' must be a positive frequency");
-      G.bloch_kx = 2 * pi * *f * std::sin(*a) / c0;
+      G.bloch_kx = 2 * pi * *f * n * std::sin(*a) / c0;
     }
   } else {
     r_.error(k, "'bloch' needs 'wavenumber' (rad/m), or 'angle' and 'at' (a frequency)");

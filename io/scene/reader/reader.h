@@ -143,6 +143,7 @@ class SceneBuilder {
   bool read_cell(const YAML::Node& g);
   void read_boundaries(const YAML::Node& g);
   void read_bloch(const YAML::Node& g);
+  double bloch_index(const YAML::Node& in);  ///< n of `bloch.in`'s medium (1 without it)
   void read_time(const YAML::Node& t);
   void read_auto_stop(const YAML::Node& t);  ///< `stop: auto` and its keys
   // bodies.cpp

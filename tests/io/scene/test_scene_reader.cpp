@@ -6,6 +6,7 @@
 /// 9th ed., table 7).
 #include <doctest/doctest.h>
 
+#include <cmath>
 #include <string>
 
 #include "io/scene/scene_reader.h"
@@ -106,4 +107,27 @@ TEST_CASE("milliseconds and microseconds are times") {
   const Scene s = read_scene_text(kBase, "scene.yaml", {"time.stop=2 ms"});
   CHECK(s.time.stop == doctest::Approx(2e-3));
   CHECK(read_scene_text(kBase, "scene.yaml", {"time.stop=3 us"}).time.stop == doctest::Approx(3e-6));
+}
+
+TEST_CASE("bloch: the angle inside a prism sets k_x = n k0 sin(A)") {
+  // phase matching across faces parallel to x (Snell's law, Born & Wolf sec. 1.5.1): a wave at
+  // 30 deg inside silicon (eps 11.7) at 0.3 THz has k_x = 2 pi f sqrt(11.7) sin(30 deg) / c
+  const std::string scene = R"(
+grid: {extent: [1 mm, 1 mm], cell: 20 um, boundaries: {x: bloch, y: absorbing}, bloch: {angle: 30 deg, at: 0.3 THz, in: si}}
+time: {stop: 10 ps}
+media: {si: {permittivity: 11.7}, tilted: {permittivity: [11.7, 11.7, 11.6]}}
+sources:
+  - point: {at: [0, 0], component: Ez, amplitude: 1 mA, frequency: 0.5 THz, waveform: {kind: pulse, fwhm: 1 ps}}
+title: "t"
+)";
+  const double c0 = 299792458.0, pi = 3.141592653589793;
+  CHECK(read_scene_text(scene, "s.yaml").grid.bloch_kx ==
+        doctest::Approx(2 * pi * 0.3e12 * std::sqrt(11.7) * 0.5 / c0).epsilon(1e-12));
+  // without `in`: the angle in vacuum
+  std::string vacuum = scene;
+  vacuum.erase(vacuum.find(", in: si"), 8);
+  CHECK(read_scene_text(vacuum, "s.yaml").grid.bloch_kx ==
+        doctest::Approx(2 * pi * 0.3e12 * 0.5 / c0).epsilon(1e-12));
+  CHECK(error_of(scene, {"grid.bloch.in=glass"}).find("medium 'glass' is not defined") != std::string::npos);
+  CHECK(error_of(scene, {"grid.bloch.in=tilted"}).find("must be an isotropic") != std::string::npos);
 }
