@@ -271,7 +271,7 @@ TEST_CASE("wavefront: odd sizes, a depth larger than the rows, more threads than
   same_bits<double>("vacuum", 31, 29, 2, 3, 100, true);  // a thread with no step
 }
 
-TEST_CASE("wavefront: power-spectrum lines and spectral maps end the blocks where they sample") {
+TEST_CASE("wavefront: spectral maps end the blocks where they sample, power-spectrum lines record inside them") {
   for (int threads : {1, 2}) same_bits<double>("recorders", 41, 33, 8, threads, 400, true);
 }
 
