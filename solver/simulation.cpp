@@ -206,10 +206,19 @@ void Simulation<R>::record() {
   auto value = [this](const std::string& field, long cell) { return magnetic_value(field, cell); };
   for (auto& p : probes_) p.record(k, F, value);
   for (auto& fl : power_spectra_) fl.record(k, total_steps_, F, threads_);
+  record_whole();
+  if (twin_) twin_->record();
+}
+
+template <class R>
+void Simulation<R>::record_whole() {
+  const long k = n_ - 1;  // the step just taken
+  const auto Fm = fields();
+  const R* const F[6] = {Fm[0], Fm[1], Fm[2], Fm[3], Fm[4], Fm[5]};
+  auto value = [this](const std::string& field, long cell) { return magnetic_value(field, cell); };
   for (auto& m : maps_) m.record(k, total_steps_, F, g_, threads_);
   const std::vector<int> no_cells;
   snaps_.record(k, F, g_, mag_.empty() ? no_cells : mag_.cell_of, value, sink_);
-  if (twin_) twin_->record();
 }
 
 template <class R>

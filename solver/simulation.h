@@ -27,6 +27,7 @@
 
 #include "io/scene/scene.h"
 #include "solver/blocking/progress.h"
+#include "solver/blocking/recorder_taps.h"
 #include "solver/grid/aligned.h"
 #include "solver/grid/boundaries/bloch.h"
 #include "solver/grid/boundaries/boundaries.h"
@@ -121,7 +122,9 @@ class Simulation {
   const DispersiveCells& dispersive() const { return disp_; }
   const TensorCells& tensor_cells() const { return tensor_; }
   /// Value of a magnetic output field (Mx, Lx, dLx, M1x, ...) in list cell k.
-  double magnetic_value(const std::string& field, long k) const;
+  double magnetic_value(const std::string& field, long k) const { return magnetic_value(field, k, mag_.latest); }
+  /// The same in the state m[p] (a block's recorders: the state of a step inside it).
+  double magnetic_value(const std::string& field, long k, int p) const;
   /// Every piece of state a resumed run needs, one call per array, f(name, data, count),
   /// data a pointer to R, double or long. Saving and loading both go through this one list,
   /// so their order cannot drift apart. Derived data (coefficients, stencils) is rebuilt
@@ -337,12 +340,15 @@ class Simulation {
   const R* hy_above(int j) const;
   /// The magnetic cells of row j (old: their field at n-1/2 from gather_row): the field at
   /// n+1/2, their step, and the scatter into Hx and Hz.
-  void magnetic_row(int j, const double* old, double* scratch, long& tilted);
+  void magnetic_row(int j, long n, const double* old, double* scratch, long& tilted);
+  /// Unit (j, t) of a blocked magnetic scene (wavefront.h, kMagneticLead): step n's work on
+  /// row j as step_magnetic does it, with H one row ahead; ring: b(n-1/2) of two rows.
+  void magnetic_unit(int j, long n, const double* ev, double* const* ring, double* scratch, long& tilted);
   /// The scatter into the Hx nodes at the ends of row j's runs (after magnetic_row(j), and on
   /// a Bloch pair after both copies' magnetic_row(j): the seam's node takes the other's change).
-  void scatter_run_ends(int j);
+  void scatter_run_ends(int j, long n);
   /// The scatter into the Hy nodes of row j (from cell rows j and j-1).
-  void scatter_hy(int j);
+  void scatter_hy(int j, long n);
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);
   void compute_emitters();
   /// The injections' values of step `step` (H at step dt, E at (step + 1/2) dt) into out.
@@ -359,11 +365,18 @@ class Simulation {
   void e_row(int j) { e_row(j, emitter_value_.data()); }
   void e_row_update(int j, const double* ev);  ///< runs, absorber, sources
   void record();
+  /// The recorders that read the whole grid (spectral maps, snapshots) after the step just taken.
+  void record_whole();
   // temporal blocking (solver/blocking/block_step.cpp)
   int block_depth_ = 1;
   std::string block_why_ = "one pass per step";
   std::vector<double> emitter_block_;  // [step of the block][emitter]
   blocking::Progress progress_;
+  blocking::RecorderTaps taps_;     // probes and power-spectrum lines read inside the blocks
+  std::vector<double> mag_ring_;    // [step of the block]: b(n-1/2) of two cell rows
+  /// After a block from step n0: the probes and power-spectrum lines of its steps, in order,
+  /// from the values its units took.
+  void record_taps(long n0, int depth);
   blocking::DepthChoice block_choice(int requested) const;
   /// The first step from n_ on whose fields a recorder reads (LONG_MAX: none).
   long next_read_step() const;

@@ -39,7 +39,7 @@ struct DepthChoice {
 
 /// Depth `auto` on a grid of nx columns, `bytes` per value: deep enough to reuse each row
 /// several times, shallow enough that the band of rows (skew * depth + 2 rows of six
-/// arrays) stays within `cache` bytes.
-int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache);
+/// arrays, plus extra_row_bytes a row: the magnetic cells' state) stays within `cache` bytes.
+int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, std::size_t extra_row_bytes = 0);
 
 }  // namespace ty::blocking

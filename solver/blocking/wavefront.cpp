@@ -15,11 +15,11 @@ void Progress::wait(int t, int rows, int& seen) const {
   }
 }
 
-int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache) {
-  const std::size_t row = 6 * static_cast<std::size_t>(nx + 2) * bytes;
+int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, std::size_t extra_row_bytes) {
+  const std::size_t row = 6 * static_cast<std::size_t>(nx + 2) * bytes + extra_row_bytes;
   int depth = 1;
   // the band a block keeps warm: skew * depth + 2 rows of the six arrays
-  while (depth < 16 && static_cast<std::size_t>(kSkew * 2 * depth + 2) * row <= cache) depth *= 2;  // the doubled depth's band
+  while (depth < 16 && static_cast<std::size_t>(skew * 2 * depth + 2) * row <= cache) depth *= 2;  // the doubled depth's band
   return std::max(1, std::min(depth, ny));
 }
 

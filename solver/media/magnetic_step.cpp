@@ -12,6 +12,7 @@
 #include "io/scene/units.h"
 #include "materials/dielectric.h"
 #include "materials/magnetic/linear_response.h"
+#include "solver/blocking/wavefront.h"
 #include "solver/media/magnet_slots.h"
 #include "solver/simulation.h"
 
@@ -149,11 +150,11 @@ void Simulation<R>::gather_row(int j, double* b) const {
 }
 
 template <class R>
-void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long& tilted) {
+void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scratch, long& tilted) {
   MagneticCells& M = mag_;
   const int r0 = M.row_runs[j], r1 = M.row_runs[j + 1];
   if (r0 == r1) return;
-  const int cur = static_cast<int>(n_ & 1), prev = 1 - cur;
+  const int cur = static_cast<int>(n & 1), prev = 1 - cur;
   const long w = M.longest_row, none = M.count(), first = M.runs[r0].k0;
   double* b0[3] = {scratch, scratch + w, scratch + 2 * w};
   double* b1[3] = {scratch + 3 * w, scratch + 4 * w, scratch + 5 * w};
@@ -207,7 +208,7 @@ void Simulation<R>::magnetic_row(int j, const double* old, double* scratch, long
 }
 
 template <class R>
-void Simulation<R>::scatter_run_ends(int j) {
+void Simulation<R>::scatter_run_ends(int j, long n) {
   // the Hx nodes at the runs' ends, each once: the left face of every run (with the cell
   // on its left, if any), the right face of a run with no magnetic cell after it. Across a
   // Bloch seam the node Hx(0) takes the change of cell nx-1 moved by -L_x (bloch.h): the
@@ -215,7 +216,7 @@ void Simulation<R>::scatter_run_ends(int j) {
   const MagneticCells& M = mag_;
   const int r0 = M.row_runs[j], r1 = M.row_runs[j + 1];
   if (r0 == r1) return;
-  const int cur = static_cast<int>(n_ & 1);
+  const int cur = static_cast<int>(n & 1);
   const long none = M.count();
   const double* dx = M.dM[cur][0].data();
   const double* other = partner_ ? partner_->mag_.dM[cur][0].data() : nullptr;
@@ -234,11 +235,11 @@ void Simulation<R>::scatter_run_ends(int j) {
 }
 
 template <class R>
-void Simulation<R>::scatter_hy(int j) {
+void Simulation<R>::scatter_hy(int j, long n) {
   // each Hy node of row j once: -c (dM_y(i, j) + dM_y(i, j-1)) / 2, from the cells of row j
   // (with the cell below, or none) and the cells of the row below that have none above
   const MagneticCells& M = mag_;
-  const int cur = static_cast<int>(n_ & 1);
+  const int cur = static_cast<int>(n & 1);
   const double* dy = M.dM[cur][1].data();
   const long zero = M.count();
   R* hy = f_[4].data() + g_.at(0, j);
@@ -297,11 +298,11 @@ void Simulation<R>::step_magnetic() {
     for (int j = j0; j < j1; ++j) {
       if (j + 1 < j1 - 1) gather_row(j + 1, ring[(j + 1) & 1]);
       if (j + 1 < j1) h_row(j + 1);
-      magnetic_row(j, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
-      scatter_run_ends(j);
+      magnetic_row(j, n_, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
+      scatter_run_ends(j, n_);
       if (in_absorber(j)) graded_decay(j, false, 5);  // the graded loss on the row's final Hx, Hz
       if (j > j0) {
-        scatter_hy(j);
+        scatter_hy(j, n_);
         if (in_absorber(j)) graded_decay(j, false, 2);  // and on its final Hy
         h_boundaries(j);
         e_row(j);
@@ -309,7 +310,7 @@ void Simulation<R>::step_magnetic() {
     }
 #pragma omp barrier
     if (j1 > j0) {
-      scatter_hy(j0);
+      scatter_hy(j0, n_);
       if (in_absorber(j0)) graded_decay(j0, false, 2);
       h_boundaries(j0);
     }
@@ -322,13 +323,39 @@ void Simulation<R>::step_magnetic() {
   M.latest = static_cast<int>(n_ & 1);
 }
 
+template <class R>
+void Simulation<R>::magnetic_unit(int j, long n, const double* ev, double* const* ring, double* scratch,
+                                  long& tilted) {
+  // Unit (j, t) of the wavefront (solver/blocking/wavefront.h, magnetic_lead): step_magnetic's
+  // work on rows j and j + 1, in the order one thread does it, with H one row ahead of the cells
+  // and E (the cells of row j gather H* of row j + 1). ring[j & 1] holds b(n-1/2) of row j,
+  // gathered by the unit before (by this one for row 0) before H of row j moved.
+  static_assert(blocking::MagneticReach{}.gather_above == 1, "the ring holds two rows");
+  if (j == 0) {
+    gather_row(0, ring[0]);
+    h_row(0, ev);
+  }
+  if (j + 1 < g_.ny) {
+    gather_row(j + 1, ring[(j + 1) & 1]);
+    h_row(j + 1, ev);
+  }
+  magnetic_row(j, n, ring[j & 1], scratch, tilted);
+  scatter_run_ends(j, n);
+  if (in_absorber(j)) graded_decay(j, false, 5);  // the graded loss on the row's final Hx, Hz
+  scatter_hy(j, n);
+  if (in_absorber(j)) graded_decay(j, false, 2);  // and on its final Hy
+  h_boundaries(j);
+  e_row(j, ev);
+}
+
 #define TY_INSTANTIATE(R)                                                     \
   template void Simulation<R>::build_magnets();                               \
-  template void Simulation<R>::magnetic_row(int, const double*, double*, long&); \
+  template void Simulation<R>::magnetic_row(int, long, const double*, double*, long&); \
+  template void Simulation<R>::magnetic_unit(int, long, const double*, double* const*, double*, long&); \
   template void Simulation<R>::gather_row(int, double*) const;                \
   template const R* Simulation<R>::hy_above(int) const;                       \
-  template void Simulation<R>::scatter_run_ends(int);                         \
-  template void Simulation<R>::scatter_hy(int);                               \
+  template void Simulation<R>::scatter_run_ends(int, long);                   \
+  template void Simulation<R>::scatter_hy(int, long);                         \
   template void Simulation<R>::step_magnetic();
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)

@@ -49,13 +49,13 @@ double Simulation<R>::magnetic_energy() const {
 }
 
 template <class R>
-double Simulation<R>::magnetic_value(const std::string& f, long k) const {
+double Simulation<R>::magnetic_value(const std::string& f, long k, int p) const {
   const MagneticCells& M = mag_;
   const int slot = M.medium[k];
   const MagnetModel& mm = M.models[slot];
   const MagneticState& g0 = M.ground[slot];
   const int c = f.back() - 'x';
-  const double m1 = M.m[M.latest][c][k], m2 = mm.n == 2 ? M.m[M.latest][3 + c][k] : 0.0;
+  const double m1 = M.m[p][c][k], m2 = mm.n == 2 ? M.m[p][3 + c][k] : 0.0;
   if (f[0] == 'M' && f.size() == 2)  // mu0 times the deviation of the total magnetization, T
     return mm.mu[0] * (m1 - g0.m[0][c]) + (mm.n == 2 ? mm.mu[1] * (m2 - g0.m[1][c]) : 0.0);
   if (f.rfind("M1", 0) == 0) return mm.mu[0] * m1;
@@ -68,7 +68,7 @@ double Simulation<R>::magnetic_value(const std::string& f, long k) const {
 
 #define TY_INSTANTIATE(R)                                 \
   template double Simulation<R>::magnetic_energy() const; \
-  template double Simulation<R>::magnetic_value(const std::string&, long) const;
+  template double Simulation<R>::magnetic_value(const std::string&, long, int) const;
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)
 #undef TY_INSTANTIATE

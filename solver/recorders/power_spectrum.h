@@ -47,12 +47,27 @@ struct PowerSpectrumRecorder {
   /// (E at (k+1) dt, H at (k+1/2) dt) to the sums; the frequencies split over the threads.
   template <class R>
   void record(long k, long total, const R* const* F, int threads) {
+    if (!begin(k, total)) return;
+    for (size_t p = 0; p < points.size(); ++p)
+      for (int c = 0; c < 6; ++c) value[p * 6 + c] = scaled(c, stencil[p][c](F[c]));
+    add(k, total, threads);
+  }
+  /// The same from the stencils' values taken earlier (raw[p * 6 + c], as stored: eta0 H), for
+  /// a block's recorders (solver/blocking/recorder_taps.h).
+  void record_values(long k, long total, const double* raw, int threads) {
+    if (!begin(k, total)) return;
+    for (size_t p = 0; p < value.size(); ++p) value[p] = scaled(static_cast<int>(p % 6), raw[p]);
+    add(k, total, threads);
+  }
+  /// Whether step k of total is sampled (the sums restarted first where a window begins).
+  bool begin(long k, long total) {
     steps = k + 1;
     if (win.restarts(k)) std::fill(acc.begin(), acc.end(), std::complex<double>{});
-    if (!win.sampled(k, total)) return;
+    return win.sampled(k, total);
+  }
+  static double scaled(int c, double stored) { return c < 3 ? stored : stored / constants::eta0; }
+  void add(long k, long total, int threads) {
     const size_t np = points.size();
-    for (size_t p = 0; p < np; ++p)
-      for (int c = 0; c < 6; ++c) value[p * 6 + c] = c < 3 ? stencil[p][c](F[c]) : stencil[p][c](F[c]) / constants::eta0;
     std::complex<double>* sums = acc.data();
     const double* val = value.data();
     const double* fr = freq.data();

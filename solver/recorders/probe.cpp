@@ -49,6 +49,7 @@ ProbeRecorder make_probe(const Output& o, const YeeGrid& g, long total_steps, co
       p.cell_weight[q] = st.weight[q];
     }
   }
+  p.taken.assign(static_cast<size_t>(p.slots()), 0.0);
   return p;
 }
 

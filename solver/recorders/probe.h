@@ -34,26 +34,45 @@ struct ProbeRecorder {
   std::array<double, 4> cell_weight{};
   std::vector<std::vector<double>> magnetic_series;
 
+  /// Its reads of one step, slot by slot (a block's recorders take them row by row as the
+  /// wavefront passes, solver/blocking/recorder_taps.h): slot q * 6 + c the stencil of component
+  /// c at line point q (q = 0 for a point probe), then slot reads() + 4 f + q the magnetic field
+  /// f in cells[q] (unused where cells[q] < 0).
+  int field_reads() const { return 6 * static_cast<int>(line.empty() ? 1 : line.size()); }
+  int slots() const { return field_reads() + 4 * static_cast<int>(magnetic.size()); }
+  const PointStencil& slot_stencil(int slot) const {
+    return line.empty() ? stencil[slot % 6] : line[static_cast<size_t>(slot / 6)][slot % 6];
+  }
   /// Step k's values; value(field, cell) gives a magnetic field's value in a list cell.
   template <class R, class MagneticValue>
   void record(long k, const R* const* F, MagneticValue&& value) {
+    double* v = taken.data();
+    for (int s = 0; s < field_reads(); ++s) v[s] = slot_stencil(s)(F[s % 6]);
+    for (size_t f = 0; f < magnetic.size(); ++f)
+      for (int q = 0; q < 4; ++q)
+        if (cells[q] >= 0) v[field_reads() + 4 * f + q] = value(magnetic[f], cells[q]);
+    record_values(k, v);
+  }
+  /// Step k's values from its reads (slots()).
+  void record_values(long k, const double* v) {
     if (line.empty()) {
-      for (int c = 0; c < 6; ++c) raw[static_cast<size_t>(k) * 6 + c] = stencil[c](F[c]);
+      for (int c = 0; c < 6; ++c) raw[static_cast<size_t>(k) * 6 + c] = v[c];
     } else {
       for (int c = 0; c < 6; ++c) {
-        double v = 0;
-        for (size_t q = 0; q < line.size(); ++q) v += line_weight[q] * line[q][c](F[c]);
-        raw[static_cast<size_t>(k) * 6 + c] = v;
+        double x = 0;
+        for (size_t q = 0; q < line.size(); ++q) x += line_weight[q] * v[q * 6 + c];
+        raw[static_cast<size_t>(k) * 6 + c] = x;
       }
     }
     for (size_t f = 0; f < magnetic.size(); ++f) {
-      double v = 0;
+      double x = 0;
       for (int q = 0; q < 4; ++q)
-        if (cells[q] >= 0) v += cell_weight[q] * value(magnetic[f], cells[q]);
-      magnetic_series[f][k] = v;
+        if (cells[q] >= 0) x += cell_weight[q] * v[field_reads() + 4 * f + q];
+      magnetic_series[f][k] = x;
     }
     count = k + 1;
   }
+  std::vector<double> taken;  ///< one step's reads (slots()), sized by make_probe
   /// The series of one field in SI (E in V/m, H in A/m, S in W/m^2, M in T) at the E times.
   std::vector<double> series(const std::string& field) const;
   template <class F>

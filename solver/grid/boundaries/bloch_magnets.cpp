@@ -54,14 +54,14 @@ void Simulation<R>::step_pair_magnetic() {
       if (j + 1 < j1 - 1) gather_row(j + 1, ring_a[(j + 1) & 1]), b.gather_row(j + 1, ring_b[(j + 1) & 1]);
       if (j + 1 < j1) pair_h_row(j + 1);
       const bool last = j == j1 - 1 && j > j0;
-      magnetic_row(j, last ? top_a : ring_a[j & 1], sa, mag_tilted_[t * 8]);
-      b.magnetic_row(j, last ? top_b : ring_b[j & 1], sb, b.mag_tilted_[t * 8]);
-      scatter_run_ends(j);
-      b.scatter_run_ends(j);
+      magnetic_row(j, n_, last ? top_a : ring_a[j & 1], sa, mag_tilted_[t * 8]);
+      b.magnetic_row(j, b.n_, last ? top_b : ring_b[j & 1], sb, b.mag_tilted_[t * 8]);
+      scatter_run_ends(j, n_);
+      b.scatter_run_ends(j, b.n_);
       if (in_absorber(j)) graded_decay(j, false, 5), b.graded_decay(j, false, 5);
       if (j > j0) {
-        scatter_hy(j);
-        b.scatter_hy(j);
+        scatter_hy(j, n_);
+        b.scatter_hy(j, b.n_);
         if (in_absorber(j)) graded_decay(j, false, 2), b.graded_decay(j, false, 2);
         pair_h_ghosts(j);
         e_row(j);
@@ -70,8 +70,8 @@ void Simulation<R>::step_pair_magnetic() {
     }
 #pragma omp barrier
     if (j1 > j0) {
-      scatter_hy(j0);
-      b.scatter_hy(j0);
+      scatter_hy(j0, n_);
+      b.scatter_hy(j0, b.n_);
       if (in_absorber(j0)) graded_decay(j0, false, 2), b.graded_decay(j0, false, 2);
       pair_h_ghosts(j0);
     }

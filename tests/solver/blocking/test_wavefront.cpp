@@ -35,8 +35,22 @@ TEST_CASE("wavefront: the row reaches and skew come from the Yee staggering") {
   CHECK(blocking::kSkew == 2);
 }
 
+TEST_CASE("wavefront: a magnetic scene's lead comes from its cells' reaches") {
+  // the cell field G H averages Hy(i, j) and Hy(i, j+1) (one row above) and takes the dM of the
+  // cells below and above (magnetic_cells.h); with the Yee reaches above, H runs one row ahead
+  // of the cells and E, and b(n-1/2) of that row reads the final H one row further: lead 2
+  constexpr blocking::MagneticReach m;
+  CHECK(m.gather_above == 1);
+  CHECK(m.neighbours == 1);
+  CHECK(blocking::kMagneticLead == 2);
+  // a wider gather or neighbourhood must lengthen it (the formula, not a constant)
+  CHECK(blocking::magnetic_lead(blocking::row_reach(), {2, 1}) == 4);
+  CHECK(blocking::magnetic_lead(blocking::row_reach(), {1, 3}) == 3);
+}
+
 TEST_CASE("wavefront: every (row, step) once, after the units it reads, for 1 to 3 threads") {
-  // the leapfrog's dependencies (wavefront.h): (j, t) after (j + 1, t - 1) and (j - 1, t)
+  // the leapfrog's dependencies (wavefront.h): (j, t) after (j + lead, t - 1) and (j - 1, t)
+  for (int lead : {blocking::kLead, blocking::kMagneticLead})
   for (int threads : {1, 2, 3})
     for (int ny : {1, 2, 5, 37})
       for (int depth : {1, 2, 3, 8, 9}) {
@@ -50,13 +64,17 @@ TEST_CASE("wavefront: every (row, step) once, after the units it reads, for 1 to
         {
           int t0, t1;
           block_rows(depth, omp_get_thread_num(), omp_get_num_threads(), t0, t1);
-          blocking::sweep_steps(ny, t0, t1, progress, [&](int j, int t) {
-            const size_t u = static_cast<size_t>(t * ny + j);
-            if (start[u] >= 0) ++twice;
-            start[u] = clock++;
-            end[u] = clock++;
-          });
+          blocking::sweep_steps(
+              ny, t0, t1, progress,
+              [&](int j, int t) {
+                const size_t u = static_cast<size_t>(t * ny + j);
+                if (start[u] >= 0) ++twice;
+                start[u] = clock++;
+                end[u] = clock++;
+              },
+              lead);
         }
+        CAPTURE(lead);
         CAPTURE(threads);
         CAPTURE(ny);
         CAPTURE(depth);
@@ -67,7 +85,7 @@ TEST_CASE("wavefront: every (row, step) once, after the units it reads, for 1 to
             const long s = start[static_cast<size_t>(t * ny + j)];
             if (s < 0) ++missing;
             if (j > 0 && s < end[static_cast<size_t>(t * ny + j - 1)]) ++early;
-            if (t > 0 && s < end[static_cast<size_t>((t - 1) * ny + std::min(j + 1, ny - 1))]) ++early;
+            if (t > 0 && s < end[static_cast<size_t>((t - 1) * ny + std::min(j + lead, ny - 1))]) ++early;
           }
         CHECK(missing == 0);
         CHECK(early == 0);
@@ -91,9 +109,11 @@ State state_of(Simulation<R>& sim) {
 
 /// `steps` steps one pass at a time (depth 1) or in blocks; the largest block taken.
 template <class R>
-State run(const Scene& scene, int threads, int depth, long steps, int& largest, int& chosen) {
+State run(const Scene& scene, int threads, int depth, long steps, int& largest, int& chosen, bool tilted = false) {
   Simulation<R> sim(scene, threads);
   sim.set_block_depth(depth);
+  if (tilted)  // every magnetic cell on the large-tilt path, whatever its tilt (as `bench --case tilted`)
+    for (CellStep& c : sim.magnets().steps) c.tilt2 = -1;
   chosen = sim.block_depth();
   largest = 0;
   for (long n = 0; n < steps;) {
@@ -167,7 +187,7 @@ Scene scene_of(const std::string& kind, int nx, int ny) {
     p.at = {0.5 * nx * d, 0.5 * ny * d};
     s.outputs.push_back(p);
   }
-  if (kind == "magnetic") {
+  if (kind == "magnetic" || kind == "magnetic-recorders" || kind == "magnetic-graded") {
     Medium mn;
     mn.name = "MnF2";
     mn.permittivity = {5.5, 5.5, 5.5};
@@ -180,15 +200,39 @@ Scene scene_of(const std::string& kind, int nx, int ny) {
     b.shape.radius = 0.2 * ny * d;
     s.bodies.push_back(b);
   }
+  if (kind == "magnetic-graded") s.grid.absorber.kind = Absorber::Kind::graded;
+  if (kind == "magnetic-recorders") {  // lines across every row and along one, probes of fields and cells
+    for (int k = 0; k < 2; ++k) {
+      Output o;
+      o.kind = Output::Kind::power_spectrum;
+      o.name = k ? "across" : "along";
+      o.from = k ? Vec2{0.8 * nx * d, 0} : Vec2{0, 0.55 * ny * d};
+      o.to = k ? Vec2{0.8 * nx * d, ny * d} : Vec2{nx * d, 0.55 * ny * d};
+      o.band_from = 0.5e12, o.band_to = 1.5e12, o.count = 31;
+      s.outputs.push_back(o);
+    }
+    Output p;
+    p.kind = Output::Kind::probe;
+    p.name = "in-crystal";
+    p.fields = {"Ez", "Hx", "Mx", "Ly", "dLz"};
+    p.at = {0.62 * nx * d, 0.47 * ny * d};
+    s.outputs.push_back(p);
+    p.name = "detector";
+    p.fields = {"Ez", "Sx"};
+    p.over_line = true;
+    p.from = {0.3 * nx * d, 0.2 * ny * d}, p.to = {0.35 * nx * d, 0.9 * ny * d};
+    s.outputs.push_back(p);
+  }
   return s;
 }
 
 template <class R>
-void same_bits(const std::string& kind, int nx, int ny, int depth, int threads, long steps, bool expect_blocks) {
+void same_bits(const std::string& kind, int nx, int ny, int depth, int threads, long steps, bool expect_blocks,
+               bool tilted = false) {
   const Scene s = scene_of(kind, nx, ny);
   int l1 = 0, l2 = 0, c1 = 0, c2 = 0;
-  const State a = run<R>(s, threads, 1, steps, l1, c1);
-  const State b = run<R>(s, threads, depth, steps, l2, c2);
+  const State a = run<R>(s, threads, 1, steps, l1, c1, tilted);
+  const State b = run<R>(s, threads, depth, steps, l2, c2, tilted);
   CAPTURE(kind);
   CAPTURE(nx);
   CAPTURE(ny);
@@ -227,13 +271,24 @@ TEST_CASE("wavefront: odd sizes, a depth larger than the rows, more threads than
   same_bits<double>("vacuum", 31, 29, 2, 3, 100, true);  // a thread with no step
 }
 
-TEST_CASE("wavefront: power-spectrum lines and spectral maps end the blocks where they sample") {
+TEST_CASE("wavefront: spectral maps end the blocks where they sample, power-spectrum lines record inside them") {
   for (int threads : {1, 2}) same_bits<double>("recorders", 41, 33, 8, threads, 400, true);
 }
 
-TEST_CASE("wavefront: probes and magnetic cells keep one pass per step, same bits") {
-  for (int threads : {1, 2}) {
-    same_bits<double>("probes", 41, 33, 8, threads, 100, false);
-    same_bits<double>("magnetic", 33, 25, 8, threads, 60, false);
-  }
+TEST_CASE("wavefront: probes record inside the blocks, same bits") {
+  for (int threads : {1, 2}) same_bits<double>("probes", 41, 33, 8, threads, 100, true);
+}
+
+TEST_CASE("wavefront: magnetic cells with probes and power-spectrum lines inside the blocks, same bits") {
+  // depth 1 is the one-pass sweep itself; 3 (odd, over two threads) and 16 (deeper than a
+  // thread's share of a 25-row grid's fronts) block
+  for (int threads : {1, 2})
+    for (int depth : {1, 3, 16}) same_bits<double>("magnetic-recorders", 33, 25, depth, threads, 70, depth > 1);
+  same_bits<double>("magnetic", 33, 25, 4, 3, 60, true);  // three threads
+  same_bits<float>("magnetic-recorders", 33, 25, 3, 2, 60, true);
+  for (int threads : {1, 2}) same_bits<double>("magnetic-graded", 33, 25, 5, threads, 60, true);
+}
+
+TEST_CASE("wavefront: tilted magnetic cells (the large-tilt path) inside the blocks, same bits") {
+  for (int threads : {1, 2}) same_bits<double>("magnetic-recorders", 33, 25, 3, threads, 40, true, true);
 }
