@@ -333,6 +333,8 @@ class Simulation {
   // magnetic cells over ranks (solver/parallel/magnetic_slab_step.cpp, magnet_halo.h)
   void build_magnetic_slabs();
   void step_magnetic_slab();
+  /// The main thread's halo exchange at one of the step's points (magnetic_slab_step.cpp).
+  void magnet_exchange(int point);
   void pack_cell_row(int j, double* to) const;
   void unpack_cell_row(int j, const double* from);
   /// Every rank's cells whole on every rank (in gather_state), and the recorder rows' cells.

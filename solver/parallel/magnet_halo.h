@@ -75,10 +75,10 @@ inline constexpr int kCellValues = 2 * bits(cell_m_axes()) + bits(cell_dm_axes()
 /// The magnetic step's exchange buffers over ranks, and the cells' blocks of the gathers.
 template <class R>
 struct MagnetHalo {
-  std::vector<R> old_out, old_in;    // E rows and the gather's H rows, as before the step (down)
-  std::vector<R> star_out, star_in;  // the gather's H rows after Faraday's law (down)
+  std::vector<R> old_out, old_in;                 // E rows and the gather's H rows, as before the step (down)
+  std::vector<R> star_out, star_in;               // the gather's H rows after Faraday's law (down)
   std::vector<double> cells_out[2], cells_in[2];  // [0] up, [1] down: a cell row's values
-  std::vector<R> h_out, h_in;        // H rows the E update reads (up)
+  std::vector<R> h_out, h_in;                     // H rows the E update reads (up)
   Request req[10];
   std::vector<int> cell_counts;           // gather_state's bytes of each rank's cells
   std::vector<int> recorder_cell_counts;  // bytes of the recorder rows' cells per rank

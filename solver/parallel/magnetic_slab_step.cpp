@@ -27,6 +27,7 @@ namespace ty {
 
 namespace {
 constexpr int kTagOld = 21, kTagStar = 22, kTagCellsUp = 23, kTagCellsDown = 24, kTagH = 25;
+enum ExchangePoint : int { kBeforeStep, kAfterFaraday, kAfterCells, kAfterH };
 constexpr auto kHaloE = parallel::halo_list(true), kHaloH = parallel::halo_list(false);
 constexpr auto kCellH = parallel::list_of(parallel::cell_h_above_mask());
 constexpr auto kAxesM = parallel::list_of(parallel::cell_m_axes());
@@ -63,7 +64,8 @@ void Simulation<R>::build_magnetic_slabs() {
     for (int j : recorder_rows_)
       if (j >= lo && j < hi) {
         X.recorder_cells.push_back(mag_.first_cell(j)), X.recorder_cells.push_back(mag_.first_cell(j + 1));
-        X.recorder_cell_counts[r] += static_cast<int>(6 * (mag_.first_cell(j + 1) - mag_.first_cell(j)) * sizeof(double));
+        X.recorder_cell_counts[r] +=
+            static_cast<int>(6 * (mag_.first_cell(j + 1) - mag_.first_cell(j)) * sizeof(double));
       }
   }
   long n = 0;
@@ -79,8 +81,10 @@ void Simulation<R>::pack_cell_row(int j, double* to) const {
   const int cur = static_cast<int>(n_ & 1);  // the step's new state
   const long k0 = M.first_cell(j), n = M.first_cell(j + 1) - k0;
   for (int a = 0; a < 3 && kAxesM[a] >= 0; ++a)
-    for (int sub = 0; sub < 2; ++sub, to += n) std::memcpy(to, M.m[cur][3 * sub + kAxesM[a]].data() + k0, n * sizeof(double));
-  for (int a = 0; a < 3 && kAxesDM[a] >= 0; ++a, to += n) std::memcpy(to, M.dM[cur][kAxesDM[a]].data() + k0, n * sizeof(double));
+    for (int sub = 0; sub < 2; ++sub, to += n)
+      std::memcpy(to, M.m[cur][3 * sub + kAxesM[a]].data() + k0, n * sizeof(double));
+  for (int a = 0; a < 3 && kAxesDM[a] >= 0; ++a, to += n)
+    std::memcpy(to, M.dM[cur][kAxesDM[a]].data() + k0, n * sizeof(double));
 }
 
 template <class R>
@@ -89,53 +93,87 @@ void Simulation<R>::unpack_cell_row(int j, const double* from) {
   const int cur = static_cast<int>(n_ & 1);
   const long k0 = M.first_cell(j), n = M.first_cell(j + 1) - k0;
   for (int a = 0; a < 3 && kAxesM[a] >= 0; ++a)
-    for (int sub = 0; sub < 2; ++sub, from += n) std::memcpy(M.m[cur][3 * sub + kAxesM[a]].data() + k0, from, n * sizeof(double));
-  for (int a = 0; a < 3 && kAxesDM[a] >= 0; ++a, from += n) std::memcpy(M.dM[cur][kAxesDM[a]].data() + k0, from, n * sizeof(double));
+    for (int sub = 0; sub < 2; ++sub, from += n)
+      std::memcpy(M.m[cur][3 * sub + kAxesM[a]].data() + k0, from, n * sizeof(double));
+  for (int a = 0; a < 3 && kAxesDM[a] >= 0; ++a, from += n)
+    std::memcpy(M.dM[cur][kAxesDM[a]].data() + k0, from, n * sizeof(double));
 }
 
 template <class R>
-void Simulation<R>::step_magnetic_slab() {
-  compute_emitters();
+void Simulation<R>::magnet_exchange(int point) {
+  // the main thread only (MPI is funneled, ranks.h); each point sends before it waits
   parallel::MagnetHalo<R>& X = mhalo_;
-  MagneticCells& M = mag_;
+  const MagneticCells& M = mag_;
   const long s = g_.stride;
   const int lo = row0_, hi = row1_, ny = g_.ny;
   // the gather's H rows above land where the gather reads them (hy_above: row 0 across a
   // periodic top); E rows in row hi (the ghost row ny at a periodic top, slabs.h)
   const long above = g_.row_begin(hi < ny ? hi : 0);
   const int cells_below = periodic::wrap(lo - 1, ny), cells_above = periodic::wrap(hi, ny);
-  auto cell_bytes = [&](int j) { return (M.first_cell(j + 1) - M.first_cell(j)) * parallel::kCellValues * sizeof(double); };
+  auto cell_bytes = [&](int j) {
+    return (M.first_cell(j + 1) - M.first_cell(j)) * parallel::kCellValues * sizeof(double);
+  };
   parallel::Request* q = X.req;  // receives 0-4, sends 5-9
-  // 0: the rows above as they are before the step
-  if (up_ >= 0) {
-    parallel::receive_bytes(X.old_in.data(), X.old_in.size() * sizeof(R), up_, kTagOld, q[0]);
-    parallel::receive_bytes(X.star_in.data(), X.star_in.size() * sizeof(R), up_, kTagStar, q[1]);
-    parallel::receive_bytes(X.cells_in[1].data(), cell_bytes(cells_above), up_, kTagCellsDown, q[2]);
+  if (point == kBeforeStep) {    // every receive of the step; E and the gather's H rows as they are
+    if (up_ >= 0) {
+      parallel::receive_bytes(X.old_in.data(), X.old_in.size() * sizeof(R), up_, kTagOld, q[0]);
+      parallel::receive_bytes(X.star_in.data(), X.star_in.size() * sizeof(R), up_, kTagStar, q[1]);
+      parallel::receive_bytes(X.cells_in[1].data(), cell_bytes(cells_above), up_, kTagCellsDown, q[2]);
+    }
+    if (down_ >= 0) {
+      parallel::receive_bytes(X.cells_in[0].data(), cell_bytes(cells_below), down_, kTagCellsUp, q[3]);
+      parallel::receive_bytes(X.h_in.data(), X.h_in.size() * sizeof(R), down_, kTagH, q[4]);
+      pack_rows(f_, kHaloE, g_.row_begin(lo), s, X.old_out.data());
+      pack_rows(f_, kCellH, g_.row_begin(lo), s, X.old_out.data() + kRowsE * s);
+      parallel::send_bytes(X.old_out.data(), X.old_out.size() * sizeof(R), down_, kTagOld, q[5]);
+    }
+    if (up_ >= 0) {
+      q[0].wait();
+      unpack_rows(f_, kHaloE, g_.row_begin(hi), s, X.old_in.data());
+      unpack_rows(f_, kCellH, above, s, X.old_in.data() + kRowsE * s);
+    }
+  } else if (point == kAfterFaraday) {  // h* of the gather's H rows
+    if (down_ >= 0) {
+      pack_rows(f_, kCellH, g_.row_begin(lo), s, X.star_out.data());
+      parallel::send_bytes(X.star_out.data(), X.star_out.size() * sizeof(R), down_, kTagStar, q[6]);
+    }
+    if (up_ >= 0) q[1].wait(), unpack_rows(f_, kCellH, above, s, X.star_in.data());
+  } else if (point == kAfterCells) {  // the cell rows' new state and dM
+    if (up_ >= 0) {
+      pack_cell_row(hi - 1, X.cells_out[0].data());
+      parallel::send_bytes(X.cells_out[0].data(), cell_bytes(hi - 1), up_, kTagCellsUp, q[7]);
+    }
+    if (down_ >= 0) {
+      pack_cell_row(lo, X.cells_out[1].data());
+      parallel::send_bytes(X.cells_out[1].data(), cell_bytes(lo), down_, kTagCellsDown, q[8]);
+      q[3].wait(), unpack_cell_row(cells_below, X.cells_in[0].data());
+    }
+    if (up_ >= 0) q[2].wait(), unpack_cell_row(cells_above, X.cells_in[1].data());
+  } else {  // kAfterH: the H rows the E update reads (slabs.h)
+    if (up_ >= 0) {
+      pack_rows(f_, kHaloH, g_.row_begin(hi - 1), s, X.h_out.data());
+      parallel::send_bytes(X.h_out.data(), X.h_out.size() * sizeof(R), up_, kTagH, q[9]);
+    }
+    if (down_ >= 0) q[4].wait(), unpack_rows(f_, kHaloH, g_.row_begin(lo - 1), s, X.h_in.data());
   }
-  if (down_ >= 0) {
-    parallel::receive_bytes(X.cells_in[0].data(), cell_bytes(cells_below), down_, kTagCellsUp, q[3]);
-    parallel::receive_bytes(X.h_in.data(), X.h_in.size() * sizeof(R), down_, kTagH, q[4]);
-    pack_rows(f_, kHaloE, g_.row_begin(lo), s, X.old_out.data());
-    pack_rows(f_, kCellH, g_.row_begin(lo), s, X.old_out.data() + kRowsE * s);
-    parallel::send_bytes(X.old_out.data(), X.old_out.size() * sizeof(R), down_, kTagOld, q[5]);
-  }
-  if (up_ >= 0) {
-    q[0].wait();
-    unpack_rows(f_, kHaloE, g_.row_begin(hi), s, X.old_in.data());
-    unpack_rows(f_, kCellH, above, s, X.old_in.data() + kRowsE * s);
-  }
+}
+
+template <class R>
+void Simulation<R>::step_magnetic_slab() {
+  compute_emitters();
+  MagneticCells& M = mag_;
+  magnet_exchange(kBeforeStep);
 #pragma omp parallel num_threads(threads_)
   {
     int j0, j1;
     const int t = omp_get_thread_num();
-    block_rows(hi - lo, t, omp_get_num_threads(), j0, j1);
-    j0 += lo, j1 += lo;
+    block_rows(row1_ - row0_, t, omp_get_num_threads(), j0, j1);
+    j0 += row0_, j1 += row0_;
     double* scratch = mag_scratch_[t].data();
     const long w = M.longest_row;
     double* ring[2] = {scratch + 7 * w, scratch + 10 * w};  // as in step_magnetic
     double* top = scratch + 13 * w;
-    // A
-    if (j1 > j0) {
+    if (j1 > j0) {  // A
       gather_row(j0, ring[j0 & 1]);
       if (j1 - 1 > j0) gather_row(j1 - 1, top);
     }
@@ -143,16 +181,9 @@ void Simulation<R>::step_magnetic_slab() {
     if (j1 > j0) h_row(j0);
 #pragma omp barrier
 #pragma omp master
-    {
-      if (down_ >= 0) {
-        pack_rows(f_, kCellH, g_.row_begin(lo), s, X.star_out.data());
-        parallel::send_bytes(X.star_out.data(), X.star_out.size() * sizeof(R), down_, kTagStar, q[6]);
-      }
-      if (up_ >= 0) q[1].wait(), unpack_rows(f_, kCellH, above, s, X.star_in.data());
-    }
+    magnet_exchange(kAfterFaraday);
 #pragma omp barrier
-    // B: step_magnetic's loop
-    for (int j = j0; j < j1; ++j) {
+    for (int j = j0; j < j1; ++j) {  // B: step_magnetic's loop
       if (j + 1 < j1 - 1) gather_row(j + 1, ring[(j + 1) & 1]);
       if (j + 1 < j1) h_row(j + 1);
       magnetic_row(j, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
@@ -167,38 +198,19 @@ void Simulation<R>::step_magnetic_slab() {
     }
 #pragma omp barrier
 #pragma omp master
-    {
-      if (up_ >= 0) {
-        pack_cell_row(hi - 1, X.cells_out[0].data());
-        parallel::send_bytes(X.cells_out[0].data(), cell_bytes(hi - 1), up_, kTagCellsUp, q[7]);
-      }
-      if (down_ >= 0) {
-        pack_cell_row(lo, X.cells_out[1].data());
-        parallel::send_bytes(X.cells_out[1].data(), cell_bytes(lo), down_, kTagCellsDown, q[8]);
-        q[3].wait(), unpack_cell_row(cells_below, X.cells_in[0].data());
-      }
-      if (up_ >= 0) q[2].wait(), unpack_cell_row(cells_above, X.cells_in[1].data());
-    }
+    magnet_exchange(kAfterCells);
 #pragma omp barrier
-    // C
-    if (j1 > j0) {
+    if (j1 > j0) {  // C
       scatter_hy(j0);
       if (in_absorber(j0)) graded_decay(j0, false, 2);
       h_boundaries(j0);
     }
 #pragma omp barrier
-    // D
 #pragma omp master
-    {
-      if (up_ >= 0) {
-        pack_rows(f_, kHaloH, g_.row_begin(hi - 1), s, X.h_out.data());
-        parallel::send_bytes(X.h_out.data(), X.h_out.size() * sizeof(R), up_, kTagH, q[9]);
-      }
-      if (down_ >= 0) q[4].wait(), unpack_rows(f_, kHaloH, g_.row_begin(lo - 1), s, X.h_in.data());
-    }
+    magnet_exchange(kAfterH);  // D: the main thread's row lo after H(lo-1) has come
     if (j1 > j0) e_row(j0);
   }
-  for (int k = 5; k < 10; ++k) q[k].wait();
+  for (int k = 5; k < 10; ++k) mhalo_.req[k].wait();
   ++n_;
   M.latest = static_cast<int>(n_ & 1);
 }
@@ -239,12 +251,14 @@ void Simulation<R>::gather_recorder_cells() {
   };
   each([&](long k0, long n, long at, bool mine) {
     if (mine)
-      for (int c = 0; c < 6; ++c) std::memcpy(X.recorder_buf.data() + at + c * n, mag_.m[p][c].data() + k0, n * sizeof(double));
+      for (int c = 0; c < 6; ++c)
+        std::memcpy(X.recorder_buf.data() + at + c * n, mag_.m[p][c].data() + k0, n * sizeof(double));
   });
   parallel::allgather_bytes(X.recorder_buf.data(), X.recorder_cell_counts);
   each([&](long k0, long n, long at, bool mine) {
     if (!mine)
-      for (int c = 0; c < 6; ++c) std::memcpy(mag_.m[p][c].data() + k0, X.recorder_buf.data() + at + c * n, n * sizeof(double));
+      for (int c = 0; c < 6; ++c)
+        std::memcpy(mag_.m[p][c].data() + k0, X.recorder_buf.data() + at + c * n, n * sizeof(double));
   });
 }
 
@@ -252,6 +266,7 @@ void Simulation<R>::gather_recorder_cells() {
   template void Simulation<R>::build_magnetic_slabs();              \
   template void Simulation<R>::pack_cell_row(int, double*) const;   \
   template void Simulation<R>::unpack_cell_row(int, const double*); \
+  template void Simulation<R>::magnet_exchange(int);                \
   template void Simulation<R>::step_magnetic_slab();                \
   template void Simulation<R>::gather_cells();                      \
   template void Simulation<R>::gather_recorder_cells();
