@@ -36,6 +36,7 @@
 #include "solver/media/dispersive_cells.h"
 #include "solver/media/magnetic_cells.h"
 #include "solver/media/tensor_cells.h"
+#include "solver/parallel/magnet_halo.h"
 #include "solver/parallel/ranks.h"
 #include "solver/recorders/recorders.h"
 #include "solver/sources/waveform.h"
@@ -108,9 +109,9 @@ class Simulation {
   double magnetic_energy() const;
   const MagneticCells& magnets() const { return mag_; }
   /// Magnetic cell-steps so far that were tilted past the small-signal step and took the
-  /// midpoint rule (cell_step.h).
+  /// midpoint rule (cell_step.h); over ranks, the other ranks' as of the last gather_state().
   long midpoint_cell_steps() const {
-    long s = 0;
+    long s = mhalo_.tilted_elsewhere;
     for (size_t t = 0; t < mag_tilted_.size(); t += 8) s += mag_tilted_[t];
     return s;
   }
@@ -282,6 +283,7 @@ class Simulation {
   std::vector<R> recorder_buf_;
   std::vector<int> state_counts_, work_counts_;  // gather_state's bytes per rank
   std::vector<long> whole_steps_;  // steps after which a recorder reads the whole grid (snapshots)
+  parallel::MagnetHalo<R> mhalo_;  // magnetic cells over ranks (magnetic_slab_step.cpp)
   // Bloch sides (bloch.h): the sine copy, owned by the cosine copy and stepped with it
   std::unique_ptr<Simulation> twin_;
   Simulation* partner_ = nullptr;  // the other copy of the pair (either way), else null
@@ -331,6 +333,16 @@ class Simulation {
   void step_slab();
   /// Makes the recorders' rows (or, on a snapshot's steps, every row) whole before step k's record.
   void gather_for_recorders(long k);
+  // magnetic cells over ranks (solver/parallel/magnetic_slab_step.cpp, magnet_halo.h)
+  void build_magnetic_slabs();
+  void step_magnetic_slab();
+  /// The main thread's halo exchange at one of the step's points (magnetic_slab_step.cpp).
+  void magnet_exchange(int point);
+  void pack_cell_row(int j, double* to) const;
+  void unpack_cell_row(int j, const double* from);
+  /// Every rank's cells whole on every rank (in gather_state), and the recorder rows' cells.
+  void gather_cells();
+  void gather_recorder_cells();
   void build_magnets();
   void step_fused();
   void step_magnetic();

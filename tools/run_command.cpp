@@ -276,12 +276,6 @@ void refuse_over_ranks(const Scene& scene, const RunOptions& o) {
   if (o.resume || o.stop_at_step > 0 || o.checkpoint_steps > 0)
     why.push_back("--resume, --stop-at-step and --checkpoint-steps: a run over ranks writes no checkpoint yet");
   for (const Body& b : scene.bodies)
-    if (scene.media.at(b.medium).magnet) {
-      why.push_back(fmt::format("medium '{}' is magnetic: magnetic cells are not yet split over ranks",
-                                scene.media.at(b.medium).name));
-      break;
-    }
-  for (const Body& b : scene.bodies)
     if (const Medium& m = scene.media.at(b.medium); m.tensor && !m.tensor->diagonal_in_plane()) {
       why.push_back(fmt::format("medium '{}' has rotated in-plane axes: its Ex-Ey step is not yet split over ranks",
                                 m.name));

@@ -49,10 +49,24 @@
 #include <array>
 #include <vector>
 
+#include "io/scene/scene.h"
 #include "materials/magnetic/cell_step.h"
 #include "materials/magnetic/ground_state.h"
 
 namespace ty {
+
+/// One term of the gather G of cell (i, j): the H node (q, i + di, j + dj) with weight w, as
+/// gather() in magnetic_step.cpp reads them (the scatter P = G^T writes the same nodes). What
+/// crosses a cut between ranks in the magnetic step is derived from this table
+/// (solver/parallel/magnet_halo.h), as the field halo is from the curl stencil table.
+struct CellNode {
+  Component q;
+  int di, dj;
+  double w;
+};
+inline constexpr CellNode kCellGather[] = {{Component::Hx, 0, 0, 0.5}, {Component::Hx, 1, 0, 0.5},
+                                           {Component::Hy, 0, 0, 0.5}, {Component::Hy, 0, 1, 0.5},
+                                           {Component::Hz, 0, 0, 1.0}};
 
 struct MagneticCells {
   struct Run {
@@ -84,6 +98,10 @@ struct MagneticCells {
   int longest_row = 0;  ///< most cells in one row
 
   long count() const { return static_cast<long>(ci.size()); }
+  /// List index of the first cell of row j or of a later row (count() past the last).
+  long first_cell(int j) const {
+    return row_runs[j] < static_cast<int>(runs.size()) ? runs[row_runs[j]].k0 : count();
+  }
   bool empty() const { return ci.empty(); }
 
   /// mu0 (M - M_ground) along c (0, 1, 2) of cell k in the state m[p]; 0 for k = count()

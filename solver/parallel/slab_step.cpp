@@ -53,6 +53,9 @@ void Simulation<R>::build_slabs() {
   for (const auto& fl : power_spectra_)
     for (const auto& st : fl.stencil)
       for (const auto& s : st) add(s);
+  for (const auto& p : probes_)  // a magnetic probe's cells (gather_recorder_cells)
+    for (int c : p.cells)
+      if (c >= 0) rows.push_back(mag_.cj[c]);
   for (const auto& m : maps_)
     for (int b = 0; b < m.nj; ++b) rows.push_back(m.j0 + b * m.stride), rows.push_back(m.j0 + b * m.stride - 1);
   std::sort(rows.begin(), rows.end());
@@ -82,6 +85,7 @@ void Simulation<R>::build_slabs() {
     if (r == ranks_ - 1) hi = g_.ny + 1;
     state_counts_[r] = static_cast<int>((hi - lo) * g_.stride * sizeof(R));
   }
+  build_magnetic_slabs();
 }
 
 template <class R>
@@ -165,6 +169,7 @@ void Simulation<R>::gather_for_recorders(long k) {
       for (int c = 0; c < 6; ++c) std::memcpy(f_[c].data() + g_.row_begin(j), buf + at + c * s, s * sizeof(R));
     at += 6 * s;
   }
+  gather_recorder_cells();
 }
 
 template <class R>
@@ -172,6 +177,7 @@ void Simulation<R>::gather_state() {
   if (ranks_ == 1) return;
   for (int c = 0; c < 6; ++c) parallel::allgather_bytes(f_[c].data(), state_counts_);
   parallel::allgather_bytes(injected_.data(), work_counts_);
+  gather_cells();
 }
 
 #define TY_SLAB_STEP(R)                                    \
