@@ -186,11 +186,11 @@ void Simulation<R>::step_magnetic_slab() {
     for (int j = j0; j < j1; ++j) {  // B: step_magnetic's loop
       if (j + 1 < j1 - 1) gather_row(j + 1, ring[(j + 1) & 1]);
       if (j + 1 < j1) h_row(j + 1);
-      magnetic_row(j, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
-      scatter_run_ends(j);
+      magnetic_row(j, n_, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
+      scatter_run_ends(j, n_);
       if (in_absorber(j)) graded_decay(j, false, 5);
       if (j > j0) {
-        scatter_hy(j);
+        scatter_hy(j, n_);
         if (in_absorber(j)) graded_decay(j, false, 2);
         h_boundaries(j);
         e_row(j);
@@ -201,7 +201,7 @@ void Simulation<R>::step_magnetic_slab() {
     magnet_exchange(kAfterCells);
 #pragma omp barrier
     if (j1 > j0) {  // C
-      scatter_hy(j0);
+      scatter_hy(j0, n_);
       if (in_absorber(j0)) graded_decay(j0, false, 2);
       h_boundaries(j0);
     }
