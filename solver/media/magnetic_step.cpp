@@ -14,6 +14,7 @@
 #include "materials/magnetic/linear_response.h"
 #include "solver/blocking/wavefront.h"
 #include "solver/media/magnet_slots.h"
+#include "solver/media/magnetic_row_memory.h"
 #include "solver/simulation.h"
 
 namespace ty {
@@ -33,9 +34,10 @@ inline void gather(const R* hx, const R* hy, const R* hy_up, const R* hz, long i
   bz = static_cast<double>(hz[i]) * inv_c;
 }
 // per cell of a row: b(n-1/2) and b(n+1/2) of the step, the tilt, and b(n-1/2) as
-// gathered before Faraday's law for three rows (two in turn, and the block's last)
-constexpr long kRowScratch = 16;
-}
+// gathered before Faraday's law for three rows (two in turn, and the block's last),
+// and the new state of the row's cells (six rows) and their dM_x, dM_z before they are stored
+constexpr long kRowScratch = 24;
+}  // namespace
 
 namespace {
 
@@ -164,7 +166,6 @@ void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scrat
   const R* hy = f_[4].data() + o;
   R* hz = f_[5].data() + o;
   const R* hy_up = hy_above(j);
-  const double *dx = M.dM[cur][0].data(), *dz = M.dM[cur][2].data();
   // mu0 dM_x(n-1/2) of the cell beside a run's end; across the Bloch seam, the pair's
   // phase-shifted value of that cell (seam_value), else the cell's own
   auto beside = [&](long k, bool seam, bool left) {
@@ -181,30 +182,44 @@ void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scrat
     // neighbours inside a run are k -+ 1, at its ends they come from the list.
     const int *D = M.down.data() + k0, *U = M.up.data() + k0, *L = M.left.data() + k0, *Rt = M.right.data() + k0;
     const double *o0 = old + (k0 - first), *o1 = o0 + w, *o2 = o1 + w;
-    for (long q = 0; q < len; ++q) {
-      const long k = k0 + q;
-      const double vx = 0.5 * M.deviation(prev, 0, k) +
-                        0.25 * ((q > 0 ? M.deviation(prev, 0, k - 1) : beside(L[q], i0 == 0, true)) +
-                                (q < len - 1 ? M.deviation(prev, 0, k + 1) : beside(Rt[q], run.i1 == g_.nx, false)));
-      const double vy = 0.5 * M.deviation(prev, 1, k) + 0.25 * (M.deviation(prev, 1, D[q]) + M.deviation(prev, 1, U[q]));
+    // the run's own cells share one medium: mu0 (M - M_ground)_x,y from m[prev] with its constants
+    const std::array<double, 5>& a = M.net[run.slot];
+    const double *mx1 = M.m[prev][0].data() + k0, *mx2 = M.m[prev][3].data() + k0;
+    const double *my1 = M.m[prev][1].data() + k0, *my2 = M.m[prev][4].data() + k0;
+    vertical_pair(M, prev, D, U, len, b0[1]);  // b0[1][q]: the y neighbours' sum, until overwritten
+    const double xl = beside(L[0], i0 == 0, true), xr = beside(Rt[len - 1], run.i1 == g_.nx, false);
+    auto cell = [&](long q, double left, double right) __attribute__((always_inline)) {
+      const double vx = 0.5 * (a[0] * mx1[q] + a[1] * mx2[q] - a[2]) + 0.25 * (left + right);
+      const double vy = 0.5 * (a[0] * my1[q] + a[1] * my2[q] - a[3]) + 0.25 * b0[1][q];
       gather(hx, hy, hy_up, hz, i0 + q, b1[0][q], b1[1][q], b1[2][q]);
       b0[0][q] = o0[q] + vx, b0[1][q] = o1[q] + vy, b0[2][q] = o2[q];
       b1[0][q] += vx, b1[1][q] += vy;
-    }
+    };
+#pragma omp simd
+    for (long q = 1; q < len - 1; ++q)
+      cell(q, a[0] * mx1[q - 1] + a[1] * mx2[q - 1] - a[2], a[0] * mx1[q + 1] + a[1] * mx2[q + 1] - a[2]);
+    cell(0, xl, len > 1 ? a[0] * mx1[1] + a[1] * mx2[1] - a[2] : xr);
+    if (len > 1) cell(len - 1, a[0] * mx1[len - 2] + a[1] * mx2[len - 2] - a[2], xr);
     const double* mi[6];
     double* mo[6];
-    for (int c = 0; c < 6; ++c) mi[c] = M.m[prev][c].data() + k0, mo[c] = M.m[cur][c].data() + k0;
+    for (int c = 0; c < 6; ++c) mi[c] = M.m[prev][c].data() + k0, mo[c] = scratch + (16 + c) * w;
     const double* bo[3] = {b0[0], b0[1], b0[2]};
     const double* bn[3] = {b1[0], b1[1], b1[2]};
-    double* dp[3] = {M.dM[cur][0].data() + k0, M.dM[cur][1].data() + k0, M.dM[cur][2].data() + k0};
+    // dM_x and dM_z in the scratch, streamed to the list after the row's scatter reads them
+    // there; dM_y stored at once (scatter_hy reads it for this row and the next)
+    double* dp[3] = {scratch + 22 * w, M.dM[cur][1].data() + k0, scratch + 23 * w};
     tilted += step_cells(M.steps[run.slot], len, mi, mo, bo, bn, dp, x2);
+    for (int c = 0; c < 6; ++c) stream_copy(mo[c], M.m[cur][c].data() + k0, len);
+    stream_copy(dp[0], M.dM[cur][0].data() + k0, len);
+    stream_copy(dp[2], M.dM[cur][2].data() + k0, len);
     // H = h* - P dM for Hz and for the Hx nodes inside the run
-    const double *ex = dx + k0, *ez = dz + k0;
+    const double *ex = dp[0], *ez = dp[2];
 #pragma omp simd
     for (long q = 0; q < len; ++q) hz[i0 + q] -= static_cast<R>(c0 * ez[q]);
 #pragma omp simd
     for (long q = 1; q < len; ++q) hx[i0 + q] -= static_cast<R>(c0 * 0.5 * (ex[q] + ex[q - 1]));
   }
+  end_streaming();  // the streamed state is seen by every thread after the step's barriers
 }
 
 template <class R>
@@ -243,19 +258,30 @@ void Simulation<R>::scatter_hy(int j, long n) {
   const double* dy = M.dM[cur][1].data();
   const long zero = M.count();
   R* hy = f_[4].data() + g_.at(0, j);
-  const int* D = M.down.data();
   for (int r = M.row_runs[j]; r < M.row_runs[j + 1]; ++r) {
     const MagneticCells::Run& run = M.runs[r];
+    const long len = run.i1 - run.i0;
+    const int* D = M.down.data() + run.k0;
+    const double* own = dy + run.k0;
+    R* h = hy + run.i0;
+    int slot;
+    const long d0 = contiguous_neighbours(M, D, len, slot);  // the row below by contiguous loads
+    if (d0 >= 0) {
+      const double* below = dy + d0;
 #pragma omp simd
-    for (int i = run.i0; i < run.i1; ++i) {
-      const long k = run.k0 + (i - run.i0);
-      hy[i] -= static_cast<R>(c0 * 0.5 * (dy[k] + dy[D[k]]));
+      for (long q = 0; q < len; ++q) h[q] -= static_cast<R>(c0 * 0.5 * (own[q] + below[q]));
+    } else {
+#pragma omp simd
+      for (long q = 0; q < len; ++q) h[q] -= static_cast<R>(c0 * 0.5 * (own[q] + dy[D[q]]));
     }
   }
   const int below = j > 0 ? j - 1 : walls_.periodic_y ? g_.ny - 1 : -1;
   if (below < 0) return;
   for (int r = M.row_runs[below]; r < M.row_runs[below + 1]; ++r) {
     const MagneticCells::Run& run = M.runs[r];
+    int slot;
+    const int* U = M.up.data() + run.k0;
+    if (contiguous_neighbours(M, U, run.i1 - run.i0, slot) >= 0) continue;  // every cell has one above
     for (int i = run.i0; i < run.i1; ++i) {
       const long k = run.k0 + (i - run.i0);
       if (M.up[k] == zero) hy[i] -= static_cast<R>(c0 * 0.5 * (dy[k] + dy[zero]));
