@@ -20,13 +20,14 @@ using namespace ty;
 TEST_CASE("checkpoint over ranks: the ranks' parts of every state array tile it exactly once") {
   bool seen_psi_y = false, seen_poles = false, seen_cells = false;
   for (const char* file : {"tests/data/ranks-bench.yaml", "scenarios/gaas-reststrahlen.yaml", "tests/data/mnf2-slab.yaml"}) {
-    const Scene scene = read_scene(std::string(TERAYEE_SOURCE_DIR) + "/" + file);
+    const std::string path = std::string(TERAYEE_SOURCE_DIR) + "/" + file;
+    const Scene scene = read_scene(path);
     Simulation<double> sim(scene, 1);
     const long stride = sim.grid().stride;
     for (int P : {1, 2, 3, 7}) {
       if (sim.grid().ny < 2 * P) continue;
       sim.visit_state([&](const std::string& name, auto*, std::size_t n) {
-        CAPTURE(file);
+        CAPTURE(path);
         CAPTURE(name);
         CAPTURE(P);
         std::vector<std::pair<std::size_t, std::size_t>> all;
