@@ -23,6 +23,7 @@
 #include <memory>
 #include <string>
 #include <type_traits>
+#include <utility>
 #include <vector>
 
 #include "io/scene/scene.h"
@@ -77,6 +78,15 @@ class Simulation {
   int row_lo() const { return row0_; }
   int row_hi() const { return row1_; }
   void gather_state();
+  /// The parts [a, b) of state array `name` of visit_state (n values) that this rank's rows
+  /// update (solver/parallel/state_owners.cpp): over ranks, each rank writes these of a
+  /// checkpoint, together the array a one-process run holds; one rank owns all of it. The
+  /// second form: the parts rank r of P would own (the same cut, slabs.h).
+  std::vector<std::pair<std::size_t, std::size_t>> owned_parts(const std::string& name, std::size_t n) const {
+    return owned_parts(name, n, rank_, ranks_);
+  }
+  std::vector<std::pair<std::size_t, std::size_t>> owned_parts(const std::string& name, std::size_t n, int r,
+                                                               int P) const;
   /// One time step, then the recorders.
   void advance();
   /// Steps per pass over the rows (temporal blocking, solver/blocking/): 1 = one pass per

@@ -3,12 +3,19 @@
 # (docs/parallel.md). Builds build-mpi/ (MPI=ON tools/setup.sh) if it is missing, then runs
 # each scene once as one process (2 threads) and under `mpirun -n 2` and
 # `mpirun -n 3 --oversubscribe` (1 thread per rank) and over 2 ranks of 2 threads, and compares every dataset of their
-# fields.h5 exactly (h5diff without a tolerance: any differing bit fails).
+# fields.h5 exactly (h5diff without a tolerance: any differing bit fails). Then checkpoints:
+# each scene stopped at step K (--stop-at-step) as one process and over 2 ranks must leave the
+# same checkpoint.h5 (every dataset, h5diff), and the 2-rank one resumed on 3 ranks and on one
+# process, the one-process one on 2 ranks, must end with the straight run's fields.h5; a
+# SIGTERM given to one rank of two (TERAYEE_KILL_AT=term:N, io/run/kill_point.h) stops both at
+# one step with a checkpoint that resumes to the same bits; a damaged checkpoint or one of
+# another scene is refused with exit status 2 over 2 ranks (no hang).
 #   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges, and the
 #                                 magnetic bench (an MnF2 slab) with absorbing and with periodic y edges
 #   tools/mpi-check.sh SCENE...   these scenes instead
-#   tools/mpi-check.sh --if-built --quick   (the ctest case mpi_same_bits) 3 ranks only; exit 77,
-#                                           skipped, when build-mpi/ or mpirun is missing
+#   tools/mpi-check.sh --if-built --quick   (the ctest case mpi_same_bits) 3 ranks only, and the
+#                                           bench stopped on 2 ranks, resumed on 3 and on one process;
+#                                           exit 77, skipped, when build-mpi/ or mpirun is missing
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 bin="$root/build-mpi/terayee"
@@ -23,14 +30,15 @@ if [ ! -x "$bin" ]; then MPI=ON "$root/tools/setup.sh"; fi
 command -v mpirun >/dev/null && command -v h5diff >/dev/null || { echo "mpi-check: needs mpirun and h5diff"; exit 2; }
 if [ "$(id -u)" -eq 0 ]; then export OMPI_ALLOW_RUN_AS_ROOT=1 OMPI_ALLOW_RUN_AS_ROOT_CONFIRM=1; fi
 work="$(mktemp -d)"
+bench="$root/tests/data/ranks-bench.yaml"
 trap 'rm -rf "$work"' EXIT
 
 # each case: a scene file and its --set values (space separated)
 cases=()
+custom=$#
 if [ $# -gt 0 ]; then
   for s in "$@"; do cases+=("$s|"); done
 else
-  bench="$root/tests/data/ranks-bench.yaml"
   cases+=("$bench|")
   cases+=("$bench|grid.boundaries.y=periodic sources.0.beam.angle=0deg")
   # a dispersive (Lorentz) wafer on 8 rows with a periodic y seam: every rank's rows at the seam
@@ -41,6 +49,78 @@ else
   # the slab through the periodic y seam: the cells' neighbours and Hy's scatter wrap across it
   [ $quick -eq 1 ] || cases+=("$magnets|grid.boundaries.y=periodic bodies.0.rectangle.size=[0.3mm,1mm]")
 fi
+
+ranks() { # ranks N ARGS...: `terayee ARGS` over N ranks of 1 thread
+  local n="$1"; shift
+  local extra=()
+  [ "$n" -gt "$(nproc)" ] && extra=(--oversubscribe --mca mpi_yield_when_idle 1)
+  mpirun -n "$n" "${extra[@]}" -x OMP_NUM_THREADS=1 "$bin" "$@" --threads 1
+}
+same() { # same A B WHAT: every dataset of two HDF5 files bit for bit
+  if h5diff "$1" "$2" >"$work/diff" 2>&1; then echo "mpi-check: $3: identical"
+  else echo "mpi-check: $3: DIFFERS"; head -20 "$work/diff"; failed=1; fi
+}
+
+# resume_check SCENE K SETS...: stopped at step K as one process and over 2 ranks, resumed on
+# other rank counts, against the straight one-process run $work/K-one
+resume_check() {
+  local scene="$1" k="$2"; shift 2
+  local steps stop
+  steps=$(jq .steps "$work/$k-one/summary.json")
+  stop=$((steps / 2 + 1))
+  ranks 2 run "$scene" "$@" -o "$work/$k-ck2" --stop-at-step "$stop" --quiet
+  cp -r "$work/$k-ck2" "$work/$k-ck2-on1"
+  if [ $quick -eq 0 ]; then
+    OMP_NUM_THREADS=2 "$bin" run "$scene" "$@" -o "$work/$k-ck1" --stop-at-step "$stop" --quiet
+    # (a periodic y seam: one process copies every component into the ghost rows, the ranks'
+    # halo only those the stencils read, so Ey, Hy there differ; nothing reads them)
+    [[ "$*" == *periodic* ]] ||
+      same "$work/$k-ck1/checkpoint.h5" "$work/$k-ck2/checkpoint.h5" "$(basename "$scene") $* checkpoint at step $stop, 1 process vs 2 ranks"
+    ranks 2 run "$scene" "$@" -o "$work/$k-ck1" --resume --quiet
+    same "$work/$k-one/fields.h5" "$work/$k-ck1/fields.h5" "$(basename "$scene") $* stopped as 1 process, resumed on 2 ranks"
+  fi
+  ranks 3 run "$scene" "$@" -o "$work/$k-ck2" --resume --quiet
+  same "$work/$k-one/fields.h5" "$work/$k-ck2/fields.h5" "$(basename "$scene") $* stopped on 2 ranks, resumed on 3"
+  OMP_NUM_THREADS=2 "$bin" run "$scene" "$@" -o "$work/$k-ck2-on1" --resume --quiet
+  same "$work/$k-one/fields.h5" "$work/$k-ck2-on1/fields.h5" "$(basename "$scene") $* stopped on 2 ranks, resumed as 1 process"
+}
+
+# A SIGTERM to rank 1 of two (after step 37; the ranks agree every 16 steps, so both stop
+# at step 48) keeps a checkpoint that resumes to the straight run's bits; then refusals.
+signal_and_refusals() {
+  [ $quick -eq 0 ] && [ $custom -eq 0 ] || return 0
+  local d="$work/signal" rc
+  set +e
+  # rank 1 alone (Open MPI's OMPI_COMM_WORLD_RANK) is sent it; rank 0 writes the log
+  mpirun -n 2 -x OMP_NUM_THREADS=1 sh -c '[ "$OMPI_COMM_WORLD_RANK" = 1 ] && export TERAYEE_KILL_AT=term:37; exec "$0" "$@"' \
+    "$bin" run "$bench" -o "$d" --threads 1 --quiet 2>"$work/err"
+  rc=$?
+  set -e
+  if [ $rc -ne 0 ] && grep -q "stopped by signal 15 at step 48" "$d/log.txt" && [ -f "$d/checkpoint.h5" ]; then
+    echo "mpi-check: SIGTERM to one rank of two: both stopped at step 48 with a checkpoint (exit $rc)"
+  else
+    echo "mpi-check: SIGTERM to one rank of two: no checkpoint at step 48 (exit $rc)"; cat "$work/err" "$d/log.txt"; failed=1
+  fi
+  ranks 2 run "$bench" -o "$d" --resume --quiet
+  same "$work/1-one/fields.h5" "$d/fields.h5" "signalled on 2 ranks, resumed on 2"
+  # refusals, exit 2 on every rank within a minute: a cut file, and another scene's checkpoint
+  ranks 2 run "$bench" -o "$work/bad" --stop-at-step 30 --quiet
+  cp -r "$work/bad" "$work/other"
+  head -c 3000 "$work/bad/checkpoint.h5" >"$work/cut" && mv "$work/cut" "$work/bad/checkpoint.h5"
+  ranks 2 run "$bench" --set time.stop=9ps -o "$work/other-scene" --stop-at-step 30 --quiet
+  cp "$work/other-scene/checkpoint.h5" "$work/other/checkpoint.h5"
+  for c in bad other; do
+    set +e
+    timeout 60 mpirun -n 2 -x OMP_NUM_THREADS=1 "$bin" run "$bench" -o "$work/$c" --resume --threads 1 --quiet 2>"$work/err"
+    rc=$?
+    set -e
+    if [ $rc -eq 2 ] && grep -q "checkpoint" "$work/err"; then
+      echo "mpi-check: $c checkpoint over 2 ranks: refused, exit 2: $(head -1 "$work/err")"
+    else
+      echo "mpi-check: $c checkpoint over 2 ranks: NOT refused with exit 2 (exit $rc)"; cat "$work/err"; failed=1
+    fi
+  done
+}
 
 failed=0
 k=0
@@ -69,10 +149,12 @@ for c in "${cases[@]}"; do
     cmp -s "$work/$k-one/fields.xmf" "$work/$k-ranks$nt/fields.xmf" || { echo "mpi-check: fields.xmf differs"; failed=1; }
     # the summary's numbers from the whole grid: the energy, the magnets' tilts and midpoint share, the stop
     if command -v jq >/dev/null; then
-      same='{energy, "magnetic-cells", stop, warnings}'
-      [ "$(jq -S "$same" "$work/$k-one/summary.json")" = "$(jq -S "$same" "$work/$k-ranks$nt/summary.json")" ] ||
+      keys='{energy, "magnetic-cells", stop, warnings}'
+      [ "$(jq -S "$keys" "$work/$k-one/summary.json")" = "$(jq -S "$keys" "$work/$k-ranks$nt/summary.json")" ] ||
         { echo "mpi-check: summary.json's energy, magnet numbers or stop differ"; failed=1; }
     fi
   done
+  resume_check "$scene" "$k" "${sets[@]}"
 done
+signal_and_refusals
 exit $failed

@@ -87,26 +87,20 @@ struct Runner {
 
   /// Writes a checkpoint unless the state holds a NaN (then that is reported: returns 1).
   int save(long step) {
+    sim.gather_state();  // over ranks: the whole grid on every rank, so all decide alike
     int i, j;
     Component c;
     if (sim.find_nonfinite(i, j, c)) return nonfinite(step, i, j, c);
     StopSignals::Hold hold;
-    folder->flush();
+    if (folder) folder->flush();
     save_checkpoint(checkpoint, sim, resolved);
     saved_at = step;
     return 0;
   }
 
-  int stop(long step, int sig) {
-    if (sim.ranks() > 1) {  // no checkpoint over ranks yet (docs/parallel.md)
-      if (folder) folder->abandon();
-      log.error(fmt::format("stopped by signal {} at step {} of {}; a run over {} ranks writes no checkpoint yet, "
-                            "so nothing is kept",
-                            sig, step, sim.total_steps(), sim.ranks()));
-      return 128 + sig;
-    }
+  int stop(long step, int sig) {  // over ranks every rank comes here at the same step
     if (const int rc = save(step)) return rc;
-    folder->keep();
+    if (folder) folder->keep();
     log.info(fmt::format("{} at step {} of {}; the state is in {}. Go on with: {}",
                          sig ? fmt::format("stopped by signal {}", sig) : std::string("stopped as asked"), step,
                          sim.total_steps(), checkpoint, resume_line(scene, o)));
@@ -145,7 +139,9 @@ struct Runner {
       if (sim.settled()) break;  // `stop: auto`: done before the limit
       if (o.stop_at_step > 0 && n + 1 == o.stop_at_step && n + 1 < N) return stop(n + 1, 0);
       const double since = std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count();
-      const bool by_time = o.checkpoint_minutes > 0 && sim.ranks() == 1 && since > 60 * o.checkpoint_minutes;
+      bool by_time = o.checkpoint_minutes > 0 && since > 60 * o.checkpoint_minutes;
+      if (sim.ranks() > 1)  // the first rank whose clock says so decides for all, asked every 16 steps
+        by_time = o.checkpoint_minutes > 0 && (n + 1) % 16 == 0 && parallel::max_over_ranks(by_time ? 1 : 0) > 0;
       if ((by_time || (o.checkpoint_steps > 0 && (n + 1) % o.checkpoint_steps == 0)) && n + 1 < N) {
         if (const int rc = save(n + 1)) return rc;
         last_checkpoint = std::chrono::steady_clock::now();
@@ -273,8 +269,6 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
 void refuse_over_ranks(const Scene& scene, const RunOptions& o) {
   const int P = parallel::size();
   std::vector<std::string> why;
-  if (o.resume || o.stop_at_step > 0 || o.checkpoint_steps > 0)
-    why.push_back("--resume, --stop-at-step and --checkpoint-steps: a run over ranks writes no checkpoint yet");
   for (const Body& b : scene.bodies)
     if (const Medium& m = scene.media.at(b.medium); m.tensor && !m.tensor->diagonal_in_plane()) {
       why.push_back(fmt::format("medium '{}' has rotated in-plane axes: its Ex-Ey step is not yet split over ranks",
@@ -341,9 +335,8 @@ int run_with(const Scene& scene, const RunOptions& o) {
                                "{:.2g} rad, or more energy than the sources put in, stops the run",
                                guard.linear_tilt(), guard.tilt_limit())
                  : std::string("guard: the sources ask for large tilts; more energy than they put in stops the run"));
-  Runner<R> run{scene, o, log, folder, sim, guard, resolved_scene_yaml(scene),
-                folder ? folder->path("checkpoint.h5") : std::string()};
-  if (folder && folder->resuming()) {
+  Runner<R> run{scene, o, log, folder, sim, guard, resolved_scene_yaml(scene), o.out + "/checkpoint.h5"};
+  if (parallel::max_over_ranks(folder && folder->resuming() ? 1 : 0) > 0) {  // every rank reads it
     load_checkpoint(run.checkpoint, sim, run.resolved);
     run.saved_at = sim.steps_done();
     log.info(fmt::format("resumed at step {} of {}", sim.steps_done(), sim.total_steps()));

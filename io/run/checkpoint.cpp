@@ -3,6 +3,9 @@
 /// dataset (/scene), so a scene of any size fits. A checkpoint read back is input: every
 /// dataset's shape is checked before it is read, every value must be finite, and the
 /// clock must be a step this run can be at (exit 2 naming the dataset otherwise).
+/// Over MPI ranks the file is the same: every rank writes the parts of each array its rows
+/// own, together, in one collective write per dataset (hdf5_shared.cpp), and rank 0 renames
+/// the finished temporary file into place; a resume on any rank count reads it whole.
 #include "io/run/checkpoint.h"
 
 #include <fmt/format.h>
@@ -10,12 +13,14 @@
 #include <algorithm>
 #include <cmath>
 #include <filesystem>
+#include <iostream>
 #include <type_traits>
 
 #include "io/run/atomic_file.h"
 #include "io/run/hdf5_file.h"
 #include "io/run/kill_point.h"
 #include "io/scene/diagnostics.h"
+#include "solver/parallel/ranks.h"
 #include "solver/simulation.h"
 
 namespace ty {
@@ -42,25 +47,60 @@ void check_clock(const std::string& path, const Sim& sim, double steps, double f
     corrupt(path, "/clock/frames", fmt::format("{:g} frames, but {} are taken by step {}", frames, taken, n));
 }
 
+/// The checkpoint's datasets, every rank writing the parts its rows own (Simulation::owned_parts):
+/// the same datasets, shapes and values as one process writes, whatever the rank count.
+template <class Sim>
+void write_state(const std::string& tmp, Sim& sim, const std::string& scene_yaml) {
+  h5::File f = h5::File::create_shared(tmp);
+  const bool root = parallel::rank() == 0;
+  f.write_parts("/scene", scene_yaml.size(), scene_yaml.data(),
+                root ? h5::File::Parts{{0, scene_yaml.size()}} : h5::File::Parts{});
+  f.attribute("/", "terayee-version", TERAYEE_VERSION);
+  sim.visit_state([&](const std::string& name, auto* data, std::size_t n) {
+    f.write_parts("/" + name, static_cast<hsize_t>(n), data, sim.owned_parts(name, n));
+  });
+  f.flush();
+}
+
 }  // namespace
 
 template <class Sim>
 void save_checkpoint(const std::string& path, Sim& sim, const std::string& scene_yaml) {
-  write_atomically(path, [&](const std::string& tmp) {
-    h5::File f = h5::File::create(tmp);
-    f.write_text("/scene", scene_yaml);
-    f.attribute("/", "terayee-version", TERAYEE_VERSION);
-    sim.visit_state([&](const std::string& name, auto* data, std::size_t n) {
-      f.write("/" + name, {static_cast<hsize_t>(n)}, data, "");
+  static long written = 0;
+  if (parallel::size() == 1) {
+    write_atomically(path, [&](const std::string& tmp) {
+      write_state(tmp, sim, scene_yaml);
+      kill_point(KillPoint::checkpoint, ++written);
     });
-    f.flush();
-    static long written = 0;
+    return;
+  }
+  // Over ranks: all write the temporary file together, then rank 0 alone puts it in place;
+  // a failure on any rank is a failure on every rank (and the old checkpoint stays).
+  const std::string tmp = temporary_name(path);
+  std::string failed;
+  try {
+    write_state(tmp, sim, scene_yaml);
+  } catch (const std::exception& e) {
+    failed = e.what();
+  }
+  if (parallel::max_over_ranks(failed.empty() ? 0 : 1) == 0) {
     kill_point(KillPoint::checkpoint, ++written);
-  });
+    if (parallel::rank() == 0) {
+      try {
+        commit_file(tmp, path);
+      } catch (const std::exception& e) {
+        failed = e.what();
+      }
+    }
+    if (parallel::max_over_ranks(failed.empty() ? 0 : 1) == 0) return;
+  }
+  if (parallel::rank() == 0) discard_temporary(tmp);
+  throw std::runtime_error(failed.empty() ? fmt::format("another rank could not write {}", path) : failed);
 }
 
+/// One process's reading of the whole checkpoint (every rank reads and checks all of it).
 template <class Sim>
-void load_checkpoint(const std::string& path, Sim& sim, const std::string& scene_yaml) {
+void read_state(const std::string& path, Sim& sim, const std::string& scene_yaml) {
   if (!std::filesystem::exists(path)) throw BadInput(fmt::format("{}: error: there is no checkpoint to resume", path));
   const h5::File f = h5::File::open(path);
   if (f.read_text("/scene", std::max<hsize_t>(kMaxScene, scene_yaml.size())) != scene_yaml)
@@ -86,6 +126,28 @@ void load_checkpoint(const std::string& path, Sim& sim, const std::string& scene
     const std::vector<double>& v = values[next++];
     for (std::size_t k = 0; k < n; ++k) data[k] = static_cast<T>(v[k]);  // float and long values round-trip exactly
   });
+}
+
+template <class Sim>
+void load_checkpoint(const std::string& path, Sim& sim, const std::string& scene_yaml) {
+  if (parallel::size() == 1) return read_state(path, sim, scene_yaml);
+  // Over ranks every rank reads the whole file (each holds the whole arrays) and checks it
+  // with the same checked readers, so all reach the same verdict; should one rank alone
+  // fail (its own read error), every rank still refuses: none goes on to wait for the others.
+  std::string failed;
+  try {
+    read_state(path, sim, scene_yaml);
+  } catch (const BadInput& e) {
+    failed = e.what();
+  } catch (const std::exception& e) {
+    failed = fmt::format("{}: error: {}; the checkpoint cannot be read", path, e.what());
+  }
+  const bool root = parallel::rank() == 0;
+  if (parallel::max_over_ranks(failed.empty() ? 0 : 1) == 0) return;
+  const bool root_failed = parallel::max_over_ranks(root && !failed.empty() ? 1 : 0) > 0;
+  if (!root_failed && !failed.empty())  // rank 0 speaks for the run (tools/main.cpp); this rank's reason
+    std::cerr << fmt::format("terayee (rank {}): {}\n", parallel::rank(), failed);
+  throw BadInput(root_failed ? failed : fmt::format("{}: error: another rank could not read the checkpoint", path));
 }
 
 template void save_checkpoint(const std::string&, Simulation<float>&, const std::string&);

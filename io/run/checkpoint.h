@@ -9,12 +9,14 @@
 namespace ty {
 
 /// Writes the state of `sim` to `path` (through a temporary file and a rename, so a
-/// checkpoint is never half-written).
+/// checkpoint is never half-written). Over MPI ranks it is collective: every rank calls it
+/// at the same step and writes its own rows' parts of one file, the file one process writes.
 template <class Sim>
 void save_checkpoint(const std::string& path, Sim& sim, const std::string& scene_yaml);
 
 /// Restores the state of `sim` (built from the same scene) from `path`; throws BadInput
-/// when the file was written for another scene.
+/// when the file was written for another scene. Over MPI ranks it is collective: every rank
+/// reads and checks the whole file, and when any rank refuses it, every rank throws BadInput.
 template <class Sim>
 void load_checkpoint(const std::string& path, Sim& sim, const std::string& scene_yaml);
 

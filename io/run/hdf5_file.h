@@ -5,6 +5,7 @@
 #include <hdf5.h>
 
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace ty::h5 {
@@ -32,6 +33,11 @@ class File {
   static File create(const std::string& path);  ///< truncates
   static File open(const std::string& path);    ///< read-only
   static File open_rw(const std::string& path); ///< read-write, existing file
+  /// A file every rank of the run writes together (hdf5_shared.cpp): over several MPI ranks
+  /// it is created collectively through MPI-IO (H5Pset_fapl_mpio, HDF5 User's Guide,
+  /// "Parallel HDF5"), and every call on it is collective (the same calls, with the same
+  /// paths, shapes and attributes, on every rank); on one rank it is `create`.
+  static File create_shared(const std::string& path);
   void flush();
   hid_t id() const { return h_.id(); }
 
@@ -42,6 +48,15 @@ class File {
              const std::string& units);
   void write(const std::string& path, const std::vector<hsize_t>& shape, const int* data, const std::string& units);
   void write(const std::string& path, const std::vector<hsize_t>& shape, const long* data, const std::string& units);
+  /// Parts [a, b) of a one-dimensional dataset of n values, as several ranks write it
+  /// together (a file from create_shared): every rank calls it with the same path and n;
+  /// this rank writes elements [a, b) of each of `parts` from `data`, its whole array
+  /// (one collective write of a union of hyperslabs; no part may overlap another rank's).
+  using Parts = std::vector<std::pair<std::size_t, std::size_t>>;
+  void write_parts(const std::string& path, hsize_t n, const double* data, const Parts& parts);
+  void write_parts(const std::string& path, hsize_t n, const float* data, const Parts& parts);
+  void write_parts(const std::string& path, hsize_t n, const long* data, const Parts& parts);
+  void write_parts(const std::string& path, hsize_t n, const char* data, const Parts& parts);
   /// A dataset [frames][ny][nx] written one frame at a time, chunked per frame.
   void create_frames(const std::string& path, hsize_t frames, hsize_t ny, hsize_t nx, bool single,
                      const std::string& units);
@@ -97,6 +112,9 @@ class File {
   template <class T>
   void write_any(const std::string& path, const std::vector<hsize_t>& shape, const T* data, hid_t type,
                  const std::string& units);
+  template <class T>
+  void parts_any(const std::string& path, hsize_t n, const T* data, const Parts& parts, hid_t type);
+  bool shared_ = false;  ///< created by create_shared over several ranks: collective transfers
   template <class T>
   void read_frame_any(const std::string& path, hsize_t frame, std::vector<T>& out, hid_t type) const;
   template <class T>

@@ -13,6 +13,7 @@ struct Target {
   bool armed = false;
   KillPoint where = KillPoint::step;
   long n = 0;
+  int sig = SIGKILL;
 };
 
 Target parse() {
@@ -22,14 +23,17 @@ Target parse() {
   const struct {
     const char* name;
     KillPoint where;
-  } names[] = {{"step:", KillPoint::step},
-               {"checkpoint:", KillPoint::checkpoint},
-               {"result", KillPoint::result},
-               {"renamed", KillPoint::renamed}};
+    int sig;
+  } names[] = {{"step:", KillPoint::step, SIGKILL},
+               {"term:", KillPoint::step, SIGTERM},
+               {"checkpoint:", KillPoint::checkpoint, SIGKILL},
+               {"result", KillPoint::result, SIGKILL},
+               {"renamed", KillPoint::renamed, SIGKILL}};
   for (const auto& p : names)
     if (std::strncmp(v, p.name, std::strlen(p.name)) == 0) {
       t.armed = true;
       t.where = p.where;
+      t.sig = p.sig;
       t.n = std::atol(v + std::strlen(p.name));
     }
   return t;
@@ -39,7 +43,7 @@ Target parse() {
 
 void kill_point(KillPoint where, long n) {
   static const Target target = parse();
-  if (target.armed && target.where == where && target.n == n) std::raise(SIGKILL);
+  if (target.armed && target.where == where && target.n == n) std::raise(target.sig);
 }
 
 }  // namespace ty

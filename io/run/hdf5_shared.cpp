@@ -1,0 +1,89 @@
+/// \file hdf5_shared.cpp
+/// \brief Files that every rank of a run writes together (parallel HDF5 over MPI-IO, HDF5
+/// User's Guide, "Parallel HDF5"): created with H5Pset_fapl_mpio on the run's ranks, each
+/// dataset written by one collective H5Dwrite (H5Pset_dxpl_mpio, H5FD_MPIO_COLLECTIVE) in
+/// which every rank selects the parts it owns, the same selection in its memory and in the
+/// file (a union of hyperslabs). Creating datasets and attributes is collective metadata
+/// work: every rank makes the same calls. This and solver/parallel/ranks.cpp are the only
+/// files that name MPI (here only its world communicator, which MPI-IO needs).
+/// On one rank, or in a build without MPI, the same calls write a plain file.
+#include <fmt/format.h>
+
+#include <stdexcept>
+
+#include "io/run/hdf5_file.h"
+#include "solver/parallel/ranks.h"
+
+#if defined(TERAYEE_MPI) && !defined(H5_HAVE_PARALLEL)
+#error "TERAYEE_MPI needs the MPI build of HDF5"
+#endif
+
+namespace ty::h5 {
+namespace {
+
+hid_t check(hid_t id, const std::string& what) {
+  if (id < 0) throw std::runtime_error("HDF5: " + what);
+  return id;
+}
+
+}  // namespace
+
+File File::create_shared(const std::string& path) {
+  if (parallel::size() == 1) return create(path);
+  File f;
+  f.name_ = path;
+  f.shared_ = true;
+  Handle fapl(check(H5Pcreate(H5P_FILE_ACCESS), "plist"), H5Pclose);
+  H5Pset_libver_bounds(fapl.id(), H5F_LIBVER_V18, H5F_LIBVER_V18);  // the layout `create` writes
+#ifdef TERAYEE_MPI
+  check(H5Pset_fapl_mpio(fapl.id(), MPI_COMM_WORLD, MPI_INFO_NULL), "cannot use MPI-IO for " + path);
+#endif
+  f.h_ = Handle(check(H5Fcreate(path.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, fapl.id()), "cannot create " + path),
+                H5Fclose);
+  return f;
+}
+
+template <class T>
+void File::parts_any(const std::string& path, hsize_t n, const T* data, const Parts& parts, hid_t type) {
+  make_groups(path);
+  const hsize_t dims[1] = {n};
+  Handle space(check(H5Screate_simple(1, dims, nullptr), "dataspace"), H5Sclose);
+  Handle set(check(H5Dcreate2(id(), path.c_str(), type, space.id(), H5P_DEFAULT, H5P_DEFAULT, H5P_DEFAULT),
+                   "cannot create " + path + " in " + name_),
+             H5Dclose);
+  if (n > 0) {  // n is the same on every rank: all write, or none
+    Handle mem(check(H5Screate_simple(1, dims, nullptr), "dataspace"), H5Sclose);
+    bool any = false;
+    for (const auto& [a, b] : parts) {
+      if (a >= b) continue;
+      if (b > n) throw std::logic_error(fmt::format("write_parts: part [{}, {}) past the {} values of {}", a, b, n, path));
+      const hsize_t start[1] = {a}, count[1] = {b - a};
+      const H5S_seloper_t op = any ? H5S_SELECT_OR : H5S_SELECT_SET;
+      check(H5Sselect_hyperslab(space.id(), op, start, nullptr, count, nullptr), "hyperslab");
+      check(H5Sselect_hyperslab(mem.id(), op, start, nullptr, count, nullptr), "hyperslab");
+      any = true;
+    }
+    if (!any) H5Sselect_none(space.id()), H5Sselect_none(mem.id());
+    Handle xfer(check(H5Pcreate(H5P_DATASET_XFER), "plist"), H5Pclose);
+#ifdef TERAYEE_MPI
+    if (shared_) check(H5Pset_dxpl_mpio(xfer.id(), H5FD_MPIO_COLLECTIVE), "collective transfer");
+#endif
+    check(H5Dwrite(set.id(), type, mem.id(), space.id(), xfer.id(), data), "cannot write " + path + " in " + name_);
+  }
+  attribute(path, "units", "");
+}
+
+void File::write_parts(const std::string& p, hsize_t n, const double* d, const Parts& s) {
+  parts_any(p, n, d, s, H5T_NATIVE_DOUBLE);
+}
+void File::write_parts(const std::string& p, hsize_t n, const float* d, const Parts& s) {
+  parts_any(p, n, d, s, H5T_NATIVE_FLOAT);
+}
+void File::write_parts(const std::string& p, hsize_t n, const long* d, const Parts& s) {
+  parts_any(p, n, d, s, H5T_NATIVE_LONG);
+}
+void File::write_parts(const std::string& p, hsize_t n, const char* d, const Parts& s) {
+  parts_any(p, n, d, s, H5T_NATIVE_CHAR);
+}
+
+}  // namespace ty::h5
