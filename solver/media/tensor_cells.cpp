@@ -89,6 +89,19 @@ void add_instance(TensorCells& t, const TensorNode& n, int kind, double w, doubl
   }
 }
 
+bool same_poles(const std::vector<AdePole>& a, const std::vector<AdePole>& b) {
+  if (a.size() != b.size()) return false;
+  for (size_t k = 0; k < a.size(); ++k)
+    if (a[k].c1 != b[k].c1 || a[k].c2 != b[k].c2 || a[k].c3 != b[k].c3) return false;
+  return true;
+}
+
+/// Whether two nodes hold the same medium (frame, backgrounds, conductivity, poles).
+bool same_medium(const TensorNode& a, const TensorNode& b) {
+  return a.cs == b.cs && a.sn == b.sn && a.eps[0] == b.eps[0] && a.eps[1] == b.eps[1] && a.sigma == b.sigma &&
+         same_poles(a.poles[0], b.poles[0]) && same_poles(a.poles[1], b.poles[1]);
+}
+
 /// The neighbour links of the sorted list (wrapped across the seam of a periodic axis):
 /// Ex(i, j) touches Ey(i, j), Ey(i+1, j), Ey(i, j-1), Ey(i+1, j-1); Ey(i, j) the transpose,
 /// Ex(i, j), Ex(i-1, j), Ex(i, j+1), Ex(i-1, j+1) (slot for slot).
@@ -111,6 +124,10 @@ void link(TensorCells& t, const std::vector<TensorNode>& nodes, const YeeGrid& g
       if (wrap_y) j = (j + g.ny) % g.ny;
       const bool inside = i >= 0 && j >= 0 && i < g.nx && j < g.ny;
       t.nb[q][m] = inside ? find(1 - node.comp, g.at(i, j)) : -1;
+      // no link across a face between media: a face node's diagonal stays its own medium's
+      // (its own instance makes up for the missing neighbours), not a mean of 1/eps that
+      // would misplace the tangential field's resonances
+      if (t.nb[q][m] >= 0 && !same_medium(node, nodes[t.nb[q][m]])) t.nb[q][m] = -1;
     }
   }
   for (size_t q = 0; q < n; ++q)
