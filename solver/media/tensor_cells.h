@@ -22,8 +22,9 @@
 ///   its other component fed back as +e to m_i and -e/4 to each m. With the full instance it
 ///   makes a uniform medium's operator exactly Werner & Cary's: diagonal K_cc per node,
 ///   cross terms (K_xy(q) + K_xy(m))/8, so a rotation by 0 in the bulk is the plain step;
-/// - own (at the list's rim and beside electric walls): S g = (g_q, 0) with the weight that
-///   brings sum_inst w |S x|^2 to |x|^2 and the node's diagonal to 1.
+/// - own (at the list's rim, beside electric walls, and at a face: nodes of different media
+///   are not linked, so a face node's diagonal stays its own medium's): S g = (g_q, 0) with
+///   the weight that brings sum_inst w |S x|^2 to |x|^2 and the node's diagonal to 1.
 /// Each instance is a passive scalar system per axis (lossless: W_a = eps_inf E_a^2/2 + sum_k
 /// (j_k^2 + w0_k^2 p_k^2)/(2 W_k^2) kept exactly by the trapezoidal rule), so
 /// sum_nodes (E' + E)/2 . (D' - D) = sum_inst w (W' - W) + losses; with Yee's curl pair the

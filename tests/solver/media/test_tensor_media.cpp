@@ -9,7 +9,7 @@
 /// - the normal-incidence reflectance of a rotated phonon crystal half-space against
 ///   r = (1 - n)/(1 + n) with n^2 = 1/(eps^-1)_yy (the Hz wave's index for k along x, Born &
 ///   Wolf sec. 15.2) and against the 4x4 transfer matrix (Berreman 1972);
-/// - a constant and a dispersive rotated body in a closed cavity for 1e5 steps at step
+/// - a constant and a dispersive (lossless, test_tensor_energy.cpp for its energy) rotated body in a closed cavity for 1e5 steps at step
 ///   fraction 0.99: bounded; the same bits for 1 and 3 threads;
 /// - a rotation by 0 (and by 180 deg) runs bit for bit as the unrotated medium; a rotation
 ///   by 1e-6 rad (the tensor list) of a crystal filling the grid agrees with it to 1e-5.
