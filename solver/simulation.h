@@ -154,9 +154,8 @@ class Simulation {
     }
     f("media/polarization", disp_.p.data(), disp_.p.size());
     f("media/polarization-rate", disp_.j.data(), disp_.j.size());
-    f("media/tensor-displacement", tensor_.d.data(), tensor_.d.size());
-    f("media/tensor-e", tensor_.e_own.data(), tensor_.e_own.size());
-    f("media/tensor-e-other", tensor_.e_other.data(), tensor_.e_other.size());
+    f("media/tensor-e", tensor_.e_node.data(), tensor_.e_node.size());
+    f("media/tensor-e-axes", tensor_.e_axis.data(), tensor_.e_axis.size());
     f("media/tensor-polarization", tensor_.p.data(), tensor_.p.size());
     f("media/tensor-polarization-rate", tensor_.j.data(), tensor_.j.size());
     for (auto& p : probes_) p.visit_state(f);
@@ -278,7 +277,7 @@ class Simulation {
   int map_nx_ = 0, map_ny_ = 0;
   MagneticCells mag_;
   DispersiveCells disp_;
-  TensorCells tensor_;  // in-plane nodes with eps_xy != 0, stepped after the sweep
+  TensorCells tensor_;  // in-plane nodes near eps_xy != 0, stepped after the sweep
   std::vector<std::vector<double>> mag_scratch_;  // per thread: b(n+1/2) of one row's cells
   std::vector<long> mag_tilted_;                  // per thread (every 8th): cell steps by the midpoint rule
   std::size_t bytes_ = 0;

@@ -89,13 +89,6 @@ void check_placement(const Scene& s, Diagnostics& d) {
     b.shape.bounds(lo, hi);
     if (hi.x <= 0 || hi.y <= 0 || lo.x >= e.x || lo.y >= e.y)
       d.error(b.where, "the body lies wholly outside the grid's extent");
-    const Medium& m = s.media[b.medium];
-    if (m.tensor && !m.tensor->diagonal_in_plane() && m.tensor->dispersive())
-      d.error(b.where, fmt::format("the body's medium '{}' is dispersive with its in-plane axes u, v rotated off x "
-                                   "and y: the time stepping holds rotated tensors only without poles for now (a "
-                                   "lossless one grows without bound); rotate a multiple of 90 deg, or drop the "
-                                   "poles; `terayee medium` takes any rotation",
-                                   m.name));
   }
   for (const auto& src : s.sources) {
     if (src.kind == Source::Kind::point && !inside(src.at))

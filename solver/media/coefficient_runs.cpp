@@ -94,8 +94,9 @@ void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode
 }
 
 /// The in-plane nodes the tensor list steps (tensor_cells.h): those sampling a medium with
-/// eps_xy != 0, and their four neighbours of the other component (the off-diagonal
-/// coupling reaches them); none where no medium is rotated.
+/// eps_xy != 0, their four neighbours of the other component (the off-diagonal coupling
+/// reaches them), and those neighbours' neighbours (so that a rotated node's diagonal is
+/// made of full sites only); none where no medium is rotated.
 template <class R>
 void Simulation<R>::mark_tensor_nodes(std::vector<char> (&in)[2]) const {
   const Scene& s = scene_;
@@ -112,18 +113,21 @@ void Simulation<R>::mark_tensor_nodes(std::vector<char> (&in)[2]) const {
       for (int i = 0; i < nx; ++i) rot[c][static_cast<size_t>(j) * nx + i] = samples_rotated(s, g_, c, i, j);
   }
   const bool wx = s.grid.bx == Boundary::periodic, wy = s.grid.by == Boundary::periodic;
-  auto on = [&](int c, int i, int j) {
-    if (wx) i = (i + nx) % nx;
-    if (wy) j = (j + ny) % ny;
-    return i >= 0 && j >= 0 && i < nx && j < ny && rot[c][size_t(j) * nx + i];
-  };
-  for (int c = 0; c < 2; ++c) {
-    in[c].assign(static_cast<size_t>(nx) * ny, 0);
-    const int si = c == 0 ? 1 : -1, sj = -si;  // the neighbours' offsets (tensor_cells.cpp)
-    for (int j = 0; j < ny; ++j)
-      for (int i = 0; i < nx; ++i)
-        in[c][size_t(j) * nx + i] =
-            on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) || on(1 - c, i, j + sj) || on(1 - c, i + si, j + sj);
+  for (int layer = 0; layer < 2; ++layer) {
+    auto on = [&](int c, int i, int j) {
+      if (wx) i = (i + nx) % nx;
+      if (wy) j = (j + ny) % ny;
+      return i >= 0 && j >= 0 && i < nx && j < ny && rot[c][size_t(j) * nx + i];
+    };
+    for (int c = 0; c < 2; ++c) {
+      in[c].assign(static_cast<size_t>(nx) * ny, 0);
+      const int si = c == 0 ? 1 : -1, sj = -si;  // the neighbours' offsets (tensor_cells.cpp)
+      for (int j = 0; j < ny; ++j)
+        for (int i = 0; i < nx; ++i)
+          in[c][size_t(j) * nx + i] = on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) ||
+                                      on(1 - c, i, j + sj) || on(1 - c, i + si, j + sj);
+    }
+    if (layer == 0) rot[0] = in[0], rot[1] = in[1];
   }
 }
 
@@ -161,9 +165,9 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
           cb[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0)
         tensor_nodes.push_back(std::move(t));
   tensor_ = join_tensor_nodes(tensor_nodes, g_, s.grid.bx == Boundary::periodic, s.grid.by == Boundary::periodic);
-  bytes_ += tensor_.index.size() *
-                (sizeof(long) + sizeof(int) + 4 * (sizeof(int) + sizeof(long) + sizeof(double)) + 12 * sizeof(double)) +
-            tensor_.poles.size() * (sizeof(TensorPole) + 2 * sizeof(double));
+  bytes_ += tensor_.index.size() * (sizeof(long) + 10 * sizeof(int) + 10 * sizeof(double)) +
+            tensor_.kind.size() * (sizeof(int) + 3 * sizeof(double) + 2 * (sizeof(AdeNode) + sizeof(int))) +
+            tensor_.poles.size() * (sizeof(AdePole) + 2 * sizeof(double));
 
   // run-length rows
   row_runs_.assign(static_cast<size_t>(3) * ny + 1, 0);

@@ -1,6 +1,6 @@
 /// \file test_tensor_resume.cpp
 /// \brief A run with a rotated dispersive tensor (solver/media/tensor_cells.h) stopped,
-/// checkpointed and resumed gives the same bits as a straight run: the list's displacement,
+/// checkpointed and resumed gives the same bits as a straight run: the sites' axis fields,
 /// kept E and poles are part of the saved state.
 #include <doctest/doctest.h>
 
@@ -31,6 +31,6 @@ TEST_CASE("checkpoint: a run with a rotated dispersive tensor resumed gives the 
   const test::ResumePair r = test::run_straight_and_resumed(s, "tensor", 150, 400);
   REQUIRE(r.straight->tensor_cells().count() > 0);
   CHECK(r.straight->tensor_cells().p == r.resumed->tensor_cells().p);
-  CHECK(r.straight->tensor_cells().d == r.resumed->tensor_cells().d);
+  CHECK(r.straight->tensor_cells().e_axis == r.resumed->tensor_cells().e_axis);
   CHECK(r.same_fields());
 }
