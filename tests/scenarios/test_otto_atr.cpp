@@ -189,7 +189,7 @@ TEST_CASE("study otto-atr --surface: the prism/gap/FeF2 surface magnon-polariton
   // measured (5 um cells, 0.5 GHz steps): worst 0.029 (at 1610.5 GHz, on the -k_x dip's
   // flank); dips 0.006 at 1548.0 GHz (+k_x; 4x4 0.009 at 1548.0, -k_x there 0.94) and 0.067
   // at 1611.0 GHz (-k_x; 4x4 0.086 at 1611.0, +k_x there 0.94); the half-space's |r| peaks
-  // (6.3 at 1547.0 GHz for +k_x, about 4.3 at 1610.5 GHz for -k_x) lie 0.5-1 GHz below the dips:
+  // (6.3 at 1547.0 GHz for +k_x, 4.4 at 1610.5 GHz for -k_x) lie 0.5-1 GHz below the dips:
   // the prism, 30 um away, pulls the mode up
   CHECK(worst < 0.045);
   for (int q = 0; q < 2; ++q) {
