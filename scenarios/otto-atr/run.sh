@@ -1,19 +1,32 @@
 #!/usr/bin/env bash
 # The Otto ATR study: a sweep over the Bloch wavenumber k_x (both signs) of the prism / gap /
-# biased MnF2 bench, the reflectance of one broadband pulse per k_x against its reference run
-# (all prism), and the map R(f, k_x) (`terayee render --plot bloch-map`); it prints R(+k_x) and
-# R(-k_x) every 5 GHz. The 4x4 transfer matrix's R of the same stack is the study's test
+# biased crystal bench, the reflectance of one broadband pulse per k_x against its reference
+# run (all prism), and the map R(f, k_x) (`terayee render --plot bloch-map`); it prints R(+k_x)
+# and R(-k_x). The 4x4 transfer matrix's R of the same stack is the study's test
 # (tests/scenarios/test_otto_atr.cpp), which prints both.
-#   scenarios/otto-atr/run.sh [--fine] [OUT]      (default OUT: runs/otto-atr)
-# Default: k_x = -13620 and +13620 rad/m (2.5 k0 at 260 GHz), 20 um cells, a few seconds.
+#   scenarios/otto-atr/run.sh [--surface] [--fine] [OUT]
+# Default (otto-atr.yaml, MnF2: bulk magnon-polaritons): k_x = -13620 and +13620 rad/m
+# (2.5 k0 at 260 GHz), 20 um cells, a few seconds; OUT defaults to runs/otto-atr.
 # --fine: 10 um cells and POINTS wavenumbers over -13620..13620 rad/m (default 9), a few minutes.
+# --surface (otto-atr-fef2.yaml, FeF2: the surface magnon-polariton): k_x = -40000 and +40000
+# rad/m, 5 um cells, 2 ns runs, under a minute; with --fine 2.5 um cells, a few minutes; OUT
+# defaults to runs/otto-atr-fef2.
 study=otto-atr
+surface=false
+if [ "${1:-}" = "--surface" ]; then surface=true; study=otto-atr-fef2; shift; fi
 . "$(dirname "${BASH_SOURCE[0]}")/../study-setup.sh" "$@"
 sets=()
-vary="grid.bloch.wavenumber=-13620:13620:2"
-if $fine; then
-  sets=(--set "grid.cell=10 um")
-  vary="grid.bloch.wavenumber=-13620:13620:${POINTS:-9}"  # both ends are always points
+if $surface; then
+  k=40000
+  vary="grid.bloch.wavenumber=-$k:$k:2"
+  if $fine; then sets=(--set "grid.cell=2.5 um"); fi
+else
+  k=13620
+  vary="grid.bloch.wavenumber=-$k:$k:2"
+  if $fine; then
+    sets=(--set "grid.cell=10 um")
+    vary="grid.bloch.wavenumber=-$k:$k:${POINTS:-9}"  # both ends are always points
+  fi
 fi
 rm -rf "$out/points" "$out/references" "$out/pictures"  # the study's own folders, from a previous run
 mkdir -p "$out"
@@ -21,8 +34,16 @@ mkdir -p "$out"
   > "$out/sweep.log" 2>&1 || { cat "$out/sweep.log" >&2; exit 1; }
 "$ty" render "$out" --plot bloch-map > /dev/null
 spectrum() { ls -d "$out"/points/*"wavenumber=$1" | head -1; }
-plus=$(spectrum 13620)
-minus=$(spectrum -13620)
-echo "R at k_x = +13620 and -13620 rad/m (2.5 k0 at 260 GHz), every 5 GHz:"
-paste -d, "$plus/spectrum.csv" "$minus/spectrum.csv" |
-  awk -F, 'NR > 1 && (NR - 2) % 5 == 0 { printf "%7.1f GHz   R(+k_x) = %.3f   R(-k_x) = %.3f\n", $1 / 1e9, $2, $4 }'
+plus=$(spectrum $k)
+minus=$(spectrum -$k)
+if $surface; then
+  # every 5 GHz, and every 0.5 GHz over the two surface-mode dips
+  echo "R at k_x = +$k and -$k rad/m (1.23 k0 at 1548 GHz):"
+  paste -d, "$plus/spectrum.csv" "$minus/spectrum.csv" | awk -F, 'NR > 1 { f = $1 / 1e9
+    if ((NR - 2) % 10 == 0 || (f > 1546.9 && f < 1549.1) || (f > 1609.9 && f < 1612.1))
+      printf "%7.1f GHz   R(+k_x) = %.3f   R(-k_x) = %.3f\n", f, $2, $4 }'
+else
+  echo "R at k_x = +$k and -$k rad/m (2.5 k0 at 260 GHz), every 5 GHz:"
+  paste -d, "$plus/spectrum.csv" "$minus/spectrum.csv" |
+    awk -F, 'NR > 1 && (NR - 2) % 5 == 0 { printf "%7.1f GHz   R(+k_x) = %.3f   R(-k_x) = %.3f\n", $1 / 1e9, $2, $4 }'
+fi
