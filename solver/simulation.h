@@ -174,7 +174,7 @@ class Simulation {
     for (auto& p : probes_) p.count = n_;
     for (auto& fl : power_spectra_) fl.steps = n_;
     for (auto& m : maps_) m.steps = n_;
-    mag_.latest = static_cast<int>(n_ & 1);
+    mag_.latest = MagneticCells::newest(n_);
   }
   /// A visit_state visitor behind one type: the Bloch pair's cosine copy hands its sine copy
   /// this, prefixing the names.

@@ -266,7 +266,7 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
 
 /// What a run over several MPI ranks does not do yet (docs/parallel.md): refused with exit
 /// status 2 before anything is written, rather than done wrong. The same on every rank.
-void refuse_over_ranks(const Scene& scene, const RunOptions& o) {
+void refuse_over_ranks(const Scene& scene) {
   const int P = parallel::size();
   std::vector<std::string> why;
   for (const Body& b : scene.bodies)
@@ -379,7 +379,7 @@ int run_command(const RunOptions& o) {
   const std::vector<std::string> found = validate_scene(read, machine_memory_bytes());  // before anything is sized
   read.warnings.insert(read.warnings.end(), found.begin(), found.end());
   const Scene scene = o.reference ? reference_scene(read) : read;
-  if (parallel::size() > 1) refuse_over_ranks(scene, o);
+  if (parallel::size() > 1) refuse_over_ranks(scene);
   if (scene.time.precision == Precision::single) return run_with<float>(scene, o);
   return run_with<double>(scene, o);
 }

@@ -90,15 +90,15 @@ void Simulation<R>::step_block(int depth) {
             h_row(j, ev);
             e_row(j, ev);
           }
-          if (taps) {  // the recorders read the state after step n0 + t, m[(n0 + t + 1) & 1]
-            const int p = static_cast<int>((n0 + t + 1) & 1);
+          if (taps) {  // the recorders read the state after step n0 + t: the copy that step wrote
+            const int p = MagneticCells::newest(n0 + t + 1);
             taps_.take(j, t, F, [this, p](const std::string& f, long k) { return magnetic_value(f, k, p); });
           }
         },
         magnets ? blocking::kMagneticLead : blocking::kLead);
   }
   n_ += depth;
-  mag_.latest = static_cast<int>(n_ & 1);
+  mag_.latest = MagneticCells::newest(n_);
   if (taps) record_taps(n0, depth);
 }
 

@@ -8,9 +8,9 @@
 /// g = 1), so step t + 1 first overwrites row r - 1 in unit (r - 1 - g, t + 1), which comes
 /// after unit (r - 1 - g + lead, t) = (r, t) or later, since lead >= g + 1 (wavefront.h): the
 /// taps of row r are taken inside unit (r, t), before its thread reports the row done.
-/// A magnetic cell's value of step t (the state m[(n + 1) & 1] the recorders read after step n)
-/// is written by the cell's unit of step t - 1 and overwritten by that of step t + 1, so it is
-/// taken after the cell's unit (cj, t). The thread of step t takes them into its own slots;
+/// A magnetic cell's value of step t (the state m[n & 1] that step n writes, which the
+/// recorders read after it: MagneticCells::newest) is written by the cell's unit of step t and
+/// overwritten by that of step t + 2, so it is taken right after the cell's unit (cj, t). The thread of step t takes them into its own slots;
 /// after the block the recorders sum the slots step by step (ProbeRecorder::record_values,
 /// PowerSpectrumRecorder::record_values) exactly as record() sums the reads each step, so a
 /// blocked run records the same bits.

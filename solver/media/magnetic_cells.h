@@ -84,6 +84,10 @@ struct MagneticCells {
   /// and writes the other; m[latest] is the state now
   std::vector<double> m[2][6];
   int latest = 0;
+  /// The copy of m (and of dM) that holds the state after n steps: step k reads m[1 - (k & 1)]
+  /// and writes m[k & 1], so after n steps the newest is m[(n - 1) & 1] = m[(n + 1) & 1] (both
+  /// copies hold the starting state before the first step).
+  static int newest(long n) { return static_cast<int>((n + 1) & 1); }
   /// change of mu0 M over a step (T), by the parity of the step: this step's and the
   /// previous one's; entry count() is a zero that missing neighbours read
   std::vector<double> dM[2][3];

@@ -346,7 +346,7 @@ void Simulation<R>::step_magnetic() {
   }
   if (!tensor_.empty()) tensor_.step(F.data(), threads_);  // tensor_cells.h
   ++n_;
-  M.latest = static_cast<int>(n_ & 1);
+  M.latest = MagneticCells::newest(n_);
 }
 
 template <class R>

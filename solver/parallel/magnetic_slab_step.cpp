@@ -212,7 +212,7 @@ void Simulation<R>::step_magnetic_slab() {
   }
   for (int k = 5; k < 10; ++k) mhalo_.req[k].wait();
   ++n_;
-  M.latest = static_cast<int>(n_ & 1);
+  M.latest = MagneticCells::newest(n_);
 }
 
 template <class R>

@@ -81,8 +81,8 @@ void Simulation<R>::step_pair_magnetic() {
   }
   ++n_;
   ++b.n_;
-  mag_.latest = static_cast<int>(n_ & 1);
-  b.mag_.latest = static_cast<int>(b.n_ & 1);
+  mag_.latest = MagneticCells::newest(n_);
+  b.mag_.latest = MagneticCells::newest(b.n_);
 }
 
 template void Simulation<float>::step_pair_magnetic();

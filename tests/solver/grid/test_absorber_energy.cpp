@@ -7,9 +7,11 @@
 /// sum |E^(n+1)|^2 + |H^(n+1/2)|^2 + magnets swings as energy moves between field and magnets.
 /// A "rise" of the plain sum after a source stops is therefore no evidence of growth.
 /// Measured at 50 um (1.2 ns after the pulse, 250 / 262.5 GHz): scheme energy's largest
-/// change 1.6e-2 / 1.2e-2 (its period average 5.3e-3 / 2.6e-3: the magnets' coupling step,
-/// llg_linear.h, is exact for the magnet but not a symplectic pairing with the leapfrog, so
-/// its residual is O((w dt)^2) = 3e-2 here, not rounding); plain sum 0.115 / 0.113.
+/// change 4.4e-3 / 3.5e-3 (the magnets' coupling step, llg_linear.h, is exact for the magnet
+/// but not a symplectic pairing with the leapfrog: a residual below O((w dt)^2) = 3e-2, not
+/// rounding); plain sum 0.119 / 0.118. While the outputs read the magnets' state one step
+/// old (MagneticCells::newest, mended), the scheme energy paired M(n-1/2) with H(n+1/2)
+/// and its change was 1.6e-2 / 1.2e-2: the bound below catches that.
 #include <doctest/doctest.h>
 #include <fmt/format.h>
 
@@ -40,7 +42,7 @@ TEST_CASE("absorbers: in a closed lossless box with MnF2 the scheme's energy hol
       dp = std::max(dp, std::abs(p / p0 - 1));
     }
     MESSAGE(fmt::format("{} GHz: largest change after the pulse: scheme energy {:.3e}, plain sum {:.3e}", f / 1e9, dw, dp));
-    CHECK(dw < 2.5e-2);  // O((w dt)^2) = 0.034 at 262.5 GHz, 50 um (see above)
+    CHECK(dw < 7e-3);  // measured 4.4e-3 / 3.5e-3; with the state a step old 1.6e-2 / 1.2e-2 (see above)
     CHECK(dp > 4 * dw);
   }
 }
