@@ -231,7 +231,13 @@ template <class R>
 bool Simulation<R>::settled() {
   if (!stop_.due(n_)) return false;
   gather_state();  // every rank decides alike, from the whole grid
-  return stop_.settled(n_, g_.dt, field_energy() + magnetic_energy(), power_spectra_, maps_);
+  return stop_.settled(n_, g_.dt, held_energy(), power_spectra_, maps_);
+}
+
+template <class R>
+double Simulation<R>::held_energy() const {
+  const double poles = constants::eps0 * disp_.oscillator_energy() * g_.dx * g_.dy;
+  return field_energy() + magnetic_energy() + poles + (twin_ ? constants::eps0 * twin_->disp_.oscillator_energy() * g_.dx * g_.dy : 0.0);
 }
 
 template <class R>

@@ -108,7 +108,7 @@ std::string GrowthGuard<R>::check(const Simulation<R>& sim) {
         "growth is inside the absorbing layers, check grid.absorber.kind (auto gives magnets the graded loss); else "
         "run again with a smaller time.step-fraction to see whether it is a stability problem",
         n, n * g.dt * 1e12, last_good_, worst[s], linear_tilt_, where(sim, M.ci[at[s]], M.cj[at[s]]));
-  const double w = sim.field_energy() + sim.magnetic_energy();
+  const double w = sim.held_energy();
   const double floor = 1e-30 + 1e-12 * most_injected_;
   if (!(w <= kEnergyFactor * most_injected_ + floor)) {  // NaN too
     double best = -1;                                    // the node of largest energy density (E and eta0 H alike)
