@@ -178,7 +178,7 @@ TEST_CASE("measure polarization: Faraday and Kerr rotation of a biased MnF2 plat
 
 TEST_CASE("measure polarization: bad arguments are refused with exit status 2") {
   const std::string bin = std::string(TERAYEE_BINARY) + " measure polarization ";
-  const std::string ez_run = run("ez", ""), ez_ref = run("ez-ref", "--reference");
+  const std::string ez_run = run("bad-ez", ""), ez_ref = run("bad-ez-ref", "--reference");
   const std::string one = "'" + ez_run + "' --reference '" + ez_ref + "'";
   CHECK(shell(bin + one + " --probe behind > /dev/null") == 0);  // one column alone is measured
   CHECK(shell(bin + one + " --probe nowhere") == 2);
