@@ -259,7 +259,7 @@ class Simulation {
   std::vector<int> recorder_rows_;  // rows (ghost rows -1, ny included) the recorders read every step
   std::vector<int> recorder_counts_;  // bytes of them per rank
   std::vector<R> recorder_buf_;
-  std::vector<int> state_counts_, work_counts_;  // gather_state's bytes per rank
+  std::vector<int> state_counts_, work_counts_, pole_counts_;  // gather_state's bytes per rank
   std::vector<long> whole_steps_;  // steps after which a recorder reads the whole grid (snapshots)
   parallel::MagnetHalo<R> mhalo_;  // magnetic cells over ranks (magnetic_slab_step.cpp)
   // Bloch sides (bloch.h): the sine copy, owned by the cosine copy and stepped with it

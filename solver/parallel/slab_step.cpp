@@ -76,11 +76,14 @@ void Simulation<R>::build_slabs() {
   std::sort(whole_steps_.begin(), whole_steps_.end());
   bytes_ += (4 * n + recorder_buf_.size()) * sizeof(R);
   // gather_state's blocks: each rank's whole rows, the ghost rows -1 and ny with the first and last rank
-  state_counts_.assign(ranks_, 0), work_counts_.assign(ranks_, 0);
+  state_counts_.assign(ranks_, 0), work_counts_.assign(ranks_, 0), pole_counts_.assign(ranks_, 0);
   for (int r = 0; r < ranks_; ++r) {
     int lo, hi;
     parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
     work_counts_[r] = (hi - lo) * static_cast<int>(sizeof(double));
+    if (!disp_.empty())  // the poles of the nodes of its rows (a node's row is its E row), contiguous by row
+      pole_counts_[r] = (disp_.pole_first[disp_.row_first[hi]] - disp_.pole_first[disp_.row_first[lo]]) *
+                        static_cast<int>(sizeof(double));
     if (r == 0) lo = -1;
     if (r == ranks_ - 1) hi = g_.ny + 1;
     state_counts_[r] = static_cast<int>((hi - lo) * g_.stride * sizeof(R));
@@ -177,6 +180,10 @@ void Simulation<R>::gather_state() {
   if (ranks_ == 1) return;
   for (int c = 0; c < 6; ++c) parallel::allgather_bytes(f_[c].data(), state_counts_);
   parallel::allgather_bytes(injected_.data(), work_counts_);
+  if (!disp_.empty()) {  // the oscillators' energy is part of what the guard and stop: auto watch
+    parallel::allgather_bytes(disp_.p.data(), pole_counts_);
+    parallel::allgather_bytes(disp_.j.data(), pole_counts_);
+  }
   gather_cells();
 }
 
