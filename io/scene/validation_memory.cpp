@@ -164,6 +164,14 @@ double RunSizes::memory_bytes() const {
 void add_memory(const Scene& s, RunSizes& z) {
   add_media(s, z);
   add_magnets(s, z);
+  if (s.grid.bx == Boundary::bloch) {  // the sine copy (solver/grid/boundaries/bloch.h): a second grid and its media
+    const size_t n = z.memory.size();
+    for (size_t k = 0; k < n; ++k) {
+      MemoryItem copy = z.memory[k];
+      copy.what += " (the Bloch sides' sine copy)";
+      z.memory.push_back(copy);
+    }
+  }
   add_recorders(s, z);
 }
 

@@ -20,9 +20,11 @@
 namespace fs = std::filesystem;
 using namespace ty;
 
-TEST_CASE("run: blocked (auto) and one pass per step write the same bits, and the log names the depth") {
-  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/cw-beam.yaml";
-  const fs::path a = fs::temp_directory_path() / "terayee-test-blocked", b = fs::temp_directory_path() / "terayee-test-one-pass";
+namespace {
+
+/// The scene run twice: blocked (auto depth, 2 threads) into the first folder and one pass per
+/// step (1 thread) into the second; the blocked run's log.
+std::string run_both(const std::string& scene, const fs::path& a, const fs::path& b) {
   fs::remove_all(a);
   fs::remove_all(b);
   REQUIRE(test::shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + a.string() + "' --quiet --threads 2") == 0);
@@ -30,8 +32,17 @@ TEST_CASE("run: blocked (auto) and one pass per step write the same bits, and th
                       "' --quiet --threads 1 --block-depth 1") == 0);
   std::stringstream log;
   log << std::ifstream(a / "log.txt").rdbuf();
-  INFO(log.str());
-  CHECK(log.str().find("time blocking: 16 steps per pass") != std::string::npos);  // it did block
+  return log.str();
+}
+
+}  // namespace
+
+TEST_CASE("run: blocked (auto) and one pass per step write the same bits, and the log names the depth") {
+  const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/cw-beam.yaml";
+  const fs::path a = fs::temp_directory_path() / "terayee-test-blocked", b = fs::temp_directory_path() / "terayee-test-one-pass";
+  const std::string log = run_both(scene, a, b);
+  INFO(log);
+  CHECK(log.find("time blocking: 16 steps per pass") != std::string::npos);  // it did block
   const auto fa = h5::File::open((a / "fields.h5").string()), fb = h5::File::open((b / "fields.h5").string());
   for (const char* d : {"/spectral-maps/steady/Ez/real", "/spectral-maps/steady/Ez/imag", "/spectral-maps/steady/Sx/real",
                         "/spectral-maps/steady/Sy/imag"}) {
@@ -51,15 +62,9 @@ TEST_CASE("run: blocked (auto) and one pass per step write the same bits, and th
 TEST_CASE("run: a magnetic scene with probes and power-spectrum lines, blocked (auto) and one pass, same bits") {
   const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/tests/data/mnf2-open.yaml";
   const fs::path a = fs::temp_directory_path() / "terayee-test-blocked-mag", b = fs::temp_directory_path() / "terayee-test-one-pass-mag";
-  fs::remove_all(a);
-  fs::remove_all(b);
-  REQUIRE(test::shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + a.string() + "' --quiet --threads 2") == 0);
-  REQUIRE(test::shell(std::string(TERAYEE_BINARY) + " run '" + scene + "' -o '" + b.string() +
-                      "' --quiet --threads 1 --block-depth 1") == 0);
-  std::stringstream log;
-  log << std::ifstream(a / "log.txt").rdbuf();
-  INFO(log.str());
-  CHECK(log.str().find("steps per pass over the rows (auto); probes and power spectra record inside the blocks") !=
+  const std::string log = run_both(scene, a, b);
+  INFO(log);
+  CHECK(log.find("steps per pass over the rows (auto); probes and power spectra record inside the blocks") !=
         std::string::npos);  // it did block, recorders and all
   const auto fa = h5::File::open((a / "fields.h5").string()), fb = h5::File::open((b / "fields.h5").string());
   for (const char* d : {"/probes/inside/Ez", "/probes/inside/Hx", "/probes/inside/Mx", "/probes/inside/Ly",
