@@ -38,7 +38,7 @@ TEST_CASE("held energy: a lossless phonon wafer in a closed box keeps field plus
     dh = std::max(dh, std::abs(h / h0 - 1)), df = std::max(df, std::abs(f / f0 - 1));
   }
   MESSAGE(fmt::format("after the pulse: held energy's largest change {:.3e}, the fields' alone {:.3e}", dh, df));
-  CHECK(dh < 0.02);     // the leapfrog's E^n.E^(n+1) against |E^n|^2 and the trapezoidal poles: O((w dt)^2)
+  CHECK(dh < 1e-2);  // measured 4.8e-3: the leapfrog energy E^n.E^(n+1) against |E^n|^2, O((w dt)^2); the poles left out: 0.30
   CHECK(df > 5 * dh);   // without the oscillators' share the sum swings
 }
 
