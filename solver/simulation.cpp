@@ -40,8 +40,8 @@ Simulation<R>::Simulation(const Scene& scene, int threads, int copy) : scene_(sc
   build_recorders(plan);
   build_slabs();
   stop_ = StopRule(scene.time.auto_stop, plan, power_spectra_, maps_);
-  // a magnetic cell costs about 7 vacuum cells (docs/magnets.md): 1 + 6 more
-  if (chosen <= 0) threads_ = threads_for_work(double(g_.nx) * g_.ny + 6.0 * mag_.count(), threads_);
+  // a magnetic cell costs about 3.5 vacuum cells (bench --case magnetic, docs/performance.md): 1 + 2.5 more
+  if (chosen <= 0) threads_ = threads_for_work(double(g_.nx) * g_.ny + 2.5 * mag_.count(), threads_);
   if (walls_.bloch_x) build_bloch_pair();
 }
 
