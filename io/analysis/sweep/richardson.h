@@ -23,4 +23,12 @@ struct Extrapolated {
 /// Empty with fewer than two values.
 std::optional<Extrapolated> richardson(const std::vector<double>& f, double r = 2.0, double assumed_order = 2.0);
 
+/// The same from the last three of `f` measured at cells `h` (coarsest first) in any ratios:
+/// the order p solves (f3 - f2)/(f2 - f1) = (h3^p - h2^p)/(h2^p - h1^p) (f = f0 + C h^p;
+/// solved by bisection where Celik et al., J. Fluids Eng. 130, 078001 (2008) iterate), then
+/// f0 = f3 + (f3 - f2)/((h2/h3)^p - 1) and the GCI with r = h2/h3. With a constant ratio it
+/// is richardson(f, r). Empty unless h and f hold three or more values, h falling.
+std::optional<Extrapolated> richardson_cells(const std::vector<double>& h, const std::vector<double>& f,
+                                             double assumed_order = 2.0);
+
 }  // namespace ty

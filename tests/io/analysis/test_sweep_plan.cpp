@@ -58,3 +58,27 @@ TEST_CASE("Richardson extrapolation recovers f0 and p of f = f0 + C h^p (Roache 
   REQUIRE(osc);
   CHECK(!osc->monotone);
 }
+
+TEST_CASE("Richardson extrapolation over cells in any ratio recovers f0 and p (Celik et al., J. Fluids Eng. 2008)") {
+  const std::vector<double> h{25, 20, 12.5};  // the slab-lens study's cells: ratios 1.25 and 1.6
+  for (double p : {1.0, 1.5, 2.0, 3.0}) {
+    std::vector<double> f;
+    for (double x : h) f.push_back(1.04 - 7e-5 * std::pow(x, p));
+    const auto e = richardson_cells(h, f);
+    REQUIRE(e);
+    CHECK(e->order_observed);
+    CHECK(e->order == doctest::Approx(p).epsilon(1e-9));
+    CHECK(e->value == doctest::Approx(1.04).epsilon(1e-12));
+    CHECK(e->error >= std::abs(f.back() - 1.04));
+  }
+  // a constant ratio gives the closed form of richardson()
+  const std::vector<double> g{3.7, 3.175, 3.04375};
+  const auto by_r = richardson(g), by_h = richardson_cells({1.0, 0.5, 0.25}, g);
+  REQUIRE(by_r);
+  REQUIRE(by_h);
+  CHECK(by_h->order == doctest::Approx(by_r->order).epsilon(1e-9));
+  CHECK(by_h->value == doctest::Approx(by_r->value).epsilon(1e-12));
+  CHECK(!richardson_cells({1.0, 0.5}, {1.0, 2.0}));           // two grids
+  CHECK(!richardson_cells({0.5, 1.0, 0.25}, {1.0, 2.0, 3.0}));  // cells not falling
+  CHECK(!richardson_cells(h, {1.0, 2.0, 1.5})->monotone);
+}
