@@ -258,7 +258,7 @@ Command add_bench(CLI::App& app) {
   auto o = std::make_shared<Options>();
   auto* b = app.add_subcommand("bench", "Measure cell-updates per second");
   b->add_option("--case", o->bench_case, "vacuum, dielectric, absorber, magnetic, tilted, recorders, phonon, rotated or all")
-      ->check(CLI::IsMember({"vacuum", "dielectric", "absorber", "magnetic", "tilted", "recorders", "all"}));
+      ->check(CLI::IsMember({"vacuum", "dielectric", "absorber", "magnetic", "tilted", "recorders", "phonon", "rotated", "all"}));
   b->add_option("--size", o->size, "Cells per side of the square grid")->check(CLI::Range(16, 16384));
   b->add_option("--threads", o->threads, "OpenMP threads (default: all)")->check(CLI::PositiveNumber);
   b->add_option("--precision", o->precision, "double or single")->check(CLI::IsMember({"double", "single"}));

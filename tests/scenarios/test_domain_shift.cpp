@@ -93,8 +93,8 @@ void mirror_domains(const std::string& sets, double cell) {
 
 // The scene as it is: 25 um cells, damping 1e-4, 4 ns (four ring-downs of the line); a few
 // minutes on 2 cores, so skipped by default:
-//   ./build/terayee_studies -tc="domain shift, long*" --no-skip
-TEST_CASE("domain shift, long: two weak-ferromagnet domains give mirror-image beam shifts, as predicted" *
+//   ./build/terayee_studies -tc="domain shift (long)*" --no-skip
+TEST_CASE("domain shift (long): two weak-ferromagnet domains give mirror-image beam shifts, as predicted" *
           doctest::skip()) {
   mirror_domains("", 25e-6);
 }
