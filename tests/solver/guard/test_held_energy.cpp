@@ -6,7 +6,8 @@
 /// keeps an energy) holding a lossless phonon wafer, the field's energy alone swings as the
 /// phonons take it and give it back, and the sum holds. On the bundled GaAs wafer (2 ps, a
 /// guard check every 1% of the run) the guard took that swing for slow growth and stopped a
-/// stable run; it must stay quiet.
+/// stable run; it must stay quiet. The same for a rotated phonon wafer (eps_xy != 0), whose
+/// nodes hold their instances' energy (solver/media/tensor_energy.h).
 #include <doctest/doctest.h>
 #include <fmt/format.h>
 
