@@ -186,11 +186,17 @@ nlohmann::json json_row(const Point& p) {
   return row;
 }
 
-void print_header(const Scene& scene, const Medium& med, const MediumOptions& o) {
+void print_header(const Scene& scene, const Setup& s, const MediumOptions& o) {
+  const Medium& med = s.medium;
   std::cout << fmt::format("medium '{}' under the bias [{}, {}, {}] T, interface normal {}, angle {:+.3f} deg{}\n",
                            med.name, scene.bias[0], scene.bias[1], scene.bias[2], o.normal,
                            o.angle * 180 / constants::pi,
                            o.thickness > 0 ? fmt::format(", slab {:.4g} um", o.thickness * 1e6) : ", half-space");
+  if (s.magnetic) {  // the state, and whose (the medium's, or --body's)
+    const Vec3 net = s.model.net(s.state.m);
+    std::cout << fmt::format("state: {}; net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", s.how, net.x(), net.y(),
+                             net.z());
+  }
   std::cout << fmt::format("{:>11s} {:>9s} {:>9s} {:>9s} {:>10s} {:>10s} {:>10s} {:>5s} {:>8s} {:>10s} {:>5s} {:>8s} {:>7s} "
                            "{:>7s} {:>7s} {:>10s} {:>10s}\n",
                            "f/GHz", "mu_xx", "mu_yy", "mu_zz", "Im mu_xy", "Re mu_V", "Ez curve", "here", "refr/deg",
@@ -328,12 +334,7 @@ Setup setup_for(const Scene& scene, const MediumOptions& o) {
 int medium_command(const MediumOptions& o) {
   const Scene scene = read_scene(o.scene, o.sets);
   const Setup s = setup_for(scene, o);
-  print_header(scene, s.medium, o);
-  if (s.magnetic) {
-    const Vec3 net = s.model.net(s.state.m);
-    std::cout << fmt::format("  state: {}; net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", s.how, net.x(), net.y(),
-                             net.z());
-  }
+  print_header(scene, s, o);
   const double cell_n = s.normal == 0 ? scene.grid.dx : scene.grid.dy;  // the cell across the interface
   std::string csv = kCsvHeader;
   if (o.polarization) csv.insert(csv.size() - 1, jones_csv_header());
