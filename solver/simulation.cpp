@@ -11,6 +11,7 @@
 #include <cmath>
 
 #include "io/scene/units.h"
+#include "solver/media/tensor_energy.h"
 
 namespace ty {
 
@@ -234,10 +235,17 @@ bool Simulation<R>::settled() {
   return stop_.settled(n_, g_.dt, held_energy(), power_spectra_, maps_);
 }
 
+/// The fields', the magnets', the dispersive media's oscillators' (dispersive_cells.h) and the
+/// rotated tensors' instances, poles included (tensor_energy.h).
 template <class R>
 double Simulation<R>::held_energy() const {
   const double poles = constants::eps0 * disp_.oscillator_energy() * g_.dx * g_.dy;
-  return field_energy() + magnetic_energy() + poles + (twin_ ? constants::eps0 * twin_->disp_.oscillator_energy() * g_.dx * g_.dy : 0.0);
+  // the rotated tensors' nodes: field_energy counts them as vacuum ((1/2) E^2, as the sweep
+  // steps them); the scheme keeps their instances' energy instead, poles included (tensor_cells.h)
+  double tensor = instance_energy(tensor_);
+  for (long q = 0; q < tensor_.count(); ++q) tensor -= 0.5 * std::pow(static_cast<double>(f_[tensor_.comp[q]][tensor_.index[q]]), 2);
+  return field_energy() + magnetic_energy() + poles + constants::eps0 * tensor * g_.dx * g_.dy +
+         (twin_ ? constants::eps0 * twin_->disp_.oscillator_energy() * g_.dx * g_.dy : 0.0);
 }
 
 template <class R>

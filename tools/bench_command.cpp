@@ -4,7 +4,8 @@
 /// 16-cell absorbers), absorber (CPML auxiliaries on both axes in every cell), magnetic
 /// (every cell MnF2 under 0.5 T, 20 um cells), tilted (the same with every cell forced onto
 /// the large-tilt path, the midpoint rule), recorders (vacuum with two 1001-frequency
-/// power-spectrum lines, a whole-grid spectral map and four probes); each with its cost
+/// power-spectrum lines, a whole-grid spectral map and four probes), phonon and rotated (every
+/// cell a dispersive phonon crystal, its axes along x, y or turned by 35 deg); each with its cost
 /// relative to a one-pass vacuum cell. Median of several timed samples. --block-depth N|auto
 /// takes the cases' steps in blocks of that many (solver/blocking/; a case that forces one
 /// pass per step says so). The last line is
@@ -16,6 +17,7 @@
 #include <chrono>
 #include <iostream>
 
+#include "io/scene/constants.h"
 #include "io/scene/diagnostics.h"
 #include "io/scene/scene.h"
 #include "solver/simulation.h"
@@ -148,12 +150,41 @@ double measure_magnetic_rate(const Scene& scene, int medium, int threads, double
 
 namespace {
 
-const char* const kCases[] = {"vacuum", "dielectric", "absorber", "magnetic", "tilted", "recorders"};
+/// Every cell the tilted phonon mirror's crystal (scenarios/tilted-phonon-mirror.yaml: one
+/// Lorentz pole per axis), its axes turned by 35 deg (`rotated`: the tensor list of
+/// solver/media/tensor_cells.h, every in-plane node) or not (`phonon`: the per-component poles).
+Scene phonon_scene(int n, bool rotated) {
+  Scene s = bench_scene(n, false);
+  s.grid.dx = s.grid.dy = 0.4e-6;  // the scene's cell
+  s.grid.extent = {n * s.grid.dx, n * s.grid.dy};
+  s.sources[0].at = {0.3 * s.grid.extent.x, 0.5 * s.grid.extent.y};
+  s.sources[0].frequency = 8e12;
+  s.sources[0].waveform.ramp = 0.4e-12;
+  Medium m;
+  m.name = rotated ? "rotated" : "phonon";
+  PermittivityTensor t;
+  t.axis[0].eps_inf = 3, t.axis[0].lorentz = {{8e12, 4.0, 0.3e12}};
+  t.axis[1].eps_inf = 2.5, t.axis[1].lorentz = {{6e12, 1.5, 0.2e12}};
+  t.axis[2] = t.axis[1];
+  t.rotate = rotated ? 35 * constants::pi / 180 : 0;
+  m.tensor = t;
+  m.permittivity = {3, 2.5, 2.5};
+  s.media.push_back(m);
+  Body b;
+  b.shape.kind = Shape::Kind::rectangle;
+  b.shape.centre = {0.5 * s.grid.extent.x, 0.5 * s.grid.extent.y};
+  b.shape.size = {2 * s.grid.extent.x, 2 * s.grid.extent.y};
+  s.bodies.push_back(b);
+  return s;
+}
+
+const char* const kCases[] = {"vacuum", "dielectric", "absorber", "magnetic", "tilted", "recorders", "phonon", "rotated"};
 
 /// The scene of one bench case on an n x n grid.
 Scene case_scene(const std::string& name, int n) {
   if (name == "vacuum") return bench_scene(n, false);
   if (name == "magnetic" || name == "tilted") return bench_scene(n, false, true);
+  if (name == "phonon" || name == "rotated") return phonon_scene(n, name == "rotated");
   Scene s = bench_scene(n, name == "dielectric");
   if (name == "absorber") {  // the whole grid absorbing: every cell carries CPML auxiliaries on both axes
     s.grid.bx = s.grid.by = Boundary::absorbing;

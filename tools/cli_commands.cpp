@@ -119,7 +119,11 @@ Command add_medium(CLI::App& app) {
   auto o = std::make_shared<Options>();
   auto* md = app.add_subcommand("medium", "Linear-response properties of a medium of a scene under its bias");
   md->add_option("scene", o->scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
-  md->add_option("--medium", o->medium, "Name of the medium")->required();
+  md->add_option("--medium", o->medium, "Name of the medium (or give --body)");
+  md->add_option("--body", o->body,
+                 "A body of the scene, numbered from 1 as `check` lists them: its medium in the state that body "
+                 "starts from (its own `order`, `state` or `order: reversed`: an antiferromagnetic domain)")
+      ->check(CLI::PositiveNumber);
   md->add_option("--from", o->from_text, "Lowest frequency, e.g. \"250 GHz\"")->required();
   md->add_option("--to", o->to_text, "Highest frequency")->required();
   md->add_option("--count", o->count, "Frequencies")->check(CLI::Range(1, 100000));
@@ -153,6 +157,7 @@ Command add_medium(CLI::App& app) {
             o->image_range = quantity(o->range_text, Kind::length, "--image-range");
             o->line_distance = quantity(o->line_text, Kind::length, "--line-distance");
             if (!(o->to >= o->from) || o->from <= 0) throw BadInput("terayee medium: error: need 0 < --from <= --to");
+            if (o->medium.empty() && o->body == 0) throw BadInput("terayee medium: error: need --medium or --body");
             return medium_command(*o);
           }};
 }
@@ -252,8 +257,8 @@ Command add_bench(CLI::App& app) {
   };
   auto o = std::make_shared<Options>();
   auto* b = app.add_subcommand("bench", "Measure cell-updates per second");
-  b->add_option("--case", o->bench_case, "vacuum, dielectric, absorber, magnetic, tilted, recorders or all")
-      ->check(CLI::IsMember({"vacuum", "dielectric", "absorber", "magnetic", "tilted", "recorders", "all"}));
+  b->add_option("--case", o->bench_case, "vacuum, dielectric, absorber, magnetic, tilted, recorders, phonon, rotated or all")
+      ->check(CLI::IsMember({"vacuum", "dielectric", "absorber", "magnetic", "tilted", "recorders", "phonon", "rotated", "all"}));
   b->add_option("--size", o->size, "Cells per side of the square grid")->check(CLI::Range(16, 16384));
   b->add_option("--threads", o->threads, "OpenMP threads (default: all)")->check(CLI::PositiveNumber);
   b->add_option("--precision", o->precision, "double or single")->check(CLI::IsMember({"double", "single"}));

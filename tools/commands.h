@@ -41,6 +41,7 @@ struct MediumOptions {
   double line_distance = 0;  ///< where the beam-summed shift is seen: a line this far before the interface
   std::string plot;          ///< also draw the table: FILE.png, .pdf or .svg
   bool polarization = false; ///< also print the Jones, Faraday and Kerr table
+  int body = 0;              ///< 1, 2, ... as `check` numbers them: that body's medium and own state (0: none)
   int count = 101;
 };
 int medium_command(const MediumOptions& o);

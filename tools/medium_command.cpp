@@ -1,5 +1,6 @@
 /// \file medium_command.cpp
-/// \brief `terayee medium SCENE --medium NAME`: the linear-response properties of one
+/// \brief `terayee medium SCENE --medium NAME` (or `--body N`: that body's medium in the state
+/// the body starts from, e.g. an antiferromagnetic domain): the linear-response properties of one
 /// medium of a scene under the scene's bias, over a frequency band, at an angle of
 /// incidence from vacuum (or the scene's chosen incidence index): the permeability tensor,
 /// the Ez wave's effective permeability mu_V, and for the Ez and the Hz wave their iso-frequency
@@ -30,7 +31,7 @@
 #include "materials/layered/angular_spectrum.h"
 #include "materials/layered/refraction.h"
 #include "materials/layered/wave_character.h"
-#include "materials/magnetic/state_choice.h"
+#include "materials/magnetic/domain_state.h"
 #include "materials/permittivity/permittivity.h"
 #include "tools/commands.h"
 #include "tools/medium_jones.h"
@@ -44,6 +45,7 @@ struct Setup {
   Medium medium;  // its permittivity: dispersion, rotated axes and conductivity
   MagnetModel model;
   MagneticState state;
+  std::string how;  // which state, and whose (the medium's, or --body's)
   bool magnetic = false;
   double thickness = 0;
   int normal = 1;
@@ -184,11 +186,17 @@ nlohmann::json json_row(const Point& p) {
   return row;
 }
 
-void print_header(const Scene& scene, const Medium& med, const MediumOptions& o) {
+void print_header(const Scene& scene, const Setup& s, const MediumOptions& o) {
+  const Medium& med = s.medium;
   std::cout << fmt::format("medium '{}' under the bias [{}, {}, {}] T, interface normal {}, angle {:+.3f} deg{}\n",
                            med.name, scene.bias[0], scene.bias[1], scene.bias[2], o.normal,
                            o.angle * 180 / constants::pi,
                            o.thickness > 0 ? fmt::format(", slab {:.4g} um", o.thickness * 1e6) : ", half-space");
+  if (s.magnetic) {  // the state, and whose (the medium's, or --body's)
+    const Vec3 net = s.model.net(s.state.m);
+    std::cout << fmt::format("state: {}; net moment mu0*M = ({:.6g}, {:.6g}, {:.6g}) T\n", s.how, net.x(), net.y(),
+                             net.z());
+  }
   std::cout << fmt::format("{:>11s} {:>9s} {:>9s} {:>9s} {:>10s} {:>10s} {:>10s} {:>5s} {:>8s} {:>10s} {:>5s} {:>8s} {:>7s} "
                            "{:>7s} {:>7s} {:>10s} {:>10s}\n",
                            "f/GHz", "mu_xx", "mu_yy", "mu_zz", "Im mu_xy", "Re mu_V", "Ez curve", "here", "refr/deg",
@@ -274,13 +282,37 @@ void write_medium_plot(const Setup& s, const Scene& scene, const MediumOptions& 
   std::cout << fmt::format("plot -> {} (data: {})\n", o.plot, plot_data_path(o.plot));
 }
 
-Setup setup_for(const Scene& scene, const MediumOptions& o) {
+/// The medium asked for: by --medium, or the medium of --body (both: they must agree).
+int medium_index(const Scene& scene, const MediumOptions& o) {
+  if (o.body > static_cast<int>(scene.bodies.size()))
+    throw BadInput(fmt::format("--body: error: the scene has {} bodies, not {}", scene.bodies.size(), o.body));
+  const int of_body = o.body > 0 ? scene.bodies[o.body - 1].medium : -1;
+  if (o.medium.empty()) return of_body;
   int k = -1;
   for (size_t q = 0; q < scene.media.size(); ++q)
     if (scene.media[q].name == o.medium) k = static_cast<int>(q);
   if (k < 0) throw BadInput(fmt::format("{}: error: the scene has no medium named '{}'", o.scene, o.medium));
+  if (of_body >= 0 && of_body != k)
+    throw BadInput(fmt::format("--body: error: body {} is of medium '{}', not '{}'", o.body, scene.media[of_body].name,
+                               o.medium));
+  return k;
+}
+
+/// The magnetic state: the one a run starts from in the medium's bodies, or in --body's
+/// (its own order or state: materials/magnetic/domain_state.h). Said on the first line.
+ChosenState state_for(const Scene& scene, const Medium& med, const MediumOptions& o) {
+  if (o.body == 0) return choose_state(*med.magnet, scene.bias);
+  const Body& b = scene.bodies[o.body - 1];
+  ChosenState c = choose_body_state(*med.magnet, b.magnetic, scene.bias);
+  c.how = fmt::format("body {} (line {}): {}", o.body, b.where.line,
+                      b.magnetic.given() ? "its own state, " + c.how : "the medium's state, " + c.how);
+  return c;
+}
+
+Setup setup_for(const Scene& scene, const MediumOptions& o) {
+  const int k = medium_index(scene, o);
   const Medium& med = scene.media[k];
-  if (med.perfect_conductor) throw BadInput(fmt::format("{}: error: '{}' is a perfect conductor", o.scene, o.medium));
+  if (med.perfect_conductor) throw BadInput(fmt::format("{}: error: '{}' is a perfect conductor", o.scene, med.name));
   if (o.source_distance > 0 && o.thickness <= 0)
     throw BadInput("terayee medium: error: --source-distance needs --thickness (the slab the source faces)");
   Setup s;
@@ -288,7 +320,8 @@ Setup setup_for(const Scene& scene, const MediumOptions& o) {
   if (med.magnet) {
     s.magnetic = true;
     s.model = MagnetModel(*med.magnet, scene.bias);
-    s.state = choose_state(*med.magnet, scene.bias).state;  // the state a run starts from
+    const ChosenState c = state_for(scene, med, o);  // the state a run starts from
+    s.state = c.state, s.how = c.how;
   }
   s.thickness = o.thickness;
   s.normal = o.normal == "x" ? 0 : 1;
@@ -301,16 +334,15 @@ Setup setup_for(const Scene& scene, const MediumOptions& o) {
 int medium_command(const MediumOptions& o) {
   const Scene scene = read_scene(o.scene, o.sets);
   const Setup s = setup_for(scene, o);
-  print_header(scene, s.medium, o);
+  print_header(scene, s, o);
   const double cell_n = s.normal == 0 ? scene.grid.dx : scene.grid.dy;  // the cell across the interface
   std::string csv = kCsvHeader;
   if (o.polarization) csv.insert(csv.size() - 1, jones_csv_header());
   nlohmann::json rows = nlohmann::json::array();
   std::vector<Point> points;
   std::vector<JonesPrediction> jones;  // the polarization columns (medium_jones.h)
-  int k = 0;
-  while (scene.media[k].name != o.medium) ++k;  // setup_for found it
-  const SlabModel slab = slab_model(scene, k, o.thickness, s.normal);
+  SlabModel slab = slab_model(scene, medium_index(scene, o), o.thickness, s.normal);
+  slab.state = s.state;  // --body's own state where it has one
   bool coupling_told = false;
   for (int q = 0; q < o.count; ++q) {
     const double f = o.count == 1 ? o.from : o.from + (o.to - o.from) * q / (o.count - 1);
@@ -332,8 +364,14 @@ int medium_command(const MediumOptions& o) {
   }
   if (!o.plot.empty()) write_medium_plot(s, scene, o, points);
   if (!o.csv.empty()) write_text_atomically(o.csv, csv);
-  if (!o.json.empty())
-    write_text_atomically(o.json, nlohmann::json{{"medium", s.medium.name}, {"rows", rows}}.dump(2) + "\n");
+  if (!o.json.empty()) {
+    nlohmann::json out{{"medium", s.medium.name}, {"rows", rows}};
+    if (s.magnetic) {
+      const Vec3 net = s.model.net(s.state.m);
+      out["state"] = s.how, out["net-moment"] = {net.x(), net.y(), net.z()};  // T
+    }
+    write_text_atomically(o.json, out.dump(2) + "\n");
+  }
   return 0;
 }
 
