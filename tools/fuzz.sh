@@ -32,7 +32,8 @@ cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_C_COMPILE
 cmake --build "$build" --target "${targets[@]}" -j"$(nproc)"
 cd "$build"
 export ASAN_OPTIONS=detect_leaks=1:abort_on_error=1
-export UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1
+export UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1:suppressions=$root/tools/sanitize/ubsan.supp
+export LSAN_OPTIONS=suppressions=$root/tools/sanitize/lsan.supp  # third-party leaks, each with its reason
 status=0
 for t in "${targets[@]}"; do
   mkdir -p "corpus-$t" "seeds-$t"

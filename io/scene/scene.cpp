@@ -175,11 +175,16 @@ int absorber_cells(const Scene& s, int axis) {
   // every cell along them (a body holding one of those points runs on through that layer)
   const double along = axis == 0 ? G.extent.y : G.extent.x, d = axis == 0 ? G.dy : G.dx;
   const double cell = axis == 0 ? G.dx : G.dy;
-  const int n = std::max(1, static_cast<int>(std::lround(along / d)));
+  // one point a cell, but at most kEdgePoints: a side of 2e9 cells (which the memory rule
+  // refuses later) took minutes here, four billion lookups, before any rule could speak
+  constexpr double kEdgePoints = 1e7;
+  const double cells = std::round(along / d);
+  const int n = cells >= 1 ? static_cast<int>(std::min(cells, kEdgePoints)) : 1;
+  const double pitch = cells > kEdgePoints ? along / n : d;
   double index = G.absorber.kind == Absorber::Kind::graded ? 1.0 : 0.0;  // 0: no magnet there
   for (double edge : {0.0, axis == 0 ? G.extent.x : G.extent.y})
     for (int k = 0; k < n; ++k) {
-      const double t = (k + 0.5) * d;
+      const double t = (k + 0.5) * pitch;
       const Vec2 p = axis == 0 ? Vec2{edge, t} : Vec2{t, edge};
       for (int b = static_cast<int>(s.bodies.size()) - 1; b >= 0; --b)
         if (s.bodies[b].shape.contains(p)) {

@@ -7,6 +7,7 @@
 #include <doctest/doctest.h>
 #include <unistd.h>
 
+#include <chrono>
 #include <cmath>
 #include <string>
 
@@ -78,6 +79,21 @@ TEST_CASE("sizes that overflow and memory beyond the machine are errors before a
   CHECK(run_sizes(p).memory_bytes() > 1e15);
   // the same scene fits where the memory does
   CHECK(error_of(p, 1e18).empty());
+}
+
+TEST_CASE("a side of two billion cells is refused in moments, not after minutes of absorber lookups") {
+  // the automatic absorber looks up the medium along each absorbing edge; it took one lookup a
+  // cell, 4e9 here (over a minute), before the memory rule could refuse the grid
+  const auto t0 = std::chrono::steady_clock::now();
+  const std::string e = error_of(scene("grid: {extent: [20 m, 1 mm], cell: 10 nm}\ntime: {stop: 1 ps}\n"
+                                       "media: {glass: {permittivity: 4}}\n"
+                                       "bodies: [{medium: glass, circle: {centre: [0, 0], radius: 0.1 mm}}]\n" +
+                                       kPoint),
+                                 64e9);
+  const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+  INFO(e);
+  CHECK(e.find("more than this machine allows") != std::string::npos);
+  CHECK(seconds < 5);
 }
 
 TEST_CASE("the machine's memory is the physical memory or a lower control-group limit") {
