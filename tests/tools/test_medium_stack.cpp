@@ -98,7 +98,7 @@ sources:
 )";
 
 std::string replaced(std::string s, const std::string& what, const std::string& with) {
-  for (size_t at; (at = s.find(what)) != std::string::npos;) s.replace(at, what.size(), with);
+  for (size_t at = 0; (at = s.find(what, at)) != std::string::npos; at += with.size()) s.replace(at, what.size(), with);
   return s;
 }
 
@@ -119,17 +119,17 @@ TEST_CASE("medium --stack: a glass slab at an oblique Bloch k_x against the Airy
       const double f = c["frequency_Hz"][k], s = kx * kC0 / (2 * ty::constants::pi * f);
       const auto [R, T] = airy(1, 2.25, 1, 100e-6, f, s, tm);
       worst = std::max({worst, std::abs(c["reflectance"][k] - R), std::abs(c["transmittance"][k] - T)});
-      CHECK(c["reflectance"][k] + c["transmittance"][k] == doctest::Approx(1).epsilon(1e-9));  // lossless
+      CHECK(c["reflectance"][k] + c["transmittance"][k] == doctest::Approx(1).epsilon(3e-8));  // lossless (8 digits each)
       CHECK(c[tm ? "R_Hz_Ez" : "R_Ez_Hz"][k] < 1e-20);  // isotropic: no cross-polarized reflection
     }
-    MESSAGE(pol << " wave: worst |R - R_Airy|, |T - T_Airy| = " << worst);
+    MESSAGE(std::string(pol) << " wave: worst |R - R_Airy|, |T - T_Airy| = " << worst);
     CHECK(worst < 1e-7);
     CHECK(out.find("layer 1: glass, 100 um") != std::string::npos);
   }
   // met from above: vacuum, the glass slab, then eps = 4 below it down through the absorber
   std::string down = replaced(kSlab, "POL", "Hz");
   down = replaced(down, "direction: +y, launch: {y: 0.2 mm}", "direction: -y, launch: {y: 0.9 mm}");
-  down = replaced(down, "bodies:\n", "bodies:\n  - {medium: dense, rectangle: {centre: [5 um, 0.25 mm], size: [1 mm, 0.5 mm]}}\n");
+  down = replaced(down, "bodies:\n", "bodies:\n  - {medium: dense, rectangle: {centre: [5 um, 0.275 mm], size: [1 mm, 0.55 mm]}}\n");
   const std::string scene = write_scene("terayee-stack-down.yaml", down);
   const std::string out = medium_stack(scene, "--from '0.6 THz' --to '1.4 THz' --count 5", csv);
   INFO(out);
@@ -168,9 +168,9 @@ TEST_CASE("medium --stack: the Otto bench's total internal reflection, its frust
     const auto [R, T] = airy(11.7, 1, 11.7, 30e-6, f, s, false);
     CHECK(s > 1);
     CHECK(s < n);
-    CHECK(c["reflectance"][k] == doctest::Approx(R).epsilon(1e-9));
-    CHECK(c["transmittance"][k] == doctest::Approx(T).epsilon(1e-9));
-    CHECK(c["reflectance"][k] + c["transmittance"][k] == doctest::Approx(1).epsilon(1e-9));
+    CHECK(c["reflectance"][k] == doctest::Approx(R).epsilon(3e-8));
+    CHECK(c["transmittance"][k] == doctest::Approx(T).epsilon(3e-8));
+    CHECK(c["reflectance"][k] + c["transmittance"][k] == doctest::Approx(1).epsilon(3e-8));
   }
   // the FeF2 bench itself: the dips the Otto study's test finds (4x4: 0.009 at 1548.0 GHz for +k_x,
   // 0.086 at 1611.0 GHz for -k_x; the other sign there 0.94, totally reflected but for the loss)
