@@ -111,6 +111,27 @@ Command add_crystals(CLI::App& app) {
           }};
 }
 
+/// `medium --stack`: the options that describe one medium are the scene's here; all refused at once.
+template <class Options>
+int medium_stack(Options& o, CLI::App& md) {
+  std::string refused;
+  for (const char* name : {"--medium", "--body", "--angle", "--normal", "--thickness", "--waist", "--line-distance",
+                           "--incidence-index", "--source-distance", "--image-range", "--plot"})
+    if (md.get_option(name)->count() > 0) refused += std::string(refused.empty() ? "" : ", ") + name;
+  if (!refused.empty())
+    throw BadInput(fmt::format("terayee medium: error: --stack takes the media, the angle (the Bloch k_x) and the "
+                               "thicknesses from the scene: drop {}",
+                               refused));
+  const bool from = md.get_option("--from")->count() > 0, to = md.get_option("--to")->count() > 0;
+  if (from != to) throw BadInput("terayee medium: error: --stack takes both --from and --to, or neither");
+  if (from) {
+    o.from = quantity(o.from_text, Kind::frequency, "--from");
+    o.to = quantity(o.to_text, Kind::frequency, "--to");
+    if (!(o.to >= o.from) || o.from <= 0) throw BadInput("terayee medium: error: need 0 < --from <= --to");
+  }
+  return medium_stack_command(o);
+}
+
 Command add_medium(CLI::App& app) {
   struct Options : MediumOptions {
     std::string from_text, to_text, angle_text = "0", thickness_text = "0", waist_text = "0", source_text = "0",
@@ -119,14 +140,19 @@ Command add_medium(CLI::App& app) {
   auto o = std::make_shared<Options>();
   auto* md = app.add_subcommand("medium", "Linear-response properties of a medium of a scene under its bias");
   md->add_option("scene", o->scene, "Scene file (YAML)")->required()->check(CLI::ExistingFile);
-  md->add_option("--medium", o->medium, "Name of the medium (or give --body)");
+  md->add_option("--medium", o->medium, "Name of the medium (or give --body; required without --stack)");
   md->add_option("--body", o->body,
                  "A body of the scene, numbered from 1 as `check` lists them: its medium in the state that body "
                  "starts from (its own `order`, `state` or `order: reversed`: an antiferromagnetic domain)")
       ->check(CLI::PositiveNumber);
-  md->add_option("--from", o->from_text, "Lowest frequency, e.g. \"250 GHz\"")->required();
-  md->add_option("--to", o->to_text, "Highest frequency")->required();
-  md->add_option("--count", o->count, "Frequencies")->check(CLI::Range(1, 100000));
+  md->add_option("--from", o->from_text, "Lowest frequency, e.g. \"250 GHz\" (required without --stack)");
+  md->add_option("--to", o->to_text, "Highest frequency (required without --stack)");
+  auto* count = md->add_option("--count", o->count, "Frequencies")->check(CLI::Range(1, 100000));
+  md->add_flag("--stack", o->stack,
+               "Instead of one medium, the layered stack the scene's plane wave meets (bodies across the whole width, "
+               "between the source's medium and the far side's), at the scene's Bloch k_x: R and T of both waves from "
+               "the 4x4 transfer matrix; frequencies by default those of the scene's first power-spectrum line, else "
+               "the sources' band");
   md->add_option("--angle", o->angle_text, "Angle of incidence from the normal, e.g. \"30 deg\"");
   md->add_option("--normal", o->normal, "Interface normal: x or y")->check(CLI::IsMember({"x", "y"}));
   md->add_option("--thickness", o->thickness_text, "Slab thickness (default: a half-space)");
@@ -147,7 +173,16 @@ Command add_medium(CLI::App& app) {
   md->add_option("--json", o->json, "Also write the results to this JSON file");
   md->add_option("--set", o->sets, "Override a scene value: key.path=value (repeatable)");
 
-  return {md, [o] {
+  return {md, [o, md, count] {
+            o->count_given = count->count() > 0;
+            if (o->stack) return medium_stack(*o, *md);
+            std::string missing;
+            for (const char* name : {"--from", "--to"})
+              if (md->get_option(name)->count() == 0) missing += std::string(missing.empty() ? "" : ", ") + name;
+            if (md->get_option("--medium")->count() == 0 && md->get_option("--body")->count() == 0)
+              missing += std::string(missing.empty() ? "" : ", ") + "--medium (or --body)";
+            if (!missing.empty())
+              throw BadInput(fmt::format("terayee medium: error: {} required (or --stack)", missing));
             o->from = quantity(o->from_text, Kind::frequency, "--from");
             o->to = quantity(o->to_text, Kind::frequency, "--to");
             o->angle = quantity(o->angle_text, Kind::angle, "--angle");

@@ -42,9 +42,13 @@ struct MediumOptions {
   std::string plot;          ///< also draw the table: FILE.png, .pdf or .svg
   bool polarization = false; ///< also print the Jones, Faraday and Kerr table
   int body = 0;              ///< 1, 2, ... as `check` numbers them: that body's medium and own state (0: none)
+  bool stack = false;        ///< the scene's layered stack instead of one medium (medium_stack.cpp)
   int count = 101;
+  bool count_given = false;
 };
 int medium_command(const MediumOptions& o);
+/// `medium SCENE --stack`: R and T of the stack the scene's plane wave meets (tools/medium_stack.cpp).
+int medium_stack_command(const MediumOptions& o);
 
 int measure_spectrum(const std::string& run, const std::string& reference, std::string reflected,
                      std::string transmitted);

@@ -2,7 +2,7 @@
 /// \brief `terayee render RUN --plot spectrum|probes|shift|focus`: line plots of what the
 /// run recorded and of what `terayee measure` wrote into the run folder:
 ///   spectrum  R, T and A against frequency (spectrum.csv), beside the transfer-matrix R and T
-///             of `terayee medium --csv` (--predicted), with the bands where the Ez wave's
+///             of `terayee medium --csv` or `medium --stack --csv` (--predicted), with the bands where the Ez wave's
 ///             effective permeability of the scene's magnetic media is negative shaded;
 ///   probes    each probe's recorded fields against time (one panel a field);
 ///   shift     the incident and reflected beams' intensity along the line (shift-profiles.csv),
@@ -62,10 +62,15 @@ int plot_spectrum(const RenderOptions& o, const std::string& dir) {
   if (!o.predicted.empty()) {
     const Table m = read_table(o.predicted, "`terayee medium ... --csv`");
     const auto fm = scaled(m.col("frequency_Hz", o.predicted), 1e-9);
-    std::vector<double> R = m.col("r_plus_abs", o.predicted);
-    for (double& r : R) r *= r;
+    // `medium --stack --csv` gives the stack's reflectance and transmittance; `medium --medium`
+    // the one medium's |r| and T at +angle
+    const bool stack = m.num.count("reflectance") > 0;
+    std::vector<double> R = m.col(stack ? "reflectance" : "r_plus_abs", o.predicted);
+    if (!stack)
+      for (double& r : R) r *= r;
     p.series.push_back({"R transfer matrix", fm, R, PlotSeries::Style::dashed, 0});
-    p.series.push_back({"T transfer matrix", fm, m.col("T_plus", o.predicted), PlotSeries::Style::dashed, 1});
+    p.series.push_back(
+        {"T transfer matrix", fm, m.col(stack ? "transmittance" : "T_plus", o.predicted), PlotSeries::Style::dashed, 1});
   }
   const Scene s = read_scene(o.run + "/scene.yaml");
   const int normal = power_spectrum_normal_axis(o.run);  // x unless a line says y
