@@ -9,7 +9,8 @@
 /// never tilt more than the interior's. The guard (solver/guard/growth_guard.h) stays quiet.
 /// The long version (5-50 um, pulsed and cw, 4 ns) is the skipped case "absorbers, long":
 ///   ./build/terayee_tests -tc="absorbers\, long*" --no-skip     (or tools/absorber-check.sh)
-/// TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="plate pulse 250" picks cases.
+/// TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="plate pulse 250" picks cases;
+/// TERAYEE_ABSORBER_TRACE=1 traces their tilts (print_trace below).
 #include <doctest/doctest.h>
 #include <fmt/format.h>
 
@@ -42,10 +43,11 @@ void print_trace(const AbsorberOutcome& o) {
       if (s.out > w.out) w.out = s.out, w.out_i = s.out_i, w.out_j = s.out_j;
       near = std::max(near, t.entrance[b]);
     }
-    MESSAGE(fmt::format(
-        "trace t {:.3f} ns: layer {:.3e} at ({},{}) depth {}, interior {:.3e} at ({},{}), "
-        "interior's last 4 columns {:.3e}",
-        (a + per) * o.trace_every * o.dt * 1e9, w.in, w.in_i, w.in_j, w.depth, w.out, w.out_i, w.out_j, near));
+    MESSAGE(
+        fmt::format("trace t {:.3f} ns: layer {:.3e} at ({},{}) depth {}, interior {:.3e} at ({},{}), "
+                    "interior's last 4 columns {:.3e}",
+                    std::min(a + per, t.samples.size()) * o.trace_every * o.dt * 1e9, w.in, w.in_i, w.in_j, w.depth,
+                    w.out, w.out_i, w.out_j, near));
   }
   std::string env;
   for (size_t i = 0; i < t.column.size(); ++i)
