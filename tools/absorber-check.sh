@@ -8,6 +8,9 @@
 # linear response (the issue's targets).
 #   tools/absorber-check.sh            all cells
 #   tools/absorber-check.sh 20 10      only these cells (um)
+# One case, traced (each region's largest tilt over time and where, the envelope along x):
+#   TERAYEE_ABSORBER_TRACE=1 TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="plate cw 275" \
+#     build/terayee_tests -tc="absorbers\, long*" --no-skip -s
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 tests="${TERAYEE_TESTS:-$root/build/terayee_tests}"

@@ -11,6 +11,7 @@
 #include "solver/guard/growth_guard.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
+#include "tests/solver/absorber_trace.h"
 
 namespace ty::test {
 
@@ -23,15 +24,22 @@ struct AbsorberCase {
   Absorber::Kind kind = Absorber::Kind::automatic;
   double damping = 1e-4;
   double step_fraction = 0.95;
+  int trace = 0;  ///< samples a period of the tilt trace (absorber_trace.h); 0: no trace
 };
 
 struct AbsorberOutcome {
-  double rise = 0;        ///< largest rise of the period-averaged scheme energy (below) over its earlier minimum, relative
+  double rise = 0;  ///< largest rise of the period-averaged scheme energy (below) over its earlier minimum, relative
   double rise_plain = 0;  ///< the same for the plain sum field_energy() + magnetic_energy() (E at n+1, H at n+1/2)
-  double tilt_in = 0, tilt_out = 0;  ///< largest tilt inside / outside the absorbing layers, rad
+  /// largest tilt inside / outside the absorbing layers over the run's last period (every
+  /// step), rad: each region's peak whatever the phase the run ends at
+  double tilt_in = 0, tilt_out = 0;
   double energy_end = 0, injected = 0;  ///< J/m
   std::string guard;                    ///< the guard's error, if it fired
   long guard_step = 0, steps = 0;
+  double dt = 0;
+  int npx = 0;
+  long trace_every = 0;  ///< steps between the trace's samples
+  TiltTrace trace;       ///< when AbsorberCase::trace > 0; its column envelope over the last quarter of the run
 };
 
 inline Scene absorber_scene(const AbsorberCase& c) {
@@ -112,12 +120,15 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
   GrowthGuard<double> guard(sim);
   AbsorberOutcome out;
   out.steps = sim.total_steps();
+  out.dt = sim.grid().dt;
+  out.npx = sim.grid().npml_x;
   const long every = std::max(1L, sim.total_steps() / 100);
   const long quiet = c.cw ? sim.total_steps() : static_cast<long>((40e-12 + 4 * 20e-12) / sim.grid().dt);
   const long period = std::max(1L, static_cast<long>(std::lround(1 / (c.frequency * sim.grid().dt))));
   // the period average from 4 equally spaced samples: exact for the plain sum's swing at
   // twice the frequency (the scheme energy has none), at a quarter of a step's cost per step
   const long sample = std::max(1L, period / 4);
+  if (c.trace > 0) out.trace_every = std::max(1L, period / c.trace);
   SchemeEnergy scheme;
   double acc[2] = {0, 0}, lowest[2] = {0, 0};
   long count = 0, samples = 0;
@@ -140,6 +151,16 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
         first = false, count = 0, samples = 0;
       }
     }
+    if (k + 1 >= sim.total_steps() - period) {  // the last period, both regions at every phase
+      const YeeGrid& g = sim.grid();
+      out.tilt_in = std::max(out.tilt_in, sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y));
+      out.tilt_out = std::max(out.tilt_out, sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y));
+    }
+    if (out.trace_every > 0 && (k + 1) % out.trace_every == 0) {
+      const YeeGrid& g = sim.grid();
+      if (k + 1 <= 3 * sim.total_steps() / 4) out.trace.column.assign(g.nx, 0.0);
+      out.trace.sample(sim.magnets(), g.nx, g.ny, g.npml_x, g.npml_y);
+    }
     if ((k + 1) % every == 0) {
       out.guard = guard.check(sim);
       if (!out.guard.empty()) {
@@ -149,8 +170,9 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
     }
   }
   const YeeGrid& g = sim.grid();
-  out.tilt_in = sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y);
-  out.tilt_out = sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y);
+  // and the state now (where the guard stopped the run before its last period)
+  out.tilt_in = std::max(out.tilt_in, sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y));
+  out.tilt_out = std::max(out.tilt_out, sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y));
   out.energy_end = sim.field_energy() + sim.magnetic_energy();
   out.injected = sim.injected_energy();
   return out;

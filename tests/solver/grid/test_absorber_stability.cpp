@@ -9,7 +9,8 @@
 /// never tilt more than the interior's. The guard (solver/guard/growth_guard.h) stays quiet.
 /// The long version (5-50 um, pulsed and cw, 4 ns) is the skipped case "absorbers, long":
 ///   ./build/terayee_tests -tc="absorbers\, long*" --no-skip     (or tools/absorber-check.sh)
-/// TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="plate pulse 250" picks cases.
+/// TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="plate pulse 250" picks cases;
+/// TERAYEE_ABSORBER_TRACE=1 traces their tilts (print_trace below).
 #include <doctest/doctest.h>
 #include <fmt/format.h>
 
@@ -21,20 +22,50 @@
 
 using namespace ty;
 using test::AbsorberCase;
+using test::AbsorberOutcome;
 using test::run_absorber_case;
+using test::TiltSample;
+using test::TiltTrace;
 
 namespace {
 
+/// TERAYEE_ABSORBER_TRACE=1: the tilts over time (each line the largest of its window of
+/// samples, 8 a period) and the envelope along x over the last quarter of the run.
+void print_trace(const AbsorberOutcome& o) {
+  const TiltTrace& t = o.trace;
+  const size_t per = std::max<size_t>(1, t.samples.size() / 40);
+  for (size_t a = 0; a < t.samples.size(); a += per) {
+    TiltSample w;
+    double near = 0;
+    for (size_t b = a; b < std::min(a + per, t.samples.size()); ++b) {
+      const TiltSample& s = t.samples[b];
+      if (s.in > w.in) w.in = s.in, w.in_i = s.in_i, w.in_j = s.in_j, w.depth = s.depth;
+      if (s.out > w.out) w.out = s.out, w.out_i = s.out_i, w.out_j = s.out_j;
+      near = std::max(near, t.entrance[b]);
+    }
+    MESSAGE(
+        fmt::format("trace t {:.3f} ns: layer {:.3e} at ({},{}) depth {}, interior {:.3e} at ({},{}), "
+                    "interior's last 4 columns {:.3e}",
+                    std::min(a + per, t.samples.size()) * o.trace_every * o.dt * 1e9, w.in, w.in_i, w.in_j, w.depth,
+                    w.out, w.out_i, w.out_j, near));
+  }
+  std::string env;
+  for (size_t i = 0; i < t.column.size(); ++i)
+    env += fmt::format("{}{}:{:.3e}", i % 6 ? "  " : "\n", static_cast<int>(i) - o.npx, t.column[i]);
+  MESSAGE("envelope over the last quarter, column (0: the extent's first; layers below 0 and from "
+          << t.column.size() - 2 * o.npx << "):" << env);
+}
+
 void check_quiet(const AbsorberCase& c) {
   const auto o = run_absorber_case(c);
+  if (c.trace > 0) print_trace(o);
   MESSAGE(fmt::format(
       "{} {:.4g} um {:.1f} GHz {}: {}, tilt in absorber {:.2e} rad, "
       "interior {:.2e} rad, energy end/injected {:.3g}, {} steps{}",
       c.plate ? "plate" : "half-space", c.cell * 1e6, c.frequency / 1e9, c.cw ? "cw" : "pulse",
       c.cw ? std::string("source on to the end (the guard bounds the energy by the sources' work)")
            : fmt::format("energy rise after the pulse {:.2e} (plain sum {:.2e})", o.rise, o.rise_plain),
-      o.tilt_in,
-      o.tilt_out, o.energy_end / o.injected, o.steps, o.guard.empty() ? "" : "; guard: " + o.guard));
+      o.tilt_in, o.tilt_out, o.energy_end / o.injected, o.steps, o.guard.empty() ? "" : "; guard: " + o.guard));
   CHECK(o.guard.empty());
   // the leapfrog's own energy with the magnets' from their deviations (absorber_cases.h,
   // test_absorber_energy.cpp), averaged over each period: it fell at every period in every
@@ -42,6 +73,14 @@ void check_quiet(const AbsorberCase& c) {
   // and plate at 250 GHz, where the old measure "rose" 0.24 and 0.26); 1e-9 is room for the
   // rounding of the sums (1e4 nodes x 1e-16), not for growth
   if (!c.cw) CHECK(o.rise < 1e-9);
+  // each region's largest tilt over the run's last period (absorber_cases.h), not at the
+  // last step alone: in a cw run the largest cell's tilt swings over a period (8% in the
+  // interior of the 50 um plate at 275 GHz), so an instant compared the layer's peak phase
+  // with the interior's trough -- the 4% "excess" of the first long run (5.13e-7 / 4.94e-7).
+  // Traced (TERAYEE_ABSORBER_TRACE=1) that case is a steady pattern: over 1-4 ns the layer's
+  // largest holds at 5.42-5.31e-7 in its first cell, the interior's at 5.61-5.49e-7 three cells
+  // before it, the envelope falling monotonically into the layer (docs/method.md). Growth in
+  // the layer (a PML on a backward wave) would still cross the interior's: the same bound.
   CHECK(o.tilt_in <= o.tilt_out);
   CHECK(o.energy_end < o.injected);
 }
@@ -69,7 +108,8 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
     for (bool plate : {false, true})
       for (bool cw : {false, true})
         for (double f : {250e9, 262.5e9, 275e9}) {
-          const std::string name = fmt::format("{} {} {:g}", plate ? "plate" : "half-space", cw ? "cw" : "pulse", f / 1e9);
+          const std::string name =
+              fmt::format("{} {} {:g}", plate ? "plate" : "half-space", cw ? "cw" : "pulse", f / 1e9);
           bool wanted = true;
           for (size_t a = 0, b; a < pick.size(); a = b + 1) {
             b = std::min(pick.find(' ', a), pick.size());
@@ -82,6 +122,7 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
           c.plate = plate;
           c.cw = cw;
           c.stop = 4e-9;
+          if (std::getenv("TERAYEE_ABSORBER_TRACE")) c.trace = 8;  // samples a period
           check_quiet(c);
         }
 }
