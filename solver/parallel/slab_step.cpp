@@ -2,7 +2,8 @@
 /// \brief The row sweep over P ranks (slabs.h): each rank steps its own rows with the row
 /// kernels of simulation.cpp, trading halo rows with the ranks above and below, and makes
 /// the rows its recorders read whole before they record, so every rank's recorders (and
-/// rank 0's output) see exactly the fields a one-process run holds: the same bits.
+/// rank 0's output) see exactly the fields a one-process run holds: the same bits. Snapshot
+/// frames are taken by each rank from its own rows and written together (run_folder.cpp).
 ///
 /// One step on rank r (rows [lo, hi)), the halos derived from the curl stencil table:
 ///   post: receive E(hi) from above, send E(lo) below, receive H(lo-1) from below
@@ -58,22 +59,43 @@ void Simulation<R>::build_slabs() {
       if (c >= 0) rows.push_back(mag_.cj[c]);
   for (const auto& m : maps_)
     for (int b = 0; b < m.nj; ++b) rows.push_back(m.j0 + b * m.stride), rows.push_back(m.j0 + b * m.stride - 1);
-  std::sort(rows.begin(), rows.end());
-  rows.erase(std::unique(rows.begin(), rows.end()), rows.end());
-  recorder_rows_ = rows;
-  recorder_counts_.assign(ranks_, 0);
-  for (int j : rows) {  // a ghost row belongs to the rank whose halo lands in it
-    int owner = 0;
-    for (int r = 0; r < ranks_; ++r) {
+  const auto sorted = [](std::vector<int> v) {
+    std::sort(v.begin(), v.end());
+    v.erase(std::unique(v.begin(), v.end()), v.end());
+    return v;
+  };
+  const auto counts = [&](const std::vector<int>& rs) {
+    std::vector<int> c(ranks_, 0);
+    for (int j : rs) {  // a ghost row belongs to the rank whose halo lands in it
+      int owner = 0;
+      for (int r = 0; r < ranks_; ++r) {
+        int lo, hi;
+        parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
+        if ((j >= lo || r == 0) && (j < hi || r == ranks_ - 1)) owner = r;
+      }
+      c[owner] += static_cast<int>(6 * g_.stride * sizeof(R));
+    }
+    return c;
+  };
+  recorder_rows_ = sorted(rows);
+  recorder_counts_ = counts(recorder_rows_);
+  // Snapshots take each rank's own rows (snapshots.h, FrameRows) and need nothing gathered,
+  // but a Poynting frame's node average (node_average.h) reads the row below: on its step
+  // and the step before (E kept), each cut's lower row joins the gathered rows.
+  bool averages = false;
+  for (const auto& f : snaps_.plan.fields) averages = averages || f.poynting();
+  if (averages) {
+    for (int r = 0; r + 1 < ranks_; ++r) {
       int lo, hi;
       parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
-      if ((j >= lo || r == 0) && (j < hi || r == ranks_ - 1)) owner = r;
+      rows.push_back(hi - 1);
     }
-    recorder_counts_[owner] += static_cast<int>(6 * g_.stride * sizeof(R));
+    for (long s : snaps_.plan.steps) frame_steps_.push_back(s), frame_steps_.push_back(s - 1);
+    std::sort(frame_steps_.begin(), frame_steps_.end());
   }
-  recorder_buf_.assign(rows.size() * 6 * g_.stride, R(0));
-  for (long s : snaps_.plan.steps) whole_steps_.push_back(s), whole_steps_.push_back(s - 1);
-  std::sort(whole_steps_.begin(), whole_steps_.end());
+  frame_rows_ = sorted(rows);
+  frame_counts_ = counts(frame_rows_);
+  recorder_buf_.assign(frame_rows_.size() * 6 * g_.stride, R(0));
   bytes_ += (4 * n + recorder_buf_.size()) * sizeof(R);
   // gather_state's blocks: each rank's whole rows, the ghost rows -1 and ny with the first and last rank
   state_counts_.assign(ranks_, 0), work_counts_.assign(ranks_, 0), pole_counts_.assign(ranks_, 0);
@@ -91,29 +113,64 @@ void Simulation<R>::build_slabs() {
   build_magnetic_slabs();
 }
 
+namespace {
+template <class R>
+void pack_rows(R* const* f, const std::array<int, 3>& list, long at, long s, R* to) {
+  for (int q = 0; q < 3 && list[q] >= 0; ++q) std::memcpy(to + q * s, f[list[q]] + at, s * sizeof(R));
+}
+template <class R>
+void unpack_rows(R* const* f, const std::array<int, 3>& list, long at, long s, const R* from) {
+  for (int q = 0; q < 3 && list[q] >= 0; ++q) std::memcpy(f[list[q]] + at, from + q * s, s * sizeof(R));
+}
+}  // namespace
+
+// The copies of a Bloch pair (copy_ 0 and 1) exchange their own rows under their own tags.
+template <class R>
+void Simulation<R>::halo_post() {
+  const size_t bytes = halo_e_in_.size() * sizeof(R);
+  const int tag = 2 * copy_;
+  if (up_ >= 0) parallel::receive_bytes(halo_e_in_.data(), bytes, up_, kTagE + tag, halo_req_[0]);
+  if (down_ >= 0) {
+    pack_rows(fields().data(), kHaloE, g_.row_begin(row0_), g_.stride, halo_e_out_.data());
+    parallel::send_bytes(halo_e_out_.data(), bytes, down_, kTagE + tag, halo_req_[1]);
+    parallel::receive_bytes(halo_h_in_.data(), bytes, down_, kTagH + tag, halo_req_[2]);
+  }
+}
+
+template <class R>
+void Simulation<R>::halo_take_e() {
+  if (up_ < 0) return;
+  halo_req_[0].wait();
+  // row ny: the ghost row of a periodic seam
+  unpack_rows(fields().data(), kHaloE, g_.row_begin(row1_), g_.stride, halo_e_in_.data());
+}
+
+template <class R>
+void Simulation<R>::halo_send_h() {
+  if (up_ < 0) return;
+  pack_rows(fields().data(), kHaloH, g_.row_begin(row1_ - 1), g_.stride, halo_h_out_.data());
+  parallel::send_bytes(halo_h_out_.data(), halo_h_out_.size() * sizeof(R), up_, kTagH + 2 * copy_, halo_req_[3]);
+}
+
+template <class R>
+void Simulation<R>::halo_take_h() {
+  if (down_ < 0) return;
+  halo_req_[2].wait();
+  // row -1: the ghost row of a periodic seam
+  unpack_rows(fields().data(), kHaloH, g_.row_begin(row0_ - 1), g_.stride, halo_h_in_.data());
+}
+
+template <class R>
+void Simulation<R>::halo_done() {
+  halo_req_[1].wait();
+  halo_req_[3].wait();
+}
+
 template <class R>
 void Simulation<R>::step_slab() {
   compute_emitters();
-  const long s = g_.stride;
-  const size_t bytes = halo_e_in_.size() * sizeof(R);
-  auto pack = [&](const std::array<int, 3>& list, int j, R* to) {
-    for (int q = 0; q < 3 && list[q] >= 0; ++q)
-      std::memcpy(to + q * s, f_[list[q]].data() + g_.row_begin(j), s * sizeof(R));
-  };
-  auto unpack = [&](const std::array<int, 3>& list, int j, const R* from) {
-    for (int q = 0; q < 3 && list[q] >= 0; ++q)
-      std::memcpy(f_[list[q]].data() + g_.row_begin(j), from + q * s, s * sizeof(R));
-  };
-  if (up_ >= 0) parallel::receive_bytes(halo_e_in_.data(), bytes, up_, kTagE, halo_req_[0]);
-  if (down_ >= 0) {
-    pack(kHaloE, row0_, halo_e_out_.data());
-    parallel::send_bytes(halo_e_out_.data(), bytes, down_, kTagE, halo_req_[1]);
-    parallel::receive_bytes(halo_h_in_.data(), bytes, down_, kTagH, halo_req_[2]);
-  }
-  if (up_ >= 0) {
-    halo_req_[0].wait();
-    unpack(kHaloE, row1_, halo_e_in_.data());  // row ny is the ghost row of a periodic seam
-  }
+  halo_post();
+  halo_take_e();
   const int rows = row1_ - row0_;
 #pragma omp parallel num_threads(threads_)
   {
@@ -123,20 +180,14 @@ void Simulation<R>::step_slab() {
     if (b > a) h_row(b - 1);
 #pragma omp barrier
 #pragma omp master
-    if (up_ >= 0) {
-      pack(kHaloH, row1_ - 1, halo_h_out_.data());
-      parallel::send_bytes(halo_h_out_.data(), bytes, up_, kTagH, halo_req_[3]);
-    }
+    halo_send_h();
     if (a == row0_ && b > a) {  // the first block (the main thread's): E(lo) last, after the H halo
       for (int j = a; j < b - 1; ++j) {
         h_row(j);
         if (j > a) e_row(j);
       }
       if (b - 1 > a) e_row(b - 1);
-      if (down_ >= 0) {
-        halo_req_[2].wait();
-        unpack(kHaloH, row0_ - 1, halo_h_in_.data());  // row -1 is the ghost row of a periodic seam
-      }
+      halo_take_h();
       e_row(a);
     } else {
       for (int j = a; j < b - 1; ++j) {
@@ -146,38 +197,85 @@ void Simulation<R>::step_slab() {
       if (b > a) e_row(b - 1);
     }
   }
-  halo_req_[1].wait();
-  halo_req_[3].wait();
+  halo_done();
   ++n_;
+}
+
+/// step_slab with each row done for both copies of a Bloch pair, as step_pair does it in one
+/// process (bloch_pair.cpp): the x seam's ghosts are written inside a row (pair_h_row), so
+/// the cut between ranks, along x, needs only each copy's own halo rows.
+template <class R>
+void Simulation<R>::step_slab_pair() {
+  Simulation& t = *twin_;
+  compute_emitters();
+  t.compute_emitters();
+  halo_post(), t.halo_post();
+  halo_take_e(), t.halo_take_e();
+  const int rows = row1_ - row0_;
+#pragma omp parallel num_threads(threads_)
+  {
+    int a, b;
+    block_rows(rows, omp_get_thread_num(), omp_get_num_threads(), a, b);
+    a += row0_, b += row0_;
+    if (b > a) pair_h_row(b - 1);
+#pragma omp barrier
+#pragma omp master
+    halo_send_h(), t.halo_send_h();
+    const auto e_both = [&](int j) { e_row(j), t.e_row(j); };
+    if (a == row0_ && b > a) {  // the first block: E(lo) of both copies last, after their H halos
+      for (int j = a; j < b - 1; ++j) {
+        pair_h_row(j);
+        if (j > a) e_both(j);
+      }
+      if (b - 1 > a) e_both(b - 1);
+      halo_take_h(), t.halo_take_h();
+      e_both(a);
+    } else {
+      for (int j = a; j < b - 1; ++j) {
+        pair_h_row(j);
+        e_both(j);
+      }
+      if (b > a) e_both(b - 1);
+    }
+  }
+  halo_done(), t.halo_done();
+  ++n_;
+  ++t.n_;
 }
 
 template <class R>
 void Simulation<R>::gather_for_recorders(long k) {
-  if (std::binary_search(whole_steps_.begin(), whole_steps_.end(), k)) return gather_state();
-  if (recorder_rows_.empty()) return;
+  const bool frame = std::binary_search(frame_steps_.begin(), frame_steps_.end(), k);
+  gather_rows(frame ? frame_rows_ : recorder_rows_, frame ? frame_counts_ : recorder_counts_);
+  gather_recorder_cells();
+}
+
+template <class R>
+void Simulation<R>::gather_rows(const std::vector<int>& rows, const std::vector<int>& counts) {
+  if (rows.empty()) return;
   const long s = g_.stride;
   const auto mine = [&](int j) { return (j >= row0_ || rank_ == 0) && (j < row1_ || rank_ == ranks_ - 1); };
   R* buf = recorder_buf_.data();
   size_t at = 0;
-  for (int j : recorder_rows_) {
+  for (int j : rows) {
     if (mine(j))
       for (int c = 0; c < 6; ++c) std::memcpy(buf + at + c * s, f_[c].data() + g_.row_begin(j), s * sizeof(R));
     at += 6 * s;
   }
   // rows are sorted and slabs ascend with rank, so each rank's rows are one block in order
-  parallel::allgather_bytes(buf, recorder_counts_);
+  parallel::allgather_bytes(buf, counts);
   at = 0;
-  for (int j : recorder_rows_) {
+  for (int j : rows) {
     if (!mine(j))
       for (int c = 0; c < 6; ++c) std::memcpy(f_[c].data() + g_.row_begin(j), buf + at + c * s, s * sizeof(R));
     at += 6 * s;
   }
-  gather_recorder_cells();
 }
 
 template <class R>
 void Simulation<R>::gather_state() {
   if (ranks_ == 1) return;
+  if (twin_) twin_->gather_state();  // a Bloch pair's sine copy: its energy and work count too
   for (int c = 0; c < 6; ++c) parallel::allgather_bytes(f_[c].data(), state_counts_);
   parallel::allgather_bytes(injected_.data(), work_counts_);
   if (!disp_.empty()) {  // the oscillators' energy is part of what the guard and stop: auto watch
@@ -190,7 +288,14 @@ void Simulation<R>::gather_state() {
 #define TY_SLAB_STEP(R)                                    \
   template void Simulation<R>::build_slabs();              \
   template void Simulation<R>::step_slab();                \
+  template void Simulation<R>::step_slab_pair();           \
+  template void Simulation<R>::halo_post();                \
+  template void Simulation<R>::halo_take_e();              \
+  template void Simulation<R>::halo_send_h();              \
+  template void Simulation<R>::halo_take_h();              \
+  template void Simulation<R>::halo_done();                \
   template void Simulation<R>::gather_for_recorders(long); \
+  template void Simulation<R>::gather_rows(const std::vector<int>&, const std::vector<int>&); \
   template void Simulation<R>::gather_state();
 TY_SLAB_STEP(float)
 TY_SLAB_STEP(double)

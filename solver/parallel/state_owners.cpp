@@ -12,6 +12,8 @@
 ///   magnetic cells        the cells whose Hz node is in rows [lo, hi); the trailing zero of
 ///                         dM (entry count()) with rank 0
 ///   guard's work per row  rows [lo, hi)
+///   sine/...              a Bloch pair's sine copy: its arrays as the cosine copy's
+///   snapshots' kept E     the frame rows of rows [lo, hi) (each rank keeps only those: snapshots.h)
 ///   recorders, stop rule, clock: every rank holds the same values (slab_step.cpp gathers the
 ///                         rows they read), so rank 0 writes them
 /// A state array not named here has no owner over ranks: a logic error, so that new state
@@ -40,6 +42,7 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
     else if (b > a) parts.emplace_back(a, b);
   };
   const auto rows = [&](std::size_t per_row) { return Parts{{lo * per_row, hi * per_row}}; };
+  if (starts("sine/") && twin_) return twin_->owned_parts(name.substr(5), n, r, P);  // a Bloch pair's sine copy
   if (starts("fields/"))
     return {{static_cast<std::size_t>(g_.row_begin(first ? -1 : lo)),
              static_cast<std::size_t>(g_.row_begin(last ? g_.ny + 1 : hi))}};
@@ -61,6 +64,7 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
     if (first && n > cells) add(cells, n);
     return parts;
   }
+  if (name == "snapshots/E-before-frame") return snaps_.e_before_parts(FrameRows{lo, hi, true});  // snapshots.h
   for (const char* p : {"probes/", "power-spectra/", "spectral-maps/", "snapshots/", "clock/", "stop-rule/"})
     if (starts(p)) return first ? Parts{{0, n}} : Parts{};
   throw std::logic_error("state '" + name + "' has no owner over ranks (solver/parallel/state_owners.cpp)");
