@@ -262,6 +262,8 @@ class Simulation {
   std::vector<int> state_counts_, work_counts_, pole_counts_;  // gather_state's bytes per rank
   std::vector<int> frame_rows_, frame_counts_;  // on frame_steps_: the recorder rows and each cut's lower row
   std::vector<long> frame_steps_;  // steps a Poynting frame reads (its own and the one before)
+  std::vector<R> tensor_buf_;      // the tensor list's E, each rank's Ex then Ey nodes, in rank order
+  std::vector<int> tensor_counts_;  // bytes of them per rank
   parallel::MagnetHalo<R> mhalo_;  // magnetic cells over ranks (magnetic_slab_step.cpp)
   // Bloch sides (bloch.h): the sine copy, owned by the cosine copy and stepped with it
   std::unique_ptr<Simulation> twin_;
@@ -319,6 +321,11 @@ class Simulation {
   void halo_send_h();
   void halo_take_h();
   void halo_done();
+  /// The rotated tensors' list stepped over ranks (slab_step.cpp): its nodes' E after the
+  /// sweep gathered from their rows' ranks, then the whole list stepped on every rank alike.
+  void tensor_step_slab();
+  /// The tensor list's nodes of rank r's rows: Ex nodes [a[0], b[0]), Ey nodes [a[1], b[1]).
+  void tensor_rows(int r, long* a, long* b) const;
   /// Makes the recorders' rows (and on a Poynting frame's steps each cut's lower row) whole before step k's record.
   void gather_for_recorders(long k);
   /// Rows `rows` (sorted; `counts`: bytes of them per rank) whole on every rank (one allgather).

@@ -11,8 +11,8 @@
 # one step with a checkpoint that resumes to the same bits; a damaged checkpoint or one of
 # another scene is refused with exit status 2 over 2 ranks (no hang).
 #   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges, a Bloch
-#                                 half-space (the sine copy over ranks), and the magnetic bench (an
-#                                 MnF2 slab) with absorbing and with periodic y edges
+#                                 half-space (the sine copy over ranks), a rotated-tensor disc, and the
+#                                 magnetic bench (an MnF2 slab) with absorbing and with periodic y edges
 #   tools/mpi-check.sh SCENE...   these scenes instead
 #   tools/mpi-check.sh --if-built --quick   (the ctest case mpi_same_bits) 3 ranks only, and each
 #                                           scene stopped on 2 ranks, resumed on 3 and on one process;
@@ -46,6 +46,8 @@ else
   [ $quick -eq 1 ] || cases+=("$root/scenarios/gaas-reststrahlen.yaml|time.stop=2ps")
   # Bloch x sides: the sine copy's halo and state (sine/) over ranks, its power-spectrum line joined
   cases+=("$root/tests/data/bloch-half-space.yaml|time.stop=5ps")
+  # a rotated dispersive tensor (its list gathered and stepped whole on every rank) across the cuts
+  cases+=("$root/tests/data/ranks-tensor.yaml|")
   # magnetic cells across every cut: their halo (magnet_halo.h), probes and tilt snapshots
   magnets="$root/tests/data/ranks-magnets.yaml"
   cases+=("$magnets|")

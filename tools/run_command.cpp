@@ -269,12 +269,6 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
 void refuse_over_ranks(const Scene& scene) {
   const int P = parallel::size();
   std::vector<std::string> why;
-  for (const Body& b : scene.bodies)
-    if (const Medium& m = scene.media.at(b.medium); m.tensor && !m.tensor->diagonal_in_plane()) {
-      why.push_back(fmt::format("medium '{}' has rotated in-plane axes: its Ex-Ey step is not yet split over ranks",
-                                m.name));
-      break;
-    }
   bool magnets = false;
   for (const Body& b : scene.bodies) magnets = magnets || scene.media.at(b.medium).magnet.has_value();
   if ((scene.grid.bx == Boundary::bloch || scene.grid.by == Boundary::bloch) && magnets)

@@ -26,6 +26,27 @@ namespace ty {
 namespace {
 constexpr int kTagE = 11, kTagH = 12;
 constexpr auto kHaloE = parallel::halo_list(true), kHaloH = parallel::halo_list(false);
+
+std::vector<int> sorted(std::vector<int> v) {
+  std::sort(v.begin(), v.end());
+  v.erase(std::unique(v.begin(), v.end()), v.end());
+  return v;
+}
+
+/// Bytes of `rows` (sorted) per rank, `per_row` each; a ghost row belongs to the rank whose halo lands in it.
+std::vector<int> row_bytes(const std::vector<int>& rows, int ny, int P, int per_row) {
+  std::vector<int> c(P, 0);
+  for (int j : rows) {
+    int owner = 0;
+    for (int r = 0; r < P; ++r) {
+      int lo, hi;
+      parallel::slab_rows(ny, r, P, lo, hi);
+      if ((j >= lo || r == 0) && (j < hi || r == P - 1)) owner = r;
+    }
+    c[owner] += per_row;
+  }
+  return c;
+}
 }  // namespace
 
 template <class R>
@@ -59,23 +80,8 @@ void Simulation<R>::build_slabs() {
       if (c >= 0) rows.push_back(mag_.cj[c]);
   for (const auto& m : maps_)
     for (int b = 0; b < m.nj; ++b) rows.push_back(m.j0 + b * m.stride), rows.push_back(m.j0 + b * m.stride - 1);
-  const auto sorted = [](std::vector<int> v) {
-    std::sort(v.begin(), v.end());
-    v.erase(std::unique(v.begin(), v.end()), v.end());
-    return v;
-  };
   const auto counts = [&](const std::vector<int>& rs) {
-    std::vector<int> c(ranks_, 0);
-    for (int j : rs) {  // a ghost row belongs to the rank whose halo lands in it
-      int owner = 0;
-      for (int r = 0; r < ranks_; ++r) {
-        int lo, hi;
-        parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
-        if ((j >= lo || r == 0) && (j < hi || r == ranks_ - 1)) owner = r;
-      }
-      c[owner] += static_cast<int>(6 * g_.stride * sizeof(R));
-    }
-    return c;
+    return row_bytes(rs, g_.ny, ranks_, static_cast<int>(6 * g_.stride * sizeof(R)));
   };
   recorder_rows_ = sorted(rows);
   recorder_counts_ = counts(recorder_rows_);
@@ -111,6 +117,17 @@ void Simulation<R>::build_slabs() {
     state_counts_[r] = static_cast<int>((hi - lo) * g_.stride * sizeof(R));
   }
   build_magnetic_slabs();
+  if (tensor_.empty()) return;
+  // the tensor list is sorted by component, then by index (row-major): each rank's nodes are
+  // one run of Ex nodes and one of Ey nodes
+  tensor_counts_.assign(ranks_, 0);
+  for (int r = 0; r < ranks_; ++r) {
+    long a[2], b[2];
+    tensor_rows(r, a, b);
+    tensor_counts_[r] = static_cast<int>((b[0] - a[0] + b[1] - a[1]) * sizeof(R));
+  }
+  tensor_buf_.assign(tensor_.index.size(), R(0));
+  bytes_ += tensor_buf_.size() * sizeof(R);
 }
 
 namespace {
@@ -198,6 +215,7 @@ void Simulation<R>::step_slab() {
     }
   }
   halo_done();
+  tensor_step_slab();
   ++n_;
 }
 
@@ -241,6 +259,49 @@ void Simulation<R>::step_slab_pair() {
   halo_done(), t.halo_done();
   ++n_;
   ++t.n_;
+}
+
+template <class R>
+void Simulation<R>::tensor_rows(int r, long* a, long* b) const {
+  int lo, hi;
+  parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
+  const auto& I = tensor_.index;
+  const auto mid = I.begin() + std::count(tensor_.comp.begin(), tensor_.comp.end(), 0);  // the first Ey node
+  for (int c = 0; c < 2; ++c) {
+    const auto first = c == 0 ? I.begin() : mid, last = c == 0 ? mid : I.end();
+    a[c] = std::lower_bound(first, last, g_.row_begin(lo)) - I.begin();
+    b[c] = std::lower_bound(first, last, g_.row_begin(hi)) - I.begin();
+  }
+}
+
+/// The list of rotated-tensor nodes (tensor_cells.h) reads its nodes' neighbours across rows
+/// in each of its three passes; rather than trade each pass's values across the cuts, every
+/// rank gathers the E its rows' sweep left at every node of the list (one allgather of the
+/// list's values) and steps the whole list, so the list's state is the same on every rank
+/// (rank 0 writes it to a checkpoint) and every value is computed as in one process. The
+/// list's work is repeated on every rank, not split: cheap while the rotated bodies are a
+/// small part of the grid.
+template <class R>
+void Simulation<R>::tensor_step_slab() {
+  if (tensor_.empty()) return;
+  const auto F = fields();
+  auto each = [&](auto&& f) {  // f(list node, buffer slot, mine)
+    long at = 0;
+    for (int r = 0; r < ranks_; ++r) {
+      long a[2], b[2];
+      tensor_rows(r, a, b);
+      for (int c = 0; c < 2; ++c)
+        for (long q = a[c]; q < b[c]; ++q) f(q, at++, r == rank_);
+    }
+  };
+  each([&](long q, long at, bool mine) {
+    if (mine) tensor_buf_[at] = F[tensor_.comp[q]][tensor_.index[q]];
+  });
+  parallel::allgather_bytes(tensor_buf_.data(), tensor_counts_);
+  each([&](long q, long at, bool mine) {
+    if (!mine) F[tensor_.comp[q]][tensor_.index[q]] = tensor_buf_[at];
+  });
+  tensor_.step(F.data(), threads_);
 }
 
 template <class R>
@@ -294,6 +355,8 @@ void Simulation<R>::gather_state() {
   template void Simulation<R>::halo_send_h();              \
   template void Simulation<R>::halo_take_h();              \
   template void Simulation<R>::halo_done();                \
+  template void Simulation<R>::tensor_step_slab();         \
+  template void Simulation<R>::tensor_rows(int, long*, long*) const; \
   template void Simulation<R>::gather_for_recorders(long); \
   template void Simulation<R>::gather_rows(const std::vector<int>&, const std::vector<int>&); \
   template void Simulation<R>::gather_state();

@@ -14,6 +14,7 @@
 ///   guard's work per row  rows [lo, hi)
 ///   sine/...              a Bloch pair's sine copy: its arrays as the cosine copy's
 ///   snapshots' kept E     the frame rows of rows [lo, hi) (each rank keeps only those: snapshots.h)
+///   rotated tensors' list the same on every rank (slab_step.cpp steps it whole): rank 0
 ///   recorders, stop rule, clock: every rank holds the same values (slab_step.cpp gathers the
 ///                         rows they read), so rank 0 writes them
 /// A state array not named here has no owner over ranks: a logic error, so that new state
@@ -65,7 +66,8 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
     return parts;
   }
   if (name == "snapshots/E-before-frame") return snaps_.e_before_parts(FrameRows{lo, hi, true});  // snapshots.h
-  for (const char* p : {"probes/", "power-spectra/", "spectral-maps/", "snapshots/", "clock/", "stop-rule/"})
+  for (const char* p : {"probes/", "power-spectra/", "spectral-maps/", "snapshots/", "clock/", "stop-rule/",
+                        "media/tensor-"})
     if (starts(p)) return first ? Parts{{0, n}} : Parts{};
   throw std::logic_error("state '" + name + "' has no owner over ranks (solver/parallel/state_owners.cpp)");
 }

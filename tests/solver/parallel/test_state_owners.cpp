@@ -7,7 +7,8 @@
 /// a checkpoint holds the one-process arrays only when the parts are disjoint and cover every
 /// element. Checked for the bench over ranks (absorbing sides, probes, a line, a map,
 /// snapshots, a Poynting frame's kept E), a dispersive wafer, a magnetic slab (their per-node
-/// and per-cell lists) and a Bloch half-space (its sine copy's arrays, sine/).
+/// and per-cell lists), a Bloch half-space (its sine copy's arrays, sine/) and a rotated-tensor
+/// disc (its list, the same on every rank).
 #include <doctest/doctest.h>
 
 #include <algorithm>
@@ -21,9 +22,10 @@
 using namespace ty;
 
 TEST_CASE("checkpoint over ranks: the ranks' parts of every state array tile it exactly once") {
-  bool seen_psi_y = false, seen_poles = false, seen_cells = false, seen_kept_e = false, seen_sine = false;
+  bool seen_psi_y = false, seen_poles = false, seen_cells = false, seen_kept_e = false, seen_sine = false,
+       seen_tensor = false;
   for (const char* file : {"tests/data/ranks-bench.yaml", "scenarios/gaas-reststrahlen.yaml", "tests/data/mnf2-slab.yaml",
-                           "tests/data/bloch-half-space.yaml"}) {
+                           "tests/data/bloch-half-space.yaml", "tests/data/ranks-tensor.yaml"}) {
     const std::string path = std::string(TERAYEE_SOURCE_DIR) + "/" + file;
     const Scene scene = read_scene(path);
     Simulation<double> sim(scene, 1);
@@ -57,6 +59,7 @@ TEST_CASE("checkpoint over ranks: the ranks' parts of every state array tile it 
           seen_cells |= name == "magnets/m00";
           seen_kept_e |= name == "snapshots/E-before-frame";
           seen_sine |= name == "sine/fields/Ez";
+          seen_tensor |= name == "media/tensor-polarization";
         }
       });
     }
@@ -66,6 +69,7 @@ TEST_CASE("checkpoint over ranks: the ranks' parts of every state array tile it 
   CHECK(seen_cells);
   CHECK(seen_kept_e);
   CHECK(seen_sine);
+  CHECK(seen_tensor);
 }
 
 TEST_CASE("snapshots over ranks: the slabs' frame rows tile every frame exactly once") {
