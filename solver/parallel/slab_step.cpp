@@ -183,37 +183,44 @@ void Simulation<R>::halo_done() {
   halo_req_[3].wait();
 }
 
+namespace {
+/// A rank's sweep of rows [lo, hi) over the threads, the order of the header: every thread
+/// H of its block's last row; the main thread sends the H halo; the first block leaves E(lo)
+/// to the end, after the H halo has come (take_h). h(j), e(j): row j's updates (of one copy,
+/// or of both copies of a Bloch pair).
+template <class H, class E, class SendH, class TakeH>
+void sweep_slab(int lo, int hi, int threads, H&& h, E&& e, SendH&& send_h, TakeH&& take_h) {
+#pragma omp parallel num_threads(threads)
+  {
+    int a, b;
+    block_rows(hi - lo, omp_get_thread_num(), omp_get_num_threads(), a, b);
+    a += lo, b += lo;
+    if (b > a) h(b - 1);
+#pragma omp barrier
+#pragma omp master
+    send_h();
+    const bool first = a == lo && b > a;  // the main thread's block
+    for (int j = a; j < b - 1; ++j) {
+      h(j);
+      if (!first || j > a) e(j);
+    }
+    if (b - 1 > a || (!first && b > a)) e(b - 1);
+    if (first) {
+      take_h();
+      e(a);
+    }
+  }
+}
+}  // namespace
+
 template <class R>
 void Simulation<R>::step_slab() {
   compute_emitters();
   halo_post();
   halo_take_e();
-  const int rows = row1_ - row0_;
-#pragma omp parallel num_threads(threads_)
-  {
-    int a, b;
-    block_rows(rows, omp_get_thread_num(), omp_get_num_threads(), a, b);
-    a += row0_, b += row0_;
-    if (b > a) h_row(b - 1);
-#pragma omp barrier
-#pragma omp master
-    halo_send_h();
-    if (a == row0_ && b > a) {  // the first block (the main thread's): E(lo) last, after the H halo
-      for (int j = a; j < b - 1; ++j) {
-        h_row(j);
-        if (j > a) e_row(j);
-      }
-      if (b - 1 > a) e_row(b - 1);
-      halo_take_h();
-      e_row(a);
-    } else {
-      for (int j = a; j < b - 1; ++j) {
-        h_row(j);
-        e_row(j);
-      }
-      if (b > a) e_row(b - 1);
-    }
-  }
+  sweep_slab(
+      row0_, row1_, threads_, [&](int j) { h_row(j); }, [&](int j) { e_row(j); }, [&] { halo_send_h(); },
+      [&] { halo_take_h(); });
   halo_done();
   tensor_step_slab();
   ++n_;
@@ -229,33 +236,9 @@ void Simulation<R>::step_slab_pair() {
   t.compute_emitters();
   halo_post(), t.halo_post();
   halo_take_e(), t.halo_take_e();
-  const int rows = row1_ - row0_;
-#pragma omp parallel num_threads(threads_)
-  {
-    int a, b;
-    block_rows(rows, omp_get_thread_num(), omp_get_num_threads(), a, b);
-    a += row0_, b += row0_;
-    if (b > a) pair_h_row(b - 1);
-#pragma omp barrier
-#pragma omp master
-    halo_send_h(), t.halo_send_h();
-    const auto e_both = [&](int j) { e_row(j), t.e_row(j); };
-    if (a == row0_ && b > a) {  // the first block: E(lo) of both copies last, after their H halos
-      for (int j = a; j < b - 1; ++j) {
-        pair_h_row(j);
-        if (j > a) e_both(j);
-      }
-      if (b - 1 > a) e_both(b - 1);
-      halo_take_h(), t.halo_take_h();
-      e_both(a);
-    } else {
-      for (int j = a; j < b - 1; ++j) {
-        pair_h_row(j);
-        e_both(j);
-      }
-      if (b > a) e_both(b - 1);
-    }
-  }
+  sweep_slab(
+      row0_, row1_, threads_, [&](int j) { pair_h_row(j); }, [&](int j) { e_row(j), t.e_row(j); },
+      [&] { halo_send_h(), t.halo_send_h(); }, [&] { halo_take_h(), t.halo_take_h(); });
   halo_done(), t.halo_done();
   ++n_;
   ++t.n_;
