@@ -56,7 +56,8 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
   if (name == "guard/injected-work") return rows(1);
   if (name == "media/polarization" || name == "media/polarization-rate") {
     const int q0 = disp_.row_first[lo], q1 = disp_.row_first[hi];
-    return {{static_cast<std::size_t>(disp_.pole_first[q0]), static_cast<std::size_t>(disp_.pole_first[q1])}};
+    const auto a = static_cast<std::size_t>(disp_.pole_first[q0]), b = static_cast<std::size_t>(disp_.pole_first[q1]);
+    return a < b ? Parts{{a, b}} : Parts{};  // a rank without poles writes none
   }
   if (starts("magnets/")) {
     const std::size_t cells = static_cast<std::size_t>(mag_.count());

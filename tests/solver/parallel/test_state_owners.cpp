@@ -75,8 +75,9 @@ TEST_CASE("checkpoint over ranks: the ranks' parts of every state array tile it 
 TEST_CASE("snapshots over ranks: the slabs' frame rows tile every frame exactly once") {
   // the same rule for frames (HDF5 collective writes, as above): each frame row written by one rank
   SnapshotField f;
-  for (const auto& [j0, nj, stride] : {std::tuple{0, 10, 1}, std::tuple{3, 7, 3}, std::tuple{5, 1, 2}, std::tuple{2, 0, 1}})
+  for (const auto& shape : {std::tuple{0, 10, 1}, std::tuple{3, 7, 3}, std::tuple{5, 1, 2}, std::tuple{2, 0, 1}})
     for (int P : {1, 2, 3, 7}) {
+      const int j0 = std::get<0>(shape), nj = std::get<1>(shape), stride = std::get<2>(shape);
       f.j0 = j0, f.nj = nj, f.stride = stride;
       const int ny = 30;
       int next = 0;
@@ -84,7 +85,10 @@ TEST_CASE("snapshots over ranks: the slabs' frame rows tile every frame exactly 
         int lo, hi, b0, b1;
         parallel::slab_rows(ny, r, P, lo, hi);
         FrameRows{lo, hi, true}.of(f, b0, b1);
-        CAPTURE(j0), CAPTURE(stride), CAPTURE(P), CAPTURE(r);
+        CAPTURE(j0);
+        CAPTURE(stride);
+        CAPTURE(P);
+        CAPTURE(r);
         CHECK(b0 == next);  // in order, no gap, no overlap
         CHECK(b1 >= b0);
         for (int b = b0; b < b1; ++b) {  // each frame row's grid row is the rank's
