@@ -169,7 +169,7 @@ void Simulation<R>::e_row_update(int j, const double* ev) {
 
 template <class R>
 void Simulation<R>::step() {
-  if (ranks_ > 1) mag_.empty() ? step_slab() : step_magnetic_slab();
+  if (ranks_ > 1) twin_ ? step_slab_pair() : mag_.empty() ? step_slab() : step_magnetic_slab();
   else if (twin_) mag_.empty() ? step_pair() : step_pair_magnetic();
   else if (mag_.empty()) step_fused();
   else step_magnetic();
@@ -219,7 +219,8 @@ void Simulation<R>::record_whole() {
   auto value = [this](const std::string& field, long cell) { return magnetic_value(field, cell); };
   for (auto& m : maps_) m.record(k, total_steps_, F, g_, threads_);
   const std::vector<int> no_cells;
-  snaps_.record(k, F, g_, mag_.empty() ? no_cells : mag_.cell_of, value, sink_);
+  // over ranks each rank takes the frame rows of its own grid rows (slab_step.cpp)
+  snaps_.record(k, F, g_, mag_.empty() ? no_cells : mag_.cell_of, value, sink_, FrameRows{row0_, row1_, ranks_ > 1});
 }
 
 template <class R>

@@ -260,7 +260,10 @@ class Simulation {
   std::vector<int> recorder_counts_;  // bytes of them per rank
   std::vector<R> recorder_buf_;
   std::vector<int> state_counts_, work_counts_, pole_counts_;  // gather_state's bytes per rank
-  std::vector<long> whole_steps_;  // steps after which a recorder reads the whole grid (snapshots)
+  std::vector<int> frame_rows_, frame_counts_;  // on frame_steps_: the recorder rows and each cut's lower row
+  std::vector<long> frame_steps_;  // steps a Poynting frame reads (its own and the one before)
+  std::vector<R> tensor_buf_;      // the tensor list's E, each rank's Ex then Ey nodes, in rank order
+  std::vector<int> tensor_counts_;  // bytes of them per rank
   parallel::MagnetHalo<R> mhalo_;  // magnetic cells over ranks (magnetic_slab_step.cpp)
   // Bloch sides (bloch.h): the sine copy, owned by the cosine copy and stepped with it
   std::unique_ptr<Simulation> twin_;
@@ -309,8 +312,24 @@ class Simulation {
   void build_recorders(const StopPlan& plan);
   void build_slabs();
   void step_slab();
-  /// Makes the recorders' rows (or, on a snapshot's steps, every row) whole before step k's record.
+  /// A Bloch pair's step over ranks: step_slab's with each row done for both copies (step_pair).
+  void step_slab_pair();
+  /// step_slab's halo exchange in its parts (each copy of a pair its own messages): post the
+  /// E receive and send and the H receive; wait for E(hi); send H(hi-1); wait for H(lo-1); the sends.
+  void halo_post();
+  void halo_take_e();
+  void halo_send_h();
+  void halo_take_h();
+  void halo_done();
+  /// The rotated tensors' list stepped over ranks (slab_step.cpp): its nodes' E after the
+  /// sweep gathered from their rows' ranks, then the whole list stepped on every rank alike.
+  void tensor_step_slab();
+  /// The tensor list's nodes of rank r's rows: Ex nodes [a[0], b[0]), Ey nodes [a[1], b[1]).
+  void tensor_rows(int r, long* a, long* b) const;
+  /// Makes the recorders' rows (and on a Poynting frame's steps each cut's lower row) whole before step k's record.
   void gather_for_recorders(long k);
+  /// Rows `rows` (sorted; `counts`: bytes of them per rank) whole on every rank (one allgather).
+  void gather_rows(const std::vector<int>& rows, const std::vector<int>& counts);
   // magnetic cells over ranks (solver/parallel/magnetic_slab_step.cpp, magnet_halo.h)
   void build_magnetic_slabs();
   void step_magnetic_slab();

@@ -2,7 +2,8 @@
 /// \brief `terayee check SCENE --ranks P`: how a run over P MPI ranks would cut the grid
 /// (slabs of whole rows, solver/parallel/slabs.h) and what crosses the cuts every step,
 /// with the communication time of a step on two typical networks (the model of
-/// docs/parallel.md: a message costs latency + bytes / bandwidth).
+/// docs/parallel.md: a message costs latency + bytes / bandwidth), and the memory per rank
+/// (each rank holds the whole arrays: as much as one process).
 #include <fmt/format.h>
 
 #include <algorithm>
@@ -10,6 +11,7 @@
 #include <tuple>
 
 #include "io/scene/scene_reader.h"
+#include "io/scene/validation.h"
 #include "solver/grid/yee_grid.h"
 #include "solver/parallel/magnet_halo.h"
 #include "solver/parallel/slabs.h"
@@ -52,6 +54,15 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
         std::tuple{"10 Gb Ethernet (20 us, 1.2 GB/s)", 20e-6, 1.2e9}})
     std::cout << fmt::format("  exposed halo time per step on {}: about {:.3g} us\n", name,
                              1e6 * (latency + rank_bytes / bandwidth));
+  // Every rank allocates the whole grid's arrays and updates only its rows: the memory is not split.
+  const RunSizes z = run_sizes(s);
+  const double whole = resident_bytes() + z.memory_bytes();
+  const double buffers = 4.0 * parallel::halo_components(true) * g.stride * b;  // halo rows out and in, E and H
+  std::cout << fmt::format(
+      "  memory per rank: about {:.1f} MB, as much as one process (every rank still holds the whole grid's "
+      "arrays; the work is split over the ranks, the memory is not), plus {:.3g} MB of halo rows and the "
+      "recorders' gathered rows; {} ranks on one node hold about {:.1f} MB there\n",
+      whole / 1e6, buffers / 1e6, P, P * whole / 1e6);
   if (fewest < parallel::kMinRowsPerRank)
     std::cout << fmt::format("  refused: a rank would hold {} row{}; {} ranks need at least {} rows\n", fewest,
                              fewest == 1 ? "" : "s", P, P * parallel::kMinRowsPerRank);

@@ -10,11 +10,12 @@
 # SIGTERM given to one rank of two (TERAYEE_KILL_AT=term:N, io/run/kill_point.h) stops both at
 # one step with a checkpoint that resumes to the same bits; a damaged checkpoint or one of
 # another scene is refused with exit status 2 over 2 ranks (no hang).
-#   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges, and the
+#   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges, a Bloch
+#                                 half-space (the sine copy over ranks), a rotated-tensor disc, and the
 #                                 magnetic bench (an MnF2 slab) with absorbing and with periodic y edges
 #   tools/mpi-check.sh SCENE...   these scenes instead
-#   tools/mpi-check.sh --if-built --quick   (the ctest case mpi_same_bits) 3 ranks only, and the
-#                                           bench stopped on 2 ranks, resumed on 3 and on one process;
+#   tools/mpi-check.sh --if-built --quick   (the ctest case mpi_same_bits) 3 ranks only, and each
+#                                           scene stopped on 2 ranks, resumed on 3 and on one process;
 #                                           exit 77, skipped, when build-mpi/ or mpirun is missing
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
@@ -43,6 +44,10 @@ else
   cases+=("$bench|grid.boundaries.y=periodic sources.0.beam.angle=0deg")
   # a dispersive (Lorentz) wafer on 8 rows with a periodic y seam: every rank's rows at the seam
   [ $quick -eq 1 ] || cases+=("$root/scenarios/gaas-reststrahlen.yaml|time.stop=2ps")
+  # Bloch x sides: the sine copy's halo and state (sine/) over ranks, its power-spectrum line joined
+  cases+=("$root/tests/data/bloch-half-space.yaml|time.stop=5ps")
+  # a rotated dispersive tensor (its list gathered and stepped whole on every rank) across the cuts
+  cases+=("$root/tests/data/ranks-tensor.yaml|")
   # magnetic cells across every cut: their halo (magnet_halo.h), probes and tilt snapshots
   magnets="$root/tests/data/ranks-magnets.yaml"
   cases+=("$magnets|")
@@ -85,6 +90,15 @@ resume_check() {
   fi
   ranks 3 run "$scene" "$@" -o "$work/$k-ck2" --resume --quiet
   same "$work/$k-one/fields.h5" "$work/$k-ck2/fields.h5" "$(basename "$scene") $* stopped on 2 ranks, resumed on 3"
+  if [ "$scene" = "$bench" ] && [ $# -eq 0 ]; then
+    # stopped where the first frame's Poynting field has E kept (snapshots.h): each rank
+    # holds and writes only its rows of it (state_owners.cpp); the frame step as snapshots.cpp
+    local frame
+    frame=$(jq '((2e-12 / ."time-step-s") - 0.5 | ceil) - 1' "$work/$k-one/summary.json")
+    ranks 2 run "$scene" -o "$work/$k-ckS" --stop-at-step "$frame" --quiet
+    ranks 3 run "$scene" -o "$work/$k-ckS" --resume --quiet
+    same "$work/$k-one/fields.h5" "$work/$k-ckS/fields.h5" "$(basename "$scene") stopped on 2 ranks with E kept for a Poynting frame (step $frame), resumed on 3"
+  fi
   OMP_NUM_THREADS=2 "$bin" run "$scene" "$@" -o "$work/$k-ck2-on1" --resume --quiet
   same "$work/$k-one/fields.h5" "$work/$k-ck2-on1/fields.h5" "$(basename "$scene") $* stopped on 2 ranks, resumed as 1 process"
 }

@@ -38,6 +38,9 @@ class File {
   /// "Parallel HDF5"), and every call on it is collective (the same calls, with the same
   /// paths, shapes and attributes, on every rank); on one rank it is `create`.
   static File create_shared(const std::string& path);
+  /// An existing file opened read-write by every rank together (MPI-IO, as create_shared);
+  /// on one rank it is `open_rw`.
+  static File open_shared(const std::string& path);
   void flush();
   hid_t id() const { return h_.id(); }
 
@@ -70,6 +73,14 @@ class File {
   void remove(const std::string& path);
   void write_frame(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const float* data);
   void write_frame(const std::string& path, hsize_t frame, hsize_t ny, hsize_t nx, const double* data);
+  /// Rows [b0, b1) of frame `frame` of a [frames][ny][nx] series, as several ranks write it
+  /// together (a file from create_shared or open_shared): every rank calls it for every
+  /// frame, each with its own rows (possibly none), in one collective write; `data` holds the
+  /// whole frame's place, [ny][nx], with this rank's rows filled.
+  void write_frame_rows(const std::string& path, hsize_t frame, hsize_t b0, hsize_t b1, hsize_t ny, hsize_t nx,
+                        const float* data);
+  void write_frame_rows(const std::string& path, hsize_t frame, hsize_t b0, hsize_t b1, hsize_t ny, hsize_t nx,
+                        const double* data);
 
   void attribute(const std::string& object, const std::string& name, const std::string& value);
   void attribute(const std::string& object, const std::string& name, double value);
@@ -115,6 +126,11 @@ class File {
   template <class T>
   void parts_any(const std::string& path, hsize_t n, const T* data, const Parts& parts, hid_t type);
   bool shared_ = false;  ///< created by create_shared over several ranks: collective transfers
+  template <class T>
+  void frame_rows_any(const std::string& path, hsize_t frame, hsize_t b0, hsize_t b1, hsize_t ny, hsize_t nx,
+                      const T* data, hid_t type);
+  /// H5Dwrite of the selections, collective on a shared file (every rank calls it).
+  void write_selected(hid_t set, hid_t type, hid_t mem, hid_t space, const void* data, const std::string& path);
   template <class T>
   void read_frame_any(const std::string& path, hsize_t frame, std::vector<T>& out, hid_t type) const;
   template <class T>

@@ -6,6 +6,8 @@
 /// file (a union of hyperslabs). Creating datasets and attributes is collective metadata
 /// work: every rank makes the same calls. This and solver/parallel/ranks.cpp are the only
 /// files that name MPI (here only its world communicator, which MPI-IO needs).
+/// Snapshot frames (run_folder.cpp) go through the same collective write, each rank
+/// selecting the frame rows its grid rows hold (write_frame_rows).
 /// On one rank, or in a build without MPI, the same calls write a plain file.
 #include <fmt/format.h>
 
@@ -64,13 +66,61 @@ void File::parts_any(const std::string& path, hsize_t n, const T* data, const Pa
       any = true;
     }
     if (!any) H5Sselect_none(space.id()), H5Sselect_none(mem.id());
-    Handle xfer(check(H5Pcreate(H5P_DATASET_XFER), "plist"), H5Pclose);
-#ifdef TERAYEE_MPI
-    if (shared_) check(H5Pset_dxpl_mpio(xfer.id(), H5FD_MPIO_COLLECTIVE), "collective transfer");
-#endif
-    check(H5Dwrite(set.id(), type, mem.id(), space.id(), xfer.id(), data), "cannot write " + path + " in " + name_);
+    write_selected(set.id(), type, mem.id(), space.id(), data, path);
   }
   attribute(path, "units", "");
+}
+
+void File::write_selected(hid_t set, hid_t type, hid_t mem, hid_t space, const void* data, const std::string& path) {
+  Handle xfer(check(H5Pcreate(H5P_DATASET_XFER), "plist"), H5Pclose);
+#ifdef TERAYEE_MPI
+  if (shared_) check(H5Pset_dxpl_mpio(xfer.id(), H5FD_MPIO_COLLECTIVE), "collective transfer");
+#endif
+  check(H5Dwrite(set, type, mem, space, xfer.id(), data), "cannot write " + path + " in " + name_);
+}
+
+File File::open_shared(const std::string& path) {
+  if (parallel::size() == 1) return open_rw(path);
+  File f;
+  f.name_ = path;
+  f.shared_ = true;
+  Handle fapl(check(H5Pcreate(H5P_FILE_ACCESS), "plist"), H5Pclose);
+#ifdef TERAYEE_MPI
+  check(H5Pset_fapl_mpio(fapl.id(), MPI_COMM_WORLD, MPI_INFO_NULL), "cannot use MPI-IO for " + path);
+#endif
+  f.h_ = Handle(check(H5Fopen(path.c_str(), H5F_ACC_RDWR, fapl.id()), "cannot open " + path), H5Fclose);
+  return f;
+}
+
+/// The frame's rows [b0, b1): the same hyperslab in the frame's place in memory and in the
+/// file's frame (every rank selects its own rows, or none, and all write together).
+template <class T>
+void File::frame_rows_any(const std::string& path, hsize_t frame, hsize_t b0, hsize_t b1, hsize_t ny, hsize_t nx,
+                          const T* data, hid_t type) {
+  if (b0 > b1 || b1 > ny)
+    throw std::logic_error(fmt::format("write_frame_rows: rows [{}, {}) of {} in {}", b0, b1, ny, path));
+  Handle set(check(H5Dopen2(id(), path.c_str(), H5P_DEFAULT), "cannot open " + path), H5Dclose);
+  Handle space(check(H5Dget_space(set.id()), "dataspace"), H5Sclose);
+  const hsize_t whole[2] = {ny, nx};
+  Handle mem(check(H5Screate_simple(2, whole, nullptr), "dataspace"), H5Sclose);
+  if (b1 > b0 && nx > 0) {
+    const hsize_t fstart[3] = {frame, b0, 0}, fcount[3] = {1, b1 - b0, nx};
+    const hsize_t mstart[2] = {b0, 0}, mcount[2] = {b1 - b0, nx};
+    check(H5Sselect_hyperslab(space.id(), H5S_SELECT_SET, fstart, nullptr, fcount, nullptr), "hyperslab");
+    check(H5Sselect_hyperslab(mem.id(), H5S_SELECT_SET, mstart, nullptr, mcount, nullptr), "hyperslab");
+  } else {
+    H5Sselect_none(space.id()), H5Sselect_none(mem.id());
+  }
+  write_selected(set.id(), type, mem.id(), space.id(), data, path);
+}
+
+void File::write_frame_rows(const std::string& p, hsize_t f, hsize_t b0, hsize_t b1, hsize_t ny, hsize_t nx,
+                            const float* d) {
+  frame_rows_any(p, f, b0, b1, ny, nx, d, H5T_NATIVE_FLOAT);
+}
+void File::write_frame_rows(const std::string& p, hsize_t f, hsize_t b0, hsize_t b1, hsize_t ny, hsize_t nx,
+                            const double* d) {
+  frame_rows_any(p, f, b0, b1, ny, nx, d, H5T_NATIVE_DOUBLE);
 }
 
 void File::write_parts(const std::string& p, hsize_t n, const double* d, const Parts& s) {

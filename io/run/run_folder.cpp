@@ -12,6 +12,7 @@
 
 #include "io/run/atomic_file.h"
 #include "io/run/kill_point.h"
+#include "solver/parallel/ranks.h"
 
 #include "io/scene/diagnostics.h"
 
@@ -71,6 +72,8 @@ RunFolder::RunFolder(const std::string& dir, const Scene& scene, bool resume, bo
   write_text_atomically(path("scene.yaml"), resolved);
 }
 
+RunFolder::RunFolder(const std::string& dir, const Scene& scene, Follower) : dir_(dir), scene_(scene), root_(false) {}
+
 RunFolder::~RunFolder() {
   if (!done_) abandon();
 }
@@ -80,6 +83,29 @@ void RunFolder::begin(const YeeGrid& g, const SnapshotPlan& plan, bool single, c
   plan_ = plan;
   frames_planned_ = plan.steps.size();
   single_ = single;
+  if (parallel::size() == 1) return open_partial(g, plan, single, medium_map, map_nx, map_ny);
+  // Over ranks: rank 0 lays the file out (or checks it, resuming) alone and closes it; then
+  // every rank opens it through MPI-IO for the frames (a refusal on rank 0 ends every rank).
+  int failed = 0;  // 2: bad input, 1: a write error
+  std::string why;
+  if (root_) {
+    try {
+      open_partial(g, plan, single, medium_map, map_nx, map_ny);
+      h5_.reset();
+    } catch (const BadInput& e) {
+      failed = 2, why = e.what();
+    } catch (const std::exception& e) {
+      failed = 1, why = e.what();
+    }
+  }
+  failed = static_cast<int>(parallel::max_over_ranks(failed));
+  if (failed == 2) throw BadInput(root_ ? why : "another rank refused the partial results");
+  if (failed == 1) throw std::runtime_error(root_ ? why : "another rank could not write the partial results");
+  h5_ = std::make_unique<h5::File>(h5::File::open_shared(path(kPartial)));
+}
+
+void RunFolder::open_partial(const YeeGrid& g, const SnapshotPlan& plan, bool single,
+                             const std::vector<int>& medium_map, int map_nx, int map_ny) {
   if (resume_) {  // the datasets exist; frames go on where the checkpoint left them
     h5_ = std::make_unique<h5::File>(h5::File::open_rw(path(kPartial)));
     // read back from disk: each series must still be there with this run's frames and nodes
@@ -133,6 +159,16 @@ void RunFolder::frame(std::size_t k, double, std::size_t field, const float* dat
 void RunFolder::frame(std::size_t k, double, std::size_t field, const double* data) {
   const auto& sf = plan_.fields[field];
   h5_->write_frame("/snapshots/" + sf.name, k, sf.nj, sf.ni, data);
+}
+
+void RunFolder::frame_rows(std::size_t k, std::size_t field, int b0, int b1, const float* data) {
+  const auto& sf = plan_.fields[field];
+  h5_->write_frame_rows("/snapshots/" + sf.name, k, b0, b1, sf.nj, sf.ni, data);
+}
+
+void RunFolder::frame_rows(std::size_t k, std::size_t field, int b0, int b1, const double* data) {
+  const auto& sf = plan_.fields[field];
+  h5_->write_frame_rows("/snapshots/" + sf.name, k, b0, b1, sf.nj, sf.ni, data);
 }
 
 namespace {
@@ -232,8 +268,14 @@ void write_probes(h5::File& f, const std::vector<ProbeRecorder>& probes, double 
 void RunFolder::finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
                        const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary) {
   // The closing datasets go into a copy, so the partial file stays as the checkpoint
-  // knows it until fields.h5 is in place (a kill here leaves a run that resumes).
+  // knows it until fields.h5 is in place (a kill here leaves a run that resumes). Over
+  // ranks every rank closes its side of the frames first, and rank 0 goes on alone.
   h5_.reset();
+  if (parallel::size() > 1) parallel::barrier();
+  if (!root_) {
+    done_ = true;
+    return;
+  }
   const std::string result = path("fields.h5"), tmp = temporary_name(result);
   fs::copy_file(path(kPartial), tmp, fs::copy_options::overwrite_existing);
   h5_ = std::make_unique<h5::File>(h5::File::open_rw(tmp));
@@ -288,6 +330,10 @@ void RunFolder::keep() {
 
 void RunFolder::abandon() {
   h5_.reset();
+  if (!root_) {
+    done_ = true;
+    return;
+  }
   std::error_code ec;
   discard_temporary(temporary_name(path("fields.h5")));
   // Partial results are kept for the checkpoint they go with; without one they are no use.

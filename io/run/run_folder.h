@@ -3,7 +3,9 @@
 /// summary.json and log.txt. Results are written under temporary names and put in
 /// place (io/run/atomic_file.h) only when the run completes, so an interrupted or
 /// failed run never leaves files that look like results; the checkpoint and the
-/// partial results it goes with are removed only after every result is in place.
+/// partial results it goes with are removed only after every result is in place. Over MPI
+/// ranks every rank writes its rows of the snapshot frames into the one file (parallel
+/// HDF5, collective writes); rank 0 writes everything else.
 #pragma once
 #include <memory>
 #include <string>
@@ -27,6 +29,12 @@ class RunFolder : public SnapshotSink {
   /// nothing else). With `resume`, the folder must hold a stopped run of the same
   /// resolved scene instead; one stopped before its first checkpoint starts again.
   RunFolder(const std::string& dir, const Scene& scene, bool resume = false, bool overwrite = false);
+  /// Over MPI ranks, the other ranks' side of rank 0's run folder: it touches no file of its
+  /// own, but opens fields.h5's partial file with every rank (begin) and writes its rows of
+  /// each snapshot frame in the collective writes (frame_rows); every call that rank 0 makes
+  /// on its folder, the others make on theirs.
+  struct Follower {};
+  RunFolder(const std::string& dir, const Scene& scene, Follower);
   ~RunFolder() override;
 
   const std::string& dir() const { return dir_; }
@@ -41,6 +49,8 @@ class RunFolder : public SnapshotSink {
   void keep();
   void frame(std::size_t frame, double time, std::size_t field, const float* data) override;
   void frame(std::size_t frame, double time, std::size_t field, const double* data) override;
+  void frame_rows(std::size_t frame, std::size_t field, int b0, int b1, const float* data) override;
+  void frame_rows(std::size_t frame, std::size_t field, int b0, int b1, const double* data) override;
   /// Writes the probes, closes the HDF5 file, renames it, writes fields.xmf and summary.json.
   void finish(const std::vector<ProbeRecorder>& probes, const std::vector<PowerSpectrumRecorder>& power_spectra,
               const std::vector<SpectralMap>& maps, double dt, const nlohmann::json& summary);
@@ -62,7 +72,10 @@ class RunFolder : public SnapshotSink {
   bool single_ = false;
   bool done_ = false;
   bool resume_ = false;
+  bool root_ = true;  ///< rank 0's folder (or one process): the one that writes files
   void write_xdmf() const;
+  void open_partial(const YeeGrid& g, const SnapshotPlan& plan, bool single, const std::vector<int>& medium_map,
+                    int map_nx, int map_ny);
 };
 
 }  // namespace ty

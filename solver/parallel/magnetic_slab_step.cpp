@@ -211,6 +211,7 @@ void Simulation<R>::step_magnetic_slab() {
     if (j1 > j0) e_row(j0);
   }
   for (int k = 5; k < 10; ++k) mhalo_.req[k].wait();
+  tensor_step_slab();  // as step_magnetic: the rotated tensors after the sweep (slab_step.cpp)
   ++n_;
   M.latest = MagneticCells::newest(n_);
 }

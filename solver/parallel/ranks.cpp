@@ -48,7 +48,10 @@ void receive_bytes(void* data, std::size_t n, int peer, int tag, Request& r) {
   MPI_Irecv(data, static_cast<int>(n), MPI_BYTE, peer, tag, MPI_COMM_WORLD, req(r));
   r.set_pending();
 }
+long g_gathered = 0;
+long gathered_bytes() { return g_gathered; }
 void allgather_bytes(void* all, const std::vector<int>& counts) {
+  g_gathered += std::accumulate(counts.begin(), counts.end(), 0L) - counts[g_rank];
   std::vector<int> displs(counts.size(), 0);
   std::partial_sum(counts.begin(), counts.end() - 1, displs.begin() + 1);
   MPI_Allgatherv(MPI_IN_PLACE, 0, MPI_DATATYPE_NULL, all, counts.data(), displs.data(), MPI_BYTE, MPI_COMM_WORLD);
@@ -83,6 +86,7 @@ void receive_bytes(void*, std::size_t, int, int, Request&) {
   throw std::logic_error("receive_bytes: one rank has no peer");
 }
 void allgather_bytes(void*, const std::vector<int>&) {}
+long gathered_bytes() { return 0; }
 long max_over_ranks(long v) { return v; }
 void broadcast_bytes(void*, std::size_t, int) {}
 void barrier() {}

@@ -51,6 +51,9 @@ void receive_bytes(void* data, std::size_t n, int peer, int tag, Request& r);
 /// Every rank's block of `counts[r]` bytes, laid end to end in rank order (in place: the
 /// caller's block already sits at its offset in `all`).
 void allgather_bytes(void* all, const std::vector<int>& counts);
+/// Bytes this rank has received from the others through allgather_bytes so far (the
+/// recorders' rows and the whole-grid gathers: what the run log reports over ranks).
+long gathered_bytes();
 /// The largest of every rank's value.
 long max_over_ranks(long v);
 /// Rank `root`'s bytes, to every rank.

@@ -2,7 +2,8 @@
 /// \brief The row sweep over P ranks (slabs.h): each rank steps its own rows with the row
 /// kernels of simulation.cpp, trading halo rows with the ranks above and below, and makes
 /// the rows its recorders read whole before they record, so every rank's recorders (and
-/// rank 0's output) see exactly the fields a one-process run holds: the same bits.
+/// rank 0's output) see exactly the fields a one-process run holds: the same bits. Snapshot
+/// frames are taken by each rank from its own rows and written together (run_folder.cpp).
 ///
 /// One step on rank r (rows [lo, hi)), the halos derived from the curl stencil table:
 ///   post: receive E(hi) from above, send E(lo) below, receive H(lo-1) from below
@@ -25,6 +26,27 @@ namespace ty {
 namespace {
 constexpr int kTagE = 11, kTagH = 12;
 constexpr auto kHaloE = parallel::halo_list(true), kHaloH = parallel::halo_list(false);
+
+std::vector<int> sorted(std::vector<int> v) {
+  std::sort(v.begin(), v.end());
+  v.erase(std::unique(v.begin(), v.end()), v.end());
+  return v;
+}
+
+/// Bytes of `rows` (sorted) per rank, `per_row` each; a ghost row belongs to the rank whose halo lands in it.
+std::vector<int> row_bytes(const std::vector<int>& rows, int ny, int P, int per_row) {
+  std::vector<int> c(P, 0);
+  for (int j : rows) {
+    int owner = 0;
+    for (int r = 0; r < P; ++r) {
+      int lo, hi;
+      parallel::slab_rows(ny, r, P, lo, hi);
+      if ((j >= lo || r == 0) && (j < hi || r == P - 1)) owner = r;
+    }
+    c[owner] += per_row;
+  }
+  return c;
+}
 }  // namespace
 
 template <class R>
@@ -58,22 +80,28 @@ void Simulation<R>::build_slabs() {
       if (c >= 0) rows.push_back(mag_.cj[c]);
   for (const auto& m : maps_)
     for (int b = 0; b < m.nj; ++b) rows.push_back(m.j0 + b * m.stride), rows.push_back(m.j0 + b * m.stride - 1);
-  std::sort(rows.begin(), rows.end());
-  rows.erase(std::unique(rows.begin(), rows.end()), rows.end());
-  recorder_rows_ = rows;
-  recorder_counts_.assign(ranks_, 0);
-  for (int j : rows) {  // a ghost row belongs to the rank whose halo lands in it
-    int owner = 0;
-    for (int r = 0; r < ranks_; ++r) {
+  const auto counts = [&](const std::vector<int>& rs) {
+    return row_bytes(rs, g_.ny, ranks_, static_cast<int>(6 * g_.stride * sizeof(R)));
+  };
+  recorder_rows_ = sorted(rows);
+  recorder_counts_ = counts(recorder_rows_);
+  // Snapshots take each rank's own rows (snapshots.h, FrameRows) and need nothing gathered,
+  // but a Poynting frame's node average (node_average.h) reads the row below: on its step
+  // and the step before (E kept), each cut's lower row joins the gathered rows.
+  bool averages = false;
+  for (const auto& f : snaps_.plan.fields) averages = averages || f.poynting();
+  if (averages) {
+    for (int r = 0; r + 1 < ranks_; ++r) {
       int lo, hi;
       parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
-      if ((j >= lo || r == 0) && (j < hi || r == ranks_ - 1)) owner = r;
+      rows.push_back(hi - 1);
     }
-    recorder_counts_[owner] += static_cast<int>(6 * g_.stride * sizeof(R));
+    for (long s : snaps_.plan.steps) frame_steps_.push_back(s), frame_steps_.push_back(s - 1);
+    std::sort(frame_steps_.begin(), frame_steps_.end());
   }
-  recorder_buf_.assign(rows.size() * 6 * g_.stride, R(0));
-  for (long s : snaps_.plan.steps) whole_steps_.push_back(s), whole_steps_.push_back(s - 1);
-  std::sort(whole_steps_.begin(), whole_steps_.end());
+  frame_rows_ = sorted(rows);
+  frame_counts_ = counts(frame_rows_);
+  recorder_buf_.assign(frame_rows_.size() * 6 * g_.stride, R(0));
   bytes_ += (4 * n + recorder_buf_.size()) * sizeof(R);
   // gather_state's blocks: each rank's whole rows, the ghost rows -1 and ny with the first and last rank
   state_counts_.assign(ranks_, 0), work_counts_.assign(ranks_, 0), pole_counts_.assign(ranks_, 0);
@@ -89,95 +117,209 @@ void Simulation<R>::build_slabs() {
     state_counts_[r] = static_cast<int>((hi - lo) * g_.stride * sizeof(R));
   }
   build_magnetic_slabs();
+  if (tensor_.empty()) return;
+  // the tensor list is sorted by component, then by index (row-major): each rank's nodes are
+  // one run of Ex nodes and one of Ey nodes
+  tensor_counts_.assign(ranks_, 0);
+  for (int r = 0; r < ranks_; ++r) {
+    long a[2], b[2];
+    tensor_rows(r, a, b);
+    tensor_counts_[r] = static_cast<int>((b[0] - a[0] + b[1] - a[1]) * sizeof(R));
+  }
+  tensor_buf_.assign(tensor_.index.size(), R(0));
+  bytes_ += tensor_buf_.size() * sizeof(R);
 }
+
+namespace {
+template <class R>
+void pack_rows(R* const* f, const std::array<int, 3>& list, long at, long s, R* to) {
+  for (int q = 0; q < 3 && list[q] >= 0; ++q) std::memcpy(to + q * s, f[list[q]] + at, s * sizeof(R));
+}
+template <class R>
+void unpack_rows(R* const* f, const std::array<int, 3>& list, long at, long s, const R* from) {
+  for (int q = 0; q < 3 && list[q] >= 0; ++q) std::memcpy(f[list[q]] + at, from + q * s, s * sizeof(R));
+}
+}  // namespace
+
+// The copies of a Bloch pair (copy_ 0 and 1) exchange their own rows under their own tags.
+template <class R>
+void Simulation<R>::halo_post() {
+  const size_t bytes = halo_e_in_.size() * sizeof(R);
+  const int tag = 2 * copy_;
+  if (up_ >= 0) parallel::receive_bytes(halo_e_in_.data(), bytes, up_, kTagE + tag, halo_req_[0]);
+  if (down_ >= 0) {
+    pack_rows(fields().data(), kHaloE, g_.row_begin(row0_), g_.stride, halo_e_out_.data());
+    parallel::send_bytes(halo_e_out_.data(), bytes, down_, kTagE + tag, halo_req_[1]);
+    parallel::receive_bytes(halo_h_in_.data(), bytes, down_, kTagH + tag, halo_req_[2]);
+  }
+}
+
+template <class R>
+void Simulation<R>::halo_take_e() {
+  if (up_ < 0) return;
+  halo_req_[0].wait();
+  // row ny: the ghost row of a periodic seam
+  unpack_rows(fields().data(), kHaloE, g_.row_begin(row1_), g_.stride, halo_e_in_.data());
+}
+
+template <class R>
+void Simulation<R>::halo_send_h() {
+  if (up_ < 0) return;
+  pack_rows(fields().data(), kHaloH, g_.row_begin(row1_ - 1), g_.stride, halo_h_out_.data());
+  parallel::send_bytes(halo_h_out_.data(), halo_h_out_.size() * sizeof(R), up_, kTagH + 2 * copy_, halo_req_[3]);
+}
+
+template <class R>
+void Simulation<R>::halo_take_h() {
+  if (down_ < 0) return;
+  halo_req_[2].wait();
+  // row -1: the ghost row of a periodic seam
+  unpack_rows(fields().data(), kHaloH, g_.row_begin(row0_ - 1), g_.stride, halo_h_in_.data());
+}
+
+template <class R>
+void Simulation<R>::halo_done() {
+  halo_req_[1].wait();
+  halo_req_[3].wait();
+}
+
+namespace {
+/// A rank's sweep of rows [lo, hi) over the threads, the order of the header: every thread
+/// H of its block's last row; the main thread sends the H halo; the first block leaves E(lo)
+/// to the end, after the H halo has come (take_h). h(j), e(j): row j's updates (of one copy,
+/// or of both copies of a Bloch pair).
+template <class H, class E, class SendH, class TakeH>
+void sweep_slab(int lo, int hi, int threads, H&& h, E&& e, SendH&& send_h, TakeH&& take_h) {
+#pragma omp parallel num_threads(threads)
+  {
+    int a, b;
+    block_rows(hi - lo, omp_get_thread_num(), omp_get_num_threads(), a, b);
+    a += lo, b += lo;
+    if (b > a) h(b - 1);
+#pragma omp barrier
+#pragma omp master
+    send_h();
+    const bool first = a == lo && b > a;  // the main thread's block
+    for (int j = a; j < b - 1; ++j) {
+      h(j);
+      if (!first || j > a) e(j);
+    }
+    if (b - 1 > a || (!first && b > a)) e(b - 1);
+    if (first) {
+      take_h();
+      e(a);
+    }
+  }
+}
+}  // namespace
 
 template <class R>
 void Simulation<R>::step_slab() {
   compute_emitters();
-  const long s = g_.stride;
-  const size_t bytes = halo_e_in_.size() * sizeof(R);
-  auto pack = [&](const std::array<int, 3>& list, int j, R* to) {
-    for (int q = 0; q < 3 && list[q] >= 0; ++q)
-      std::memcpy(to + q * s, f_[list[q]].data() + g_.row_begin(j), s * sizeof(R));
-  };
-  auto unpack = [&](const std::array<int, 3>& list, int j, const R* from) {
-    for (int q = 0; q < 3 && list[q] >= 0; ++q)
-      std::memcpy(f_[list[q]].data() + g_.row_begin(j), from + q * s, s * sizeof(R));
-  };
-  if (up_ >= 0) parallel::receive_bytes(halo_e_in_.data(), bytes, up_, kTagE, halo_req_[0]);
-  if (down_ >= 0) {
-    pack(kHaloE, row0_, halo_e_out_.data());
-    parallel::send_bytes(halo_e_out_.data(), bytes, down_, kTagE, halo_req_[1]);
-    parallel::receive_bytes(halo_h_in_.data(), bytes, down_, kTagH, halo_req_[2]);
-  }
-  if (up_ >= 0) {
-    halo_req_[0].wait();
-    unpack(kHaloE, row1_, halo_e_in_.data());  // row ny is the ghost row of a periodic seam
-  }
-  const int rows = row1_ - row0_;
-#pragma omp parallel num_threads(threads_)
-  {
-    int a, b;
-    block_rows(rows, omp_get_thread_num(), omp_get_num_threads(), a, b);
-    a += row0_, b += row0_;
-    if (b > a) h_row(b - 1);
-#pragma omp barrier
-#pragma omp master
-    if (up_ >= 0) {
-      pack(kHaloH, row1_ - 1, halo_h_out_.data());
-      parallel::send_bytes(halo_h_out_.data(), bytes, up_, kTagH, halo_req_[3]);
-    }
-    if (a == row0_ && b > a) {  // the first block (the main thread's): E(lo) last, after the H halo
-      for (int j = a; j < b - 1; ++j) {
-        h_row(j);
-        if (j > a) e_row(j);
-      }
-      if (b - 1 > a) e_row(b - 1);
-      if (down_ >= 0) {
-        halo_req_[2].wait();
-        unpack(kHaloH, row0_ - 1, halo_h_in_.data());  // row -1 is the ghost row of a periodic seam
-      }
-      e_row(a);
-    } else {
-      for (int j = a; j < b - 1; ++j) {
-        h_row(j);
-        e_row(j);
-      }
-      if (b > a) e_row(b - 1);
-    }
-  }
-  halo_req_[1].wait();
-  halo_req_[3].wait();
+  halo_post();
+  halo_take_e();
+  sweep_slab(
+      row0_, row1_, threads_, [&](int j) { h_row(j); }, [&](int j) { e_row(j); }, [&] { halo_send_h(); },
+      [&] { halo_take_h(); });
+  halo_done();
+  tensor_step_slab();
   ++n_;
+}
+
+/// step_slab with each row done for both copies of a Bloch pair, as step_pair does it in one
+/// process (bloch_pair.cpp): the x seam's ghosts are written inside a row (pair_h_row), so
+/// the cut between ranks, along x, needs only each copy's own halo rows.
+template <class R>
+void Simulation<R>::step_slab_pair() {
+  Simulation& t = *twin_;
+  compute_emitters();
+  t.compute_emitters();
+  halo_post(), t.halo_post();
+  halo_take_e(), t.halo_take_e();
+  sweep_slab(
+      row0_, row1_, threads_, [&](int j) { pair_h_row(j); }, [&](int j) { e_row(j), t.e_row(j); },
+      [&] { halo_send_h(), t.halo_send_h(); }, [&] { halo_take_h(), t.halo_take_h(); });
+  halo_done(), t.halo_done();
+  ++n_;
+  ++t.n_;
+}
+
+template <class R>
+void Simulation<R>::tensor_rows(int r, long* a, long* b) const {
+  int lo, hi;
+  parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
+  const auto& I = tensor_.index;
+  const auto mid = I.begin() + std::count(tensor_.comp.begin(), tensor_.comp.end(), 0);  // the first Ey node
+  for (int c = 0; c < 2; ++c) {
+    const auto first = c == 0 ? I.begin() : mid, last = c == 0 ? mid : I.end();
+    a[c] = std::lower_bound(first, last, g_.row_begin(lo)) - I.begin();
+    b[c] = std::lower_bound(first, last, g_.row_begin(hi)) - I.begin();
+  }
+}
+
+/// The list of rotated-tensor nodes (tensor_cells.h) reads its nodes' neighbours across rows
+/// in each of its three passes; rather than trade each pass's values across the cuts, every
+/// rank gathers the E its rows' sweep left at every node of the list (one allgather of the
+/// list's values) and steps the whole list, so the list's state is the same on every rank
+/// (rank 0 writes it to a checkpoint) and every value is computed as in one process. The
+/// list's work is repeated on every rank, not split: cheap while the rotated bodies are a
+/// small part of the grid.
+template <class R>
+void Simulation<R>::tensor_step_slab() {
+  if (tensor_.empty()) return;
+  const auto F = fields();
+  auto each = [&](auto&& f) {  // f(list node, buffer slot, mine)
+    long at = 0;
+    for (int r = 0; r < ranks_; ++r) {
+      long a[2], b[2];
+      tensor_rows(r, a, b);
+      for (int c = 0; c < 2; ++c)
+        for (long q = a[c]; q < b[c]; ++q) f(q, at++, r == rank_);
+    }
+  };
+  each([&](long q, long at, bool mine) {
+    if (mine) tensor_buf_[at] = F[tensor_.comp[q]][tensor_.index[q]];
+  });
+  parallel::allgather_bytes(tensor_buf_.data(), tensor_counts_);
+  each([&](long q, long at, bool mine) {
+    if (!mine) F[tensor_.comp[q]][tensor_.index[q]] = tensor_buf_[at];
+  });
+  tensor_.step(F.data(), threads_);
 }
 
 template <class R>
 void Simulation<R>::gather_for_recorders(long k) {
-  if (std::binary_search(whole_steps_.begin(), whole_steps_.end(), k)) return gather_state();
-  if (recorder_rows_.empty()) return;
+  const bool frame = std::binary_search(frame_steps_.begin(), frame_steps_.end(), k);
+  gather_rows(frame ? frame_rows_ : recorder_rows_, frame ? frame_counts_ : recorder_counts_);
+  gather_recorder_cells();
+}
+
+template <class R>
+void Simulation<R>::gather_rows(const std::vector<int>& rows, const std::vector<int>& counts) {
+  if (rows.empty()) return;
   const long s = g_.stride;
   const auto mine = [&](int j) { return (j >= row0_ || rank_ == 0) && (j < row1_ || rank_ == ranks_ - 1); };
   R* buf = recorder_buf_.data();
   size_t at = 0;
-  for (int j : recorder_rows_) {
+  for (int j : rows) {
     if (mine(j))
       for (int c = 0; c < 6; ++c) std::memcpy(buf + at + c * s, f_[c].data() + g_.row_begin(j), s * sizeof(R));
     at += 6 * s;
   }
   // rows are sorted and slabs ascend with rank, so each rank's rows are one block in order
-  parallel::allgather_bytes(buf, recorder_counts_);
+  parallel::allgather_bytes(buf, counts);
   at = 0;
-  for (int j : recorder_rows_) {
+  for (int j : rows) {
     if (!mine(j))
       for (int c = 0; c < 6; ++c) std::memcpy(f_[c].data() + g_.row_begin(j), buf + at + c * s, s * sizeof(R));
     at += 6 * s;
   }
-  gather_recorder_cells();
 }
 
 template <class R>
 void Simulation<R>::gather_state() {
   if (ranks_ == 1) return;
+  if (twin_) twin_->gather_state();  // a Bloch pair's sine copy: its energy and work count too
   for (int c = 0; c < 6; ++c) parallel::allgather_bytes(f_[c].data(), state_counts_);
   parallel::allgather_bytes(injected_.data(), work_counts_);
   if (!disp_.empty()) {  // the oscillators' energy is part of what the guard and stop: auto watch
@@ -190,7 +332,16 @@ void Simulation<R>::gather_state() {
 #define TY_SLAB_STEP(R)                                    \
   template void Simulation<R>::build_slabs();              \
   template void Simulation<R>::step_slab();                \
+  template void Simulation<R>::step_slab_pair();           \
+  template void Simulation<R>::halo_post();                \
+  template void Simulation<R>::halo_take_e();              \
+  template void Simulation<R>::halo_send_h();              \
+  template void Simulation<R>::halo_take_h();              \
+  template void Simulation<R>::halo_done();                \
+  template void Simulation<R>::tensor_step_slab();         \
+  template void Simulation<R>::tensor_rows(int, long*, long*) const; \
   template void Simulation<R>::gather_for_recorders(long); \
+  template void Simulation<R>::gather_rows(const std::vector<int>&, const std::vector<int>&); \
   template void Simulation<R>::gather_state();
 TY_SLAB_STEP(float)
 TY_SLAB_STEP(double)

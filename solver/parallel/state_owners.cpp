@@ -12,6 +12,9 @@
 ///   magnetic cells        the cells whose Hz node is in rows [lo, hi); the trailing zero of
 ///                         dM (entry count()) with rank 0
 ///   guard's work per row  rows [lo, hi)
+///   sine/...              a Bloch pair's sine copy: its arrays as the cosine copy's
+///   snapshots' kept E     the frame rows of rows [lo, hi) (each rank keeps only those: snapshots.h)
+///   rotated tensors' list the same on every rank (slab_step.cpp steps it whole): rank 0
 ///   recorders, stop rule, clock: every rank holds the same values (slab_step.cpp gathers the
 ///                         rows they read), so rank 0 writes them
 /// A state array not named here has no owner over ranks: a logic error, so that new state
@@ -40,6 +43,7 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
     else if (b > a) parts.emplace_back(a, b);
   };
   const auto rows = [&](std::size_t per_row) { return Parts{{lo * per_row, hi * per_row}}; };
+  if (starts("sine/") && twin_) return twin_->owned_parts(name.substr(5), n, r, P);  // a Bloch pair's sine copy
   if (starts("fields/"))
     return {{static_cast<std::size_t>(g_.row_begin(first ? -1 : lo)),
              static_cast<std::size_t>(g_.row_begin(last ? g_.ny + 1 : hi))}};
@@ -52,7 +56,8 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
   if (name == "guard/injected-work") return rows(1);
   if (name == "media/polarization" || name == "media/polarization-rate") {
     const int q0 = disp_.row_first[lo], q1 = disp_.row_first[hi];
-    return {{static_cast<std::size_t>(disp_.pole_first[q0]), static_cast<std::size_t>(disp_.pole_first[q1])}};
+    const auto a = static_cast<std::size_t>(disp_.pole_first[q0]), b = static_cast<std::size_t>(disp_.pole_first[q1]);
+    return a < b ? Parts{{a, b}} : Parts{};  // a rank without poles writes none
   }
   if (starts("magnets/")) {
     const std::size_t cells = static_cast<std::size_t>(mag_.count());
@@ -61,7 +66,9 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
     if (first && n > cells) add(cells, n);
     return parts;
   }
-  for (const char* p : {"probes/", "power-spectra/", "spectral-maps/", "snapshots/", "clock/", "stop-rule/"})
+  if (name == "snapshots/E-before-frame") return snaps_.e_before_parts(FrameRows{lo, hi, true});  // snapshots.h
+  for (const char* p : {"probes/", "power-spectra/", "spectral-maps/", "snapshots/", "clock/", "stop-rule/",
+                        "media/tensor-"})
     if (starts(p)) return first ? Parts{{0, n}} : Parts{};
   throw std::logic_error("state '" + name + "' has no owner over ranks (solver/parallel/state_owners.cpp)");
 }

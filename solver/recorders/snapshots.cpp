@@ -5,7 +5,16 @@
 #include <algorithm>
 #include <cmath>
 
+#include <stdexcept>
+
 namespace ty {
+
+void SnapshotSink::frame_rows(std::size_t, std::size_t, int, int, const float*) {
+  throw std::logic_error("this snapshot sink takes whole frames only (not over MPI ranks)");
+}
+void SnapshotSink::frame_rows(std::size_t, std::size_t, int, int, const double*) {
+  throw std::logic_error("this snapshot sink takes whole frames only (not over MPI ranks)");
+}
 
 SnapshotPlan plan_snapshots(const Scene& s, const Output& o, const YeeGrid& g, long total_steps) {
   SnapshotPlan plan;

@@ -37,6 +37,25 @@ class SnapshotSink {
   virtual ~SnapshotSink() = default;
   virtual void frame(std::size_t frame, double time, std::size_t field, const float* data) = 0;
   virtual void frame(std::size_t frame, double time, std::size_t field, const double* data) = 0;
+  /// Over MPI ranks: rows [b0, b1) of the frame (`data` is the whole frame's place, those
+  /// rows filled), each rank its own rows; every rank calls it for every field of every frame.
+  virtual void frame_rows(std::size_t frame, std::size_t field, int b0, int b1, const float* data);
+  virtual void frame_rows(std::size_t frame, std::size_t field, int b0, int b1, const double* data);
+};
+
+/// The grid rows [lo, hi) a rank's recorders take frame rows from; `parts`: over ranks
+/// (frames go to SnapshotSink::frame_rows), else the whole grid (SnapshotSink::frame).
+struct FrameRows {
+  int lo = 0, hi = 1 << 30;
+  bool parts = false;
+  /// The frame rows [b0, b1) of field f whose grid rows j0 + b stride lie in [lo, hi).
+  void of(const SnapshotField& f, int& b0, int& b1) const {
+    const auto first_at = [&](int j) {
+      const int b = j <= f.j0 ? 0 : (j - f.j0 + f.stride - 1) / f.stride;
+      return b < f.nj ? b : f.nj;
+    };
+    b0 = first_at(lo), b1 = first_at(hi);
+  }
 };
 
 struct SnapshotPlan {
@@ -67,20 +86,38 @@ class SnapshotRecorder {
 
   /// After step k: the frame if one is due, then E kept for a Poynting frame due next step.
   /// value(field, cell) is a magnetic field's value in a list cell (cell_of: grid -> list).
+  /// Over ranks (rows.parts) each rank takes, keeps and hands on the rows its grid rows hold.
   template <class MagneticValue>
   void record(long k, const R* const* F, const YeeGrid& g, const std::vector<int>& cell_of, MagneticValue&& value,
-              SnapshotSink* sink) {
+              SnapshotSink* sink, const FrameRows& rows = {}) {
     const long frames = static_cast<long>(plan.steps.size());
     if (next_frame < frames && plan.steps[next_frame] == k) {
       size_t e_at = 0;
       for (size_t fi = 0; fi < plan.fields.size(); ++fi) {
         const SnapshotField& sf = plan.fields[fi];
-        take(sf, F, g, cell_of, value, e_at);
-        if (sink) sink->frame(next_frame, plan.times[next_frame], fi, buf_.data());
+        int b0, b1;
+        rows.of(sf, b0, b1);
+        take(sf, F, g, cell_of, value, e_at, b0, b1);
+        if (sink && rows.parts) sink->frame_rows(next_frame, fi, b0, b1, buf_.data());
+        else if (sink) sink->frame(next_frame, plan.times[next_frame], fi, buf_.data());
       }
       ++next_frame;
     }
-    if (!e_before_.empty() && next_frame < frames && plan.steps[next_frame] == k + 1) keep_e(F, g);
+    if (!e_before_.empty() && next_frame < frames && plan.steps[next_frame] == k + 1) keep_e(F, g, rows);
+  }
+  /// The parts of the kept E (visit_state's snapshots/E-before-frame) of the rows [rows.lo, rows.hi).
+  std::vector<std::pair<std::size_t, std::size_t>> e_before_parts(const FrameRows& rows) const {
+    std::vector<std::pair<std::size_t, std::size_t>> parts;
+    size_t e_at = 0;
+    for (const SnapshotField& sf : plan.fields) {
+      if (!sf.poynting()) continue;
+      int b0, b1;
+      rows.of(sf, b0, b1);
+      const size_t row = 3 * static_cast<size_t>(sf.ni);
+      if (b1 > b0) parts.emplace_back(e_at + b0 * row, e_at + b1 * row);
+      e_at += 3 * static_cast<size_t>(sf.ni) * sf.nj;
+    }
+    return parts;
   }
   /// The first step from `from` on whose fields record() reads (the next frame's, or the
   /// step before it when a Poynting frame keeps E); -1 when none is left.
@@ -101,10 +138,10 @@ class SnapshotRecorder {
 
   template <class MagneticValue>
   void take(const SnapshotField& sf, const R* const* F, const YeeGrid& g, const std::vector<int>& cell_of,
-            MagneticValue& value, size_t& e_at) {
+            MagneticValue& value, size_t& e_at, int b0, int b1) {
     const int c = static_cast<int>(sf.node);
     const EzNodeAverage average{g.stride};
-    for (int b = 0; b < sf.nj; ++b)
+    for (int b = b0; b < b1; ++b)
       for (int a = 0; a < sf.ni; ++a) {
         const int i = sf.i0 + a * sf.stride, j = sf.j0 + b * sf.stride;
         const size_t p = static_cast<size_t>(b) * sf.ni + a;
@@ -128,12 +165,14 @@ class SnapshotRecorder {
       }
     if (sf.poynting()) e_at += 3 * static_cast<size_t>(sf.ni) * sf.nj;
   }
-  void keep_e(const R* const* F, const YeeGrid& g) {
+  void keep_e(const R* const* F, const YeeGrid& g, const FrameRows& rows) {
     const EzNodeAverage average{g.stride};
     size_t e_at = 0;
     for (const SnapshotField& sf : plan.fields) {
       if (!sf.poynting()) continue;
-      for (int b = 0; b < sf.nj; ++b)
+      int b0, b1;
+      rows.of(sf, b0, b1);
+      for (int b = b0; b < b1; ++b)
         for (int a = 0; a < sf.ni; ++a) {
           double u[6];
           average(F, g.at(sf.i0 + a * sf.stride, sf.j0 + b * sf.stride), u);
