@@ -8,6 +8,8 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <unistd.h>
+
 #include <filesystem>
 #include <fstream>
 #include <memory>
@@ -48,9 +50,10 @@ using ty::test::capture;
 
 /// A small run of the bundled window scene whose Ez frames are then replaced by a known
 /// field: +500 V/m left of x = -1 mm, -500 V/m right of x = 1.6 mm, 0 between (where the
-/// tilted window is), the same in all four frames (5 to 20 ps).
+/// tilted window is), the same in all four frames (5 to 20 ps). Its folder is the process's
+/// own: ctest -j2 runs the cases that use it side by side, each in its own process.
 fs::path known_run() {
-  const fs::path dir = fs::temp_directory_path() / "terayee-test-render";
+  const fs::path dir = fs::temp_directory_path() / ("terayee-test-render-" + std::to_string(::getpid()));
   fs::remove_all(dir);
   const std::string scene = std::string(TERAYEE_SOURCE_DIR) + "/scenarios/window-beam.yaml";
   REQUIRE(shell(kBinary + " run '" + scene + "' -o '" + dir.string() +
@@ -143,6 +146,7 @@ TEST_CASE("render: a frame decoded from PNG has the field's colours, the bodies'
   const std::string said((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
   CHECK(said.find("no snapshots of 'Mz'") != std::string::npos);
   CHECK(said.find("it recorded Ez") != std::string::npos);
+  fs::remove_all(run);
 }
 
 TEST_CASE("render: the movie is H.264 in yuv420p with every frame, at the frame's size") {
@@ -171,6 +175,7 @@ TEST_CASE("render: the movie is H.264 in yuv420p with every frame, at the frame'
   CHECK(shell(kBinary + " render '" + run.string() + "' --time 1ns --out '" + (run / "late").string() + "'") == 2);
   CHECK_FALSE(fs::exists(run / "late"));
   CHECK(shell(kBinary + " render '" + run.string() + "' --colours tide --out '" + (run / "old").string() + "'") == 2);
+  fs::remove_all(run);
 }
 
 TEST_CASE("plots: a known curve decodes at the requested size and its data file holds the curve") {
@@ -260,6 +265,7 @@ TEST_CASE("plots: medium --plot draws the table it prints, and render --plot pro
   CHECK(n == ez.size());
   CHECK(big > 0);
   CHECK(diff <= 1e-8 * big);
+  fs::remove_all(run);
 }
 
 TEST_CASE("render: a still of a spectral map shows a steady plane wave's known |E|^2 and <S>") {
