@@ -237,16 +237,22 @@ bool Simulation<R>::settled() {
 }
 
 /// The fields', the magnets', the dispersive media's oscillators' (dispersive_cells.h) and the
-/// rotated tensors' instances, poles included (tensor_energy.h).
+/// rotated tensors' instances, poles included (tensor_energy.h); with Bloch sides both copies'
+/// (field_energy adds the sine copy's fields; its magnets and poles are added here).
 template <class R>
 double Simulation<R>::held_energy() const {
-  const double poles = constants::eps0 * disp_.oscillator_energy() * g_.dx * g_.dy;
-  // the rotated tensors' nodes: field_energy counts them as vacuum ((1/2) E^2, as the sweep
-  // steps them); the scheme keeps their instances' energy instead, poles included (tensor_cells.h)
-  double tensor = instance_energy(tensor_);
-  for (long q = 0; q < tensor_.count(); ++q) tensor -= 0.5 * std::pow(static_cast<double>(f_[tensor_.comp[q]][tensor_.index[q]]), 2);
-  return field_energy() + magnetic_energy() + poles + constants::eps0 * tensor * g_.dx * g_.dy +
-         (twin_ ? constants::eps0 * twin_->disp_.oscillator_energy() * g_.dx * g_.dy : 0.0);
+  // what a copy holds beyond its fields' (1/2) eps0 E^2 + (1/2) mu0 H^2, J/m
+  auto beyond_fields = [](const Simulation& s) {
+    // the rotated tensors' nodes: field_energy counts them as vacuum ((1/2) E^2, as the sweep
+    // steps them); the scheme keeps their instances' energy instead, poles included
+    double w = s.disp_.oscillator_energy() + instance_energy(s.tensor_);
+    for (long q = 0; q < s.tensor_.count(); ++q) {
+      const double e = static_cast<double>(s.f_[s.tensor_.comp[q]][s.tensor_.index[q]]);
+      w -= 0.5 * e * e;
+    }
+    return s.magnetic_energy() + constants::eps0 * w * s.g_.dx * s.g_.dy;
+  };
+  return field_energy() + beyond_fields(*this) + (twin_ ? beyond_fields(*twin_) : 0.0);
 }
 
 template <class R>

@@ -106,8 +106,8 @@ class Simulation {
   /// steps; false between checks and for runs of fixed length).
   bool settled();
   const StopRule& stop_rule() const { return stop_; }
-  /// All the energy the grid holds, J/m: the fields', the magnets' and the dispersive media's
-  /// oscillators' (dispersive_cells.h); what the guard and `stop: auto` watch.
+  /// All the energy the grid holds, J/m (both Bloch copies): the fields', the magnets', the
+  /// dispersive media's oscillators'; what the guard and `stop: auto` watch.
   double held_energy() const;
 
   R* field(Component c) { return f_[static_cast<int>(c)].data(); }
