@@ -82,9 +82,10 @@ void mirror_domains(const std::string& sets, double cell) {
   CHECK(a.d * b.d < 0);  // opposite signs
   CHECK(std::abs(a.d + b.d) < mirror);  // equal sizes
   // each as predicted for its domain's state: the cell's dispersion and the face's staircase
-  // (a half cell, which moves the beam by a cell at 45 deg); measured 5% at 50 um cells
-  CHECK(std::abs(a.d / pa - 1) < 0.2);
-  CHECK(std::abs(b.d / pb - 1) < 0.2);
+  // (a half cell, which moves the beam by a cell at 45 deg); measured 5.0% at 50 um cells
+  // (0.5% at 25 um, the long case), so twice that
+  CHECK(std::abs(a.d / pa - 1) < 0.1);
+  CHECK(std::abs(b.d / pb - 1) < 0.1);
   for (const char* n : {"terayee-test-domain-a", "terayee-test-domain-b", "terayee-test-domain-ra", "terayee-test-domain-rb"})
     fs::remove_all(kTmp / n);
 }

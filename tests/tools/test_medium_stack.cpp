@@ -184,8 +184,9 @@ TEST_CASE("medium --stack: the Otto bench's total internal reflection, its frust
   }
   MESSAGE("R(+k_x): " << R[0][0] << " at 1548 GHz, " << R[0][1] << " at 1611 GHz; R(-k_x): " << R[1][0] << ", "
                       << R[1][1]);
-  CHECK(R[0][0] == doctest::Approx(0.009).epsilon(0.06));
-  CHECK(R[1][1] == doctest::Approx(0.086).epsilon(0.06));
+  // relative bounds (doctest's Approx epsilon is relative to max(1, |x|): 0.06 let R be 0 to 0.07)
+  CHECK(std::abs(R[0][0] / 0.0092 - 1) < 0.03);
+  CHECK(std::abs(R[1][1] / 0.086 - 1) < 0.03);
   CHECK(R[1][0] > 0.9);
   CHECK(R[0][1] > 0.9);
   fs::remove(csv);

@@ -42,7 +42,10 @@ void read_sources(const Scene& scene, SceneStack& st, Diagnostics& d) {
                                      first->where.line));
     }
   }
-  if (!first) d.error(scene.grid.where, "`medium --stack` needs a plane-wave source (the scene has none)");
+  if (!first) {  // nothing to orient the stack by: the rules below would speak of the wrong axis
+    d.error(scene.grid.where, "`medium --stack` needs a plane-wave source (the scene has none)");
+    d.throw_if_any();
+  }
 }
 
 /// Every body must be an unrotated rectangle across the whole width; its faces along the
@@ -192,7 +195,7 @@ SceneStack scene_stack(const Scene& scene) {
     if (scene.media[b.medium].perfect_conductor)
       d.error(b.where, fmt::format("body of '{}' is a perfect conductor: not a layer the transfer matrix takes",
                                    scene.media[b.medium].name));
-  if (!d.empty()) d.throw_if_any();
+  d.throw_if_any();
   std::vector<StackPart> all = parts(scene, st, cut);
   // the part holding the launch line (where the line lies on a face: the part the wave enters)
   size_t at = 0;
