@@ -11,7 +11,6 @@
 #include <cmath>
 
 #include "io/scene/units.h"
-#include "solver/media/tensor_energy.h"
 
 namespace ty {
 
@@ -232,64 +231,8 @@ void Simulation<R>::advance() {
 template <class R>
 bool Simulation<R>::settled() {
   if (!stop_.due(n_)) return false;
-  gather_state();  // every rank decides alike, from the whole grid
+  gather_sums();  // every rank decides alike, from the same sums
   return stop_.settled(n_, g_.dt, held_energy(), power_spectra_, maps_);
-}
-
-/// The fields', the magnets', the dispersive media's oscillators' (dispersive_cells.h) and the
-/// rotated tensors' instances, poles included (tensor_energy.h); with Bloch sides both copies'
-/// (field_energy adds the sine copy's fields; its magnets and poles are added here).
-template <class R>
-double Simulation<R>::held_energy() const {
-  // what a copy holds beyond its fields' (1/2) eps0 E^2 + (1/2) mu0 H^2, J/m
-  auto beyond_fields = [](const Simulation& s) {
-    // the rotated tensors' nodes: field_energy counts them as vacuum ((1/2) E^2, as the sweep
-    // steps them); the scheme keeps their instances' energy instead, poles included
-    double w = s.disp_.oscillator_energy() + instance_energy(s.tensor_);
-    for (long q = 0; q < s.tensor_.count(); ++q) {
-      const double e = static_cast<double>(s.f_[s.tensor_.comp[q]][s.tensor_.index[q]]);
-      w -= 0.5 * e * e;
-    }
-    return s.magnetic_energy() + constants::eps0 * w * s.g_.dx * s.g_.dy;
-  };
-  return field_energy() + beyond_fields(*this) + (twin_ ? beyond_fields(*twin_) : 0.0);
-}
-
-template <class R>
-double Simulation<R>::field_energy() const {
-  double we = 0, wh = 0;
-  for (int j = 0; j < g_.ny; ++j) {
-    for (int c = 0; c < 3; ++c)
-      for (int r = row_runs_[3 * j + c]; r < row_runs_[3 * j + c + 1]; ++r) {
-        const Run& run = runs_[r];
-        if (run.kx == R(0)) continue;
-        const double eps = (c0 * g_.dt / g_.dx) / static_cast<double>(run.kx);
-        for (int i = run.i0; i < run.i1; ++i) {
-          const double e = f_[c][g_.at(i, j)];
-          we += eps * e * e;
-        }
-      }
-    for (int c = 3; c < 6; ++c)
-      for (int i = 0; i < g_.nx; ++i) {
-        const double h = f_[c][g_.at(i, j)] / eta0;
-        wh += h * h;
-      }
-  }
-  // a Bloch pair's energy is that of the complex field A + iB: both copies' (they exchange it
-  // across the seam, so either alone swings)
-  return 0.5 * (constants::eps0 * we + constants::mu0 * wh) * g_.dx * g_.dy + (twin_ ? twin_->field_energy() : 0.0);
-}
-
-template <class R>
-bool Simulation<R>::find_nonfinite(int& i, int& j, Component& c) const {
-  for (int jj = 0; jj < g_.ny; ++jj)
-    for (int q = 0; q < 6; ++q)
-      for (int ii = 0; ii < g_.nx; ++ii)
-        if (!std::isfinite(static_cast<double>(f_[q][g_.at(ii, jj)]))) {
-          i = ii, j = jj, c = static_cast<Component>(q);
-          return true;
-        }
-  return false;
 }
 
 template class Simulation<float>;

@@ -42,15 +42,9 @@
 #include "solver/recorders/recorders.h"
 #include "solver/sources/waveform.h"
 #include "solver/stop_rule.h"
+#include "solver/threads/block_rows.h"
 
 namespace ty {
-
-/// Rows [lo, hi) of thread t of nt: contiguous blocks whose sizes differ by at most one.
-inline void block_rows(int n, int t, int nt, int& lo, int& hi) {
-  const int q = n / nt, r = n % nt;
-  lo = t * q + (t < r ? t : r);
-  hi = lo + q + (t < r ? 1 : 0);
-}
 
 template <class R>
 class Simulation {
@@ -73,11 +67,14 @@ class Simulation {
   /// Over several ranks (solver/parallel/slab_step.cpp): this rank's rows [lo, hi) of the
   /// sweep and the rank count. Every rank holds the whole arrays but updates only its rows;
   /// gather_state() (collective) makes every field row and the injected work whole on every
-  /// rank, for whatever reads the whole grid (the guard, energies, checkpoints, summaries).
+  /// rank, for what reads the whole grid (field_energy, the summary); gather_sums() (collective)
+  /// only each row's held energy and work (solver/guard/held_energy.cpp): enough for
+  /// held_energy(), injected_energy(), the guard and the stop rule.
   int ranks() const { return ranks_; }
   int row_lo() const { return row0_; }
   int row_hi() const { return row1_; }
   void gather_state();
+  void gather_sums();
   /// The parts [a, b) of state array `name` of visit_state (n values) that this rank's rows
   /// update (solver/parallel/state_owners.cpp): over ranks, each rank writes these of a
   /// checkpoint, together the array a one-process run holds; one rank owns all of it. The
@@ -89,9 +86,8 @@ class Simulation {
                                                                int P) const;
   /// One time step, then the recorders.
   void advance();
-  /// Steps per pass over the rows (temporal blocking, solver/blocking/): 1 = one pass per
-  /// step (the default), 0 = auto (fitted to the caches), N; a scene with something that
-  /// reaches across rows or steps keeps 1, and block_note() says why.
+  /// Steps per pass over the rows (temporal blocking, solver/blocking/): 1 (the default), 0 = auto
+  /// (fitted to the caches), N; a scene with something that reaches across rows or steps keeps 1 (block_note: why).
   void set_block_depth(int requested);
   int block_depth() const { return block_depth_; }
   const std::string& block_note() const { return block_why_; }
@@ -168,7 +164,7 @@ class Simulation {
     for (double v : injected_) w += v;
     return twin_ ? w + twin_->injected_energy() : w;  // a Bloch pair: both copies' sources
   }
-  /// The first node holding a NaN or infinity, if any (row-major, E before H).
+  /// The first node holding a NaN or infinity, if any (row-major, E before H); collective.
   bool find_nonfinite(int& i, int& j, Component& c) const;
 
   std::vector<ProbeRecorder>& probes() { return probes_; }
@@ -234,6 +230,7 @@ class Simulation {
   std::vector<Injection> inj_h_, inj_e_;
   std::vector<int> inj_h_row_, inj_e_row_;  // offsets per row, size ny+1
   std::vector<double> injected_;            // per row: energy the injections put in, J/m
+  std::vector<double> row_held_;            // over ranks, per row: row_held() (gather_sums), J/m
   Boundaries walls_;
   // recorders
   std::vector<ProbeRecorder> probes_;
@@ -256,14 +253,14 @@ class Simulation {
   int up_ = -1, down_ = -1;  // the ranks whose rows lie above and below ours (-1: none)
   std::vector<R> halo_e_out_, halo_e_in_, halo_h_out_, halo_h_in_;
   parallel::Request halo_req_[4];
-  std::vector<int> recorder_rows_;  // rows (ghost rows -1, ny included) the recorders read every step
-  std::vector<int> recorder_counts_;  // bytes of them per rank
+  std::vector<int> recorder_rows_, recorder_counts_;  // rows (ghosts -1, ny too) recorders read each step; bytes/rank
   std::vector<R> recorder_buf_;
   std::vector<int> state_counts_, work_counts_, pole_counts_;  // gather_state's bytes per rank
   std::vector<int> frame_rows_, frame_counts_;  // on frame_steps_: the recorder rows and each cut's lower row
   std::vector<long> frame_steps_;  // steps a Poynting frame reads (its own and the one before)
   std::vector<R> tensor_buf_;      // the tensor list's E, each rank's Ex then Ey nodes, in rank order
   std::vector<int> tensor_counts_;  // bytes of them per rank
+  std::vector<long> tensor_runs_;   // rank r's runs of the list (tensor_rows): 4r..4r+3 = a[0], b[0], a[1], b[1]
   parallel::MagnetHalo<R> mhalo_;  // magnetic cells over ranks (magnetic_slab_step.cpp)
   // Bloch sides (bloch.h): the sine copy, owned by the cosine copy and stepped with it
   std::unique_ptr<Simulation> twin_;
@@ -280,17 +277,20 @@ class Simulation {
   void pair_h_row(int j);
   /// Both copies' H ghost columns of row j (bloch.h), after their final H of the row.
   void pair_h_ghosts(int j);
-  /// Both copies' sources and edges before the sweep, and before E of row 0.
-  void pair_before_sweep();
-  void pair_before_first_e_row();
+  void pair_before_sweep();        ///< both copies' sources and edges before the sweep
+  void pair_before_first_e_row();  ///< and before E of row 0
   /// step_magnetic's sweep over both copies of a pair with magnetic cells (bloch_magnets.cpp).
   void step_pair_magnetic();
-  /// The value, for this copy, of a magnetic cell's quantity across the Bloch seam: own and
-  /// other are this copy's and the partner's value in that cell; left: the cell seen at column
-  /// -1 (cell nx-1 moved by -L_x), else at column nx (cell 0 moved by +L_x). Without a pair:
-  /// own (the periodic neighbour).
+  /// A magnetic cell's quantity across the Bloch seam for this copy (own, other: this copy's and the partner's
+  /// value there; left: the cell seen at column -1, else at nx); without a pair own (periodic).
   double seam_value(double own, double other, bool left) const;
 
+  // the energy held (solver/guard/held_energy.cpp): row j's fields, and with its magnets and
+  // poles; one copy's rows and rotated tensors; the magnetic cells [k0, k1) (magnetic_values.cpp)
+  double row_fields(int j) const;
+  double row_held(int j) const;
+  double copy_held() const;
+  double magnetic_energy_of(long k0, long k1) const;
   void build_media(std::vector<double> (&cb)[3]);
   void node_coefficients(int c, int i, int j, double& a, double& b, std::vector<DispersiveNode>& out) const;
   void join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>& found);

@@ -32,9 +32,14 @@ std::vector<double> frequencies(const Scene& scene, const MediumOptions& o, std:
     const Output* line = nullptr;
     for (const Output& out : scene.outputs)
       if (!line && out.kind == Output::Kind::power_spectrum) line = &out;
+    if (line && !o.count_given) {  // the line's own frequencies, so the rows line up with spectrum.csv
+      from_where = fmt::format("power spectrum '{}'", line->name);
+      std::vector<double> f;
+      for (int q = 0; q < line->count; ++q) f.push_back(line->band_frequency(q));
+      return f;
+    }
     if (line) {
       lo = line->band_from, hi = line->band_to, from_where = fmt::format("power spectrum '{}'", line->name);
-      if (!o.count_given) n = line->count;
     } else {
       lo = INFINITY, hi = 0;
       for (const Source& s : scene.sources) {

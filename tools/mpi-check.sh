@@ -9,7 +9,9 @@
 # process, the one-process one on 2 ranks, must end with the straight run's fields.h5; a
 # SIGTERM given to one rank of two (TERAYEE_KILL_AT=term:N, io/run/kill_point.h) stops both at
 # one step with a checkpoint that resumes to the same bits; a damaged checkpoint or one of
-# another scene is refused with exit status 2 over 2 ranks (no hang).
+# another scene is refused with exit status 2 over 2 ranks (no hang). First, the guard: the
+# bench and the magnetic bench at 1.2 times the stable time step must be stopped at the same
+# step with the same message on one process and on 3 ranks (quick mode too).
 #   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges, a Bloch
 #                                 half-space (the sine copy over ranks), a rotated-tensor disc, and the
 #                                 magnetic bench (an MnF2 slab) with absorbing and with periodic y edges
@@ -140,7 +142,34 @@ signal_and_refusals() {
   done
 }
 
+# guard_check SCENE NAME: the guard's verdict over ranks. A time step 1.2 times the stability
+# limit (TERAYEE_UNSTABLE, a test hook: a scene cannot ask for it) grows; one process and 3
+# ranks must stop it at the same step with the same message, naming the same node or cell
+# (each rank sums and picks in its own rows, solver/guard/held_energy.cpp)
+guard_check() {
+  local scene="$1" name="$2" rc1 rc3 m1 m3
+  set +e
+  TERAYEE_UNSTABLE=1.2 OMP_NUM_THREADS=2 "$bin" run "$scene" -o "$work/g1-$name" --quiet 2>/dev/null
+  rc1=$?
+  TERAYEE_UNSTABLE=1.2 mpirun -n 3 --oversubscribe --mca mpi_yield_when_idle 1 -x TERAYEE_UNSTABLE -x OMP_NUM_THREADS=1 \
+    "$bin" run "$scene" -o "$work/g3-$name" --threads 1 --quiet 2>/dev/null
+  rc3=$?
+  set -e
+  m1=$(grep -oE "(the run is growing|the field [A-Za-z]+ became non-finite).*" "$work/g1-$name/log.txt" || true)
+  m3=$(grep -oE "(the run is growing|the field [A-Za-z]+ became non-finite).*" "$work/g3-$name/log.txt" || true)
+  if [ $rc1 -ne 0 ] && [ $rc3 -eq $rc1 ] && [ -n "$m1" ] && [ "$m1" = "$m3" ]; then
+    echo "mpi-check: $name, too large a step: stopped alike on 1 process and 3 ranks: ${m1:0:110}..."
+  else
+    echo "mpi-check: $name, too large a step: 1 process (exit $rc1) and 3 ranks (exit $rc3) differ:"
+    echo "  1: $m1"; echo "  3: $m3"; failed=1
+  fi
+}
+
 failed=0
+if [ $custom -eq 0 ]; then
+  guard_check "$bench" bench
+  guard_check "$root/tests/data/ranks-magnets.yaml" magnets
+fi
 k=0
 for c in "${cases[@]}"; do
   scene="${c%%|*}"

@@ -28,6 +28,17 @@ hid_t check(hid_t id, const std::string& what) {
   return id;
 }
 
+/// The access list of a file every rank opens together: MPI-IO over the run's ranks.
+Handle shared_access(const std::string& path) {
+  Handle fapl(check(H5Pcreate(H5P_FILE_ACCESS), "plist"), H5Pclose);
+#ifdef TERAYEE_MPI
+  check(H5Pset_fapl_mpio(fapl.id(), MPI_COMM_WORLD, MPI_INFO_NULL), "cannot use MPI-IO for " + path);
+#else
+  (void)path;
+#endif
+  return fapl;
+}
+
 }  // namespace
 
 File File::create_shared(const std::string& path) {
@@ -35,11 +46,8 @@ File File::create_shared(const std::string& path) {
   File f;
   f.name_ = path;
   f.shared_ = true;
-  Handle fapl(check(H5Pcreate(H5P_FILE_ACCESS), "plist"), H5Pclose);
+  Handle fapl = shared_access(path);
   H5Pset_libver_bounds(fapl.id(), H5F_LIBVER_V18, H5F_LIBVER_V18);  // the layout `create` writes
-#ifdef TERAYEE_MPI
-  check(H5Pset_fapl_mpio(fapl.id(), MPI_COMM_WORLD, MPI_INFO_NULL), "cannot use MPI-IO for " + path);
-#endif
   f.h_ = Handle(check(H5Fcreate(path.c_str(), H5F_ACC_TRUNC, H5P_DEFAULT, fapl.id()), "cannot create " + path),
                 H5Fclose);
   return f;
@@ -84,10 +92,7 @@ File File::open_shared(const std::string& path) {
   File f;
   f.name_ = path;
   f.shared_ = true;
-  Handle fapl(check(H5Pcreate(H5P_FILE_ACCESS), "plist"), H5Pclose);
-#ifdef TERAYEE_MPI
-  check(H5Pset_fapl_mpio(fapl.id(), MPI_COMM_WORLD, MPI_INFO_NULL), "cannot use MPI-IO for " + path);
-#endif
+  Handle fapl = shared_access(path);
   f.h_ = Handle(check(H5Fopen(path.c_str(), H5F_ACC_RDWR, fapl.id()), "cannot open " + path), H5Fclose);
   return f;
 }

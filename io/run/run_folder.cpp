@@ -5,6 +5,7 @@
 
 #include <fmt/format.h>
 
+#include <exception>
 #include <filesystem>
 #include <fstream>
 #include <iterator>
@@ -75,7 +76,14 @@ RunFolder::RunFolder(const std::string& dir, const Scene& scene, bool resume, bo
 RunFolder::RunFolder(const std::string& dir, const Scene& scene, Follower) : dir_(dir), scene_(scene), root_(false) {}
 
 RunFolder::~RunFolder() {
-  if (!done_) abandon();
+  if (done_) return;
+  if (parallel::size() > 1 && std::uncaught_exceptions() > 0) {
+    // one rank's error unwinding: closing the shared file is collective and the other ranks
+    // are not here, so it stays open and every file stays as it is; main ends every rank
+    (void)h5_.release();
+    return;
+  }
+  abandon();
 }
 
 void RunFolder::begin(const YeeGrid& g, const SnapshotPlan& plan, bool single, const std::vector<int>& medium_map,
@@ -329,7 +337,11 @@ void RunFolder::keep() {
 }
 
 void RunFolder::abandon() {
+  // Over ranks every rank comes here at the same step (the guard and the NaN check decide
+  // alike on every rank): each closes its side of the shared file (collective), and rank 0
+  // removes files only once all have.
   h5_.reset();
+  if (parallel::size() > 1) parallel::barrier();
   if (!root_) {
     done_ = true;
     return;

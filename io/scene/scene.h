@@ -217,6 +217,10 @@ struct Output {
   int count = 0;     ///< power spectrum: frequencies
   std::vector<double> frequencies;  ///< spectral-map: Hz
   Mark where;
+  /// A power spectrum's k-th frequency of `count` (Hz), evenly spaced from band_from to band_to.
+  double band_frequency(int k) const {
+    return count == 1 ? band_from : band_from + (band_to - band_from) * k / (count - 1);
+  }
 };
 
 struct Scene {

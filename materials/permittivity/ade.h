@@ -29,6 +29,16 @@ struct AdePole {
   double c1 = 0, c2 = 0, c3 = 0;
 };
 
+/// The energy one pole holds, per unit volume over eps0 (V^2/m^2), from its state p, j = dp/dt.
+/// The pole p'' + G p' + w0^2 p = W^2 E takes the power eps0 E p' = d/dt [eps0 (p'^2 + w0^2 p^2) /
+/// (2 W^2)] + eps0 G p'^2 / W^2 (the driven oscillator's energy: Jackson, Classical
+/// Electrodynamics, 3rd ed., secs. 7.5 and 7.10; Drude: w0 = 0). W^2 and w0^2 come back from the
+/// coefficients with a = dt/2 = half_dt: 1 + c1 = 2/D, c2 = -2 a w0^2/D, c3 = a W^2/D.
+inline double pole_energy(const AdePole& q, double half_dt, double p, double j) {
+  const double D = 2 / (1 + q.c1), W2 = q.c3 * D / half_dt, w02 = -q.c2 * D / (2 * half_dt);
+  return W2 > 0 ? (j * j + w02 * p * p) / (2 * W2) : 0.0;
+}
+
 /// One pole: natural angular frequency w0 (0 for Drude), strength W^2 (rad^2/s^2), damping G (1/s).
 AdePole ade_pole(double w0, double strength, double damping, double dt);
 

@@ -30,6 +30,36 @@ bool in_absorber(const YeeGrid& g, int i, int j) {
   return i < g.npml_x || i >= g.nx - g.npml_x || j < g.npml_y || j >= g.ny - g.npml_y;
 }
 
+/// The node (i, j) of the largest sum of the squared field values (E and eta0 H alike);
+/// nonfinite: the first node whose sum is not finite wins. Over ranks (collective) each rank
+/// looks through its rows and the ranks' picks are taken in rank order by the same rule.
+template <class R>
+void largest_field(const Simulation<R>& sim, bool nonfinite, int& bi, int& bj) {
+  const YeeGrid& g = sim.grid();
+  double best = -1;
+  long at = -1;
+  const auto better = [&](double e) { return e > best || (nonfinite && !std::isfinite(e)); };
+  for (int j = sim.row_lo(); j < sim.row_hi() && !(nonfinite && !std::isfinite(best)); ++j)
+    for (int i = 0; i < g.nx; ++i) {
+      double e = 0;
+      for (int c = 0; c < 6; ++c) {
+        const double v = sim.field(static_cast<Component>(c))[g.at(i, j)];
+        e += v * v;
+      }
+      if (better(e)) best = e, at = static_cast<long>(j) * g.nx + i;
+      if (nonfinite && !std::isfinite(best)) break;
+    }
+  if (sim.ranks() > 1) {
+    const auto picks = parallel::picks_over_ranks({best, at});
+    best = -1, at = -1;
+    for (const parallel::Pick& p : picks) {
+      if (p.where >= 0 && better(p.value)) best = p.value, at = p.where;
+      if (nonfinite && !std::isfinite(best)) break;
+    }
+  }
+  bi = at < 0 ? 0 : static_cast<int>(at % g.nx), bj = at < 0 ? 0 : static_cast<int>(at / g.nx);
+}
+
 }  // namespace
 
 template <class R>
@@ -86,11 +116,12 @@ std::string GrowthGuard<R>::check(const Simulation<R>& sim) {
   const YeeGrid& g = sim.grid();
   const long n = sim.steps_done();
   most_injected_ = std::max(most_injected_, sim.injected_energy());
-  // the largest tilt inside and outside the absorbing layers, and where
+  // the largest tilt inside and outside the absorbing layers, and where: over ranks each
+  // rank's cells (its rows'), then the ranks' picks in rank order by the same rule
   const MagneticCells& M = sim.magnets();
   double worst[2] = {0, 0};  // outside, inside
   long at[2] = {-1, -1};
-  for (long k = 0; k < M.count(); ++k) {
+  for (long k = M.first_cell(sim.row_lo()); k < M.first_cell(sim.row_hi()); ++k) {
     const MagneticState& g0 = M.ground[M.medium[k]];
     const int side = in_absorber(g, M.ci[k], M.cj[k]) ? 1 : 0;
     for (int sl = 0; sl < 2; ++sl) {
@@ -100,6 +131,13 @@ std::string GrowthGuard<R>::check(const Simulation<R>& sim) {
       if (t > worst[side] || !std::isfinite(t)) worst[side] = t, at[side] = k;
     }
   }
+  if (sim.ranks() > 1)
+    for (int side = 0; side < 2; ++side) {
+      const auto picks = parallel::picks_over_ranks({worst[side], at[side]});
+      worst[side] = 0, at[side] = -1;
+      for (const parallel::Pick& p : picks)
+        if (p.where >= 0 && (p.value > worst[side] || !std::isfinite(p.value))) worst[side] = p.value, at[side] = p.where;
+    }
   const int s = worst[1] > worst[0] ? 1 : 0;
   if (tilt_limit_ > 0 && at[s] >= 0 && !(worst[s] <= tilt_limit_))  // tilt first: the earlier sign in a magnet
     return fmt::format(
@@ -111,20 +149,8 @@ std::string GrowthGuard<R>::check(const Simulation<R>& sim) {
   const double w = sim.held_energy();
   const double floor = 1e-30 + 1e-12 * most_injected_;
   if (!(w <= kEnergyFactor * most_injected_ + floor)) {  // NaN too
-    double best = -1;                                    // the node of largest energy density (E and eta0 H alike)
-    int bi = 0, bj = 0;
-    for (int j = 0; j < g.ny; ++j) {
-      for (int i = 0; i < g.nx; ++i) {
-        double e = 0;
-        for (int c = 0; c < 6; ++c) {
-          const double v = sim.field(static_cast<Component>(c))[g.at(i, j)];
-          e += v * v;
-        }
-        if (e > best || !std::isfinite(e)) best = e, bi = i, bj = j;
-        if (!std::isfinite(best)) break;
-      }
-      if (!std::isfinite(best)) break;
-    }
+    int bi, bj;  // the node of largest energy density (E and eta0 H alike), the first that is not finite
+    largest_field(sim, true, bi, bj);
     return fmt::format(
         "the run is growing: by step {} (t = {:.4g} ps; all was well at step {}) the grid holds {:.3g} J/m, more "
         "than {:g} times the {:.3g} J/m its sources have put in; the largest field is at {}. Run again with a "
@@ -177,18 +203,8 @@ std::string GrowthGuard<R>::slow_energy(const Simulation<R>& sim, double w) {
   if (!(w - w_low_ > kEnergyRise * base)) return {};
   const double w1 = w_seen_[k - kWindow], w2 = w_seen_[k - 2 * kWindow];
   if (!(w > w1 && w1 > w2)) return {};
-  // where: the node of largest energy density, as for the fast growth
-  double best = -1;
-  int bi = 0, bj = 0;
-  for (int j = 0; j < g.ny; ++j)
-    for (int i = 0; i < g.nx; ++i) {
-      double e = 0;
-      for (int c = 0; c < 6; ++c) {
-        const double v = sim.field(static_cast<Component>(c))[g.at(i, j)];
-        e += v * v;
-      }
-      if (e > best) best = e, bi = i, bj = j;
-    }
+  int bi, bj;  // where: the node of largest energy density, as for the fast growth
+  largest_field(sim, false, bi, bj);
   return fmt::format(
       "the run is growing slowly: its sources stopped at t = {:.4g} ps, and by step {} (t = {:.4g} ps) the energy "
       "held has risen to {:.3g} J/m, {:.3g} times the lowest since ({:.3g} J/m), rising over each of the last {} "

@@ -38,19 +38,12 @@ struct DispersiveCells {
   bool empty() const { return index.empty(); }
   long count() const { return static_cast<long>(index.size()); }
 
-  /// The energy the poles hold, per unit volume over eps0 (V^2/m^2; times eps0 dx dy: J/m per
-  /// node). A pole p'' + g p' + w0^2 p = S E (p = P/eps0) takes the power eps0 E p' =
-  /// d/dt [eps0 (p'^2 + w0^2 p^2) / (2 S)] + eps0 g p'^2 / S (the driven oscillator's energy:
-  /// Jackson, Classical Electrodynamics, 3rd ed., sec. 7.5 and 7.10; Drude: w0 = 0). S and w0^2
-  /// come back from the trapezoidal coefficients (ade.cpp): 1 + c1 = 2 / D, c2 = -2 a w0^2 / D,
-  /// c3 = a S / D with a = dt/2.
-  double oscillator_energy() const {
+  /// The energy the poles of row r's nodes hold, per unit volume over eps0 (V^2/m^2; times
+  /// eps0 dx dy: J/m): each pole's oscillator energy (pole_energy, ade.h).
+  double oscillator_energy(int r) const {
     double w = 0;
-    for (size_t k = 0; k < poles.size(); ++k) {
-      const AdePole& q = poles[k];
-      const double D = 2 / (1 + q.c1), S = q.c3 * D / half_dt, w02 = -q.c2 * D / (2 * half_dt);
-      if (S > 0) w += 0.5 * (j[k] * j[k] + w02 * p[k] * p[k]) / S;
-    }
+    for (int k = pole_first[row_first[r]]; k < pole_first[row_first[r + 1]]; ++k)
+      w += pole_energy(poles[k], half_dt, p[k], j[k]);
     return w;
   }
 

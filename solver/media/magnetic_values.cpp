@@ -13,9 +13,17 @@ namespace ty {
 
 template <class R>
 double Simulation<R>::magnetic_energy() const {
+  return magnetic_energy_of(0, mag_.count()) + (twin_ ? twin_->magnetic_energy() : 0.0);  // both copies
+}
+
+/// Cells [k0, k1) of this copy: each cell's own energy above the ground state, and the
+/// self-field terms of its faces (the cells below and to the left, and its own open faces),
+/// so the rows' ranges add up to the whole list's.
+template <class R>
+double Simulation<R>::magnetic_energy_of(long k0, long k1) const {
   const MagneticCells& M = mag_;
   double e = 0;
-  for (long k = 0; k < M.count(); ++k) {
+  for (long k = k0; k < k1; ++k) {
     const MagnetModel& mm = M.models[M.medium[k]];
     const auto& s = M.m[M.latest];
     const std::array<Vec3, 2> m{Vec3(s[0][k], s[1][k], s[2][k]), Vec3(s[3][k], s[4][k], s[5][k])};
@@ -26,7 +34,7 @@ double Simulation<R>::magnetic_energy() const {
     // mu0 H^2 / 2 at the nodes (magnetic_cells.h): along x and y, each face node once
     const int p = M.latest;
     const long none = M.count();
-    for (long k = 0; k < M.count(); ++k) {
+    for (long k = k0; k < k1; ++k) {
       const double mx = M.deviation(p, 0, k), my = M.deviation(p, 1, k);
       e += 0.5 * (mx * mx + my * my);
       auto face = [&](int c, long other) {
@@ -45,7 +53,7 @@ double Simulation<R>::magnetic_energy() const {
       if (M.up[k] == none && (M.cj[k] + 1 < g_.ny || walls_.periodic_y)) face(1, none);
     }
   }
-  return e / constants::mu0 * g_.dx * g_.dy + (twin_ ? twin_->magnetic_energy() : 0.0);  // both copies
+  return e / constants::mu0 * g_.dx * g_.dy;
 }
 
 template <class R>
@@ -68,6 +76,7 @@ double Simulation<R>::magnetic_value(const std::string& f, long k, int p) const 
 
 #define TY_INSTANTIATE(R)                                 \
   template double Simulation<R>::magnetic_energy() const; \
+  template double Simulation<R>::magnetic_energy_of(long, long) const; \
   template double Simulation<R>::magnetic_value(const std::string&, long, int) const;
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)

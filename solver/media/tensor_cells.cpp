@@ -180,19 +180,15 @@ TensorCells join_tensor_nodes(std::vector<TensorNode>& nodes, const YeeGrid& g, 
 }
 
 double instance_energy(const TensorCells& t) {
-  // eps_inf and the pole's w0^2 and W^2 come back from the trapezoidal coefficients (ade.h:
-  // k+- = eps_inf +- x, ca = k-/k+, cb = 1/k+; 1 + c1 = 2/D, c2 = -2 a w0^2/D, c3 = a W^2/D, a = dt/2)
+  // eps_inf comes back from the node's coefficients (ade.h: k+- = eps_inf +- x, ca = k-/k+,
+  // cb = 1/k+), each pole's energy from its own (pole_energy)
   double u = 0;
   for (long s = 0; s < t.instances(); ++s)
     for (int x = 0; x < 2; ++x) {
       const long sa = 2 * s + x;
       const AdeNode& k = t.axis[sa];
       double w = 0.5 * (1 + k.ca) / (2 * k.cb) * t.e_axis[sa] * t.e_axis[sa];
-      for (int i = t.pole_first[sa]; i < t.pole_first[sa + 1]; ++i) {
-        const AdePole& q = t.poles[i];
-        const double D = 2 / (1 + q.c1), w02 = -q.c2 * D / (2 * t.half_dt), W2 = q.c3 * D / t.half_dt;
-        if (W2 > 0) w += (t.j[i] * t.j[i] + w02 * t.p[i] * t.p[i]) / (2 * W2);
-      }
+      for (int i = t.pole_first[sa]; i < t.pole_first[sa + 1]; ++i) w += pole_energy(t.poles[i], t.half_dt, t.p[i], t.j[i]);
       u += t.weight[s] * w;
     }
   return u;

@@ -61,6 +61,12 @@ long max_over_ranks(long v) {
   MPI_Allreduce(&v, &m, 1, MPI_LONG, MPI_MAX, MPI_COMM_WORLD);
   return m;
 }
+std::vector<Pick> picks_over_ranks(Pick mine) {
+  std::vector<Pick> all(g_size);
+  g_gathered += static_cast<long>((g_size - 1) * sizeof(Pick));
+  MPI_Allgather(&mine, sizeof(Pick), MPI_BYTE, all.data(), sizeof(Pick), MPI_BYTE, MPI_COMM_WORLD);
+  return all;
+}
 void broadcast_bytes(void* data, std::size_t n, int root) {
   MPI_Bcast(data, static_cast<int>(n), MPI_BYTE, root, MPI_COMM_WORLD);
 }
@@ -88,6 +94,7 @@ void receive_bytes(void*, std::size_t, int, int, Request&) {
 void allgather_bytes(void*, const std::vector<int>&) {}
 long gathered_bytes() { return 0; }
 long max_over_ranks(long v) { return v; }
+std::vector<Pick> picks_over_ranks(Pick mine) { return {mine}; }
 void broadcast_bytes(void*, std::size_t, int) {}
 void barrier() {}
 void abort(int code) { std::exit(code); }

@@ -56,6 +56,14 @@ void allgather_bytes(void* all, const std::vector<int>& counts);
 long gathered_bytes();
 /// The largest of every rank's value.
 long max_over_ranks(long v);
+/// A value and where it was found (a cell, a node; -1: nowhere), one per rank.
+struct Pick {
+  double value = 0;
+  long where = -1;
+};
+/// Every rank's pick, in rank order, on every rank (the caller picks among them by the rule
+/// it applies within its rows, so the choice is the one a single process makes).
+std::vector<Pick> picks_over_ranks(Pick mine);
 /// Rank `root`'s bytes, to every rank.
 void broadcast_bytes(void* data, std::size_t n, int root);
 /// Waits for every rank.

@@ -60,7 +60,7 @@ void Simulation<R>::build_slabs() {
   down_ = rank_ > 0 ? rank_ - 1 : (wrap ? ranks_ - 1 : -1);
   const size_t n = static_cast<size_t>(parallel::halo_components(true)) * g_.stride;
   halo_e_out_.assign(n, R(0)), halo_e_in_.assign(n, R(0)), halo_h_out_.assign(n, R(0)), halo_h_in_.assign(n, R(0));
-
+  row_held_.assign(g_.ny, 0.0), bytes_ += g_.ny * sizeof(double);  // gather_sums (guard/held_energy.cpp)
   // rows the every-step recorders read: their stencils' rows, and each spectral-map node's
   // row and the row below (node_average.h)
   std::vector<int> rows;
@@ -120,11 +120,12 @@ void Simulation<R>::build_slabs() {
   if (tensor_.empty()) return;
   // the tensor list is sorted by component, then by index (row-major): each rank's nodes are
   // one run of Ex nodes and one of Ey nodes
-  tensor_counts_.assign(ranks_, 0);
+  tensor_counts_.assign(ranks_, 0), tensor_runs_.assign(4 * ranks_, 0);
   for (int r = 0; r < ranks_; ++r) {
     long a[2], b[2];
     tensor_rows(r, a, b);
     tensor_counts_[r] = static_cast<int>((b[0] - a[0] + b[1] - a[1]) * sizeof(R));
+    for (int c = 0; c < 2; ++c) tensor_runs_[4 * r + 2 * c] = a[c], tensor_runs_[4 * r + 2 * c + 1] = b[c];
   }
   tensor_buf_.assign(tensor_.index.size(), R(0));
   bytes_ += tensor_buf_.size() * sizeof(R);
@@ -270,12 +271,9 @@ void Simulation<R>::tensor_step_slab() {
   const auto F = fields();
   auto each = [&](auto&& f) {  // f(list node, buffer slot, mine)
     long at = 0;
-    for (int r = 0; r < ranks_; ++r) {
-      long a[2], b[2];
-      tensor_rows(r, a, b);
+    for (int r = 0; r < ranks_; ++r)  // the runs build_slabs found (tensor_rows)
       for (int c = 0; c < 2; ++c)
-        for (long q = a[c]; q < b[c]; ++q) f(q, at++, r == rank_);
-    }
+        for (long q = tensor_runs_[4 * r + 2 * c]; q < tensor_runs_[4 * r + 2 * c + 1]; ++q) f(q, at++, r == rank_);
   };
   each([&](long q, long at, bool mine) {
     if (mine) tensor_buf_[at] = F[tensor_.comp[q]][tensor_.index[q]];

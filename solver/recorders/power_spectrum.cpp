@@ -21,8 +21,7 @@ PowerSpectrumRecorder make_power_spectrum(const Scene& s, const Output& o, const
     for (int c = 0; c < 6; ++c) st[c] = point_stencil(g, static_cast<Component>(c), r.points.back());
     r.stencil.push_back(st);
   }
-  for (int k = 0; k < o.count; ++k)
-    r.freq.push_back(o.count == 1 ? o.band_from : o.band_from + (o.band_to - o.band_from) * k / (o.count - 1));
+  for (int k = 0; k < o.count; ++k) r.freq.push_back(o.band_frequency(k));
   if (every <= 0) every = dft_every(s, std::max(o.band_from, o.band_to), g.dt, total_steps);
   r.win = make_windows(r.freq, rule, total_steps, g.dt, every, block);
   r.dt = g.dt;

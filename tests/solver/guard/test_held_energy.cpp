@@ -7,12 +7,14 @@
 /// phonons take it and give it back, and the sum holds. On the bundled GaAs wafer (2 ps, a
 /// guard check every 1% of the run) the guard took that swing for slow growth and stopped a
 /// stable run; it must stay quiet. The same for a rotated phonon wafer (eps_xy != 0), whose
-/// nodes hold their instances' energy (solver/media/tensor_energy.h).
+/// nodes hold their instances' energy (solver/media/tensor_energy.h), and for a Bloch pair
+/// whose copies each hold their own magnets.
 #include <doctest/doctest.h>
 #include <fmt/format.h>
 
 #include <algorithm>
 #include <cmath>
+#include <tuple>
 
 #include "io/scene/scene_reader.h"
 #include "solver/guard/growth_guard.h"
@@ -95,4 +97,63 @@ TEST_CASE("held energy: the guard stays quiet on the GaAs wafer's short run") {
     if ((k + 1) % every == 0) error = guard.check(sim);
   }
   CHECK_MESSAGE(error.empty(), error);
+}
+
+namespace {
+/// The largest relative change after the pulse of the held energy and of the same without the
+/// sine copy's magnets, in a lossless biased MnF2 wafer (the crystal library's values, Gilbert
+/// damping 0 set by hand) between electric walls under Bloch x sides (step fraction `fraction`).
+std::pair<double, double> bloch_box(double fraction) {
+  Scene s = read_scene_text(R"(
+title: "closed Bloch box with MnF2"
+grid:
+  extent: [40 um, 1.5 mm]
+  cell: 20 um
+  boundaries: {x: bloch, y: electric-wall}
+  bloch: {angle: 30 deg, at: 262 GHz}
+  origin: corner
+time:
+  stop: 0.25 ns
+bias: [0, 0, 1 T]
+media:
+  mnf2: {crystal: MnF2, magnet: {sublattices: [{damping: 0}, {damping: 0}]}}
+bodies:
+  - {medium: mnf2, rectangle: {centre: [20 um, 1.1 mm], size: [1 mm, 0.6 mm]}}
+sources:
+  - plane: {polarization: Ez, direction: +y, launch: {y: 0.3 mm}, frequency: 262 GHz, amplitude: 10 V/m,
+            waveform: {kind: pulse, fwhm: 4 ps, delay: 14 ps}}
+)",
+                            "bloch-box");
+  s.time.step_fraction = fraction;
+  Simulation<double> sim(s, 1);
+  REQUIRE(sim.sine_copy() != nullptr);
+  const long quiet = static_cast<long>(40e-12 / sim.grid().dt);  // the pulse is over
+  double h0 = 0, c0 = 0, dh = 0, dc = 0;
+  for (long k = 0; k < sim.total_steps(); ++k) {
+    sim.step();
+    if (k < quiet) continue;
+    // magnetic_energy() is both copies'; c leaves the sine copy's magnets out
+    const double h = sim.held_energy(), c = h - sim.sine_copy()->magnetic_energy();
+    if (k == quiet) h0 = h, c0 = c;
+    dh = std::max(dh, std::abs(h / h0 - 1)), dc = std::max(dc, std::abs(c / c0 - 1));
+  }
+  return {dh, dc};
+}
+}  // namespace
+
+TEST_CASE("held energy: a Bloch pair with lossless magnets in a closed box counts both copies' magnets") {
+  // Bloch x sides at an oblique k_x step two real copies (cosine and sine, bloch.h), each with
+  // its own magnets; the energy of the complex field is the sum of both copies' (|a|^2 = Re^2 +
+  // Im^2). In a box closed by electric walls (Taflove & Hagness ch. 3-4: the leapfrog keeps an
+  // energy) the held energy (E at n, H at n-1/2) is off that kept energy by O(w dt): it must
+  // shrink with the step, where leaving the sine copy's magnets out leaves a swing that does not.
+  double last = 1, dh = 0, dc = 0;
+  for (double f : {0.95, 0.475, 0.2375, 0.11875}) {
+    std::tie(dh, dc) = bloch_box(f);
+    MESSAGE(fmt::format("step fraction {}: held energy's largest change {:.3e}; without the sine copy's magnets {:.3e}",
+                        f, dh, dc));
+    CHECK(dh < 0.6 * last);  // measured 3.4e-2, 1.7e-2, 8.5e-3: first order in dt
+    last = dh;
+  }
+  CHECK(dc > 3 * dh);  // the sine copy's magnets left out: a swing of about 1.5e-2 that stays
 }
