@@ -168,7 +168,8 @@ void Simulation<R>::e_row_update(int j, const double* ev) {
 
 template <class R>
 void Simulation<R>::step() {
-  if (ranks_ > 1) twin_ ? step_slab_pair() : mag_.empty() ? step_slab() : step_magnetic_slab();
+  if (ranks_ > 1 && twin_) mag_.empty() ? step_slab_pair() : step_magnetic_slab_pair();
+  else if (ranks_ > 1) mag_.empty() ? step_slab() : step_magnetic_slab();
   else if (twin_) mag_.empty() ? step_pair() : step_pair_magnetic();
   else if (mag_.empty()) step_fused();
   else step_magnetic();

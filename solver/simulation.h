@@ -333,6 +333,7 @@ class Simulation {
   // magnetic cells over ranks (solver/parallel/magnetic_slab_step.cpp, magnet_halo.h)
   void build_magnetic_slabs();
   void step_magnetic_slab();
+  void step_magnetic_slab_pair();  // both copies of a Bloch pair, as step_pair_magnetic
   /// The main thread's halo exchange at one of the step's points (magnetic_slab_step.cpp).
   void magnet_exchange(int point);
   void pack_cell_row(int j, double* to) const;
@@ -341,8 +342,7 @@ class Simulation {
   void gather_cells();
   void gather_recorder_cells();
   void build_magnets();
-  void step_fused();
-  void step_magnetic();
+  void step_fused(), step_magnetic();
   /// mu0 H at the magnetic cells of row j as H is now, b[c * longest_row + q] for the row's
   /// q-th cell.
   void gather_row(int j, double* b) const;

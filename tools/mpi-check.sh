@@ -13,7 +13,8 @@
 # bench and the magnetic bench at 1.2 times the stable time step must be stopped at the same
 # step with the same message on one process and on 3 ranks (quick mode too).
 #   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges, a Bloch
-#                                 half-space (the sine copy over ranks), a rotated-tensor disc, and the
+#                                 half-space (the sine copy over ranks), the Otto bench (Bloch sides
+#                                 with magnets), a rotated-tensor disc, and the
 #                                 magnetic bench (an MnF2 slab) with absorbing and with periodic y edges
 #   tools/mpi-check.sh SCENE...   these scenes instead
 #   tools/mpi-check.sh --if-built --quick   (the ctest case mpi_same_bits) 3 ranks only, and each
@@ -48,6 +49,10 @@ else
   [ $quick -eq 1 ] || cases+=("$root/scenarios/gaas-reststrahlen.yaml|time.stop=2ps")
   # Bloch x sides: the sine copy's halo and state (sine/) over ranks, its power-spectrum line joined
   cases+=("$root/tests/data/bloch-half-space.yaml|time.stop=5ps")
+  # Bloch x sides with magnetic cells: the pair's magnetic step over ranks, each copy its own
+  # exchanges (the Otto bench: silicon prism, gap, biased FeF2)
+  # (the gap and crystal moved down, so every cut of 2 and 3 ranks runs through the crystal)
+  cases+=("$root/scenarios/otto-atr/otto-atr-fef2.yaml|time.stop=30ps bodies.1.rectangle.centre=[5um,165um] bodies.2.rectangle.centre=[5um,380um] outputs.0.power-spectrum.line.y=120um")
   # a rotated dispersive tensor (its list gathered and stepped whole on every rank) across the cuts
   cases+=("$root/tests/data/ranks-tensor.yaml|")
   # magnetic cells across every cut: their halo (magnet_halo.h), probes and tilt snapshots

@@ -271,10 +271,6 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
 void refuse_over_ranks(const Scene& scene) {
   const int P = parallel::size();
   std::vector<std::string> why;
-  bool magnets = false;
-  for (const Body& b : scene.bodies) magnets = magnets || scene.media.at(b.medium).magnet.has_value();
-  if ((scene.grid.bx == Boundary::bloch || scene.grid.by == Boundary::bloch) && magnets)
-    why.push_back("Bloch sides with magnetic cells: the pair's magnetic step is not yet split over ranks");
   const YeeGrid g = grid_for(scene, 8);
   if (g.ny < P * parallel::kMinRowsPerRank)
     why.push_back(fmt::format("the grid has {} rows: {} ranks need at least {} ({} each)", g.ny, P,

@@ -27,6 +27,7 @@ namespace ty {
 
 namespace {
 constexpr int kTagOld = 21, kTagStar = 22, kTagCellsUp = 23, kTagCellsDown = 24, kTagH = 25;
+constexpr int kTagCopy = 10;  // a Bloch pair's sine copy: its own messages, the tags moved by this
 enum ExchangePoint : int { kBeforeStep, kAfterFaraday, kAfterCells, kAfterH };
 constexpr auto kHaloE = parallel::halo_list(true), kHaloH = parallel::halo_list(false);
 constexpr auto kCellH = parallel::list_of(parallel::cell_h_above_mask());
@@ -105,6 +106,7 @@ void Simulation<R>::magnet_exchange(int point) {
   parallel::MagnetHalo<R>& X = mhalo_;
   const MagneticCells& M = mag_;
   const long s = g_.stride;
+  const int t = kTagCopy * copy_;
   const int lo = row0_, hi = row1_, ny = g_.ny;
   // the gather's H rows above land where the gather reads them (hy_above: row 0 across a
   // periodic top); E rows in row hi (the ghost row ny at a periodic top, slabs.h)
@@ -116,16 +118,16 @@ void Simulation<R>::magnet_exchange(int point) {
   parallel::Request* q = X.req;  // receives 0-4, sends 5-9
   if (point == kBeforeStep) {    // every receive of the step; E and the gather's H rows as they are
     if (up_ >= 0) {
-      parallel::receive_bytes(X.old_in.data(), X.old_in.size() * sizeof(R), up_, kTagOld, q[0]);
-      parallel::receive_bytes(X.star_in.data(), X.star_in.size() * sizeof(R), up_, kTagStar, q[1]);
-      parallel::receive_bytes(X.cells_in[1].data(), cell_bytes(cells_above), up_, kTagCellsDown, q[2]);
+      parallel::receive_bytes(X.old_in.data(), X.old_in.size() * sizeof(R), up_, kTagOld + t, q[0]);
+      parallel::receive_bytes(X.star_in.data(), X.star_in.size() * sizeof(R), up_, kTagStar + t, q[1]);
+      parallel::receive_bytes(X.cells_in[1].data(), cell_bytes(cells_above), up_, kTagCellsDown + t, q[2]);
     }
     if (down_ >= 0) {
-      parallel::receive_bytes(X.cells_in[0].data(), cell_bytes(cells_below), down_, kTagCellsUp, q[3]);
-      parallel::receive_bytes(X.h_in.data(), X.h_in.size() * sizeof(R), down_, kTagH, q[4]);
+      parallel::receive_bytes(X.cells_in[0].data(), cell_bytes(cells_below), down_, kTagCellsUp + t, q[3]);
+      parallel::receive_bytes(X.h_in.data(), X.h_in.size() * sizeof(R), down_, kTagH + t, q[4]);
       pack_rows(f_, kHaloE, g_.row_begin(lo), s, X.old_out.data());
       pack_rows(f_, kCellH, g_.row_begin(lo), s, X.old_out.data() + kRowsE * s);
-      parallel::send_bytes(X.old_out.data(), X.old_out.size() * sizeof(R), down_, kTagOld, q[5]);
+      parallel::send_bytes(X.old_out.data(), X.old_out.size() * sizeof(R), down_, kTagOld + t, q[5]);
     }
     if (up_ >= 0) {
       q[0].wait();
@@ -135,24 +137,24 @@ void Simulation<R>::magnet_exchange(int point) {
   } else if (point == kAfterFaraday) {  // h* of the gather's H rows
     if (down_ >= 0) {
       pack_rows(f_, kCellH, g_.row_begin(lo), s, X.star_out.data());
-      parallel::send_bytes(X.star_out.data(), X.star_out.size() * sizeof(R), down_, kTagStar, q[6]);
+      parallel::send_bytes(X.star_out.data(), X.star_out.size() * sizeof(R), down_, kTagStar + t, q[6]);
     }
     if (up_ >= 0) q[1].wait(), unpack_rows(f_, kCellH, above, s, X.star_in.data());
   } else if (point == kAfterCells) {  // the cell rows' new state and dM
     if (up_ >= 0) {
       pack_cell_row(hi - 1, X.cells_out[0].data());
-      parallel::send_bytes(X.cells_out[0].data(), cell_bytes(hi - 1), up_, kTagCellsUp, q[7]);
+      parallel::send_bytes(X.cells_out[0].data(), cell_bytes(hi - 1), up_, kTagCellsUp + t, q[7]);
     }
     if (down_ >= 0) {
       pack_cell_row(lo, X.cells_out[1].data());
-      parallel::send_bytes(X.cells_out[1].data(), cell_bytes(lo), down_, kTagCellsDown, q[8]);
+      parallel::send_bytes(X.cells_out[1].data(), cell_bytes(lo), down_, kTagCellsDown + t, q[8]);
       q[3].wait(), unpack_cell_row(cells_below, X.cells_in[0].data());
     }
     if (up_ >= 0) q[2].wait(), unpack_cell_row(cells_above, X.cells_in[1].data());
   } else {  // kAfterH: the H rows the E update reads (slabs.h)
     if (up_ >= 0) {
       pack_rows(f_, kHaloH, g_.row_begin(hi - 1), s, X.h_out.data());
-      parallel::send_bytes(X.h_out.data(), X.h_out.size() * sizeof(R), up_, kTagH, q[9]);
+      parallel::send_bytes(X.h_out.data(), X.h_out.size() * sizeof(R), up_, kTagH + t, q[9]);
     }
     if (down_ >= 0) q[4].wait(), unpack_rows(f_, kHaloH, g_.row_begin(lo - 1), s, X.h_in.data());
   }
@@ -216,6 +218,71 @@ void Simulation<R>::step_magnetic_slab() {
   M.latest = MagneticCells::newest(n_);
 }
 
+/// step_magnetic_slab for both copies of a Bloch pair, row by row as step_pair_magnetic does
+/// it in one process (bloch_magnets.cpp): the seam joins the copies inside each row, so the
+/// cut between ranks needs only each copy's own exchanges (its own tags).
+template <class R>
+void Simulation<R>::step_magnetic_slab_pair() {
+  Simulation& b = *twin_;
+  compute_emitters();
+  b.compute_emitters();
+  magnet_exchange(kBeforeStep), b.magnet_exchange(kBeforeStep);
+  const long w = mag_.longest_row;
+#pragma omp parallel num_threads(threads_)
+  {
+    int j0, j1;
+    const int t = omp_get_thread_num();
+    block_rows(row1_ - row0_, t, omp_get_num_threads(), j0, j1);
+    j0 += row0_, j1 += row0_;
+    double* sa = mag_scratch_[t].data();
+    double* sb = b.mag_scratch_[t].data();
+    double* ring_a[2] = {sa + 7 * w, sa + 10 * w};  // as in step_magnetic
+    double* ring_b[2] = {sb + 7 * w, sb + 10 * w};
+    double *top_a = sa + 13 * w, *top_b = sb + 13 * w;
+    if (j1 > j0) {  // A
+      gather_row(j0, ring_a[j0 & 1]), b.gather_row(j0, ring_b[j0 & 1]);
+      if (j1 - 1 > j0) gather_row(j1 - 1, top_a), b.gather_row(j1 - 1, top_b);
+    }
+#pragma omp barrier
+    if (j1 > j0) pair_h_row(j0);
+#pragma omp barrier
+#pragma omp master
+    magnet_exchange(kAfterFaraday), b.magnet_exchange(kAfterFaraday);
+#pragma omp barrier
+    for (int j = j0; j < j1; ++j) {  // B: step_pair_magnetic's loop
+      if (j + 1 < j1 - 1) gather_row(j + 1, ring_a[(j + 1) & 1]), b.gather_row(j + 1, ring_b[(j + 1) & 1]);
+      if (j + 1 < j1) pair_h_row(j + 1);
+      const bool last = j == j1 - 1 && j > j0;
+      magnetic_row(j, n_, last ? top_a : ring_a[j & 1], sa, mag_tilted_[t * 8]);
+      b.magnetic_row(j, b.n_, last ? top_b : ring_b[j & 1], sb, b.mag_tilted_[t * 8]);
+      scatter_run_ends(j, n_), b.scatter_run_ends(j, b.n_);
+      if (in_absorber(j)) graded_decay(j, false, 5), b.graded_decay(j, false, 5);
+      if (j > j0) {
+        scatter_hy(j, n_), b.scatter_hy(j, b.n_);
+        if (in_absorber(j)) graded_decay(j, false, 2), b.graded_decay(j, false, 2);
+        pair_h_ghosts(j);
+        e_row(j), b.e_row(j);
+      }
+    }
+#pragma omp barrier
+#pragma omp master
+    magnet_exchange(kAfterCells), b.magnet_exchange(kAfterCells);
+#pragma omp barrier
+    if (j1 > j0) {  // C
+      scatter_hy(j0, n_), b.scatter_hy(j0, b.n_);
+      if (in_absorber(j0)) graded_decay(j0, false, 2), b.graded_decay(j0, false, 2);
+      pair_h_ghosts(j0);
+    }
+#pragma omp barrier
+#pragma omp master
+    magnet_exchange(kAfterH), b.magnet_exchange(kAfterH);  // D
+    if (j1 > j0) e_row(j0), b.e_row(j0);
+  }
+  for (int k = 5; k < 10; ++k) mhalo_.req[k].wait(), b.mhalo_.req[k].wait();
+  ++n_, ++b.n_;
+  mag_.latest = MagneticCells::newest(n_), b.mag_.latest = MagneticCells::newest(b.n_);
+}
+
 template <class R>
 void Simulation<R>::gather_cells() {
   if (mag_.empty()) return;
@@ -269,6 +336,7 @@ void Simulation<R>::gather_recorder_cells() {
   template void Simulation<R>::unpack_cell_row(int, const double*); \
   template void Simulation<R>::magnet_exchange(int);                \
   template void Simulation<R>::step_magnetic_slab();                \
+  template void Simulation<R>::step_magnetic_slab_pair();           \
   template void Simulation<R>::gather_cells();                      \
   template void Simulation<R>::gather_recorder_cells();
 TY_MAGNETIC_SLAB(float)

@@ -80,7 +80,19 @@ double Simulation<R>::seam_value(double own, double other, bool left) const {
 template <class R>
 std::string Simulation<R>::bloch_superposition_broken() const {
   if (!twin_ || mag_.empty()) return {};
-  const long n = midpoint_cell_steps() + twin_->midpoint_cell_steps();
+  // the copies' midpoint cell-steps on this rank's rows; over ranks (collective, every step a
+  // pair with magnets takes) whether any rank has one, then their sum in rank order
+  const auto own = [](const Simulation& s) {
+    long k = 0;
+    for (size_t t = 0; t < s.mag_tilted_.size(); t += 8) k += s.mag_tilted_[t];
+    return k;
+  };
+  long n = own(*this) + own(*twin_);
+  if (ranks_ > 1 && parallel::max_over_ranks(n) > 0) {
+    long total = 0;
+    for (const parallel::Pick& p : parallel::picks_over_ranks({0.0, n})) total += p.where;
+    n = total;
+  }
   if (n == 0) return {};
   return fmt::format(
       "bloch sides: {} magnetic cell-step{} tilted past the small-signal limit ({:g} rad) by step {}; the "
