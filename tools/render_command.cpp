@@ -73,7 +73,12 @@ class SnapshotSource {
     x_ = h.read_checked("/grid/" + parts_[0] + "/x", {shapes_[0][2]});
     y_ = h.read_checked("/grid/" + parts_[0] + "/y", {shapes_[0][1]});
     const std::string off = h.read_attribute("/snapshots/" + parts_[0], "time-offset");
-    for (double& t : t_) t += std::stod(off);
+    char* end = nullptr;
+    const double dt = std::strtod(off.c_str(), &end);
+    if (off.empty() || *end != '\0' || !std::isfinite(dt))
+      throw BadInput(fmt::format("{}: error: /snapshots/{} (attribute time-offset): '{}' is not a time in seconds",
+                                 file, parts_[0], off));
+    for (double& t : t_) t += dt;
   }
   size_t frames() const { return t_.size(); }
   const std::vector<double>& x() const { return x_; }

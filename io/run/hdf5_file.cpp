@@ -274,17 +274,4 @@ void File::read_frame(const std::string& path, hsize_t frame, std::vector<double
   read_frame_any(path, frame, out, H5T_NATIVE_DOUBLE);
 }
 
-std::string File::read_attribute(const std::string& object, const std::string& name) const {
-  Handle a(check(H5Aopen_by_name(id(), object.c_str(), name.c_str(), H5P_DEFAULT, H5P_DEFAULT),
-                 "no attribute " + name + " on " + object),
-           H5Aclose);
-  Handle type(check(H5Aget_type(a.id()), "type"), H5Tclose);
-  if (H5Tget_class(type.id()) == H5T_FLOAT) {
-    double v = 0;
-    H5Aread(a.id(), H5T_NATIVE_DOUBLE, &v);
-    return fmt::format("{}", v);
-  }
-  return read_string_attribute(object, name, hsize_t(1) << 30);
-}
-
 }  // namespace ty::h5

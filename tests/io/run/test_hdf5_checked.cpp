@@ -59,5 +59,11 @@ TEST_CASE("checked HDF5 readers check every shape before reading and name the da
   CHECK(message_of([&] { f.read_text("/a", 1000); }).find("2 dimensions") != std::string::npos);
   CHECK(message_of([&] { f.read_string_attribute("/", "vl", 10); }).find("longer than 10") != std::string::npos);
   CHECK(message_of([&] { f.read_string_attribute("/", "none", 10); }).find("missing") != std::string::npos);
+  // an attribute a reader expects, missing (the run-folder fuzzer's finding: a snapshot without
+  // its units attribute ended `render` in a plain error, exit 1, instead of exit 2)
+  CHECK(message_of([&] { f.read_attribute("/a", "units-not-there"); }).find("(attribute units-not-there): missing") !=
+        std::string::npos);
+  CHECK(message_of([&] { f.read_attribute("/nothing", "units"); }).find("/nothing: missing") != std::string::npos);
+  CHECK(f.read_attribute("/a", "units") == "m");
   fs::remove(path);
 }
