@@ -62,21 +62,21 @@ std::string File::read_text(const std::string& path, hsize_t max_bytes) const {
   return s;
 }
 
-/// A number or a string attribute of a file read back: missing, of another class or not a
-/// single value is bad input (exit 2), as for the datasets.
+/// A number or a string attribute of a file read back: a single number is read here; anything
+/// else goes through read_string_attribute, whose checks (missing object or attribute, not a
+/// single string) make it bad input (exit 2), as for the datasets.
 std::string File::read_attribute(const std::string& object, const std::string& name) const {
-  const std::string where = object + " (attribute " + name + ")";
-  if (!exists(object) && object != "/") bad(object, "missing");
-  if (H5Aexists_by_name(id(), object.c_str(), name.c_str(), H5P_DEFAULT) <= 0) bad(where, "missing");
-  Handle a(H5Aopen_by_name(id(), object.c_str(), name.c_str(), H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
-  Handle type(a ? H5Aget_type(a.id()) : -1, H5Tclose);
-  Handle space(a ? H5Aget_space(a.id()) : -1, H5Sclose);
-  if (!type || !space) bad(where, "cannot be read");
-  if (H5Tget_class(type.id()) == H5T_FLOAT) {
-    if (H5Sget_simple_extent_npoints(space.id()) != 1) bad(where, "is not a single number");
-    double v = 0;
-    if (H5Aread(a.id(), H5T_NATIVE_DOUBLE, &v) < 0) bad(where, "cannot be read");
-    return fmt::format("{}", v);
+  if ((object == "/" || exists(object)) && H5Aexists_by_name(id(), object.c_str(), name.c_str(), H5P_DEFAULT) > 0) {
+    Handle a(H5Aopen_by_name(id(), object.c_str(), name.c_str(), H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
+    Handle type(a ? H5Aget_type(a.id()) : -1, H5Tclose);
+    if (type && H5Tget_class(type.id()) == H5T_FLOAT) {
+      const std::string where = object + " (attribute " + name + ")";
+      Handle space(H5Aget_space(a.id()), H5Sclose);
+      if (!space || H5Sget_simple_extent_npoints(space.id()) != 1) bad(where, "is not a single number");
+      double v = 0;
+      if (H5Aread(a.id(), H5T_NATIVE_DOUBLE, &v) < 0) bad(where, "cannot be read");
+      return fmt::format("{}", v);
+    }
   }
   return read_string_attribute(object, name, hsize_t(1) << 30);
 }
