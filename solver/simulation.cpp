@@ -32,11 +32,10 @@ Simulation<R>::Simulation(const Scene& scene, int threads, int copy) : scene_(sc
 
   for (auto& a : f_) a.resize(g_.size());
   bytes_ += 6 * g_.size() * sizeof(R);
-  std::vector<double> cb[3];
-  build_media(cb);
+  build_media();
   build_magnets();
-  build_pml(cb);
-  build_sources(cb);
+  build_pml();
+  build_sources();
   build_recorders(plan);
   build_slabs();
   stop_ = StopRule(scene.time.auto_stop, plan, power_spectra_, maps_);

@@ -65,16 +65,15 @@ class Simulation {
   /// One time step with sources, without recorders.
   void step();
   /// Over several ranks (solver/parallel/slab_step.cpp): this rank's rows [lo, hi) of the
-  /// sweep and the rank count. Every rank holds the whole arrays but updates only its rows;
-  /// gather_state() (collective) makes every field row and the injected work whole on every
-  /// rank, for what reads the whole grid (field_energy, the summary); gather_sums() (collective)
-  /// only each row's held energy and work (solver/guard/held_energy.cpp): enough for
-  /// held_energy(), injected_energy(), the guard and the stop rule.
+  /// sweep and the rank count. A rank's arrays hold current values only in its rows (and the
+  /// halo and recorder rows it receives); no rank ever holds the whole grid's. gather_sums()
+  /// (collective) gives every rank each row's held energy and work (held_energy.cpp): enough
+  /// for held_energy(), injected_energy(), the guard and the stop rule; gather_sums(true), for
+  /// the summary, also each row's field energy (field_energy()) and the midpoint cell-steps.
   int ranks() const { return ranks_; }
   int row_lo() const { return row0_; }
   int row_hi() const { return row1_; }
-  void gather_state();
-  void gather_sums();
+  void gather_sums(bool summary = false);
   /// The parts [a, b) of state array `name` of visit_state (n values) that this rank's rows
   /// update (solver/parallel/state_owners.cpp): over ranks, each rank writes these of a
   /// checkpoint, together the array a one-process run holds; one rank owns all of it. The
@@ -118,7 +117,7 @@ class Simulation {
   double magnetic_energy() const;
   const MagneticCells& magnets() const { return mag_; }
   /// Magnetic cell-steps so far that were tilted past the small-signal step and took the
-  /// midpoint rule (cell_step.h); over ranks, the other ranks' as of the last gather_state().
+  /// midpoint rule (cell_step.h); over ranks, the other ranks' as of the last gather_sums(true).
   long midpoint_cell_steps() const {
     long s = mhalo_.tilted_elsewhere;
     for (size_t t = 0; t < mag_tilted_.size(); t += 8) s += mag_tilted_[t];
@@ -175,7 +174,7 @@ class Simulation {
   const std::vector<SpectralMap>& spectral_maps() const { return maps_; }
   const SnapshotPlan& snapshot_plan() const { return snaps_.plan; }
   void set_snapshot_sink(SnapshotSink* sink) { sink_ = sink; }
-  /// Medium index of each cell of the extent ([row][column], -1 = vacuum).
+  /// Medium index of each cell of the extent ([row][column], -1 = vacuum); over ranks rank 0 alone holds it.
   const std::vector<int>& medium_map() const { return medium_map_; }
   int map_nx() const { return map_nx_; }
   int map_ny() const { return map_ny_; }
@@ -212,8 +211,9 @@ class Simulation {
   long n_ = 0;
   R sx_, sy_;  // c dt / dx, c dt / dy
   std::array<AlignedArray<R>, 6> f_;
-  // media: runs per (row, E component), flat; row_runs_[3 j + c] .. [3 j + c + 1]
+  // media: runs per (row, E component), flat; row_runs_[3 j + c] .. [3 j + c + 1]; each run's cb
   std::vector<Run> runs_;
+  std::vector<double> run_cb_;
   std::vector<int> row_runs_;
   std::vector<char> simple_row_;  // vacuum-like row: one run per component, ca = 1, equal k
   // PML
@@ -230,7 +230,7 @@ class Simulation {
   std::vector<Injection> inj_h_, inj_e_;
   std::vector<int> inj_h_row_, inj_e_row_;  // offsets per row, size ny+1
   std::vector<double> injected_;            // per row: energy the injections put in, J/m
-  std::vector<double> row_held_;            // over ranks, per row: row_held() (gather_sums), J/m
+  std::vector<double> row_held_, row_fields_;  // over ranks, per row: row_held(), row_fields() (gather_sums), J/m
   Boundaries walls_;
   // recorders
   std::vector<ProbeRecorder> probes_;
@@ -255,7 +255,7 @@ class Simulation {
   parallel::Request halo_req_[4];
   std::vector<int> recorder_rows_, recorder_counts_;  // rows (ghosts -1, ny too) recorders read each step; bytes/rank
   std::vector<R> recorder_buf_;
-  std::vector<int> state_counts_, work_counts_, pole_counts_;  // gather_state's bytes per rank
+  std::vector<int> work_counts_;  // gather_sums' bytes per rank (a double a row)
   std::vector<int> frame_rows_, frame_counts_;  // on frame_steps_: the recorder rows and each cut's lower row
   std::vector<long> frame_steps_;  // steps a Poynting frame reads (its own and the one before)
   std::vector<R> tensor_buf_;      // the tensor list's E, each rank's Ex then Ey nodes, in rank order
@@ -291,24 +291,23 @@ class Simulation {
   double row_held(int j) const;
   double copy_held() const;
   double magnetic_energy_of(long k0, long k1) const;
-  void build_media(std::vector<double> (&cb)[3]);
+  void build_media();
+  double node_cb(int c, int i, int j) const;  ///< cb of E node (c, i, j), from its run (the builders')
   void node_coefficients(int c, int i, int j, double& a, double& b, std::vector<DispersiveNode>& out) const;
   void join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>& found);
   void mark_tensor_nodes(std::vector<char> (&in)[2]) const;
   // the absorber's hooks (absorber_hooks.cpp): its strips, and the CPML correction of the
   // H and E updates of row j (Roden & Gedney 2000)
-  void build_pml(const std::vector<double> (&cb)[3]);
+  void build_pml();
   void pml_h_row(int j);
   bool in_absorber(int j) const { return px_.count() > 0 || pml_row_of_[j] >= 0; }
   void pml_e_row(int j);
   /// The graded loss (graded_loss.h) on the E (electric) or H nodes of row j, after their
   /// final update; mask: which of the three components (bit 0: x, 1: y, 2: z).
   void graded_decay(int j, bool electric, int mask = 7);
-  void build_sources(const std::vector<double> (&cb)[3]);
-  /// A point source's Gaussian footprint of injections.
-  void add_point_source(const Source& src, int signal, const std::vector<double> (&cb)[3]);
-  /// A beam's or plane wave's one-sided total-field/scattered-field sheet.
-  void add_launch_sheet(const Source& src, int signal, const std::vector<double> (&cb)[3]);
+  void build_sources();
+  void add_point_source(const Source& src, int signal);  ///< a point source's Gaussian footprint of injections
+  void add_launch_sheet(const Source& src, int signal);  ///< a beam's or plane wave's one-sided TF/SF sheet
   void build_recorders(const StopPlan& plan);
   void build_slabs();
   void step_slab();
@@ -338,8 +337,8 @@ class Simulation {
   void magnet_exchange(int point);
   void pack_cell_row(int j, double* to) const;
   void unpack_cell_row(int j, const double* from);
-  /// Every rank's cells whole on every rank (in gather_state), and the recorder rows' cells.
-  void gather_cells();
+  /// The other ranks' midpoint cell-steps (gather_sums(true)); the recorder rows' cells.
+  void gather_tilted_count();
   void gather_recorder_cells();
   void build_magnets();
   void step_fused(), step_magnetic();

@@ -3,7 +3,7 @@
 /// (slabs of whole rows, solver/parallel/slabs.h) and what crosses the cuts every step,
 /// with the communication time of a step on two typical networks (the model of
 /// docs/parallel.md: a message costs latency + bytes / bandwidth), and the memory per rank
-/// (each rank holds the whole arrays: as much as one process).
+/// (the field and absorber arrays divided by rows; the lists and recorders whole on every rank).
 #include <fmt/format.h>
 
 #include <algorithm>
@@ -54,15 +54,22 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
         std::tuple{"10 Gb Ethernet (20 us, 1.2 GB/s)", 20e-6, 1.2e9}})
     std::cout << fmt::format("  exposed halo time per step on {}: about {:.3g} us\n", name,
                              1e6 * (latency + rank_bytes / bandwidth));
-  // Every rank allocates the whole grid's arrays and updates only its rows: the memory is not split.
-  const RunSizes z = run_sizes(s);
-  const double whole = resident_bytes() + z.memory_bytes();
+  // A rank's field and absorber arrays are resident only in its own rows (solver/grid/aligned.h:
+  // zero pages until written); the lists and recorders are whole on every rank, the medium map on rank 0.
+  RunSizes z = run_sizes(s);
+  for (MemoryItem& m : z.memory)
+    if (m.what.rfind("fields and absorber", 0) == 0) m.bytes /= P;
+  const double first = resident_bytes() + z.memory_bytes();
+  for (MemoryItem& m : z.memory)
+    if (m.what.rfind("medium map", 0) == 0) m.bytes = 0;
+  const double other = resident_bytes() + z.memory_bytes();
   const double buffers = 4.0 * parallel::halo_components(true) * g.stride * b;  // halo rows out and in, E and H
   std::cout << fmt::format(
-      "  memory per rank: about {:.1f} MB, as much as one process (every rank still holds the whole grid's "
-      "arrays; the work is split over the ranks, the memory is not), plus {:.3g} MB of halo rows and the "
-      "recorders' gathered rows; {} ranks on one node hold about {:.1f} MB there\n",
-      whole / 1e6, buffers / 1e6, P, P * whole / 1e6);
+      "  memory per rank: about {:.1f} MB on rank 0, {:.1f} MB on each other rank (the field and absorber "
+      "arrays divided by rows; the magnetic cells, dispersive nodes and recorders whole on every rank, the "
+      "medium map on rank 0), plus {:.3g} MB of halo rows and the recorders' gathered rows; {} ranks on one "
+      "node hold about {:.1f} MB there\n",
+      first / 1e6, other / 1e6, buffers / 1e6, P, (first + (P - 1) * other) / 1e6);
   if (fewest < parallel::kMinRowsPerRank)
     std::cout << fmt::format("  refused: a rank would hold {} row{}; {} ranks need at least {} rows\n", fewest,
                              fewest == 1 ? "" : "s", P, P * parallel::kMinRowsPerRank);

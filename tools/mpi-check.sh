@@ -11,7 +11,8 @@
 # one step with a checkpoint that resumes to the same bits; a damaged checkpoint or one of
 # another scene is refused with exit status 2 over 2 ranks (no hang). First, the guard: the
 # bench and the magnetic bench at 1.2 times the stable time step must be stopped at the same
-# step with the same message on one process and on 3 ranks (quick mode too).
+# step with the same message on one process and on 3 ranks, and each of 3 ranks must hold
+# well under one process's memory (quick mode too).
 #   tools/mpi-check.sh            the bench scene with absorbing and with periodic y edges, a Bloch
 #                                 half-space (the sine copy over ranks), the Otto bench (Bloch sides
 #                                 with magnets), a rotated-tensor disc, and the
@@ -170,8 +171,32 @@ guard_check() {
   fi
 }
 
+# memory_check: the field arrays divided over ranks (solver/grid/aligned.h: a rank's pages are
+# those of its own rows). On a grid whose fields are most of the memory (the speed bench at
+# 0.75 um: 1620 x 1220 cells, 106 MB of fields), each of 3 ranks must peak (resident set,
+# /usr/bin/time) under 0.7 of one process's peak: measured 0.52-0.58 (74-82 MB against 142 MB;
+# the program and Open MPI are about 30 MB of it); a rank touching every row reaches 1.0 or more.
+memory_check() {
+  local scene="$root/scenarios/cluster/ranks-speed.yaml" one worst=0 m
+  [ -x /usr/bin/time ] || { echo "mpi-check: memory: no /usr/bin/time (Debian's time): skipped"; return 0; }
+  local sets=(--set grid.cell=0.75um --set time.stop=0.2ps --quiet)
+  one=$( { /usr/bin/time -f "peak %M" "$bin" run "$scene" "${sets[@]}" -o "$work/mem-one" --threads 1; } 2>&1 |
+    sed -n 's/^peak //p')
+  mpirun -n 3 --oversubscribe --mca mpi_yield_when_idle 1 -x OMP_NUM_THREADS=1 \
+    sh -c '/usr/bin/time -o "$0-$OMPI_COMM_WORLD_RANK" -f "%M" "$@"' "$work/mem-rank" \
+    "$bin" run "$scene" "${sets[@]}" -o "$work/mem-ranks" --threads 1 2>/dev/null || true
+  for f in "$work"/mem-rank-*; do m=$(tail -1 "$f"); [ "$m" -gt "$worst" ] && worst=$m; done
+  if [ "$worst" -gt 0 ] && [ $((worst * 10)) -lt $((one * 7)) ]; then
+    echo "mpi-check: memory: 3 ranks peak at most $((worst / 1024)) MB each, one process $((one / 1024)) MB"
+  else
+    echo "mpi-check: memory: a rank of 3 peaked at $((worst / 1024)) MB, one process at $((one / 1024)) MB: not divided"
+    failed=1
+  fi
+}
+
 failed=0
 if [ $custom -eq 0 ]; then
+  memory_check
   guard_check "$bench" bench
   guard_check "$root/tests/data/ranks-magnets.yaml" magnets
 fi

@@ -22,6 +22,7 @@
 #include "io/run/run_folder.h"
 #include "io/run/stop_signals.h"
 #include "io/scene/diagnostics.h"
+#include "io/scene/medium_lookup.h"
 #include "io/scene/scene_reader.h"
 #include "io/scene/scene_writer.h"
 #include "io/scene/validation.h"
@@ -62,8 +63,8 @@ struct Runner {
     const double x = g.x(c, i) - scene.origin_shift.x, y = g.y(c, j) - scene.origin_shift.y;
     const int mi = i - g.npml_x, mj = j - g.npml_y;
     std::string medium = "the absorbing layer";
-    if (mi >= 0 && mj >= 0 && mi < sim.map_nx() && mj < sim.map_ny()) {
-      const int m = sim.medium_map()[static_cast<size_t>(mj) * sim.map_nx() + mi];
+    if (mi >= 0 && mj >= 0 && mi < sim.map_nx() && mj < sim.map_ny()) {  // the medium map's cell, as fields.h5's
+      const int m = medium_at(scene, {(mi + 0.5) * g.dx, (mj + 0.5) * g.dy});
       medium = m < 0 ? "vacuum" : "medium '" + scene.media.at(m).name + "'";
     }
     if (folder) folder->abandon();
@@ -217,6 +218,18 @@ nlohmann::json stop_summary(const Scene& scene, const Simulation<R>& sim, Log& l
   return j;
 }
 
+/// The largest tilt inside (absorber) or outside the absorbing layers: each rank's cells, then over the ranks.
+template <class R>
+double largest_tilt(const Simulation<R>& sim, bool absorber) {
+  const MagneticCells& M = sim.magnets();
+  const YeeGrid& g = sim.grid();
+  double t = M.largest_tilt(absorber, g.nx, g.ny, g.npml_x, g.npml_y, M.first_cell(sim.row_lo()),
+                            M.first_cell(sim.row_hi()));
+  if (sim.ranks() > 1)
+    for (const parallel::Pick& p : parallel::picks_over_ranks({t, 0})) t = std::max(t, p.value);
+  return t;
+}
+
 template <class R>
 nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, long first, double wall) {
   const YeeGrid& g = sim.grid();
@@ -250,8 +263,7 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
   if (!sim.magnets().empty()) {
     const double cell_steps = static_cast<double>(sim.magnets().count()) * static_cast<double>(N - first);
     const double tilted = cell_steps > 0 ? sim.midpoint_cell_steps() / cell_steps : 0.0;
-    const double tilt_in = sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y);
-    const double tilt_out = sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y);
+    const double tilt_in = largest_tilt(sim, true), tilt_out = largest_tilt(sim, false);
     s["magnetic-cells"] = {{"count", sim.magnets().count()},
                            {"midpoint-fraction", tilted},
                            {"largest-tilt-rad", tilt_out},
@@ -346,7 +358,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
     if (const int rc = run.loop(); rc >= 0) return rc;
     const double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
     if (folder && sim.steps_done() < sim.total_steps()) folder->ended_at(sim.steps_done());
-    sim.gather_sums(), sim.gather_state();  // the summary's energies: the rows' sums, and the whole grid
+    sim.gather_sums(true);  // the summary's energies and counts: the rows' sums (no rank gathers the grid)
     const nlohmann::json s = make_summary(scene, sim, log, first, wall);
     if (folder) folder->finish(sim.probes(), sim.power_spectra(), sim.spectral_maps(), g.dt, s);
     log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", sim.steps_done(), hms(wall),

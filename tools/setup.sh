@@ -10,7 +10,7 @@ root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 packages=(cmake g++ make libhdf5-dev libyaml-cpp-dev libfmt-dev nlohmann-json3-dev libeigen3-dev doctest-dev libcli11-dev libexpat1-dev
   pkg-config libcairo2-dev fonts-dejavu-core libplplot-dev plplot-driver-cairo ffmpeg universal-ctags)
 mpi="${MPI:-OFF}"
-[ "$mpi" = "ON" ] && packages+=(openmpi-bin libopenmpi-dev libhdf5-openmpi-dev jq hdf5-tools)  # jq, h5diff: mpi-check.sh
+[ "$mpi" = "ON" ] && packages+=(openmpi-bin libopenmpi-dev libhdf5-openmpi-dev jq hdf5-tools time)  # jq, h5diff, time: mpi-check.sh
 missing=()
 for p in "${packages[@]}"; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")

@@ -2,7 +2,7 @@
 /// \brief The memory a run of a scene will hold at its peak, from the Scene alone, by the
 /// solver's own allocations (solver/simulation.cpp and the rooms it builds, the recorders,
 /// io/run/run_folder.cpp's closing datasets): what is held through the run, what only the
-/// construction holds (the coefficient arrays of every cell), and what only the end holds
+/// construction holds (the dispersive nodes' and magnetic cells' build lists), and what only the end holds
 /// (the results converted for writing). The peak is the held part plus the larger of the
 /// two passing ones; docs/runs.md has the measured peaks beside these estimates.
 #include <fmt/format.h>
@@ -80,9 +80,16 @@ void add_media(const Scene& s, RunSizes& z) {
   const double cpml = 6 * (2 * (z.npml_x + 1) * z.ny + 2 * (z.npml_y + 1) * z.nx) * real;
   // the medium of each cell of the extent, an int each
   const double map = 4 * std::round(s.grid.extent.x / s.grid.dx) * std::round(s.grid.extent.y / s.grid.dy);
-  z.memory.push_back({"fields and absorber", fields + cpml + map, s.grid.where});
-  // while the media are built: ca and cb of the three E components in every cell, doubles
-  z.memory.push_back({"coefficients while the media are built", 6 * 8 * cells, s.grid.where, MemoryItem::Phase::build});
+  z.memory.push_back({"fields and absorber", fields + cpml, s.grid.where});
+  z.memory.push_back({"medium map", map, s.grid.where});  // over ranks rank 0's alone
+  // while the media are built (row by row, coefficient_runs.cpp): each thread's row of ca and cb,
+  // a run per coefficient change; with rotated in-plane media, four bytes a node (which nodes
+  // sample them, and the tensor list's marks)
+  const bool rotated = std::any_of(s.media.begin(), s.media.end(), [](const Medium& m) {
+    return !m.perfect_conductor && m.tensor && !m.tensor->diagonal_in_plane();
+  });
+  if (rotated)
+    z.memory.push_back({"rotated media's marks while built", 4 * cells, s.grid.where, MemoryItem::Phase::build});
   double poles = 0;
   for (const auto& m : s.media)
     if (m.tensor && m.tensor->dispersive())

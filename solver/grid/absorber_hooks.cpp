@@ -14,7 +14,7 @@ using constants::c0;
 using constants::eta0;
 
 template <class R>
-void Simulation<R>::build_pml(const std::vector<double> (&cb)[3]) {
+void Simulation<R>::build_pml() {
   const Absorber& A = scene_.grid.absorber;
   // which sides take the graded loss: all, none, or (automatic) those whose layer holds
   // magnetic cells, where a PML can amplify backward waves (graded_loss.h)
@@ -63,16 +63,14 @@ void Simulation<R>::build_pml(const std::vector<double> (&cb)[3]) {
   const double kx = c0 * g_.dt / g_.dx, ky = c0 * g_.dt / g_.dy;
   for (int j = 0; j < g_.ny; ++j)
     for (int l = 0; l < px_.count(); ++l) {
-      const size_t node = static_cast<size_t>(j) * g_.nx + px_.lines[l];
-      cb_eyx_[static_cast<size_t>(j) * px_.count() + l] = static_cast<R>(cb[1][node] * kx);
-      cb_ezx_[static_cast<size_t>(j) * px_.count() + l] = static_cast<R>(cb[2][node] * kx);
+      cb_eyx_[static_cast<size_t>(j) * px_.count() + l] = static_cast<R>(node_cb(1, px_.lines[l], j) * kx);
+      cb_ezx_[static_cast<size_t>(j) * px_.count() + l] = static_cast<R>(node_cb(2, px_.lines[l], j) * kx);
     }
   for (int l = 0; l < py_.count(); ++l) {
     const int j = py_.lines[l];
     for (int i = 0; i < g_.nx; ++i) {
-      const size_t node = static_cast<size_t>(j) * g_.nx + i;
-      cb_exy_[static_cast<size_t>(l) * g_.nx + i] = static_cast<R>(cb[0][node] * ky);
-      cb_ezy_[static_cast<size_t>(l) * g_.nx + i] = static_cast<R>(cb[2][node] * ky);
+      cb_exy_[static_cast<size_t>(l) * g_.nx + i] = static_cast<R>(node_cb(0, i, j) * ky);
+      cb_ezy_[static_cast<size_t>(l) * g_.nx + i] = static_cast<R>(node_cb(2, i, j) * ky);
     }
   }
 }
@@ -204,10 +202,10 @@ void Simulation<R>::graded_decay(int j, bool electric, int mask) {
   }
 }
 
-#define TY_INSTANTIATE(R)                                                  \
-  template void Simulation<R>::build_pml(const std::vector<double>(&)[3]); \
-  template void Simulation<R>::pml_h_row(int);                             \
-  template void Simulation<R>::pml_e_row(int);                             \
+#define TY_INSTANTIATE(R)                      \
+  template void Simulation<R>::build_pml();    \
+  template void Simulation<R>::pml_h_row(int); \
+  template void Simulation<R>::pml_e_row(int); \
   template void Simulation<R>::graded_decay(int, bool, int);
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)

@@ -76,20 +76,26 @@ double Simulation<R>::held_energy() const {
   return copy_held() + (twin_ ? twin_->copy_held() : 0.0);
 }
 
+/// Each row's held energy and work from its rank to every rank; with `summary` (once, at the
+/// end) each row's field energy and the midpoint cell-steps too.
 template <class R>
-void Simulation<R>::gather_sums() {
+void Simulation<R>::gather_sums(bool summary) {
   if (ranks_ == 1) return;
-  if (twin_) twin_->gather_sums();
+  if (twin_) twin_->gather_sums(summary);
   for (int j = row0_; j < row1_; ++j) row_held_[j] = row_held(j);
   parallel::allgather_bytes(row_held_.data(), work_counts_);  // a double a row, each rank its rows
   parallel::allgather_bytes(injected_.data(), work_counts_);
+  if (!summary) return;
+  for (int j = row0_; j < row1_; ++j) row_fields_[j] = row_fields(j);
+  parallel::allgather_bytes(row_fields_.data(), work_counts_);
+  gather_tilted_count();
 }
 
-/// Row by row, as held_energy (in one process: over ranks, after gather_state()).
+/// Row by row, as held_energy (over ranks the rows' sums of the last gather_sums(true)).
 template <class R>
 double Simulation<R>::field_energy() const {
   double w = 0;
-  for (int j = 0; j < g_.ny; ++j) w += row_fields(j);
+  for (int j = 0; j < g_.ny; ++j) w += ranks_ > 1 ? row_fields_[j] : row_fields(j);
   // a Bloch pair's energy is that of the complex field A + iB: both copies' (they exchange it
   // across the seam, so either alone swings)
   return w + (twin_ ? twin_->field_energy() : 0.0);
@@ -123,7 +129,7 @@ bool Simulation<R>::find_nonfinite(int& i, int& j, Component& c) const {
   template double Simulation<R>::row_held(int) const;                        \
   template double Simulation<R>::copy_held() const;                          \
   template double Simulation<R>::held_energy() const;                        \
-  template void Simulation<R>::gather_sums();                                \
+  template void Simulation<R>::gather_sums(bool);                            \
   template double Simulation<R>::field_energy() const;                       \
   template bool Simulation<R>::find_nonfinite(int&, int&, Component&) const;
 TY_HELD_ENERGY(float)

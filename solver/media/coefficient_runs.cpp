@@ -3,8 +3,10 @@
 /// medium averaged over its cell (4 x 4 sub-samples; perfect conductors zero both; dispersive
 /// nodes also go to the compact list of solver/media/dispersive_cells.h; in-plane nodes
 /// where eps_xy != 0, and their neighbours, to solver/media/tensor_cells.h), then
-/// rows of run-length coefficient runs (Run{i0, i1, ca, kx, ky}), a vacuum-like row marked
-/// for the fused constant-coefficient loop; and the medium map of the extent's cells.
+/// rows of run-length coefficient runs (Run{i0, i1, ca, kx, ky}, and each run's cb for the
+/// absorber's and sources' builders), a vacuum-like row marked for the fused
+/// constant-coefficient loop; and the medium map of the extent's cells. Built a row at a
+/// time: no array of every node's coefficients is held (it would be as large as the fields).
 #include <algorithm>
 
 #include "io/scene/medium_lookup.h"
@@ -124,77 +126,94 @@ void Simulation<R>::mark_tensor_nodes(std::vector<char> (&in)[2]) const {
       const int si = c == 0 ? 1 : -1, sj = -si;  // the neighbours' offsets (tensor_cells.cpp)
       for (int j = 0; j < ny; ++j)
         for (int i = 0; i < nx; ++i)
-          in[c][size_t(j) * nx + i] = on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) ||
-                                      on(1 - c, i, j + sj) || on(1 - c, i + si, j + sj);
+          in[c][size_t(j) * nx + i] = on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) || on(1 - c, i, j + sj) ||
+                                      on(1 - c, i + si, j + sj);
     }
     if (layer == 0) rot[0] = in[0], rot[1] = in[1];
   }
 }
 
 template <class R>
-void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
+void Simulation<R>::build_media() {
   const Scene& s = scene_;
   const int nx = g_.nx, ny = g_.ny;
-  std::vector<double> ca[3];
   // per row, the dispersive nodes found there (joined in row order below)
   std::vector<std::vector<DispersiveNode>> found(ny);
   std::vector<char> in_tensor[2];  // in-plane nodes stepped by the tensor list
   std::vector<std::vector<TensorNode>> tensor_found(ny);
   mark_tensor_nodes(in_tensor);
-  for (int c = 0; c < 3; ++c) {
-    ca[c].assign(static_cast<size_t>(nx) * ny, 1.0);
-    cb[c].assign(static_cast<size_t>(nx) * ny, 1.0);
-    if (s.bodies.empty()) continue;
-#pragma omp parallel for schedule(static) num_threads(threads_)
-    for (int j = 0; j < ny; ++j)
-      for (int i = 0; i < nx; ++i) {
-        const size_t at = static_cast<size_t>(j) * nx + i;
-        TensorNode t;
-        if (c < 2 && !in_tensor[c].empty() && in_tensor[c][at] && tensor_node(s, g_, c, i, j, t))
-          tensor_found[j].push_back(std::move(t));  // swept as vacuum: ca = cb = 1
-        else
-          node_coefficients(c, i, j, ca[c][at], cb[c][at], found[j]);
+  // Row by row: each row's coefficients live only while its runs are made (an array of
+  // every node's ca and cb would be six doubles a node, as much as the fields in double).
+  std::vector<std::vector<Run>> row_runs(ny);
+  std::vector<std::vector<double>> row_cb(ny);
+#pragma omp parallel num_threads(threads_)
+  {
+    std::vector<double> ca[3], cb[3];
+#pragma omp for schedule(static)
+    for (int j = 0; j < ny; ++j) {
+      for (int c = 0; c < 3; ++c) {
+        ca[c].assign(nx, 1.0);
+        cb[c].assign(nx, 1.0);
+        if (s.bodies.empty()) continue;
+        for (int i = 0; i < nx; ++i) {
+          const size_t at = static_cast<size_t>(j) * nx + i;
+          TensorNode t;
+          if (c < 2 && !in_tensor[c].empty() && in_tensor[c][at] && tensor_node(s, g_, c, i, j, t))
+            tensor_found[j].push_back(std::move(t));  // swept as vacuum: ca = cb = 1
+          else
+            node_coefficients(c, i, j, ca[c][i], cb[c][i], found[j]);
+        }
       }
+      walls_.hold_e_row(j, ca, cb, nx);                          // electric walls
+      std::erase_if(tensor_found[j], [&](const TensorNode& t) {  // those an electric wall holds stay out
+        return ca[t.comp][t.i] != 1.0 || cb[t.comp][t.i] != 1.0;
+      });
+      for (int c = 0; c < 3; ++c) {
+        int i0 = 0;
+        for (int i = 1; i <= nx; ++i) {
+          if (i < nx && ca[c][i] == ca[c][i0] && cb[c][i] == cb[c][i0]) continue;
+          row_runs[j].push_back({i0, i, static_cast<R>(ca[c][i0]), static_cast<R>(cb[c][i0] * c0 * g_.dt / g_.dx),
+                                 static_cast<R>(cb[c][i0] * c0 * g_.dt / g_.dy)});
+          row_cb[j].push_back(cb[c][i0]);
+          i0 = i;
+        }
+      }
+    }
   }
   join_dispersive_nodes(found);
-  walls_.hold_e_coefficients(ca, cb, nx, ny);  // electric walls
-  std::vector<TensorNode> tensor_nodes;        // those an electric wall holds stay out
+  std::vector<TensorNode> tensor_nodes;
   for (auto& row : tensor_found)
-    for (auto& t : row)
-      if (ca[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0 &&
-          cb[t.comp][static_cast<size_t>(t.j) * nx + t.i] == 1.0)
-        tensor_nodes.push_back(std::move(t));
+    for (auto& t : row) tensor_nodes.push_back(std::move(t));
   tensor_ = join_tensor_nodes(tensor_nodes, g_, s.grid.bx == Boundary::periodic, s.grid.by == Boundary::periodic);
   bytes_ += tensor_.index.size() * (sizeof(long) + 10 * sizeof(int) + 10 * sizeof(double)) +
             tensor_.kind.size() * (sizeof(int) + 3 * sizeof(double) + 2 * (sizeof(AdeNode) + sizeof(int))) +
             tensor_.poles.size() * (sizeof(AdePole) + 2 * sizeof(double));
 
-  // run-length rows
+  // the rows' runs joined in row order; a row's three components' runs one after another
   row_runs_.assign(static_cast<size_t>(3) * ny + 1, 0);
   simple_row_.assign(ny, 0);
   for (int j = 0; j < ny; ++j) {
-    for (int c = 0; c < 3; ++c) {
-      row_runs_[3 * j + c] = static_cast<int>(runs_.size());
-      int i0 = 0;
-      for (int i = 1; i <= nx; ++i) {
-        const size_t a = static_cast<size_t>(j) * nx + i0, b = static_cast<size_t>(j) * nx + i;
-        if (i < nx && ca[c][b] == ca[c][a] && cb[c][b] == cb[c][a]) continue;
-        runs_.push_back({i0, i, static_cast<R>(ca[c][a]), static_cast<R>(cb[c][a] * c0 * g_.dt / g_.dx),
-                         static_cast<R>(cb[c][a] * c0 * g_.dt / g_.dy)});
-        i0 = i;
-      }
+    const int first = static_cast<int>(runs_.size());
+    for (size_t k = 0, c = 0; k < row_runs[j].size(); ++k) {
+      if (row_runs[j][k].i0 == 0) row_runs_[3 * j + c++] = static_cast<int>(runs_.size());  // a component's first
+      runs_.push_back(row_runs[j][k]);
+      run_cb_.push_back(row_cb[j][k]);
     }
-    const Run* r = &runs_[row_runs_[3 * j]];
-    const bool one = runs_.size() - row_runs_[3 * j] == 3;
+    std::vector<Run>().swap(row_runs[j]);
+    std::vector<double>().swap(row_cb[j]);
+    const Run* r = &runs_[first];
+    const bool one = runs_.size() - first == 3;
     simple_row_[j] = one && r[0].ca == R(1) && r[1].ca == R(1) && r[2].ca == R(1) && r[0].kx == r[1].kx &&
                      r[1].kx == r[2].kx && r[0].ky == r[1].ky && r[1].ky == r[2].ky;
   }
   row_runs_[3 * ny] = static_cast<int>(runs_.size());
-  bytes_ += runs_.size() * sizeof(Run);
+  bytes_ += runs_.size() * (sizeof(Run) + sizeof(double));
 
-  // medium index map of the extent's cells (at the cell centres)
+  // medium index map of the extent's cells (at the cell centres), for fields.h5: over ranks
+  // rank 0 alone writes it, and the others hold none
   map_nx_ = nx - 2 * g_.npml_x;
   map_ny_ = ny - 2 * g_.npml_y;
+  if (parallel::rank() != 0) return;
   medium_map_.assign(static_cast<size_t>(map_nx_) * map_ny_, -1);
   if (!s.bodies.empty())
     for (int j = 0; j < map_ny_; ++j)
@@ -202,8 +221,19 @@ void Simulation<R>::build_media(std::vector<double> (&cb)[3]) {
         medium_map_[static_cast<size_t>(j) * map_nx_ + i] = medium_at(s, {(i + 0.5) * g_.dx, (j + 0.5) * g_.dy});
 }
 
+/// cb of E node (c, i, j) as its run holds it: the same double build_media computed for the
+/// node (a run's nodes have equal ca and cb), found by bisection in the row's runs.
+template <class R>
+double Simulation<R>::node_cb(int c, int i, int j) const {
+  const Run* first = runs_.data() + row_runs_[3 * j + c];
+  const Run* last = runs_.data() + row_runs_[3 * j + c + 1];
+  const Run* r = std::upper_bound(first, last, i, [](int v, const Run& run) { return v < run.i0; }) - 1;
+  return run_cb_[static_cast<size_t>(r - runs_.data())];
+}
+
 #define TY_INSTANTIATE(R)                                                                                              \
-  template void Simulation<R>::build_media(std::vector<double>(&)[3]);                                                 \
+  template double Simulation<R>::node_cb(int, int, int) const;                                                         \
+  template void Simulation<R>::build_media();                                                                          \
   template void Simulation<R>::node_coefficients(int, int, int, double&, double&, std::vector<DispersiveNode>&) const; \
   template void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode>>&);                       \
   template void Simulation<R>::mark_tensor_nodes(std::vector<char>(&)[2]) const;

@@ -117,10 +117,11 @@ struct MagneticCells {
 
   /// The largest angle (rad) between a sublattice and its ground-state direction over the
   /// cells inside (absorber = true) or outside the absorbing layers (npx, npy cells a side of
-  /// an nx x ny grid): growth inside them alone is the PML amplifying a backward wave.
-  double largest_tilt(bool absorber, int nx, int ny, int npx, int npy) const {
+  /// an nx x ny grid): growth inside them alone is the PML amplifying a backward wave. Cells
+  /// [k0, k1) of the list (over ranks, a rank's own; k1 < 0: to the end).
+  double largest_tilt(bool absorber, int nx, int ny, int npx, int npy, long k0 = 0, long k1 = -1) const {
     double worst = 0;
-    for (size_t k = 0; k < ci.size(); ++k) {
+    for (long k = k0; k < (k1 < 0 ? count() : k1); ++k) {
       const bool in = ci[k] < npx || ci[k] >= nx - npx || cj[k] < npy || cj[k] >= ny - npy;
       if (in != absorber) continue;
       const MagneticState& g = ground[medium[k]];

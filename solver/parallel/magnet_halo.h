@@ -80,11 +80,10 @@ struct MagnetHalo {
   std::vector<double> cells_out[2], cells_in[2];  // [0] up, [1] down: a cell row's values
   std::vector<R> h_out, h_in;                     // H rows the E update reads (up)
   Request req[10];
-  std::vector<int> cell_counts;           // gather_state's bytes of each rank's cells
   std::vector<int> recorder_cell_counts;  // bytes of the recorder rows' cells per rank
   std::vector<long> recorder_cells;       // first and end cell of each recorder row
   std::vector<double> recorder_buf;
-  long tilted_elsewhere = 0;  // other ranks' midpoint cell-steps, as of the last gather_state
+  long tilted_elsewhere = 0;  // other ranks' midpoint cell-steps, as of the last gather_sums(true)
 };
 
 }  // namespace ty::parallel

@@ -1,8 +1,8 @@
 /// \file magnetic_slab_step.cpp
 /// \brief The step of a scene with magnetic cells over P ranks: step_magnetic's phases
 /// (magnetic_step.cpp) on this rank's rows [lo, hi), with the halo exchanges that
-/// magnet_halo.h derives from the cells' gather table between them; and the cells made whole
-/// for what reads them (gather_state, the magnetic probes). Every value is computed by the
+/// magnet_halo.h derives from the cells' gather table between them; and the cells of the
+/// rows the magnetic probes read gathered for them. Every value is computed by the
 /// same row functions in the same order per row as in one process, so the bits agree.
 ///
 /// One step on a rank (each exchange: the main thread sends, then waits, between barriers):
@@ -57,11 +57,10 @@ void Simulation<R>::build_magnetic_slabs() {
   X.h_out.assign(kRowsH * s, R(0)), X.h_in.assign(X.h_out.size(), R(0));
   for (int d = 0; d < 2; ++d) X.cells_out[d].assign(w, 0), X.cells_in[d].assign(w, 0);
   // each rank's cells are one block of the list (cells are listed row by row)
-  X.cell_counts.assign(ranks_, 0), X.recorder_cell_counts.assign(ranks_, 0);
+  X.recorder_cell_counts.assign(ranks_, 0);
   for (int r = 0; r < ranks_; ++r) {
     int lo, hi;
     parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
-    X.cell_counts[r] = static_cast<int>((mag_.first_cell(hi) - mag_.first_cell(lo)) * sizeof(double));
     for (int j : recorder_rows_)
       if (j >= lo && j < hi) {
         X.recorder_cells.push_back(mag_.first_cell(j)), X.recorder_cells.push_back(mag_.first_cell(j + 1));
@@ -283,17 +282,11 @@ void Simulation<R>::step_magnetic_slab_pair() {
   mag_.latest = MagneticCells::newest(n_), b.mag_.latest = MagneticCells::newest(b.n_);
 }
 
+/// The other ranks' midpoint cell-steps (integers, summed in rank order), for the summary.
 template <class R>
-void Simulation<R>::gather_cells() {
-  if (mag_.empty()) return;
-  MagneticCells& M = mag_;
-  for (int p = 0; p < 2; ++p) {
-    for (int c = 0; c < 6; ++c) parallel::allgather_bytes(M.m[p][c].data(), mhalo_.cell_counts);
-    for (int c = 0; c < 3; ++c) parallel::allgather_bytes(M.dM[p][c].data(), mhalo_.cell_counts);
-  }
-  // the midpoint cell-steps: integers, summed in rank order
+void Simulation<R>::gather_tilted_count() {
+  if (mag_.empty() || ranks_ == 1) return;
   std::vector<long> tilted(ranks_, 0);
-  tilted[rank_] = 0;
   for (size_t t = 0; t < mag_tilted_.size(); t += 8) tilted[rank_] += mag_tilted_[t];
   parallel::allgather_bytes(tilted.data(), std::vector<int>(ranks_, static_cast<int>(sizeof(long))));
   mhalo_.tilted_elsewhere = 0;
@@ -337,7 +330,7 @@ void Simulation<R>::gather_recorder_cells() {
   template void Simulation<R>::magnet_exchange(int);                \
   template void Simulation<R>::step_magnetic_slab();                \
   template void Simulation<R>::step_magnetic_slab_pair();           \
-  template void Simulation<R>::gather_cells();                      \
+  template void Simulation<R>::gather_tilted_count();                      \
   template void Simulation<R>::gather_recorder_cells();
 TY_MAGNETIC_SLAB(float)
 TY_MAGNETIC_SLAB(double)

@@ -60,7 +60,8 @@ void Simulation<R>::build_slabs() {
   down_ = rank_ > 0 ? rank_ - 1 : (wrap ? ranks_ - 1 : -1);
   const size_t n = static_cast<size_t>(parallel::halo_components(true)) * g_.stride;
   halo_e_out_.assign(n, R(0)), halo_e_in_.assign(n, R(0)), halo_h_out_.assign(n, R(0)), halo_h_in_.assign(n, R(0));
-  row_held_.assign(g_.ny, 0.0), bytes_ += g_.ny * sizeof(double);  // gather_sums (guard/held_energy.cpp)
+  row_held_.assign(g_.ny, 0.0), row_fields_.assign(g_.ny, 0.0);  // gather_sums (guard/held_energy.cpp)
+  bytes_ += 2 * g_.ny * sizeof(double);
   // rows the every-step recorders read: their stencils' rows, and each spectral-map node's
   // row and the row below (node_average.h)
   std::vector<int> rows;
@@ -103,18 +104,12 @@ void Simulation<R>::build_slabs() {
   frame_counts_ = counts(frame_rows_);
   recorder_buf_.assign(frame_rows_.size() * 6 * g_.stride, R(0));
   bytes_ += (4 * n + recorder_buf_.size()) * sizeof(R);
-  // gather_state's blocks: each rank's whole rows, the ghost rows -1 and ny with the first and last rank
-  state_counts_.assign(ranks_, 0), work_counts_.assign(ranks_, 0), pole_counts_.assign(ranks_, 0);
+  // gather_sums' blocks: a double for each of each rank's rows
+  work_counts_.assign(ranks_, 0);
   for (int r = 0; r < ranks_; ++r) {
     int lo, hi;
     parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
     work_counts_[r] = (hi - lo) * static_cast<int>(sizeof(double));
-    if (!disp_.empty())  // the poles of the nodes of its rows (a node's row is its E row), contiguous by row
-      pole_counts_[r] = (disp_.pole_first[disp_.row_first[hi]] - disp_.pole_first[disp_.row_first[lo]]) *
-                        static_cast<int>(sizeof(double));
-    if (r == 0) lo = -1;
-    if (r == ranks_ - 1) hi = g_.ny + 1;
-    state_counts_[r] = static_cast<int>((hi - lo) * g_.stride * sizeof(R));
   }
   build_magnetic_slabs();
   if (tensor_.empty()) return;
@@ -314,19 +309,6 @@ void Simulation<R>::gather_rows(const std::vector<int>& rows, const std::vector<
   }
 }
 
-template <class R>
-void Simulation<R>::gather_state() {
-  if (ranks_ == 1) return;
-  if (twin_) twin_->gather_state();  // a Bloch pair's sine copy: its energy and work count too
-  for (int c = 0; c < 6; ++c) parallel::allgather_bytes(f_[c].data(), state_counts_);
-  parallel::allgather_bytes(injected_.data(), work_counts_);
-  if (!disp_.empty()) {  // the oscillators' energy is part of what the guard and stop: auto watch
-    parallel::allgather_bytes(disp_.p.data(), pole_counts_);
-    parallel::allgather_bytes(disp_.j.data(), pole_counts_);
-  }
-  gather_cells();
-}
-
 #define TY_SLAB_STEP(R)                                    \
   template void Simulation<R>::build_slabs();              \
   template void Simulation<R>::step_slab();                \
@@ -339,8 +321,7 @@ void Simulation<R>::gather_state() {
   template void Simulation<R>::tensor_step_slab();         \
   template void Simulation<R>::tensor_rows(int, long*, long*) const; \
   template void Simulation<R>::gather_for_recorders(long); \
-  template void Simulation<R>::gather_rows(const std::vector<int>&, const std::vector<int>&); \
-  template void Simulation<R>::gather_state();
+  template void Simulation<R>::gather_rows(const std::vector<int>&, const std::vector<int>&);
 TY_SLAB_STEP(float)
 TY_SLAB_STEP(double)
 #undef TY_SLAB_STEP

@@ -1,6 +1,6 @@
 /// \file state_owners.cpp
 /// \brief Which elements of each state array (Simulation::visit_state) a rank owns over
-/// ranks: those its own rows update (slabs.h), the same rows that gather_state() takes from
+/// ranks: those its own rows update (slabs.h), the same rows whose sums gather_sums() takes from
 /// it. A checkpoint written by every rank together (io/run/checkpoint.cpp) has each rank
 /// write exactly its parts, so the file holds the arrays a one-process run holds, whatever
 /// the rank count, and a resume on any rank count reads them whole.

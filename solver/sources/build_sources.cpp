@@ -36,7 +36,7 @@ void Simulation<R>::add_injection(bool h_phase, Component c, int i, int j, std::
 }
 
 template <class R>
-void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
+void Simulation<R>::build_sources() {
   for (const Source& src : scene_.sources) {
     const int sig = static_cast<int>(signals_.size());
     signals_.emplace_back(src.waveform, src.frequency);
@@ -48,9 +48,9 @@ void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
                                  src.where.line, src.waveform.file, src.waveform.table_time.size(), g_.dt * 1e15, e));
     }
     if (src.kind == Source::Kind::point)
-      add_point_source(src, sig, cb);
+      add_point_source(src, sig);
     else
-      add_launch_sheet(src, sig, cb);
+      add_launch_sheet(src, sig);
   }
   // sort injections by row (stable: fixed order within a row) and index them
   auto index = [&](std::vector<Injection>& v, std::vector<int>& offsets) {
@@ -65,7 +65,7 @@ void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
   // about 1 / cb at the node), eps0 dx dy / 2 for eta0 H (mu0 H^2 = eps0 (eta0 H)^2)
   const double half_cell = 0.5 * constants::eps0 * g_.dx * g_.dy;
   for (auto& e : inj_e_) {
-    const double b = cb[e.comp][static_cast<size_t>(e.row) * g_.nx + (e.index - g_.at(0, e.row))];
+    const double b = node_cb(e.comp, static_cast<int>(e.index - g_.at(0, e.row)), e.row);
     e.weight = b > 0 ? half_cell / b : 0.0;
   }
   for (auto& e : inj_h_) e.weight = half_cell;
@@ -74,7 +74,7 @@ void Simulation<R>::build_sources(const std::vector<double> (&cb)[3]) {
 }
 
 template <class R>
-void Simulation<R>::add_point_source(const Source& src, int sig, const std::vector<double> (&cb)[3]) {
+void Simulation<R>::add_point_source(const Source& src, int sig) {
   const double cdt = c0 * g_.dt;
   // Gaussian footprint over the component's nodes, weights summing to one
   const Component c = src.component;
@@ -101,7 +101,7 @@ void Simulation<R>::add_point_source(const Source& src, int sig, const std::vect
     if (i < 0 || i >= g_.nx || j < 0 || j >= g_.ny) continue;
     double coef;
     if (is_electric(c)) {  // dE = -(dt/eps) J, J = I w / (dx dy)
-      coef = -eta0 * cdt * cb[static_cast<int>(c)][static_cast<size_t>(j) * g_.nx + i] / (g_.dx * g_.dy);
+      coef = -eta0 * cdt * node_cb(static_cast<int>(c), i, j) / (g_.dx * g_.dy);
     } else {  // d(eta0 H) = -c dt M, M = V w / (dx dy)
       coef = -cdt / (g_.dx * g_.dy);
     }
@@ -110,7 +110,7 @@ void Simulation<R>::add_point_source(const Source& src, int sig, const std::vect
 }
 
 template <class R>
-void Simulation<R>::add_launch_sheet(const Source& src, int sig, const std::vector<double> (&cb)[3]) {
+void Simulation<R>::add_launch_sheet(const Source& src, int sig) {
   const Scene& s = scene_;
   const double cdt = c0 * g_.dt;
   // launch line: one-sided total-field/scattered-field sheet
@@ -161,7 +161,6 @@ void Simulation<R>::add_launch_sheet(const Source& src, int sig, const std::vect
         if (tp == tq || !in_span(t.p, i, j) || !in_span(t.q, iq, jq)) continue;
         if (i < 0 || i >= g_.nx || j < 0 || j >= g_.ny) continue;
         double coef;
-        const size_t node = static_cast<size_t>(j) * g_.nx + i;
         switch (t.coef) {
           case 0:
             coef = cdt / g_.dx;
@@ -170,10 +169,10 @@ void Simulation<R>::add_launch_sheet(const Source& src, int sig, const std::vect
             coef = cdt / g_.dy;
             break;
           case 2:
-            coef = cb[static_cast<int>(t.p)][node] * cdt / g_.dx;
+            coef = node_cb(static_cast<int>(t.p), i, j) * cdt / g_.dx;
             break;
           default:
-            coef = cb[static_cast<int>(t.p)][node] * cdt / g_.dy;
+            coef = node_cb(static_cast<int>(t.p), i, j) * cdt / g_.dy;
             break;
         }
         // the stencil reads the wrong kind of field across the line: add or remove the
@@ -211,10 +210,10 @@ void Simulation<R>::emitters_at(long step, double* out) const {
 
 #define TY_INSTANTIATE(R)                                                                                   \
   template void Simulation<R>::add_injection(bool, Component, int, int, std::complex<double>, double, int); \
-  template void Simulation<R>::build_sources(const std::vector<double>(&)[3]);                              \
-  template void Simulation<R>::add_point_source(const Source&, int, const std::vector<double>(&)[3]);       \
-  template void Simulation<R>::add_launch_sheet(const Source&, int, const std::vector<double>(&)[3]);       \
-  template void Simulation<R>::compute_emitters();                                                           \
+  template void Simulation<R>::build_sources();                                                             \
+  template void Simulation<R>::add_point_source(const Source&, int);                                        \
+  template void Simulation<R>::add_launch_sheet(const Source&, int);                                        \
+  template void Simulation<R>::compute_emitters();                                                          \
   template void Simulation<R>::emitters_at(long, double*) const;
 TY_INSTANTIATE(float)
 TY_INSTANTIATE(double)

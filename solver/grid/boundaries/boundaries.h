@@ -3,7 +3,7 @@
 /// electric_wall.h, magnetic_wall.h; the absorbing kind is the CPML, cpml.h and
 /// absorber_hooks.cpp): the step calls these hooks at fixed points of its row sweep and
 /// each kind acts at the hooks it needs.
-///   build:                hold_e_coefficients (electric walls), cell_allowed and
+///   build:                hold_e_row (electric walls), cell_allowed and
 ///                         neighbour (where magnetic cells may sit and who their
 ///                         neighbours are across an edge)
 ///   before the sweep:     before_sweep (periodic y: E row 0 to the ghost row ny)
@@ -38,9 +38,10 @@ struct Boundaries {
     return b;
   }
 
-  void hold_e_coefficients(std::vector<double> (&ca)[3], std::vector<double> (&cb)[3], int nx, int ny) const {
-    if (electric_x) electric_wall::hold_coefficients(true, ca, cb, nx, ny);
-    if (electric_y) electric_wall::hold_coefficients(false, ca, cb, nx, ny);
+  /// Row j's E coefficients (columns 0 .. nx-1) held where an electric wall stands.
+  void hold_e_row(int j, std::vector<double> (&ca)[3], std::vector<double> (&cb)[3], int nx) const {
+    if (electric_x) electric_wall::hold_row_coefficients(true, j, ca, cb, nx);
+    if (electric_y) electric_wall::hold_row_coefficients(false, j, ca, cb, nx);
   }
   bool cell_allowed(int i, int j, int nx, int ny) const {
     return !magnetic_wall::on_wall(i, j, nx, ny, magnetic_x, magnetic_y);

@@ -9,18 +9,15 @@
 
 namespace ty::electric_wall {
 
-/// Zeroes ca and cb ([component][j * nx + i], components Ex Ey Ez) of the E nodes
-/// tangential to the low-side wall across x (Ey, Ez at i = 0) or across y (Ex, Ez at j = 0).
-inline void hold_coefficients(bool across_x, std::vector<double> (&ca)[3], std::vector<double> (&cb)[3], int nx,
-                              int ny) {
-  auto zero = [&](int c, int i, int j) {
-    ca[c][static_cast<size_t>(j) * nx + i] = 0;
-    cb[c][static_cast<size_t>(j) * nx + i] = 0;
-  };
+/// Row j's E coefficients (ca, cb of each component, columns 0 .. nx-1) with the wall's
+/// tangential E held at zero: across x, Ey and Ez of column 0; across y, Ex and Ez of row 0.
+inline void hold_row_coefficients(bool across_x, int j, std::vector<double> (&ca)[3], std::vector<double> (&cb)[3],
+                                  int nx) {
+  auto zero = [&](int c, int i) { ca[c][i] = cb[c][i] = 0; };
   if (across_x)
-    for (int j = 0; j < ny; ++j) zero(1, 0, j), zero(2, 0, j);
-  else
-    for (int i = 0; i < nx; ++i) zero(0, i, 0), zero(2, i, 0);
+    zero(1, 0), zero(2, 0);
+  else if (j == 0)
+    for (int i = 0; i < nx; ++i) zero(0, i), zero(2, i);
 }
 
 }  // namespace ty::electric_wall
