@@ -133,6 +133,27 @@ void Simulation<R>::mark_tensor_nodes(std::vector<char> (&in)[2]) const {
   }
 }
 
+namespace {
+
+/// One row's runs of one component: each stretch of equal (ca, cb) one Run{i0, i1, ca, cb c dt/dx, cb c dt/dy},
+/// and its cb.
+template <class Run>
+void append_runs(const std::vector<double>& ca, const std::vector<double>& cb, double dt, double dx, double dy,
+                 std::vector<Run>& runs, std::vector<double>& run_cb) {
+  using R = decltype(Run::ca);
+  const int nx = static_cast<int>(ca.size());
+  int i0 = 0;
+  for (int i = 1; i <= nx; ++i) {
+    if (i < nx && ca[i] == ca[i0] && cb[i] == cb[i0]) continue;
+    runs.push_back({i0, i, static_cast<R>(ca[i0]), static_cast<R>(cb[i0] * c0 * dt / dx),
+                    static_cast<R>(cb[i0] * c0 * dt / dy)});
+    run_cb.push_back(cb[i0]);
+    i0 = i;
+  }
+}
+
+}  // namespace
+
 template <class R>
 void Simulation<R>::build_media() {
   const Scene& s = scene_;
@@ -168,16 +189,7 @@ void Simulation<R>::build_media() {
       std::erase_if(tensor_found[j], [&](const TensorNode& t) {  // those an electric wall holds stay out
         return ca[t.comp][t.i] != 1.0 || cb[t.comp][t.i] != 1.0;
       });
-      for (int c = 0; c < 3; ++c) {
-        int i0 = 0;
-        for (int i = 1; i <= nx; ++i) {
-          if (i < nx && ca[c][i] == ca[c][i0] && cb[c][i] == cb[c][i0]) continue;
-          row_runs[j].push_back({i0, i, static_cast<R>(ca[c][i0]), static_cast<R>(cb[c][i0] * c0 * g_.dt / g_.dx),
-                                 static_cast<R>(cb[c][i0] * c0 * g_.dt / g_.dy)});
-          row_cb[j].push_back(cb[c][i0]);
-          i0 = i;
-        }
-      }
+      for (int c = 0; c < 3; ++c) append_runs(ca[c], cb[c], g_.dt, g_.dx, g_.dy, row_runs[j], row_cb[j]);
     }
   }
   join_dispersive_nodes(found);
