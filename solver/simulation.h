@@ -77,12 +77,13 @@ class Simulation {
   /// The parts [a, b) of state array `name` of visit_state (n values) that this rank's rows
   /// update (solver/parallel/state_owners.cpp): over ranks, each rank writes these of a
   /// checkpoint, together the array a one-process run holds; one rank owns all of it. The
-  /// second form: the parts rank r of P would own (the same cut, slabs.h).
+  /// second form: the parts rank r of P would own (the same cut, slabs.h), with `widen` rows
+  /// more on each side (across a periodic seam too) where an array is divided by rows.
   std::vector<std::pair<std::size_t, std::size_t>> owned_parts(const std::string& name, std::size_t n) const {
     return owned_parts(name, n, rank_, ranks_);
   }
-  std::vector<std::pair<std::size_t, std::size_t>> owned_parts(const std::string& name, std::size_t n, int r,
-                                                               int P) const;
+  std::vector<std::pair<std::size_t, std::size_t>> owned_parts(const std::string& name, std::size_t n, int r, int P,
+                                                               int widen = 0) const;
   /// One time step, then the recorders.
   void advance();
   /// Steps per pass over the rows (temporal blocking, solver/blocking/): 1 (the default), 0 = auto

@@ -5,7 +5,8 @@
 /// clock must be a step this run can be at (exit 2 naming the dataset otherwise).
 /// Over MPI ranks the file is the same: every rank writes the parts of each array its rows
 /// own, together, in one collective write per dataset (hdf5_shared.cpp), and rank 0 renames
-/// the finished temporary file into place; a resume on any rank count reads it whole.
+/// the finished temporary file into place; on a resume over any rank count each rank reads the
+/// parts its rows own and the row beyond each side (an array every rank holds alike, whole).
 #include "io/run/checkpoint.h"
 
 #include <fmt/format.h>
@@ -98,7 +99,20 @@ void save_checkpoint(const std::string& path, Sim& sim, const std::string& scene
   throw std::runtime_error(failed.empty() ? fmt::format("another rank could not write {}", path) : failed);
 }
 
-/// One process's reading of the whole checkpoint (every rank reads and checks all of it).
+/// The parts of state array `name` (n values) this rank reads back: over ranks, an array divided
+/// by rows its own rows' and those of the row beyond each side (which its first step reads before
+/// any exchange: the neighbour cells' state), so a rank's memory stays its rows'; an array every
+/// rank holds alike (rank 0 writes it), whole; one process, all of every array.
+template <class Sim>
+h5::File::Parts parts_to_read(const Sim& sim, const std::string& name, std::size_t n) {
+  const int r = parallel::rank(), P = parallel::size();
+  if (P == 1 || n == 0) return {{0, n}};
+  if (r > 0 && sim.owned_parts(name, n, r, P).empty() && sim.owned_parts(name, n, 0, P) == h5::File::Parts{{0, n}})
+    return {{0, n}};
+  return sim.owned_parts(name, n, r, P, 1);
+}
+
+/// Reading a checkpoint back: every value this rank reads (parts_to_read) checked, then applied.
 template <class Sim>
 void read_state(const std::string& path, Sim& sim, const std::string& scene_yaml) {
   if (!std::filesystem::exists(path)) throw BadInput(fmt::format("{}: error: there is no checkpoint to resume", path));
@@ -108,32 +122,36 @@ void read_state(const std::string& path, Sim& sim, const std::string& scene_yaml
         fmt::format("{}: error: the checkpoint was written for another scene (or other --set values); "
                     "resume with the scene and settings the run started with",
                     path));
-  // Everything is read and checked before anything of `sim` changes.
-  std::vector<std::vector<double>> values;
+  // Two passes: every dataset read and checked, then (the clock checked too) read again and
+  // applied, so nothing of `sim` changes on a refusal and no more than one dataset's parts are
+  // held twice (a whole second copy of the state would double the run's memory while it resumes).
   double steps = -1, frames = -1;
-  sim.visit_state([&](const std::string& name, auto*, std::size_t n) {
-    std::vector<double> v = f.read_checked("/" + name, {static_cast<hsize_t>(n)});
-    for (std::size_t k = 0; k < n; ++k)
-      if (!std::isfinite(v[k])) corrupt(path, "/" + name, fmt::format("value {} is {}", k, v[k]));
-    if (name == "clock/steps") steps = v[0];
-    if (name == "clock/frames") frames = v[0];
-    values.push_back(std::move(v));
-  });
-  check_clock(path, sim, steps, frames);
-  std::size_t next = 0;
-  sim.visit_state([&](const std::string&, auto* data, std::size_t n) {
-    using T = std::remove_pointer_t<decltype(data)>;
-    const std::vector<double>& v = values[next++];
-    for (std::size_t k = 0; k < n; ++k) data[k] = static_cast<T>(v[k]);  // float and long values round-trip exactly
-  });
+  for (const bool apply : {false, true}) {
+    if (apply) check_clock(path, sim, steps, frames);
+    sim.visit_state([&](const std::string& name, auto* data, std::size_t n) {
+      using T = std::remove_pointer_t<decltype(data)>;
+      const h5::File::Parts parts = parts_to_read(sim, name, n);
+      const std::vector<double> v = f.read_checked_parts("/" + name, static_cast<hsize_t>(n), parts);
+      std::size_t at = 0;
+      for (const auto& [a, b] : parts)
+        for (std::size_t k = a; k < b; ++k, ++at)
+          if (!std::isfinite(v[at])) corrupt(path, "/" + name, fmt::format("value {} is {}", k, v[at]));
+      if (name == "clock/steps") steps = v[0];
+      if (name == "clock/frames") frames = v[0];
+      at = 0;
+      for (const auto& [a, b] : parts)  // float and long values round-trip exactly
+        for (std::size_t k = a; k < b && apply; ++k) data[k] = static_cast<T>(v[at++]);
+    });
+  }
 }
 
 template <class Sim>
 void load_checkpoint(const std::string& path, Sim& sim, const std::string& scene_yaml) {
   if (parallel::size() == 1) return read_state(path, sim, scene_yaml);
-  // Over ranks every rank reads the whole file (each holds the whole arrays) and checks it
-  // with the same checked readers, so all reach the same verdict; should one rank alone
-  // fail (its own read error), every rank still refuses: none goes on to wait for the others.
+  // Over ranks every rank reads and checks its parts of the file (parts_to_read) with the same
+  // checked readers; should any rank fail (its own parts, or its own read error), every rank
+  // refuses, rank 0 with its reason or that another rank could not read the file: none goes on
+  // to wait for the others.
   std::string failed;
   try {
     read_state(path, sim, scene_yaml);

@@ -16,7 +16,8 @@ void save_checkpoint(const std::string& path, Sim& sim, const std::string& scene
 
 /// Restores the state of `sim` (built from the same scene) from `path`; throws BadInput
 /// when the file was written for another scene. Over MPI ranks it is collective: every rank
-/// reads and checks the whole file, and when any rank refuses it, every rank throws BadInput.
+/// reads and checks its parts of the file (its rows', and what every rank holds alike), and when
+/// any rank refuses it, every rank throws BadInput.
 template <class Sim>
 void load_checkpoint(const std::string& path, Sim& sim, const std::string& scene_yaml);
 

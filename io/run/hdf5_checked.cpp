@@ -34,6 +34,7 @@ std::vector<hsize_t> File::checked_shape(const std::string& path, int rank, hsiz
 std::vector<double> File::read_checked(const std::string& path, const std::vector<hsize_t>& expected) const {
   hsize_t n = 1;
   for (hsize_t d : expected) n *= d;
+  if (expected.size() == 1) return read_checked_parts(path, n, {{0, n}});
   const std::vector<hsize_t> dims = checked_shape(path, static_cast<int>(expected.size()), n);
   if (dims != expected) {
     std::string got, want;
@@ -47,6 +48,31 @@ std::vector<double> File::read_checked(const std::string& path, const std::vecto
   if (cls != H5T_FLOAT && cls != H5T_INTEGER) bad(path, "does not hold numbers");
   std::vector<double> out(n);
   if (n > 0 && H5Dread(set.id(), H5T_NATIVE_DOUBLE, H5S_ALL, H5S_ALL, H5P_DEFAULT, out.data()) < 0)
+    bad(path, "cannot be read");
+  return out;
+}
+
+std::vector<double> File::read_checked_parts(const std::string& path, hsize_t n, const Parts& parts) const {
+  const std::vector<hsize_t> dims = checked_shape(path, 1, n);
+  if (dims[0] != n) bad(path, fmt::format("has shape [{}], expected [{}]", dims[0], n));
+  Handle set(H5Dopen2(id(), path.c_str(), H5P_DEFAULT), H5Dclose);
+  Handle type(H5Dget_type(set.id()), H5Tclose);
+  const H5T_class_t cls = type ? H5Tget_class(type.id()) : H5T_NO_CLASS;
+  if (cls != H5T_FLOAT && cls != H5T_INTEGER) bad(path, "does not hold numbers");
+  hsize_t total = 0;
+  for (const auto& [a, b] : parts) total += b - a;
+  std::vector<double> out(total);
+  if (total == 0) return out;
+  Handle file(H5Dget_space(set.id()), H5Sclose);
+  bool first = true;
+  for (const auto& [a, b] : parts) {
+    if (b <= a) continue;
+    const hsize_t start = a, count = b - a;
+    H5Sselect_hyperslab(file.id(), first ? H5S_SELECT_SET : H5S_SELECT_OR, &start, nullptr, &count, nullptr);
+    first = false;
+  }
+  Handle memory(H5Screate_simple(1, &total, nullptr), H5Sclose);
+  if (H5Dread(set.id(), H5T_NATIVE_DOUBLE, memory.id(), file.id(), H5P_DEFAULT, out.data()) < 0)
     bad(path, "cannot be read");
   return out;
 }

@@ -110,6 +110,9 @@ class File {
   std::vector<hsize_t> checked_shape(const std::string& path, int rank, hsize_t max_elements) const;
   /// A whole dataset of exactly the shape `expected`, as doubles.
   std::vector<double> read_checked(const std::string& path, const std::vector<hsize_t>& expected) const;
+  /// Parts [a, b) (ascending, apart) of a one-dimensional dataset of exactly n values, one after
+  /// another, as doubles: what one rank of several reads of a checkpoint (checkpoint.cpp).
+  std::vector<double> read_checked_parts(const std::string& path, hsize_t n, const Parts& parts) const;
   /// A text dataset (write_text) of at most `max_bytes`.
   std::string read_text(const std::string& path, hsize_t max_bytes) const;
   /// A string attribute, fixed or variable length, of at most `max_bytes`.

@@ -19,6 +19,7 @@
 ///                         rows they read), so rank 0 writes them
 /// A state array not named here has no owner over ranks: a logic error, so that new state
 /// cannot be written wrong unnoticed.
+#include <algorithm>
 #include <stdexcept>
 
 #include "solver/parallel/slabs.h"
@@ -28,14 +29,17 @@ namespace ty {
 
 template <class R>
 std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(const std::string& name, std::size_t n,
-                                                                            int r, int P) const {
+                                                                            int r, int P, int widen) const {
   using Parts = std::vector<std::pair<std::size_t, std::size_t>>;
   if (n == 0) return {};
   if (P == 1) return {{0, n}};
   int lo, hi;  // rank r's rows
   parallel::slab_rows(g_.ny, r, P, lo, hi);
-  const bool first = r == 0, last = r == P - 1;
-  const auto mine = [&](int j) { return j >= lo && j < hi; };
+  const int ny = g_.ny, f0 = lo, f1 = hi;  // the snapshots' kept E: its own rows alone
+  lo = std::max(0, lo - widen), hi = std::min(ny, hi + widen);
+  const bool first = r == 0, last = r == P - 1, seam = widen > 0 && walls_.periodic_y;
+  const auto in = [&](int j) { return j >= lo && j < hi; };
+  const auto mine = [&](int j) { return in(j) || (seam && ((first && j >= ny - widen) || (last && j < widen))); };
   const auto starts = [&](const char* p) { return name.rfind(p, 0) == 0; };
   Parts parts;
   const auto add = [&parts](std::size_t a, std::size_t b) {  // adjacent parts merge
@@ -43,7 +47,7 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
     else if (b > a) parts.emplace_back(a, b);
   };
   const auto rows = [&](std::size_t per_row) { return Parts{{lo * per_row, hi * per_row}}; };
-  if (starts("sine/") && twin_) return twin_->owned_parts(name.substr(5), n, r, P);  // a Bloch pair's sine copy
+  if (starts("sine/") && twin_) return twin_->owned_parts(name.substr(5), n, r, P, widen);  // a Bloch pair's sine copy
   if (starts("fields/"))
     return {{static_cast<std::size_t>(g_.row_begin(first ? -1 : lo)),
              static_cast<std::size_t>(g_.row_begin(last ? g_.ny + 1 : hi))}};
@@ -66,16 +70,15 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
     if (first && n > cells) add(cells, n);
     return parts;
   }
-  if (name == "snapshots/E-before-frame") return snaps_.e_before_parts(FrameRows{lo, hi, true});  // snapshots.h
+  if (name == "snapshots/E-before-frame") return snaps_.e_before_parts(FrameRows{f0, f1, true});  // snapshots.h
   for (const char* p : {"probes/", "power-spectra/", "spectral-maps/", "snapshots/", "clock/", "stop-rule/",
                         "media/tensor-"})
     if (starts(p)) return first ? Parts{{0, n}} : Parts{};
   throw std::logic_error("state '" + name + "' has no owner over ranks (solver/parallel/state_owners.cpp)");
 }
 
-template std::vector<std::pair<std::size_t, std::size_t>> Simulation<float>::owned_parts(const std::string&,
-                                                                                         std::size_t, int, int) const;
-template std::vector<std::pair<std::size_t, std::size_t>> Simulation<double>::owned_parts(const std::string&,
-                                                                                          std::size_t, int, int) const;
+using OwnedParts = std::vector<std::pair<std::size_t, std::size_t>>;
+template OwnedParts Simulation<float>::owned_parts(const std::string&, std::size_t, int, int, int) const;
+template OwnedParts Simulation<double>::owned_parts(const std::string&, std::size_t, int, int, int) const;
 
 }  // namespace ty
