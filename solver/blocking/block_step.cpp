@@ -133,7 +133,8 @@ long Simulation<R>::next_read_step() const {
 template <class R>
 long Simulation<R>::advance_up_to(long most) {
   long depth = std::min<long>(block_depth_, most);
-  if (depth > 1) depth = std::min(depth, next_read_step() - n_ + 1);
+  // steps up to the next one something reads whole (LONG_MAX when nothing does: no + 1 on it)
+  if (const long gap = next_read_step() - n_; depth > 1 && gap < depth - 1) depth = gap + 1;
   if (depth <= 1) {
     advance();
     return 1;

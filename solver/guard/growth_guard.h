@@ -23,10 +23,12 @@
 /// - after every source has stopped (source_end) nothing may gain energy: the energy is
 ///   conserved or lost (the leapfrog step, the graded loss, Gilbert damping), and the PML
 ///   loses it for every wave it is stable for. The guard keeps the lowest W seen since, and
-///   stops the run once W has risen kEnergyRise above it and kept rising over the last two
-///   windows of kWindow checks (the swing of the measured W, O(w dt), a few 1e-3 at 50 um
-///   cells, stays far below). Rises below kEnergyFloor of the largest W seen are not
-///   counted (round-off in a domain the field has left).
+///   stops the run once W has risen above it by kEnergyRise or by w dt at the sources'
+///   highest frequency, whichever is larger, and kept rising over the last two windows of
+///   kWindow checks: W as measured (E at n, H at n-1/2) swings about the leapfrog's conserved
+///   energy by up to (w dt / 2) W each way, tens of percent in a closed lossless box at a few
+///   cells a wavelength (growth_guard.cpp). Rises below kEnergyFloor of the largest W seen
+///   are not counted (round-off in a domain the field has left).
 /// - the magnets of the absorbing layers tilt no more than the waves that enter it from the
 ///   interior: a layer whose largest tilt exceeds kTiltRatio times the largest ever seen
 ///   outside it and has grown by kTiltGrowth over the last kWindow checks (rising at each
