@@ -77,8 +77,9 @@ class Simulation {
   /// The parts [a, b) of state array `name` of visit_state (n values) that this rank's rows
   /// update (solver/parallel/state_owners.cpp): over ranks, each rank writes these of a
   /// checkpoint, together the array a one-process run holds; one rank owns all of it. The
-  /// second form: the parts rank r of P would own (the same cut, slabs.h), with `widen` rows
-  /// more on each side (across a periodic seam too) where an array is divided by rows.
+  /// second form: the parts rank r of P would own (the same cut, slabs.h); with `widen` > 0 the
+  /// parts it reads back: `widen` rows more on each side (across a periodic seam too) of an array
+  /// divided by rows, and the whole of an array every rank holds alike.
   std::vector<std::pair<std::size_t, std::size_t>> owned_parts(const std::string& name, std::size_t n) const {
     return owned_parts(name, n, rank_, ranks_);
   }

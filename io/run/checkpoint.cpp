@@ -99,20 +99,10 @@ void save_checkpoint(const std::string& path, Sim& sim, const std::string& scene
   throw std::runtime_error(failed.empty() ? fmt::format("another rank could not write {}", path) : failed);
 }
 
-/// The parts of state array `name` (n values) this rank reads back: over ranks, an array divided
-/// by rows its own rows' and those of the row beyond each side (which its first step reads before
-/// any exchange: the neighbour cells' state), so a rank's memory stays its rows'; an array every
-/// rank holds alike (rank 0 writes it), whole; one process, all of every array.
-template <class Sim>
-h5::File::Parts parts_to_read(const Sim& sim, const std::string& name, std::size_t n) {
-  const int r = parallel::rank(), P = parallel::size();
-  if (P == 1 || n == 0) return {{0, n}};
-  if (r > 0 && sim.owned_parts(name, n, r, P).empty() && sim.owned_parts(name, n, 0, P) == h5::File::Parts{{0, n}})
-    return {{0, n}};
-  return sim.owned_parts(name, n, r, P, 1);
-}
-
-/// Reading a checkpoint back: every value this rank reads (parts_to_read) checked, then applied.
+/// Reading a checkpoint back: every value this rank reads checked, then applied. Over ranks a rank
+/// reads an array divided by rows in its own rows and the row beyond each side (its first step reads
+/// the neighbour cells' state before any exchange), so its memory stays its rows'; an array every
+/// rank holds alike, whole (Simulation::owned_parts with widen 1); one process reads everything.
 template <class Sim>
 void read_state(const std::string& path, Sim& sim, const std::string& scene_yaml) {
   if (!std::filesystem::exists(path)) throw BadInput(fmt::format("{}: error: there is no checkpoint to resume", path));
@@ -126,11 +116,14 @@ void read_state(const std::string& path, Sim& sim, const std::string& scene_yaml
   // applied, so nothing of `sim` changes on a refusal and no more than one dataset's parts are
   // held twice (a whole second copy of the state would double the run's memory while it resumes).
   double steps = -1, frames = -1;
+  std::vector<h5::File::Parts> reads;  // each array's parts, found on the first pass
   for (const bool apply : {false, true}) {
     if (apply) check_clock(path, sim, steps, frames);
+    std::size_t next = 0;
     sim.visit_state([&](const std::string& name, auto* data, std::size_t n) {
       using T = std::remove_pointer_t<decltype(data)>;
-      const h5::File::Parts parts = parts_to_read(sim, name, n);
+      if (!apply) reads.push_back(sim.owned_parts(name, n, parallel::rank(), parallel::size(), 1));
+      const h5::File::Parts& parts = reads[next++];
       const std::vector<double> v = f.read_checked_parts("/" + name, static_cast<hsize_t>(n), parts);
       std::size_t at = 0;
       for (const auto& [a, b] : parts)
@@ -148,7 +141,7 @@ void read_state(const std::string& path, Sim& sim, const std::string& scene_yaml
 template <class Sim>
 void load_checkpoint(const std::string& path, Sim& sim, const std::string& scene_yaml) {
   if (parallel::size() == 1) return read_state(path, sim, scene_yaml);
-  // Over ranks every rank reads and checks its parts of the file (parts_to_read) with the same
+  // Over ranks every rank reads and checks its parts of the file (read_state) with the same
   // checked readers; should any rank fail (its own parts, or its own read error), every rank
   // refuses, rank 0 with its reason or that another rank could not read the file: none goes on
   // to wait for the others.

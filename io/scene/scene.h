@@ -141,6 +141,8 @@ struct Medium {
   double conductivity = 0;                      ///< S/m
   bool perfect_conductor = false;
   Mark where;
+  /// eps_xy != 0: its in-plane axes turned off the grid's (stepped by solver/media/tensor_cells.h)
+  bool rotated_in_plane() const { return !perfect_conductor && tensor && !tensor->diagonal_in_plane(); }
 };
 
 struct Shape {

@@ -85,9 +85,7 @@ void add_media(const Scene& s, RunSizes& z) {
   // while the media are built (row by row, coefficient_runs.cpp): each thread's row of ca and cb,
   // a run per coefficient change; with rotated in-plane media, four bytes a node (which nodes
   // sample them, and the tensor list's marks)
-  const bool rotated = std::any_of(s.media.begin(), s.media.end(), [](const Medium& m) {
-    return !m.perfect_conductor && m.tensor && !m.tensor->diagonal_in_plane();
-  });
+  const bool rotated = std::any_of(s.media.begin(), s.media.end(), [](const Medium& m) { return m.rotated_in_plane(); });
   if (rotated)
     z.memory.push_back({"rotated media's marks while built", 4 * cells, s.grid.where, MemoryItem::Phase::build});
   double poles = 0;

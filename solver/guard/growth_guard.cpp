@@ -68,6 +68,15 @@ GrowthGuard<R>::GrowthGuard(const Simulation<R>& sim) {
   const MagneticCells& M = sim.magnets();
   sources_end_ = 0;
   for (const Source& src : s.sources) sources_end_ = std::max(sources_end_, source_end(src));
+  // W as measured (E at n, H at n-1/2) is not the leapfrog's conserved energy (1/2)(eps E^n.E^n +
+  // mu H^(n-1/2).H^(n+1/2)) (the discrete energy identity of the Yee scheme; e.g. Joly, in Topics in
+  // Computational Wave Propagation, LNCSE 31 (2003), from memory): H^(n+1/2) - H^(n-1/2) = -(dt/mu) curl E^n
+  // and |curl E| ~ w mu |H| at frequency w, so W swings about it by up to (w dt / 2) W each way, w dt peak to
+  // peak: in a closed lossless box at a few cells a wavelength that is tens of percent. A rise counts past
+  // the swing at the sources' highest frequency (1.2 times their band's top, as for the tilt below).
+  double f_top = 0;
+  for (const Source& src : s.sources) f_top = std::max(f_top, 1.2 * source_band(src).hi);
+  rise_ = std::max(kEnergyRise, 2 * constants::pi * f_top * sim.grid().dt);
   if (M.models.empty()) return;
   double worst = 0;
   for (const Source& src : s.sources) {
@@ -200,16 +209,7 @@ std::string GrowthGuard<R>::slow_energy(const Simulation<R>& sim, double w) {
   const int k = kHistory - 1;  // the newest
   if (ws_ <= 2 * kWindow) return {};
   const double base = std::max(w_low_, kEnergyFloor * w_peak_);
-  // W as measured (E at n, H at n-1/2) is not the leapfrog's conserved energy (1/2)(eps E^n.E^n +
-  // mu H^(n-1/2).H^(n+1/2)) (the discrete energy identity of the Yee scheme; e.g. Joly, in Topics in
-  // Computational Wave Propagation, LNCSE 31 (2003), from memory): H^(n+1/2) - H^(n-1/2) = -(dt/mu) curl E^n
-  // and |curl E| ~ w mu |H| at frequency w, so W swings about it by up to (w dt / 2) W each way, w dt peak to
-  // peak: in a closed lossless box at a few cells a wavelength that is tens of percent. A rise counts past
-  // the swing at the sources' highest frequency (1.2 times their band's top, as for the tilt above).
-  double f_top = 0;
-  for (const Source& src : sim.scene().sources) f_top = std::max(f_top, 1.2 * source_band(src).hi);
-  const double rise = std::max(kEnergyRise, 2 * constants::pi * f_top * g.dt);
-  if (!(w - w_low_ > rise * base)) return {};
+  if (!(w - w_low_ > rise_ * base)) return {};
   const double w1 = w_seen_[k - kWindow], w2 = w_seen_[k - 2 * kWindow];
   if (!(w > w1 && w1 > w2)) return {};
   int bi, bj;  // where: the node of largest energy density, as for the fast growth

@@ -73,6 +73,7 @@ class GrowthGuard {
   long last_good_ = 0;
   double sources_end_ = 0;          ///< s; infinity with a cw source
   double w_peak_ = 0, w_low_ = -1;  ///< the largest W; the lowest since the sources stopped (-1: not yet)
+  double rise_ = kEnergyRise;       ///< the slow check's rise: kEnergyRise, or w dt at the sources' top if larger
   static constexpr int kHistory = 2 * kWindow + 1;
   std::array<double, kHistory> w_seen_{}, tilt_seen_{};  ///< W after the sources stopped; the absorber's largest tilt
   int ws_ = 0, tilts_ = 0;                               ///< how many of each seen

@@ -103,9 +103,7 @@ template <class R>
 void Simulation<R>::mark_tensor_nodes(std::vector<char> (&in)[2]) const {
   const Scene& s = scene_;
   const int nx = g_.nx, ny = g_.ny;
-  const bool any = std::any_of(s.media.begin(), s.media.end(), [](const Medium& m) {
-    return !m.perfect_conductor && m.tensor && !m.tensor->diagonal_in_plane();
-  });
+  const bool any = std::any_of(s.media.begin(), s.media.end(), [](const Medium& m) { return m.rotated_in_plane(); });
   if (!any || s.bodies.empty()) return;
   std::vector<char> rot[2];
   for (int c = 0; c < 2; ++c) {
@@ -126,8 +124,8 @@ void Simulation<R>::mark_tensor_nodes(std::vector<char> (&in)[2]) const {
       const int si = c == 0 ? 1 : -1, sj = -si;  // the neighbours' offsets (tensor_cells.cpp)
       for (int j = 0; j < ny; ++j)
         for (int i = 0; i < nx; ++i)
-          in[c][size_t(j) * nx + i] = on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) || on(1 - c, i, j + sj) ||
-                                      on(1 - c, i + si, j + sj);
+          in[c][size_t(j) * nx + i] = on(c, i, j) || on(1 - c, i, j) || on(1 - c, i + si, j) ||
+                                      on(1 - c, i, j + sj) || on(1 - c, i + si, j + sj);
     }
     if (layer == 0) rot[0] = in[0], rot[1] = in[1];
   }
@@ -165,8 +163,8 @@ void Simulation<R>::build_media() {
   mark_tensor_nodes(in_tensor);
   // Row by row: each row's coefficients live only while its runs are made (an array of
   // every node's ca and cb would be six doubles a node, as much as the fields in double).
-  std::vector<std::vector<Run>> row_runs(ny);
-  std::vector<std::vector<double>> row_cb(ny);
+  std::vector<std::vector<Run>> runs_of_row(ny);
+  std::vector<std::vector<double>> cb_of_row(ny);
 #pragma omp parallel num_threads(threads_)
   {
     std::vector<double> ca[3], cb[3];
@@ -189,7 +187,7 @@ void Simulation<R>::build_media() {
       std::erase_if(tensor_found[j], [&](const TensorNode& t) {  // those an electric wall holds stay out
         return ca[t.comp][t.i] != 1.0 || cb[t.comp][t.i] != 1.0;
       });
-      for (int c = 0; c < 3; ++c) append_runs(ca[c], cb[c], g_.dt, g_.dx, g_.dy, row_runs[j], row_cb[j]);
+      for (int c = 0; c < 3; ++c) append_runs(ca[c], cb[c], g_.dt, g_.dx, g_.dy, runs_of_row[j], cb_of_row[j]);
     }
   }
   join_dispersive_nodes(found);
@@ -206,13 +204,13 @@ void Simulation<R>::build_media() {
   simple_row_.assign(ny, 0);
   for (int j = 0; j < ny; ++j) {
     const int first = static_cast<int>(runs_.size());
-    for (size_t k = 0, c = 0; k < row_runs[j].size(); ++k) {
-      if (row_runs[j][k].i0 == 0) row_runs_[3 * j + c++] = static_cast<int>(runs_.size());  // a component's first
-      runs_.push_back(row_runs[j][k]);
-      run_cb_.push_back(row_cb[j][k]);
+    for (size_t k = 0, c = 0; k < runs_of_row[j].size(); ++k) {
+      if (runs_of_row[j][k].i0 == 0) row_runs_[3 * j + c++] = static_cast<int>(runs_.size());  // a component's first
+      runs_.push_back(runs_of_row[j][k]);
+      run_cb_.push_back(cb_of_row[j][k]);
     }
-    std::vector<Run>().swap(row_runs[j]);
-    std::vector<double>().swap(row_cb[j]);
+    std::vector<Run>().swap(runs_of_row[j]);
+    std::vector<double>().swap(cb_of_row[j]);
     const Run* r = &runs_[first];
     const bool one = runs_.size() - first == 3;
     simple_row_[j] = one && r[0].ca == R(1) && r[1].ca == R(1) && r[2].ca == R(1) && r[0].kx == r[1].kx &&

@@ -25,15 +25,13 @@ Vec2 sample_at(const YeeGrid& g, int c, int i, int j, int u, int v) {
   return {g.x(comp, i) + ((u + 0.5) / kSub - 0.5) * g.dx, g.y(comp, j) + ((v + 0.5) / kSub - 0.5) * g.dy};
 }
 
-bool rotated(const Medium& m) { return !m.perfect_conductor && m.tensor && !m.tensor->diagonal_in_plane(); }
-
 }  // namespace
 
 bool samples_rotated(const Scene& s, const YeeGrid& g, int c, int i, int j) {
   for (int u = 0; u < kSub; ++u)
     for (int v = 0; v < kSub; ++v) {
       const int m = medium_at(s, sample_at(g, c, i, j, u, v));
-      if (m >= 0 && rotated(s.media[m])) return true;
+      if (m >= 0 && s.media[m].rotated_in_plane()) return true;
     }
   return false;
 }

@@ -73,7 +73,7 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
   if (name == "snapshots/E-before-frame") return snaps_.e_before_parts(FrameRows{f0, f1, true});  // snapshots.h
   for (const char* p : {"probes/", "power-spectra/", "spectral-maps/", "snapshots/", "clock/", "stop-rule/",
                         "media/tensor-"})
-    if (starts(p)) return first ? Parts{{0, n}} : Parts{};
+    if (starts(p)) return first || widen > 0 ? Parts{{0, n}} : Parts{};  // read back: whole by every rank
   throw std::logic_error("state '" + name + "' has no owner over ranks (solver/parallel/state_owners.cpp)");
 }
 

@@ -89,11 +89,12 @@ TEST_CASE("guard: a closed lossless box at eight cells a wavelength runs to its 
   CHECK_MESSAGE(error9.empty(), error9);
   CHECK_MESSAGE(error2.empty(), error2);
   // the swing is the leapfrog's, first order in dt: measured 0.125, 0.061, 0.027, 0.013 at step
-  // fractions 0.9, 0.45, 0.2, 0.1 (4.6 times the step, 4.6 times the swing), within w dt at the band's top
-  CHECK(swing9 > 0.05);
+  // fractions 0.9, 0.45, 0.2, 0.1 (4.6 times the step, 4.6 times the swing), and within w dt at the
+  // source's centre (0.30 at 1.5 THz and 0.9: the bound for a wave of that one frequency)
+  CHECK(swing9 > 0.06);
   CHECK(swing9 / swing2 > 3.5);
   CHECK(swing9 / swing2 < 5.5);
-  CHECK(swing9 < 0.52);
+  CHECK(swing9 < 0.30);
 }
 
 TEST_CASE("guard, long: a PML forced on MnF2 in its hyperbolic band grows slowly and is stopped early" *
