@@ -73,10 +73,14 @@ GrowthGuard<R>::GrowthGuard(const Simulation<R>& sim) {
   // Computational Wave Propagation, LNCSE 31 (2003), from memory): H^(n+1/2) - H^(n-1/2) = -(dt/mu) curl E^n
   // and |curl E| ~ w mu |H| at frequency w, so W swings about it by up to (w dt / 2) W each way, w dt peak to
   // peak: in a closed lossless box at a few cells a wavelength that is tens of percent. A rise counts past
-  // the swing at the sources' highest frequency (1.2 times their band's top, as for the tilt below).
-  double f_top = 0;
-  for (const Source& src : s.sources) f_top = std::max(f_top, 1.2 * source_band(src).hi);
-  rise_ = std::max(kEnergyRise, 2 * constants::pi * f_top * sim.grid().dt);
+  // w dt at the highest of the sources' band centres, where their energy is (a closed box measured 0.42 w dt
+  // there; the band's top, 1.7 times higher, let a slowly amplifying PML run to 95% of its time unstopped).
+  double f_centre = 0;
+  for (const Source& src : s.sources) {
+    const Band2 band = source_band(src);
+    f_centre = std::max(f_centre, 0.5 * (band.lo + band.hi));
+  }
+  rise_ = std::max(kEnergyRise, 2 * constants::pi * f_centre * sim.grid().dt);
   if (M.models.empty()) return;
   double worst = 0;
   for (const Source& src : s.sources) {

@@ -23,8 +23,8 @@
 /// - after every source has stopped (source_end) nothing may gain energy: the energy is
 ///   conserved or lost (the leapfrog step, the graded loss, Gilbert damping), and the PML
 ///   loses it for every wave it is stable for. The guard keeps the lowest W seen since, and
-///   stops the run once W has risen above it by kEnergyRise or by w dt at the sources'
-///   highest frequency, whichever is larger, and kept rising over the last two windows of
+///   stops the run once W has risen above it by kEnergyRise or by w dt at the sources' band
+///   centre, whichever is larger, and kept rising over the last two windows of
 ///   kWindow checks: W as measured (E at n, H at n-1/2) swings about the leapfrog's conserved
 ///   energy by up to (w dt / 2) W each way, tens of percent in a closed lossless box at a few
 ///   cells a wavelength (growth_guard.cpp). Rises below kEnergyFloor of the largest W seen
@@ -73,7 +73,7 @@ class GrowthGuard {
   long last_good_ = 0;
   double sources_end_ = 0;          ///< s; infinity with a cw source
   double w_peak_ = 0, w_low_ = -1;  ///< the largest W; the lowest since the sources stopped (-1: not yet)
-  double rise_ = kEnergyRise;       ///< the slow check's rise: kEnergyRise, or w dt at the sources' top if larger
+  double rise_ = kEnergyRise;       ///< the slow check's rise: kEnergyRise, or w dt at the band centre if larger
   static constexpr int kHistory = 2 * kWindow + 1;
   std::array<double, kHistory> w_seen_{}, tilt_seen_{};  ///< W after the sources stopped; the absorber's largest tilt
   int ws_ = 0, tilts_ = 0;                               ///< how many of each seen

@@ -79,7 +79,7 @@ sources:
 }  // namespace
 
 TEST_CASE("guard: a closed lossless box at eight cells a wavelength runs to its end") {
-  // At the band's top (about 2.6 THz) w dt = 0.52 at step fraction 0.9: the measured W (E at n, H at
+  // At the source's 1.5 THz w dt = 0.30 at step fraction 0.9: the measured W (E at n, H at
   // n-1/2) swings about the conserved (1/2)(eps E^n.E^n + mu H^(n-1/2).H^(n+1/2)) by up to (w dt / 2) W
   // each way (the Yee scheme's discrete energy identity; growth_guard.cpp). The guard took a 6% rise of
   // that swing for slow growth ("1.06 times the lowest since") and stopped the run at 10.3 ps.
