@@ -46,7 +46,7 @@ Simulation<R>::Simulation(const Scene& scene, int threads, int copy) : scene_(sc
 
 template <class R>
 void Simulation<R>::build_recorders(const StopPlan& plan) {
-  const std::vector<int> no_cells;
+  const CellAt cell_at = mag_.empty() ? CellAt{} : [this](int i, int j) { return mag_.cell_at(i, j); };
   // a run of fixed length: maps over the second half, power spectra over the whole run
   // (pulses) or its second half (cw); one that stops by itself: blocks (cw) or everything
   const bool self = scene_.time.auto_stop.on;
@@ -55,7 +55,7 @@ void Simulation<R>::build_recorders(const StopPlan& plan) {
   const long block = self ? plan.check : 0;
   for (const Output& o : scene_.outputs) {
     if (o.kind == Output::Kind::probe) {
-      probes_.push_back(make_probe(o, g_, total_steps_, mag_.empty() ? no_cells : mag_.cell_of));
+      probes_.push_back(make_probe(o, g_, total_steps_, cell_at));
       bytes_ += probes_.back().raw.size() * sizeof(double);
     } else if (o.kind == Output::Kind::spectral_map) {
       maps_.push_back(
@@ -217,9 +217,9 @@ void Simulation<R>::record_whole() {
   const R* const F[6] = {Fm[0], Fm[1], Fm[2], Fm[3], Fm[4], Fm[5]};
   auto value = [this](const std::string& field, long cell) { return magnetic_value(field, cell); };
   for (auto& m : maps_) m.record(k, total_steps_, F, g_, threads_);
-  const std::vector<int> no_cells;
+  auto cell_at = [this](int i, int j) { return mag_.cell_at(i, j); };
   // over ranks each rank takes the frame rows of its own grid rows (slab_step.cpp)
-  snaps_.record(k, F, g_, mag_.empty() ? no_cells : mag_.cell_of, value, sink_, FrameRows{row0_, row1_, ranks_ > 1});
+  snaps_.record(k, F, g_, cell_at, value, sink_, FrameRows{row0_, row1_, ranks_ > 1});
 }
 
 template <class R>

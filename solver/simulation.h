@@ -39,6 +39,7 @@
 #include "solver/media/tensor_cells.h"
 #include "solver/parallel/magnet_halo.h"
 #include "solver/parallel/ranks.h"
+#include "solver/parallel/recorder_gather.h"
 #include "solver/recorders/recorders.h"
 #include "solver/sources/waveform.h"
 #include "solver/stop_rule.h"
@@ -255,11 +256,8 @@ class Simulation {
   int up_ = -1, down_ = -1;  // the ranks whose rows lie above and below ours (-1: none)
   std::vector<R> halo_e_out_, halo_e_in_, halo_h_out_, halo_h_in_;
   parallel::Request halo_req_[4];
-  std::vector<int> recorder_rows_, recorder_counts_;  // rows (ghosts -1, ny too) recorders read each step; bytes/rank
-  std::vector<R> recorder_buf_;
+  parallel::RecorderGather<R> rgather_;  // what the recorders read of other ranks' rows (recorder_gather.h)
   std::vector<int> work_counts_;  // gather_sums' bytes per rank (a double a row)
-  std::vector<int> frame_rows_, frame_counts_;  // on frame_steps_: the recorder rows and each cut's lower row
-  std::vector<long> frame_steps_;  // steps a Poynting frame reads (its own and the one before)
   std::vector<R> tensor_buf_;      // the tensor list's E, each rank's Ex then Ey nodes, in rank order
   std::vector<int> tensor_counts_;  // bytes of them per rank
   std::vector<long> tensor_runs_;   // rank r's runs of the list (tensor_rows): 4r..4r+3 = a[0], b[0], a[1], b[1]
@@ -327,9 +325,9 @@ class Simulation {
   void tensor_step_slab();
   /// The tensor list's nodes of rank r's rows: Ex nodes [a[0], b[0]), Ey nodes [a[1], b[1]).
   void tensor_rows(int r, long* a, long* b) const;
-  /// Makes the recorders' rows (and on a Poynting frame's steps each cut's lower row) whole before step k's record.
-  void gather_for_recorders(long k);
-  /// Rows `rows` (sorted; `counts`: bytes of them per rank) whole on every rank (one allgather).
+  /// What the recorders read of other ranks' rows, gathered before step k's record (recorder_gather.cpp):
+  /// the probes' and lines' stencil nodes, the maps' rows (all of them in one allgather each).
+  void build_recorder_gather(), gather_for_recorders(long k), gather_nodes();
   void gather_rows(const std::vector<int>& rows, const std::vector<int>& counts);
   // magnetic cells over ranks (solver/parallel/magnetic_slab_step.cpp, magnet_halo.h)
   void build_magnetic_slabs();

@@ -55,10 +55,11 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
     std::cout << fmt::format("  exposed halo time per step on {}: about {:.3g} us\n", name,
                              1e6 * (latency + rank_bytes / bandwidth));
   // A rank's field and absorber arrays are resident only in its own rows (solver/grid/aligned.h:
-  // zero pages until written); the lists and recorders are whole on every rank, the medium map on rank 0.
+  // zero pages until written), and so are the magnetic cells' and dispersive nodes' state (their
+  // lists whole); the recorders are whole on every rank, the medium map on rank 0.
   RunSizes z = run_sizes(s);
   for (MemoryItem& m : z.memory)
-    if (m.what.rfind("fields and absorber", 0) == 0) m.bytes /= P;
+    if (m.what.rfind("fields and absorber", 0) == 0 || m.what.find("' state") != std::string::npos) m.bytes /= P;
   const double first = resident_bytes() + z.memory_bytes();
   for (MemoryItem& m : z.memory)
     if (m.what.rfind("medium map", 0) == 0) m.bytes = 0;
@@ -66,8 +67,8 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
   const double buffers = 4.0 * parallel::halo_components(true) * g.stride * b;  // halo rows out and in, E and H
   std::cout << fmt::format(
       "  memory per rank: about {:.1f} MB on rank 0, {:.1f} MB on each other rank (the field and absorber "
-      "arrays divided by rows; the magnetic cells, dispersive nodes and recorders whole on every rank, the "
-      "medium map on rank 0), plus {:.3g} MB of halo rows and the recorders' gathered rows; {} ranks on one "
+      "arrays and the magnetic cells' and dispersive nodes' state divided by rows; their lists and the "
+      "recorders whole on every rank, the medium map on rank 0), plus {:.3g} MB of halo rows and the recorders' gathered rows; {} ranks on one "
       "node hold about {:.1f} MB there\n",
       first / 1e6, other / 1e6, buffers / 1e6, P, (first + (P - 1) * other) / 1e6);
   if (fewest < parallel::kMinRowsPerRank)

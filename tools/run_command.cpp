@@ -364,7 +364,7 @@ int run_with(const Scene& scene, const RunOptions& o) {
     log.info(fmt::format("done: {} steps in {} ({:.3g} cell-updates/s); results in {}", sim.steps_done(), hms(wall),
                          s["cell-updates-per-s"].get<double>(), o.out));
     if (sim.ranks() > 1)  // docs/parallel.md: what the recorders and checks move besides the halos
-      log.info(fmt::format("rank 0 gathered {:.4g} MB from the other ranks (recorders' rows, whole-grid checks)",
+      log.info(fmt::format("rank 0 gathered {:.4g} MB from the other ranks (recorders' nodes and rows, whole-grid checks)",
                            parallel::gathered_bytes() / 1e6));
   } catch (const BadInput&) {
     throw;

@@ -147,8 +147,7 @@ RunTimeEstimate timed(const Scene& s, int threads) {
     if (rec.plan.steps.empty()) continue;
     CopySink<R> sink;
     sink.copy.resize(1);
-    const std::vector<int> none;
-    const auto& cells = sim.magnets().empty() ? none : sim.magnets().cell_of;
+    const auto cells = [&sim](int i, int j) { return sim.magnets().cell_at(i, j); };
     const double t = fastest([&] {
       rec.next_frame = 0;
       rec.record(rec.plan.steps[0], F, g, cells, value, &sink);

@@ -117,8 +117,8 @@ void RunFolder::open_partial(const YeeGrid& g, const SnapshotPlan& plan, bool si
   if (resume_) {  // the datasets exist; frames go on where the checkpoint left them
     h5_ = std::make_unique<h5::File>(h5::File::open_rw(path(kPartial)));
     // read back from disk: each series must still be there with this run's frames and nodes
-    // (a damaged file is bad input, not a full disk)
-    for (const auto& sf : plan.fields) {
+    // (a damaged file is bad input, not a full disk); a run with no frame in its time has none
+    for (const auto& sf : plan.steps.empty() ? std::vector<SnapshotField>{} : plan.fields) {
       const std::vector<hsize_t> want{plan.steps.size(), static_cast<hsize_t>(sf.nj), static_cast<hsize_t>(sf.ni)};
       const std::string ds = "/snapshots/" + sf.name;
       if (h5_->checked_shape(ds, 3, want[0] * want[1] * want[2]) != want)

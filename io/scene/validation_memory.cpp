@@ -18,17 +18,20 @@
 namespace ty {
 namespace {
 
-/// One magnetic cell's arrays in solver/media/magnetic_cells.h: seven ints (indices,
-/// medium, four neighbours; with the slack of arrays grown by push_back), two copies of two
-/// sublattices' moments (12 doubles), two sublattices' increments (6 doubles).
-constexpr double kMagneticCellBytes = 1.5 * 7 * 4 + 18 * 8;
+/// One magnetic cell's arrays in solver/media/magnetic_cells.h: its list entry, three ints
+/// (indices, medium; with the slack of arrays grown by push_back), on every MPI rank; and its
+/// state, four neighbours' indices, two copies of two sublattices' moments (12 doubles) and two
+/// sublattices' increments (6 doubles), resident only on the rank that steps it.
+constexpr double kMagneticListBytes = 1.5 * 3 * 4, kMagneticStateBytes = 4 * 4 + 18 * 8;
 /// What the HDF5 library holds per snapshot frame view written at the end (a virtual
 /// dataset over one frame of a series and its attributes, for fields.xmf): measured, 20-21
 /// kB a view from 100 to 1600 views (mnf2-mirror.yaml with snapshots every 40 to 2.5 ps).
 constexpr double kFrameViewBytes = 21e3;
-/// A dispersive E node (solver/media/dispersive_cells.h): index, component, correction,
-/// first pole and E before the step; per pole its coefficients and state (P and its rate).
-constexpr double kDispersiveNodeBytes = 32, kDispersivePoleBytes = 64;
+/// A dispersive E node (solver/media/dispersive_cells.h): index, component, correction and
+/// first pole, and per pole its coefficients, on every MPI rank; its state (E before the step,
+/// per pole P and its rate) resident only on the rank that steps it.
+constexpr double kDispersiveNodeBytes = 24, kDispersivePoleBytes = 48;
+constexpr double kDispersiveNodeStateBytes = 8, kDispersivePoleStateBytes = 16;
 /// While the media are built each node is a DispersiveNode with its own pole vector (a heap
 /// block of its own).
 constexpr double kDispersiveBuildNodeBytes = 96, kDispersiveBuildPoleBytes = 40;
@@ -96,6 +99,8 @@ void add_media(const Scene& s, RunSizes& z) {
     const double n = 3 * cells_of(s, z, [](const Medium& m) { return m.tensor && m.tensor->dispersive(); });
     z.memory.push_back(
         {"dispersive nodes", n * (kDispersiveNodeBytes + poles * kDispersivePoleBytes), s.media.front().where});
+    z.memory.push_back({"dispersive nodes' state", n * (kDispersiveNodeStateBytes + poles * kDispersivePoleStateBytes),
+                        s.media.front().where});
     z.memory.push_back({"dispersive nodes while built", n * (kDispersiveBuildNodeBytes + poles * kDispersiveBuildPoleBytes),
                         s.media.front().where, MemoryItem::Phase::build});
   }
@@ -104,9 +109,9 @@ void add_media(const Scene& s, RunSizes& z) {
 void add_magnets(const Scene& s, RunSizes& z) {
   const double cells = cells_of(s, z, [](const Medium& m) { return m.magnet.has_value(); });
   if (cells == 0) return;
-  // the list, and the grid's cell -> list index (an int per cell); while built, a second int per cell
-  z.memory.push_back({"magnetic cells", cells * kMagneticCellBytes + z.nx * z.ny * 4, s.media.front().where});
-  z.memory.push_back({"magnetic cells while built", z.nx * z.ny * 4, s.media.front().where, MemoryItem::Phase::build});
+  // the list (found cell by cell while built: no grid-sized array) and the cells' state
+  z.memory.push_back({"magnetic cells", cells * kMagneticListBytes, s.media.front().where});
+  z.memory.push_back({"magnetic cells' state", cells * kMagneticStateBytes, s.media.front().where});
 }
 
 void add_recorders(const Scene& s, RunSizes& z) {

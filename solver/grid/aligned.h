@@ -16,8 +16,76 @@
 #include <cstring>
 #include <new>
 #include <utility>
+#include <vector>
 
 namespace ty {
+
+namespace aligned {
+inline constexpr std::size_t kMapAt = std::size_t(1) << 20;  ///< bytes from which an array is mapped
+#if defined(__SANITIZE_ADDRESS__)
+inline constexpr bool kSanitized = true;
+#elif defined(__has_feature)
+#if __has_feature(address_sanitizer)
+inline constexpr bool kSanitized = true;
+#else
+inline constexpr bool kSanitized = false;
+#endif
+#else
+inline constexpr bool kSanitized = false;
+#endif
+/// Bytes for n values rounded up to whole 64-byte lines, and whether they are mapped.
+inline std::size_t bytes_for(std::size_t n, std::size_t size) {
+  return std::max<std::size_t>(64, ((n * size + 63) / 64) * 64);
+}
+inline bool mapped(std::size_t bytes) { return bytes >= kMapAt && !kSanitized; }
+/// Zero bytes, 64-byte aligned: mapped zero pages, or from the heap and cleared.
+inline void* take(std::size_t bytes) {
+  if (mapped(bytes)) {
+    void* m = mmap(nullptr, bytes, PROT_READ | PROT_WRITE, MAP_PRIVATE | MAP_ANONYMOUS, -1, 0);
+    if (m == MAP_FAILED) throw std::bad_alloc();
+    return m;  // page-aligned, and zero until written
+  }
+  void* p = std::aligned_alloc(64, bytes);
+  if (!p) throw std::bad_alloc();
+  std::memset(p, 0, bytes);
+  return p;
+}
+inline void give(void* p, std::size_t bytes) {
+  if (!p) return;
+  if (mapped(bytes))
+    munmap(p, bytes);
+  else
+    std::free(p);
+}
+}  // namespace aligned
+
+/// An allocator for std::vector whose storage comes zeroed from aligned::take and whose
+/// elements are default-initialised (no store): resize(n) of a MappedVector<double> leaves
+/// the pages unwritten, so over MPI ranks a cell list sized for the whole grid is resident
+/// only where a rank writes it (its rows' cells and the row beyond each side).
+template <class T>
+struct MappedAllocator {
+  using value_type = T;
+  MappedAllocator() = default;
+  template <class U>
+  MappedAllocator(const MappedAllocator<U>&) {}  // NOLINT: converting, as std::allocator
+  T* allocate(std::size_t n) { return static_cast<T*>(aligned::take(aligned::bytes_for(n, sizeof(T)))); }
+  void deallocate(T* p, std::size_t n) { aligned::give(p, aligned::bytes_for(n, sizeof(T))); }
+  template <class U>
+  void construct(U* p) {
+    ::new (static_cast<void*>(p)) U;  // default-initialised: the zero the storage came with
+  }
+  template <class U, class... A>
+  void construct(U* p, A&&... a) {
+    ::new (static_cast<void*>(p)) U(std::forward<A>(a)...);
+  }
+  template <class U>
+  bool operator==(const MappedAllocator<U>&) const {
+    return true;
+  }
+};
+template <class T>
+using MappedVector = std::vector<T, MappedAllocator<T>>;
 
 template <class T>
 class AlignedArray {
@@ -39,16 +107,9 @@ class AlignedArray {
 
   void resize(std::size_t n) {
     release();
-    const std::size_t bytes = std::max<std::size_t>(64, ((n * sizeof(T) + 63) / 64) * 64);
-    if (bytes >= kMapAt && !kSanitized) {
-      void* m = mmap(nullptr, bytes, PROT_READ | PROT_WRITE, MAP_PRIVATE | MAP_ANONYMOUS, -1, 0);
-      if (m == MAP_FAILED) throw std::bad_alloc();
-      p_ = static_cast<T*>(m), mapped_ = bytes;  // page-aligned, and zero until written
-    } else {
-      p_ = static_cast<T*>(std::aligned_alloc(64, bytes));
-      if (!p_) throw std::bad_alloc();
-      std::memset(static_cast<void*>(p_), 0, bytes);
-    }
+    const std::size_t bytes = aligned::bytes_for(n, sizeof(T));
+    p_ = static_cast<T*>(aligned::take(bytes));
+    mapped_ = bytes;
     n_ = n;
   }
   T* data() { return p_; }
@@ -58,30 +119,14 @@ class AlignedArray {
   const T& operator[](std::size_t k) const { return p_[k]; }
 
  private:
-  static constexpr std::size_t kMapAt = std::size_t(1) << 20;
-#if defined(__SANITIZE_ADDRESS__)
-  static constexpr bool kSanitized = true;
-#elif defined(__has_feature)
-#if __has_feature(address_sanitizer)
-  static constexpr bool kSanitized = true;
-#else
-  static constexpr bool kSanitized = false;
-#endif
-#else
-  static constexpr bool kSanitized = false;
-#endif
-
   void release() {
-    if (mapped_)
-      munmap(p_, mapped_);
-    else
-      std::free(p_);
+    aligned::give(p_, mapped_);
     p_ = nullptr, n_ = 0, mapped_ = 0;
   }
 
   T* p_ = nullptr;
   std::size_t n_ = 0;
-  std::size_t mapped_ = 0;  ///< bytes mapped (0: from the heap)
+  std::size_t mapped_ = 0;  ///< bytes taken (aligned::take)
 };
 
 }  // namespace ty

@@ -88,9 +88,9 @@ void Simulation<R>::join_dispersive_nodes(std::vector<std::vector<DispersiveNode
     }
     d.row_first.push_back(static_cast<int>(d.index.size()));
   }
-  d.p.assign(d.poles.size(), 0.0);
-  d.j.assign(d.poles.size(), 0.0);
-  d.e_old.assign(d.index.size(), 0.0);
+  d.p.resize(d.poles.size());  // zero (MappedAllocator)
+  d.j.resize(d.poles.size());
+  d.e_old.resize(d.index.size());
   bytes_ += d.index.size() * (sizeof(long) + 2 * sizeof(int) + 2 * sizeof(double)) +
             d.poles.size() * (sizeof(AdePole) + 2 * sizeof(double));
 }

@@ -13,6 +13,7 @@
 #include <vector>
 
 #include "materials/permittivity/ade.h"
+#include "solver/grid/aligned.h"
 
 namespace ty {
 
@@ -31,8 +32,10 @@ struct DispersiveCells {
   std::vector<double> corr;     ///< a/k+ of the node
   std::vector<int> pole_first;  ///< poles of node q: [pole_first[q], pole_first[q+1])
   std::vector<AdePole> poles;
-  std::vector<double> p, j;   ///< state per pole: P/eps0 (V/m) and its rate (V/m/s)
-  std::vector<double> e_old;  ///< per node, E before this step's update
+  /// state per pole: P/eps0 (V/m) and its rate (V/m/s); per node, E before this step's update.
+  /// Mapped pages, zero and not resident until a row's nodes step (over MPI ranks: a rank's own)
+  MappedVector<double> p, j;
+  MappedVector<double> e_old;
   double half_dt = 0;
 
   bool empty() const { return index.empty(); }

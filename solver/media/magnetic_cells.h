@@ -44,12 +44,16 @@
 /// Layout: cells are listed row by row, left to right, in runs of one medium along a row
 /// (`runs`, those of row j at row_runs[j] .. row_runs[j+1]), so that gathers and scatters
 /// read and write contiguous stretches of the field rows and the solver can move a row's
-/// cells in the same sweep as the row's fields.
+/// cells in the same sweep as the row's fields. Over MPI ranks every rank lists every cell
+/// (runs, ci, cj, medium: 12 bytes a cell) but the neighbours and the state are mapped pages
+/// (solver/grid/aligned.h) written only for its own rows and the row beyond each side, so
+/// those (160 bytes a cell) are resident on the rank that steps them.
 #pragma once
 #include <array>
 #include <vector>
 
 #include "io/scene/scene.h"
+#include "solver/grid/aligned.h"
 #include "materials/magnetic/cell_step.h"
 #include "materials/magnetic/ground_state.h"
 
@@ -79,10 +83,10 @@ struct MagneticCells {
   // per cell
   std::vector<int> ci, cj;                 ///< cell indices
   std::vector<int> medium;                 ///< medium slot
-  std::vector<int> left, right, down, up;  ///< neighbouring magnetic cells (count(): none)
+  MappedVector<int> left, right, down, up;  ///< neighbouring magnetic cells (count(): none)
   /// m1 xyz, m2 xyz (unit vectors; m2 = 0 for one sublattice), two copies: the step reads one
   /// and writes the other; m[latest] is the state now
-  std::vector<double> m[2][6];
+  MappedVector<double> m[2][6];
   int latest = 0;
   /// The copy of m (and of dM) that holds the state after n steps: step k reads m[1 - (k & 1)]
   /// and writes m[k & 1], so after n steps the newest is m[(n - 1) & 1] = m[(n + 1) & 1] (both
@@ -90,7 +94,7 @@ struct MagneticCells {
   static int newest(long n) { return static_cast<int>((n + 1) & 1); }
   /// change of mu0 M over a step (T), by the parity of the step: this step's and the
   /// previous one's; entry count() is a zero that missing neighbours read
-  std::vector<double> dM[2][3];
+  MappedVector<double> dM[2][3];
   // per magnetic medium
   std::vector<CellStep> steps;
   std::vector<MagnetModel> models;
@@ -98,7 +102,6 @@ struct MagneticCells {
   /// mu0 Ms of each sublattice (0 for a missing second one) and the ground state's net mu0 M
   /// (T): mu0 (M - M_ground) = mu[0] m1 + mu[1] m2 - net_ground
   std::vector<std::array<double, 5>> net;
-  std::vector<int> cell_of;  ///< grid cell (j * nx + i) -> list index, -1 if not magnetic
   int longest_row = 0;  ///< most cells in one row
 
   long count() const { return static_cast<long>(ci.size()); }
@@ -107,6 +110,12 @@ struct MagneticCells {
     return row_runs[j] < static_cast<int>(runs.size()) ? runs[row_runs[j]].k0 : count();
   }
   bool empty() const { return ci.empty(); }
+  /// List index of the cell at (i, j), -1 if it is not magnetic (a scan of row j's runs).
+  long cell_at(int i, int j) const {
+    for (int r = row_runs[j]; r < row_runs[j + 1]; ++r)
+      if (i >= runs[r].i0 && i < runs[r].i1) return runs[r].k0 + (i - runs[r].i0);
+    return -1;
+  }
 
   /// mu0 (M - M_ground) along c (0, 1, 2) of cell k in the state m[p]; 0 for k = count()
   double deviation(int p, int c, long k) const {

@@ -15,6 +15,8 @@
 #include "solver/blocking/wavefront.h"
 #include "solver/media/magnet_slots.h"
 #include "solver/media/magnetic_row_memory.h"
+#include "solver/parallel/ranks.h"
+#include "solver/parallel/slabs.h"
 #include "solver/simulation.h"
 
 namespace ty {
@@ -41,22 +43,21 @@ constexpr long kRowScratch = 24;
 
 namespace {
 
-/// The magnetic cells row by row, left to right, with a run per stretch of one medium; slot:
-/// each grid cell's medium slot (-1: not magnetic).
-void list_cells_by_row(MagneticCells& M, const std::vector<int>& slot, int nx, int ny) {
+/// The magnetic cells row by row, left to right, with a run per stretch of one medium;
+/// slot_at(i, j): the grid cell's medium slot (-1: not magnetic), asked once per cell.
+template <class SlotAt>
+void list_cells_by_row(MagneticCells& M, SlotAt&& slot_at, int nx, int ny) {
   for (int j = 0; j < ny; ++j) {
     M.row_runs[j] = static_cast<int>(M.runs.size());
     int prev = -1;
     for (int i = 0; i < nx; ++i) {
-      const int med = slot[static_cast<size_t>(j) * nx + i];
-      const int st = med;
+      const int st = slot_at(i, j);
       if (st >= 0) {
         if (st != prev) M.runs.push_back({i, i, M.count(), st});
         M.runs.back().i1 = i + 1;
-        M.cell_of[static_cast<size_t>(j) * nx + i] = static_cast<int>(M.count());
         M.ci.push_back(i);
         M.cj.push_back(j);
-        M.medium.push_back(med);
+        M.medium.push_back(st);
       }
       prev = st;
     }
@@ -77,20 +78,10 @@ void Simulation<R>::build_magnets() {
   const Scene& s = scene_;
   MagneticCells& M = mag_;
   const int nx = g_.nx, ny = g_.ny;
-  M.cell_of.assign(static_cast<size_t>(nx) * ny, -1);
   std::vector<double> f_max_of;
   const std::vector<int> slot_of_body = magnet_slots(s, g_.dt, M, f_max_of, notes_);
   M.row_runs.assign(static_cast<size_t>(ny) + 1, 0);
   if (M.models.empty()) return;
-  // the slot of every grid cell (-1: not magnetic; none on a magnetic wall, where
-  // tangential H is held at zero): the body holding its centre decides
-  std::vector<int> slot(static_cast<size_t>(nx) * ny, -1);
-  for (int j = 0; j < ny; ++j)
-    for (int i = 0; i < nx; ++i) {
-      if (!walls_.cell_allowed(i, j, nx, ny)) continue;
-      const int b = body_at(s, {g_.x(Component::Hz, i), g_.y(Component::Hz, j)});
-      if (b >= 0) slot[static_cast<size_t>(j) * nx + i] = slot_of_body[b];
-    }
   // The cell's field is G B / mu0 - mu0 dM (magnetic_cells.h): along x and y its own M is a
   // self field of 1, along z (G P = 1) its own reaction; one step per medium, whatever the
   // cell's neighbours (a surface cell needs no term of its own). The absorbing layers need no
@@ -99,28 +90,44 @@ void Simulation<R>::build_magnets() {
   for (size_t med = 0; med < M.models.size(); ++med)
     M.steps.push_back(CellStep::from(M.models[med], M.ground[med], g_.dt, f_max_of[med], {0.0, 0.0, 1.0},
                                      {1.0, 1.0, 0.0}));
-  list_cells_by_row(M, slot, nx, ny);
+  // a cell's slot: the body holding its centre decides (none on a magnetic wall, where
+  // tangential H is held at zero)
+  list_cells_by_row(
+      M,
+      [&](int i, int j) {
+        if (!walls_.cell_allowed(i, j, nx, ny)) return -1;
+        const int b = body_at(s, {g_.x(Component::Hz, i), g_.y(Component::Hz, j)});
+        return b >= 0 ? slot_of_body[b] : -1;
+      },
+      nx, ny);
   const long n = M.count();
   auto cell = [&](int i, int j) -> int {  // neighbouring cell, wrapped on periodic sides; n if none
     if (!walls_.neighbour(i, j, nx, ny)) return static_cast<int>(n);
-    const int c = M.cell_of[static_cast<size_t>(j) * nx + i];
-    return c < 0 ? static_cast<int>(n) : c;
+    const long c = M.cell_at(i, j);
+    return c < 0 ? static_cast<int>(n) : static_cast<int>(c);
   };
+  // sized for every cell, written only for the rows this rank reads (magnetic_cells.h):
+  // mapped pages stay zero, and not resident, elsewhere
   for (auto* v : {&M.left, &M.right, &M.down, &M.up}) v->resize(n);
   for (int c = 0; c < 6; ++c) M.m[0][c].resize(n), M.m[1][c].resize(n);
-  for (int c = 0; c < 3; ++c) M.dM[0][c].assign(n + 1, 0), M.dM[1][c].assign(n + 1, 0);
-  for (long k = 0; k < n; ++k) {
-    const int i = M.ci[k], j = M.cj[k];
-    M.left[k] = cell(i - 1, j), M.right[k] = cell(i + 1, j), M.down[k] = cell(i, j - 1), M.up[k] = cell(i, j + 1);
-    const MagneticState& g0 = M.ground[M.medium[k]];
-    const bool two = M.models[M.medium[k]].n == 2;
-    for (int p = 0; p < 2; ++p)
-      for (int c = 0; c < 3; ++c) M.m[p][c][k] = g0.m[0][c], M.m[p][3 + c][k] = two ? g0.m[1][c] : 0.0;
+  for (int c = 0; c < 3; ++c) M.dM[0][c].resize(n + 1), M.dM[1][c].resize(n + 1);  // zero
+  for (int j = 0; j < ny; ++j) {
+    if (!parallel::reads_row(j, ny, parallel::rank(), parallel::size(), walls_.periodic_y)) continue;
+    for (long k = M.first_cell(j); k < M.first_cell(j + 1); ++k) {
+      const int i = M.ci[k];
+      M.left[k] = cell(i - 1, j), M.right[k] = cell(i + 1, j), M.down[k] = cell(i, j - 1), M.up[k] = cell(i, j + 1);
+      const MagneticState& g0 = M.ground[M.medium[k]];
+      const bool two = M.models[M.medium[k]].n == 2;
+      for (int p = 0; p < 2; ++p)
+        for (int c = 0; c < 3; ++c) M.m[p][c][k] = g0.m[0][c], M.m[p][3 + c][k] = two ? g0.m[1][c] : 0.0;
+    }
   }
   mag_scratch_.assign(static_cast<size_t>(threads_), std::vector<double>(kRowScratch * static_cast<size_t>(M.longest_row)));
   mag_tilted_.assign(static_cast<size_t>(threads_) * 8, 0);  // a cache line per thread
-  bytes_ += n * (12 + 6) * sizeof(double) + n * 7 * sizeof(int) + M.runs.size() * sizeof(MagneticCells::Run) +
-            M.cell_of.size() * sizeof(int) + threads_ * kRowScratch * M.longest_row * sizeof(double);
+  // the state and neighbours divided over ranks (resident where written), the list whole
+  bytes_ += static_cast<std::size_t>(n) * ((12 + 6) * sizeof(double) + 4 * sizeof(int)) / parallel::size() +
+            n * 3 * sizeof(int) + M.runs.size() * sizeof(MagneticCells::Run) +
+            threads_ * kRowScratch * M.longest_row * sizeof(double);
 }
 
 template <class R>

@@ -61,7 +61,7 @@ void Simulation<R>::build_magnetic_slabs() {
   for (int r = 0; r < ranks_; ++r) {
     int lo, hi;
     parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
-    for (int j : recorder_rows_)
+    for (int j : rgather_.cell_rows)
       if (j >= lo && j < hi) {
         X.recorder_cells.push_back(mag_.first_cell(j)), X.recorder_cells.push_back(mag_.first_cell(j + 1));
         X.recorder_cell_counts[r] +=

@@ -1,8 +1,8 @@
 /// \file slab_step.cpp
 /// \brief The row sweep over P ranks (slabs.h): each rank steps its own rows with the row
-/// kernels of simulation.cpp, trading halo rows with the ranks above and below, and makes
-/// the rows its recorders read whole before they record, so every rank's recorders (and
-/// rank 0's output) see exactly the fields a one-process run holds: the same bits. Snapshot
+/// kernels of simulation.cpp, trading halo rows with the ranks above and below, and gathers
+/// the nodes and rows its recorders read before they record (recorder_gather.cpp), so every
+/// rank's recorders (and rank 0's output) see exactly the fields a one-process run holds: the same bits. Snapshot
 /// frames are taken by each rank from its own rows and written together (run_folder.cpp).
 ///
 /// One step on rank r (rows [lo, hi)), the halos derived from the curl stencil table:
@@ -27,26 +27,6 @@ namespace {
 constexpr int kTagE = 11, kTagH = 12;
 constexpr auto kHaloE = parallel::halo_list(true), kHaloH = parallel::halo_list(false);
 
-std::vector<int> sorted(std::vector<int> v) {
-  std::sort(v.begin(), v.end());
-  v.erase(std::unique(v.begin(), v.end()), v.end());
-  return v;
-}
-
-/// Bytes of `rows` (sorted) per rank, `per_row` each; a ghost row belongs to the rank whose halo lands in it.
-std::vector<int> row_bytes(const std::vector<int>& rows, int ny, int P, int per_row) {
-  std::vector<int> c(P, 0);
-  for (int j : rows) {
-    int owner = 0;
-    for (int r = 0; r < P; ++r) {
-      int lo, hi;
-      parallel::slab_rows(ny, r, P, lo, hi);
-      if ((j >= lo || r == 0) && (j < hi || r == P - 1)) owner = r;
-    }
-    c[owner] += per_row;
-  }
-  return c;
-}
 }  // namespace
 
 template <class R>
@@ -62,48 +42,7 @@ void Simulation<R>::build_slabs() {
   halo_e_out_.assign(n, R(0)), halo_e_in_.assign(n, R(0)), halo_h_out_.assign(n, R(0)), halo_h_in_.assign(n, R(0));
   row_held_.assign(g_.ny, 0.0), row_fields_.assign(g_.ny, 0.0);  // gather_sums (guard/held_energy.cpp)
   bytes_ += 2 * g_.ny * sizeof(double);
-  // rows the every-step recorders read: their stencils' rows, and each spectral-map node's
-  // row and the row below (node_average.h)
-  std::vector<int> rows;
-  auto add = [&](const PointStencil& p) {
-    for (long id : p.index) rows.push_back(static_cast<int>(id / g_.stride) - 1);
-  };
-  for (const auto& p : probes_) {
-    for (const auto& s : p.stencil) add(s);
-    for (const auto& l : p.line)
-      for (const auto& s : l) add(s);
-  }
-  for (const auto& fl : power_spectra_)
-    for (const auto& st : fl.stencil)
-      for (const auto& s : st) add(s);
-  for (const auto& p : probes_)  // a magnetic probe's cells (gather_recorder_cells)
-    for (int c : p.cells)
-      if (c >= 0) rows.push_back(mag_.cj[c]);
-  for (const auto& m : maps_)
-    for (int b = 0; b < m.nj; ++b) rows.push_back(m.j0 + b * m.stride), rows.push_back(m.j0 + b * m.stride - 1);
-  const auto counts = [&](const std::vector<int>& rs) {
-    return row_bytes(rs, g_.ny, ranks_, static_cast<int>(6 * g_.stride * sizeof(R)));
-  };
-  recorder_rows_ = sorted(rows);
-  recorder_counts_ = counts(recorder_rows_);
-  // Snapshots take each rank's own rows (snapshots.h, FrameRows) and need nothing gathered,
-  // but a Poynting frame's node average (node_average.h) reads the row below: on its step
-  // and the step before (E kept), each cut's lower row joins the gathered rows.
-  bool averages = false;
-  for (const auto& f : snaps_.plan.fields) averages = averages || f.poynting();
-  if (averages) {
-    for (int r = 0; r + 1 < ranks_; ++r) {
-      int lo, hi;
-      parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
-      rows.push_back(hi - 1);
-    }
-    for (long s : snaps_.plan.steps) frame_steps_.push_back(s), frame_steps_.push_back(s - 1);
-    std::sort(frame_steps_.begin(), frame_steps_.end());
-  }
-  frame_rows_ = sorted(rows);
-  frame_counts_ = counts(frame_rows_);
-  recorder_buf_.assign(frame_rows_.size() * 6 * g_.stride, R(0));
-  bytes_ += (4 * n + recorder_buf_.size()) * sizeof(R);
+  build_recorder_gather();  // recorder_gather.cpp
   // gather_sums' blocks: a double for each of each rank's rows
   work_counts_.assign(ranks_, 0);
   for (int r = 0; r < ranks_; ++r) {
@@ -280,35 +219,6 @@ void Simulation<R>::tensor_step_slab() {
   tensor_.step(F.data(), threads_);
 }
 
-template <class R>
-void Simulation<R>::gather_for_recorders(long k) {
-  const bool frame = std::binary_search(frame_steps_.begin(), frame_steps_.end(), k);
-  gather_rows(frame ? frame_rows_ : recorder_rows_, frame ? frame_counts_ : recorder_counts_);
-  gather_recorder_cells();
-}
-
-template <class R>
-void Simulation<R>::gather_rows(const std::vector<int>& rows, const std::vector<int>& counts) {
-  if (rows.empty()) return;
-  const long s = g_.stride;
-  const auto mine = [&](int j) { return (j >= row0_ || rank_ == 0) && (j < row1_ || rank_ == ranks_ - 1); };
-  R* buf = recorder_buf_.data();
-  size_t at = 0;
-  for (int j : rows) {
-    if (mine(j))
-      for (int c = 0; c < 6; ++c) std::memcpy(buf + at + c * s, f_[c].data() + g_.row_begin(j), s * sizeof(R));
-    at += 6 * s;
-  }
-  // rows are sorted and slabs ascend with rank, so each rank's rows are one block in order
-  parallel::allgather_bytes(buf, counts);
-  at = 0;
-  for (int j : rows) {
-    if (!mine(j))
-      for (int c = 0; c < 6; ++c) std::memcpy(f_[c].data() + g_.row_begin(j), buf + at + c * s, s * sizeof(R));
-    at += 6 * s;
-  }
-}
-
 #define TY_SLAB_STEP(R)                                    \
   template void Simulation<R>::build_slabs();              \
   template void Simulation<R>::step_slab();                \
@@ -319,9 +229,7 @@ void Simulation<R>::gather_rows(const std::vector<int>& rows, const std::vector<
   template void Simulation<R>::halo_take_h();              \
   template void Simulation<R>::halo_done();                \
   template void Simulation<R>::tensor_step_slab();         \
-  template void Simulation<R>::tensor_rows(int, long*, long*) const; \
-  template void Simulation<R>::gather_for_recorders(long); \
-  template void Simulation<R>::gather_rows(const std::vector<int>&, const std::vector<int>&);
+  template void Simulation<R>::tensor_rows(int, long*, long*) const;
 TY_SLAB_STEP(float)
 TY_SLAB_STEP(double)
 #undef TY_SLAB_STEP

@@ -64,6 +64,17 @@ inline void slab_rows(int ny, int r, int P, int& lo, int& hi) {
   hi = lo + q + (r < rem ? 1 : 0);
 }
 
+/// Whether rank r of P reads row j of a cell list: its rows [lo, hi) and the row beyond each
+/// side, across a periodic y seam too (the neighbours its step reads; a resumed rank reads
+/// the same rows back, Simulation::owned_parts with widen 1). Every row with one rank.
+inline bool reads_row(int j, int ny, int r, int P, bool periodic_y) {
+  if (P == 1) return true;
+  int lo, hi;
+  slab_rows(ny, r, P, lo, hi);
+  if (j >= lo - 1 && j <= hi) return true;
+  return periodic_y && ((lo == 0 && j == ny - 1) || (hi == ny && j == 0));
+}
+
 /// Bytes that cross one cut per step, both ways together (whole rows of `stride` values,
 /// ghost columns and padding included, as sent): the E rows going down to the rank below,
 /// the H rows going up to the rank above.

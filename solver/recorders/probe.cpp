@@ -16,7 +16,7 @@ double to_e_time(const double* x, long k, long n) {
   return x[k];
 }
 
-ProbeRecorder make_probe(const Output& o, const YeeGrid& g, long total_steps, const std::vector<int>& cell_of) {
+ProbeRecorder make_probe(const Output& o, const YeeGrid& g, long total_steps, const CellAt& cell_at) {
   ProbeRecorder p;
   p.name = o.name;
   p.at = o.at;
@@ -40,12 +40,12 @@ ProbeRecorder make_probe(const Output& o, const YeeGrid& g, long total_steps, co
       p.magnetic.push_back(f);
       p.magnetic_series.emplace_back(static_cast<size_t>(total_steps), 0.0);
     }
-  if (!p.magnetic.empty() && !cell_of.empty()) {  // magnetizations live at the Hz nodes
+  if (!p.magnetic.empty() && cell_at) {  // magnetizations live at the Hz nodes
     const PointStencil st = point_stencil(g, Component::Hz, o.at);
     for (int q = 0; q < 4; ++q) {
       const long idx = st.index[q];
       const int j = static_cast<int>(idx / g.stride) - 1, i = static_cast<int>(idx % g.stride - g.lead);
-      p.cells[q] = cell_of[static_cast<size_t>(j) * g.nx + i];
+      p.cells[q] = cell_at(i, j);
       p.cell_weight[q] = st.weight[q];
     }
   }

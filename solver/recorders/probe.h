@@ -9,6 +9,7 @@
 /// so Poynting products are taken at one time.
 #pragma once
 #include <array>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -30,7 +31,7 @@ struct ProbeRecorder {
   /// Magnetic fields (Mx, Lx, ...): bilinear over the four nearest cell centres (cells that
   /// are not magnetic count as zero), sampled at the magnetization's time, (k+1/2) dt.
   std::vector<std::string> magnetic;
-  std::array<int, 4> cells{-1, -1, -1, -1};
+  std::array<long, 4> cells{-1, -1, -1, -1};
   std::array<double, 4> cell_weight{};
   std::vector<std::vector<double>> magnetic_series;
 
@@ -86,8 +87,11 @@ struct ProbeRecorder {
 /// x(k+1/2) -> x(k+1): the mean of samples k and k+1, the last one extrapolated linearly.
 double to_e_time(const double* x, long k, long n);
 
-/// A probe for a scene's probe output on grid g; cell_of maps grid cells to magnetic cells
-/// (empty when there are none).
-ProbeRecorder make_probe(const Output& o, const YeeGrid& g, long total_steps, const std::vector<int>& cell_of);
+/// The magnetic list's cell at grid cell (i, j), -1 where there is none (MagneticCells::cell_at).
+using CellAt = std::function<long(int, int)>;
+
+/// A probe for a scene's probe output on grid g; cell_at finds the magnetic cells (empty
+/// when there are none).
+ProbeRecorder make_probe(const Output& o, const YeeGrid& g, long total_steps, const CellAt& cell_at);
 
 }  // namespace ty

@@ -85,10 +85,11 @@ class SnapshotRecorder {
   std::size_t bytes() const { return buf_.size() * sizeof(R) + e_before_.size() * sizeof(double); }
 
   /// After step k: the frame if one is due, then E kept for a Poynting frame due next step.
-  /// value(field, cell) is a magnetic field's value in a list cell (cell_of: grid -> list).
+  /// value(field, cell) is a magnetic field's value in a list cell; cell_at(i, j) the list cell
+  /// at grid cell (i, j), -1 where there is none.
   /// Over ranks (rows.parts) each rank takes, keeps and hands on the rows its grid rows hold.
-  template <class MagneticValue>
-  void record(long k, const R* const* F, const YeeGrid& g, const std::vector<int>& cell_of, MagneticValue&& value,
+  template <class CellAt, class MagneticValue>
+  void record(long k, const R* const* F, const YeeGrid& g, CellAt&& cell_at, MagneticValue&& value,
               SnapshotSink* sink, const FrameRows& rows = {}) {
     const long frames = static_cast<long>(plan.steps.size());
     if (next_frame < frames && plan.steps[next_frame] == k) {
@@ -97,7 +98,7 @@ class SnapshotRecorder {
         const SnapshotField& sf = plan.fields[fi];
         int b0, b1;
         rows.of(sf, b0, b1);
-        take(sf, F, g, cell_of, value, e_at, b0, b1);
+        take(sf, F, g, cell_at, value, e_at, b0, b1);
         if (sink && rows.parts) sink->frame_rows(next_frame, fi, b0, b1, buf_.data());
         else if (sink) sink->frame(next_frame, plan.times[next_frame], fi, buf_.data());
       }
@@ -136,8 +137,8 @@ class SnapshotRecorder {
   std::vector<R> buf_;
   std::vector<double> e_before_;  ///< per S field, per node: E(k) averaged to the Ez node
 
-  template <class MagneticValue>
-  void take(const SnapshotField& sf, const R* const* F, const YeeGrid& g, const std::vector<int>& cell_of,
+  template <class CellAt, class MagneticValue>
+  void take(const SnapshotField& sf, const R* const* F, const YeeGrid& g, CellAt& cell_at,
             MagneticValue& value, size_t& e_at, int b0, int b1) {
     const int c = static_cast<int>(sf.node);
     const EzNodeAverage average{g.stride};
@@ -147,7 +148,7 @@ class SnapshotRecorder {
         const size_t p = static_cast<size_t>(b) * sf.ni + a;
         double v;
         if (is_magnetic_field(sf.name)) {
-          const int cell = cell_of.empty() ? -1 : cell_of[static_cast<size_t>(j) * g.nx + i];
+          const long cell = cell_at(i, j);
           v = cell >= 0 ? value(sf.name, cell) : 0.0;
         } else if (!sf.poynting()) {
           v = F[c][g.at(i, j)];

@@ -5,7 +5,7 @@
 /// Shell Command Language 2.8.2), each after writing its checkpoint; a failed resume keeps
 /// the checkpoint; kill -9 at a fixed step, inside a checkpoint write, before and after
 /// the final rename, each followed by --resume, ends with the bits of a straight run; a
-/// scene above 64 KB checkpoints; a movie named "-x.mp4" is a file, not an ffmpeg option.
+/// scene above 64 KB checkpoints, and so does a run whose snapshots fall after its end; a movie named "-x.mp4" is a file, not an ffmpeg option.
 #include <doctest/doctest.h>
 #include <sys/wait.h>
 
@@ -145,6 +145,21 @@ TEST_CASE("a scene above 64 KB resolved is checkpointed and resumed") {
   REQUIRE(fs::exists(dir / "checkpoint.h5"));
   CHECK(terayee_run(dir, title + " --resume") == 0);
   CHECK(h5::File::open((dir / "fields.h5").string()).read_attribute("/", "title").size() == 70000);
+  fs::remove_all(dir);
+}
+
+TEST_CASE("a run whose snapshots fall after its end is stopped and resumed (no frame series to find)") {
+  // every 20 ps in a 10 ps run: no frame, so the partial results hold no /snapshots; the
+  // resume looked for them and refused the run ("/snapshots/Ez: missing")
+  const fs::path dir = fresh("terayee-test-no-frames");
+  const std::string sets = " --set outputs.0.snapshots.every=20ps";
+  CHECK(terayee_run(dir, sets + " --stop-at-step 40") == 0);
+  REQUIRE(fs::exists(dir / "checkpoint.h5"));
+  std::string out;
+  CHECK(terayee_run(dir, sets + " --resume", out) == 0);
+  INFO(out);
+  CHECK(fs::exists(dir / "fields.h5"));
+  CHECK_FALSE(fs::exists(dir / "checkpoint.h5"));
   fs::remove_all(dir);
 }
 

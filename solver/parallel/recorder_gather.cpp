@@ -1,0 +1,139 @@
+/// \file recorder_gather.cpp
+/// \brief The recorders' reads of other ranks' rows over P ranks (recorder_gather.h): which
+/// nodes and rows, and their gather before each step's record().
+#include <algorithm>
+#include <cstring>
+#include <utility>
+
+#include "solver/parallel/recorder_gather.h"
+#include "solver/simulation.h"
+
+namespace ty {
+
+namespace {
+std::vector<int> sorted(std::vector<int> v) {
+  std::sort(v.begin(), v.end());
+  v.erase(std::unique(v.begin(), v.end()), v.end());
+  return v;
+}
+
+/// Bytes of `rows` (sorted) per rank, `per_row` each.
+std::vector<int> row_bytes(const std::vector<int>& rows, int ny, int P, int per_row) {
+  std::vector<int> c(P, 0);
+  for (int j : rows) c[parallel::row_owner(j, ny, P)] += per_row;
+  return c;
+}
+}  // namespace
+
+template <class R>
+void Simulation<R>::build_recorder_gather() {
+  parallel::RecorderGather<R>& X = rgather_;
+  const long s = g_.stride;
+  // the every-step recorders' nodes: each point stencil's four (row = index / stride - 1)
+  std::vector<std::pair<int, std::pair<int, long>>> nodes;  // (row, (component, index))
+  auto add = [&](const PointStencil& p, int c) {
+    for (long id : p.index) nodes.push_back({static_cast<int>(id / s) - 1, {c, id}});
+  };
+  for (const auto& p : probes_) {
+    for (int c = 0; c < 6; ++c) add(p.stencil[c], c);
+    for (const auto& l : p.line)
+      for (int c = 0; c < 6; ++c) add(l[c], c);
+  }
+  for (const auto& fl : power_spectra_)
+    for (const auto& st : fl.stencil)
+      for (int c = 0; c < 6; ++c) add(st[c], c);
+  std::sort(nodes.begin(), nodes.end());
+  nodes.erase(std::unique(nodes.begin(), nodes.end()), nodes.end());
+  X.node_counts.assign(ranks_, 0);
+  for (const auto& [j, n] : nodes) {
+    X.node_comp.push_back(n.first), X.node_index.push_back(n.second);
+    X.node_counts[parallel::row_owner(j, g_.ny, ranks_)] += static_cast<int>(sizeof(R));
+  }
+  X.node_buf.assign(nodes.size(), R(0));
+  for (const auto& p : probes_)  // a magnetic probe's cells (gather_recorder_cells)
+    for (long c : p.cells)
+      if (c >= 0) X.cell_rows.push_back(mag_.cj[c]);
+  X.cell_rows = sorted(X.cell_rows);
+  // the maps' rows: each node's row and the row below (node_average.h)
+  std::vector<int> rows;
+  for (const auto& m : maps_)
+    for (int b = 0; b < m.nj; ++b) rows.push_back(m.j0 + b * m.stride), rows.push_back(m.j0 + b * m.stride - 1);
+  const int per_row = static_cast<int>(6 * s * sizeof(R));
+  X.rows = sorted(rows);
+  X.row_counts = row_bytes(X.rows, g_.ny, ranks_, per_row);
+  // Snapshots take each rank's own rows (snapshots.h, FrameRows) and need nothing gathered,
+  // but a Poynting frame's node average (node_average.h) reads the row below: on its step
+  // and the step before (E kept), each cut's lower row joins the gathered rows.
+  bool averages = false;
+  for (const auto& f : snaps_.plan.fields) averages = averages || f.poynting();
+  if (averages) {
+    for (int r = 0; r + 1 < ranks_; ++r) {
+      int lo, hi;
+      parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
+      rows.push_back(hi - 1);
+    }
+    for (long k : snaps_.plan.steps) X.frame_steps.push_back(k), X.frame_steps.push_back(k - 1);
+    std::sort(X.frame_steps.begin(), X.frame_steps.end());
+  }
+  X.frame_rows = sorted(rows);
+  X.frame_counts = row_bytes(X.frame_rows, g_.ny, ranks_, per_row);
+  X.row_buf.assign(X.frame_rows.size() * 6 * s, R(0));
+  bytes_ += (X.row_buf.size() + X.node_buf.size()) * sizeof(R) + X.node_index.size() * (sizeof(long) + sizeof(int));
+}
+
+template <class R>
+void Simulation<R>::gather_for_recorders(long k) {
+  const parallel::RecorderGather<R>& X = rgather_;
+  const bool frame = std::binary_search(X.frame_steps.begin(), X.frame_steps.end(), k);
+  gather_rows(frame ? X.frame_rows : X.rows, frame ? X.frame_counts : X.row_counts);
+  gather_nodes();
+  gather_recorder_cells();
+}
+
+template <class R>
+void Simulation<R>::gather_nodes() {
+  parallel::RecorderGather<R>& X = rgather_;
+  if (X.node_index.empty()) return;
+  // nodes are sorted by row and slabs ascend with rank, so each rank's nodes are one block in order
+  long first = 0;
+  for (int r = 0; r < rank_; ++r) first += X.node_counts[r] / static_cast<long>(sizeof(R));
+  const long last = first + X.node_counts[rank_] / static_cast<long>(sizeof(R));
+  for (long q = first; q < last; ++q) X.node_buf[q] = f_[X.node_comp[q]][X.node_index[q]];
+  parallel::allgather_bytes(X.node_buf.data(), X.node_counts);
+  const long n = static_cast<long>(X.node_index.size());
+  for (long q = 0; q < n; ++q)
+    if (q < first || q >= last) f_[X.node_comp[q]][X.node_index[q]] = X.node_buf[q];
+}
+
+template <class R>
+void Simulation<R>::gather_rows(const std::vector<int>& rows, const std::vector<int>& counts) {
+  if (rows.empty()) return;
+  const long s = g_.stride;
+  const auto mine = [&](int j) { return (j >= row0_ || rank_ == 0) && (j < row1_ || rank_ == ranks_ - 1); };
+  R* buf = rgather_.row_buf.data();
+  size_t at = 0;
+  for (int j : rows) {
+    if (mine(j))
+      for (int c = 0; c < 6; ++c) std::memcpy(buf + at + c * s, f_[c].data() + g_.row_begin(j), s * sizeof(R));
+    at += 6 * s;
+  }
+  // rows are sorted and slabs ascend with rank, so each rank's rows are one block in order
+  parallel::allgather_bytes(buf, counts);
+  at = 0;
+  for (int j : rows) {
+    if (!mine(j))
+      for (int c = 0; c < 6; ++c) std::memcpy(f_[c].data() + g_.row_begin(j), buf + at + c * s, s * sizeof(R));
+    at += 6 * s;
+  }
+}
+
+#define TY_RECORDER_GATHER(R)                              \
+  template void Simulation<R>::build_recorder_gather();    \
+  template void Simulation<R>::gather_for_recorders(long); \
+  template void Simulation<R>::gather_nodes();             \
+  template void Simulation<R>::gather_rows(const std::vector<int>&, const std::vector<int>&);
+TY_RECORDER_GATHER(float)
+TY_RECORDER_GATHER(double)
+#undef TY_RECORDER_GATHER
+
+}  // namespace ty
