@@ -327,7 +327,8 @@ class Simulation {
   void tensor_rows(int r, long* a, long* b) const;
   /// What the recorders read of other ranks' rows, gathered before step k's record (recorder_gather.cpp):
   /// the probes' and lines' stencil nodes, the maps' rows (all of them in one allgather each).
-  void build_recorder_gather(), gather_for_recorders(long k), gather_nodes();
+  void build_recorder_gather(), gather_for_recorders(long k), gather_nodes(), gather_maps();
+  void map_rows(const SpectralMap& m, int r, int P, int& b0, int& b1) const;  // map m's rows of rank r of P
   void gather_rows(const std::vector<int>& rows, const std::vector<int>& counts);
   // magnetic cells over ranks (solver/parallel/magnetic_slab_step.cpp, magnet_halo.h)
   void build_magnetic_slabs();

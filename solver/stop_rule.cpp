@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "solver/parallel/ranks.h"
 #include "solver/recorders/sampling.h"
 
 namespace ty {
@@ -101,17 +102,24 @@ void StopRule::signatures(const std::vector<PowerSpectrumRecorder>& lines, const
       }
       now_[q++] = P;
     }
-  for (std::size_t k = 0; k < maps.size(); ++k) {  // the electric field at a sample of points
+  // the electric field at a sample of points; over MPI ranks each rank sums its own rows'
+  // points (SpectralMap::b0, b1), so each takes those, 0 elsewhere, and the sum over the ranks
+  // is every point's value, exactly (x + 0 = x), on every rank
+  const std::size_t first = q;
+  for (std::size_t k = 0; k < maps.size(); ++k) {
     const SpectralMap& m = maps[k];
     const long np = static_cast<long>(m.ni) * m.nj;
     for (std::size_t f = 0; f < m.freq.size(); ++f)
-      for (long p = 0; p < np; p += map_stride_[k])
+      for (long p = 0; p < np; p += map_stride_[k]) {
+        const bool own = p >= static_cast<long>(m.p0()) && p < static_cast<long>(m.p1());
         for (int c = 0; c < 3; ++c) {
-          const std::complex<double> v = m.acc[(f * np + p) * 6 + c];
+          const std::complex<double> v = own ? m.acc[(f * np + p) * 6 + c] : std::complex<double>{};
           now_[q++] = v.real();
           now_[q++] = v.imag();
         }
+      }
   }
+  if (parallel::size() > 1 && q > first) parallel::sum_over_ranks(now_.data() + first, static_cast<long>(q - first));
 }
 
 bool StopRule::settled(long steps, double dt, double energy, const std::vector<PowerSpectrumRecorder>& lines,

@@ -56,6 +56,9 @@ else
   cases+=("$root/scenarios/otto-atr/otto-atr-fef2.yaml|time.stop=30ps bodies.1.rectangle.centre=[5um,165um] bodies.2.rectangle.centre=[5um,380um] outputs.0.power-spectrum.line.y=120um")
   # a rotated dispersive tensor (its list gathered and stepped whole on every rank) across the cuts
   cases+=("$root/tests/data/ranks-tensor.yaml|")
+  # a spectral map over every rank's rows (each rank sums its own rows') deciding a self-stopping
+  # run: the stop rule's samples summed over the ranks (stop_rule.cpp)
+  cases+=("$root/tests/data/cw-beam.yaml|time.stop=auto time.limit=200ps")
   # magnetic cells across every cut: their halo (magnet_halo.h), probes and tilt snapshots
   magnets="$root/tests/data/ranks-magnets.yaml"
   cases+=("$magnets|")

@@ -11,10 +11,12 @@
 #include <sys/mman.h>
 
 #include <algorithm>
+#include <complex>
 #include <cstddef>
 #include <cstdlib>
 #include <cstring>
 #include <new>
+#include <type_traits>
 #include <utility>
 #include <vector>
 
@@ -63,6 +65,11 @@ inline void give(void* p, std::size_t bytes) {
 /// elements are default-initialised (no store): resize(n) of a MappedVector<double> leaves
 /// the pages unwritten, so over MPI ranks a cell list sized for the whole grid is resident
 /// only where a rank writes it (its rows' cells and the row beyond each side).
+template <class U>
+struct is_complex : std::false_type {};
+template <class U>
+struct is_complex<std::complex<U>> : std::true_type {};
+
 template <class T>
 struct MappedAllocator {
   using value_type = T;
@@ -73,7 +80,9 @@ struct MappedAllocator {
   void deallocate(T* p, std::size_t n) { aligned::give(p, aligned::bytes_for(n, sizeof(T))); }
   template <class U>
   void construct(U* p) {
-    ::new (static_cast<void*>(p)) U;  // default-initialised: the zero the storage came with
+    // default-initialised: the zero the storage came with (a complex's constructor would
+    // store its zero; all-zero bytes are 0 + 0i, and the storage is zero)
+    if constexpr (!is_complex<U>::value) ::new (static_cast<void*>(p)) U;
   }
   template <class U, class... A>
   void construct(U* p, A&&... a) {

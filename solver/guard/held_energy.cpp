@@ -77,7 +77,7 @@ double Simulation<R>::held_energy() const {
 }
 
 /// Each row's held energy and work from its rank to every rank; with `summary` (once, at the
-/// end) each row's field energy and the midpoint cell-steps too.
+/// end) each row's field energy, the midpoint cell-steps and (onto rank 0) the spectral maps' rows too.
 template <class R>
 void Simulation<R>::gather_sums(bool summary) {
   if (ranks_ == 1) return;
@@ -89,6 +89,7 @@ void Simulation<R>::gather_sums(bool summary) {
   for (int j = row0_; j < row1_; ++j) row_fields_[j] = row_fields(j);
   parallel::allgather_bytes(row_fields_.data(), work_counts_);
   gather_tilted_count();
+  gather_maps();  // recorder_gather.cpp
 }
 
 /// Row by row, as held_energy (over ranks the rows' sums of the last gather_sums(true)).

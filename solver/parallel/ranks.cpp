@@ -56,10 +56,25 @@ void allgather_bytes(void* all, const std::vector<int>& counts) {
   std::partial_sum(counts.begin(), counts.end() - 1, displs.begin() + 1);
   MPI_Allgatherv(MPI_IN_PLACE, 0, MPI_DATATYPE_NULL, all, counts.data(), displs.data(), MPI_BYTE, MPI_COMM_WORLD);
 }
+void gather_bytes_to_root(void* all, const std::vector<int>& counts) {
+  std::vector<int> displs(counts.size(), 0);
+  std::partial_sum(counts.begin(), counts.end() - 1, displs.begin() + 1);
+  if (g_rank == 0) {
+    g_gathered += std::accumulate(counts.begin(), counts.end(), 0L) - counts[0];
+    MPI_Gatherv(MPI_IN_PLACE, 0, MPI_BYTE, all, counts.data(), displs.data(), MPI_BYTE, 0, MPI_COMM_WORLD);
+  } else {
+    MPI_Gatherv(static_cast<char*>(all) + displs[g_rank], counts[g_rank], MPI_BYTE, nullptr, nullptr, nullptr, MPI_BYTE,
+                0, MPI_COMM_WORLD);
+  }
+}
 long max_over_ranks(long v) {
   long m = v;
   MPI_Allreduce(&v, &m, 1, MPI_LONG, MPI_MAX, MPI_COMM_WORLD);
   return m;
+}
+void sum_over_ranks(double* v, long n) {
+  g_gathered += static_cast<long>((g_size - 1) * n * sizeof(double));
+  MPI_Allreduce(MPI_IN_PLACE, v, static_cast<int>(n), MPI_DOUBLE, MPI_SUM, MPI_COMM_WORLD);
 }
 std::vector<Pick> picks_over_ranks(Pick mine) {
   std::vector<Pick> all(g_size);
@@ -92,8 +107,10 @@ void receive_bytes(void*, std::size_t, int, int, Request&) {
   throw std::logic_error("receive_bytes: one rank has no peer");
 }
 void allgather_bytes(void*, const std::vector<int>&) {}
+void gather_bytes_to_root(void*, const std::vector<int>&) {}
 long gathered_bytes() { return 0; }
 long max_over_ranks(long v) { return v; }
+void sum_over_ranks(double*, long) {}
 std::vector<Pick> picks_over_ranks(Pick mine) { return {mine}; }
 void broadcast_bytes(void*, std::size_t, int) {}
 void barrier() {}

@@ -51,11 +51,16 @@ void receive_bytes(void* data, std::size_t n, int peer, int tag, Request& r);
 /// Every rank's block of `counts[r]` bytes, laid end to end in rank order (in place: the
 /// caller's block already sits at its offset in `all`).
 void allgather_bytes(void* all, const std::vector<int>& counts);
+/// The same onto rank 0 alone (the others' `all` is left as it was).
+void gather_bytes_to_root(void* all, const std::vector<int>& counts);
 /// Bytes this rank has received from the others through allgather_bytes so far (the
 /// recorders' rows and the whole-grid gathers: what the run log reports over ranks).
 long gathered_bytes();
 /// The largest of every rank's value.
 long max_over_ranks(long v);
+/// Each of v[0 .. n) summed over the ranks, on every rank, in place (exact where one rank
+/// alone holds a non-zero value, as the stop rule's map samples: each on its row's rank).
+void sum_over_ranks(double* v, long n);
 /// A value and where it was found (a cell, a node; -1: nowhere), one per rank.
 struct Pick {
   double value = 0;

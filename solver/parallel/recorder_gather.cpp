@@ -54,38 +54,66 @@ void Simulation<R>::build_recorder_gather() {
     for (long c : p.cells)
       if (c >= 0) X.cell_rows.push_back(mag_.cj[c]);
   X.cell_rows = sorted(X.cell_rows);
-  // the maps' rows: each node's row and the row below (node_average.h)
-  std::vector<int> rows;
-  for (const auto& m : maps_)
-    for (int b = 0; b < m.nj; ++b) rows.push_back(m.j0 + b * m.stride), rows.push_back(m.j0 + b * m.stride - 1);
-  const int per_row = static_cast<int>(6 * s * sizeof(R));
-  X.rows = sorted(rows);
-  X.row_counts = row_bytes(X.rows, g_.ny, ranks_, per_row);
-  // Snapshots take each rank's own rows (snapshots.h, FrameRows) and need nothing gathered,
-  // but a Poynting frame's node average (node_average.h) reads the row below: on its step
-  // and the step before (E kept), each cut's lower row joins the gathered rows.
+  // Each rank sums its own rows of every map (map_rows) and takes its own rows of the
+  // snapshots (snapshots.h, FrameRows); both average to the Ez nodes (node_average.h), which
+  // reads the row below: each cut's lower row is gathered on the steps a map samples, and on
+  // a Poynting frame's step and the step before (E kept).
+  for (auto& m : maps_) map_rows(m, rank_, ranks_, m.b0, m.b1);
   bool averages = false;
   for (const auto& f : snaps_.plan.fields) averages = averages || f.poynting();
-  if (averages) {
+  std::vector<int> rows;
+  if (averages || !maps_.empty())
     for (int r = 0; r + 1 < ranks_; ++r) {
       int lo, hi;
       parallel::slab_rows(g_.ny, r, ranks_, lo, hi);
       rows.push_back(hi - 1);
     }
+  if (averages) {
     for (long k : snaps_.plan.steps) X.frame_steps.push_back(k), X.frame_steps.push_back(k - 1);
     std::sort(X.frame_steps.begin(), X.frame_steps.end());
   }
+  const int per_row = static_cast<int>(6 * s * sizeof(R));
   X.frame_rows = sorted(rows);
   X.frame_counts = row_bytes(X.frame_rows, g_.ny, ranks_, per_row);
   X.row_buf.assign(X.frame_rows.size() * 6 * s, R(0));
+  for (const auto& m : maps_) {  // each frequency's points, a block per rank in rank order (gather_maps)
+    std::vector<int> c(ranks_, 0);
+    for (int r = 0; r < ranks_; ++r) {
+      int b0, b1;
+      map_rows(m, r, ranks_, b0, b1);
+      c[r] = static_cast<int>((b1 - b0) * static_cast<long>(m.ni) * 6 * sizeof(std::complex<double>));
+    }
+    X.map_counts.push_back(c);
+  }
   bytes_ += (X.row_buf.size() + X.node_buf.size()) * sizeof(R) + X.node_index.size() * (sizeof(long) + sizeof(int));
+}
+
+template <class R>
+void Simulation<R>::map_rows(const SpectralMap& m, int r, int P, int& b0, int& b1) const {
+  b0 = m.nj, b1 = m.nj;  // none
+  for (int b = 0; b < m.nj; ++b)
+    if (parallel::row_owner(m.j0 + b * m.stride, g_.ny, P) == r) b0 = std::min(b0, b), b1 = b + 1;
+  if (b0 == m.nj) b0 = b1 = 0;
+}
+
+template <class R>
+void Simulation<R>::gather_maps() {
+  for (size_t q = 0; q < maps_.size(); ++q) {
+    SpectralMap& m = maps_[q];
+    const size_t np = static_cast<size_t>(m.ni) * m.nj;
+    // onto rank 0, which writes them (run_folder.cpp); the others keep their own rows
+    for (size_t f = 0; f < m.freq.size(); ++f)
+      parallel::gather_bytes_to_root(m.acc.data() + f * np * 6, rgather_.map_counts[q]);
+    if (rank_ == 0) m.b0 = 0, m.b1 = m.nj;
+  }
 }
 
 template <class R>
 void Simulation<R>::gather_for_recorders(long k) {
   const parallel::RecorderGather<R>& X = rgather_;
-  const bool frame = std::binary_search(X.frame_steps.begin(), X.frame_steps.end(), k);
-  gather_rows(frame ? X.frame_rows : X.rows, frame ? X.frame_counts : X.row_counts);
+  bool rows = std::binary_search(X.frame_steps.begin(), X.frame_steps.end(), k);
+  for (const auto& m : maps_) rows = rows || m.samples(k, total_steps_);
+  if (rows) gather_rows(X.frame_rows, X.frame_counts);
   gather_nodes();
   gather_recorder_cells();
 }
@@ -129,6 +157,8 @@ void Simulation<R>::gather_rows(const std::vector<int>& rows, const std::vector<
 
 #define TY_RECORDER_GATHER(R)                              \
   template void Simulation<R>::build_recorder_gather();    \
+  template void Simulation<R>::map_rows(const SpectralMap&, int, int, int&, int&) const; \
+  template void Simulation<R>::gather_maps();              \
   template void Simulation<R>::gather_for_recorders(long); \
   template void Simulation<R>::gather_nodes();             \
   template void Simulation<R>::gather_rows(const std::vector<int>&, const std::vector<int>&);

@@ -4,9 +4,10 @@
 /// stencils): those nodes' values alone are gathered, in row order, and put where a
 /// one-process run holds them, so record() reads the same values and sums them in the same
 /// order: the same bits. A line across the whole height (a transmission detector at x = const)
-/// costs 24 nodes a row point, not 6 whole rows. Spectral maps read whole stretches of rows
-/// (their region and the row below, node_average.h), gathered as whole rows; on a Poynting
-/// frame's steps each cut's lower row joins them.
+/// costs 24 values a point, not 6 whole rows. Each rank sums its own rows of every spectral
+/// map (gathered onto rank 0 once, at the end: gather_maps) and takes its own rows of the snapshots; both
+/// average to the Ez nodes, reading the row below, so each cut's lower row is gathered whole
+/// on the steps a map samples and around a Poynting frame.
 #pragma once
 #include <vector>
 
@@ -16,9 +17,9 @@ namespace ty::parallel {
 
 template <class R>
 struct RecorderGather {
-  std::vector<int> rows, row_counts;      ///< rows (ghosts -1, ny too) the maps read each step; bytes per rank
-  std::vector<int> frame_rows, frame_counts;  ///< on frame_steps: those and each cut's lower row
+  std::vector<int> frame_rows, frame_counts;  ///< each cut's lower row (maps, Poynting frames); bytes per rank
   std::vector<long> frame_steps;          ///< steps a Poynting frame reads (its own and the one before)
+  std::vector<std::vector<int>> map_counts;  ///< per map, bytes of one frequency's sums per rank (gather_maps)
   std::vector<R> row_buf;                 ///< the gathered rows, each rank's in rank order
   std::vector<int> node_comp;             ///< the stencils' nodes, by row: component (0..5)
   std::vector<long> node_index;           ///< and index in its field array

@@ -14,9 +14,11 @@
 ///   guard's work per row  rows [lo, hi)
 ///   sine/...              a Bloch pair's sine copy: its arrays as the cosine copy's
 ///   snapshots' kept E     the frame rows of rows [lo, hi) (each rank keeps only those: snapshots.h)
+///   spectral maps         each frequency's points on the map rows in [lo, hi) (each rank sums only
+///                         those: recorder_gather.cpp)
 ///   rotated tensors' list the same on every rank (slab_step.cpp steps it whole): rank 0
-///   recorders, stop rule, clock: every rank holds the same values (slab_step.cpp gathers the
-///                         rows they read), so rank 0 writes them
+///   recorders, stop rule, clock: every rank holds the same values (recorder_gather.cpp gathers
+///                         the nodes they read), so rank 0 writes them
 /// A state array not named here has no owner over ranks: a logic error, so that new state
 /// cannot be written wrong unnoticed.
 #include <algorithm>
@@ -70,8 +72,19 @@ std::vector<std::pair<std::size_t, std::size_t>> Simulation<R>::owned_parts(cons
     if (first && n > cells) add(cells, n);
     return parts;
   }
+  if (starts("spectral-maps/")) {  // each rank sums its own rows' points (recorder_gather.cpp), and reads back those
+    for (const SpectralMap& m : maps_)
+      if (name == "spectral-maps/" + m.name) {
+        int b0, b1;
+        map_rows(m, r, P, b0, b1);
+        const std::size_t np = static_cast<std::size_t>(m.ni) * m.nj, w = 12;  // a point: 6 complex, 12 doubles
+        for (std::size_t f = 0; f < m.freq.size(); ++f)
+          add((f * np + static_cast<std::size_t>(b0) * m.ni) * w, (f * np + static_cast<std::size_t>(b1) * m.ni) * w);
+        return parts;
+      }
+  }
   if (name == "snapshots/E-before-frame") return snaps_.e_before_parts(FrameRows{f0, f1, true});  // snapshots.h
-  for (const char* p : {"probes/", "power-spectra/", "spectral-maps/", "snapshots/", "clock/", "stop-rule/",
+  for (const char* p : {"probes/", "power-spectra/", "snapshots/", "clock/", "stop-rule/",
                         "media/tensor-"})
     if (starts(p)) return first || widen > 0 ? Parts{{0, n}} : Parts{};  // read back: whole by every rank
   throw std::logic_error("state '" + name + "' has no owner over ranks (solver/parallel/state_owners.cpp)");

@@ -38,8 +38,9 @@ SpectralMap make_spectral_map(const Scene& s, const Output& o, const YeeGrid& g,
   m.win = make_windows(m.freq, rule, total_steps, g.dt, every, block);
   m.start = m.win.block > 0 ? 0 : m.win.first(total_steps);
   m.dt = g.dt;
-  m.acc.assign(m.freq.size() * static_cast<std::size_t>(m.ni) * m.nj * 6, 0.0);
-  m.value.assign(static_cast<std::size_t>(m.ni) * m.nj * 6, 0.0);
+  m.acc.resize(m.freq.size() * static_cast<std::size_t>(m.ni) * m.nj * 6);  // zero (MappedAllocator)
+  m.value.resize(static_cast<std::size_t>(m.ni) * m.nj * 6);
+  m.b0 = 0, m.b1 = m.nj;
   return m;
 }
 

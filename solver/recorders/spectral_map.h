@@ -19,6 +19,7 @@
 
 #include "io/scene/scene.h"
 #include "io/scene/units.h"
+#include "solver/grid/aligned.h"
 #include "solver/grid/node_average.h"
 #include "solver/grid/yee_grid.h"
 #include "solver/recorders/sampling.h"
@@ -35,8 +36,16 @@ struct SpectralMap {
   double dt = 0;
   int i0 = 0, j0 = 0, ni = 0, nj = 0, stride = 1;  ///< Ez nodes of the region
   std::vector<double> x, y;          ///< their positions, user coordinates
-  std::vector<std::complex<double>> acc;  ///< [f][point][component]
-  std::vector<double> value;         ///< this step's six averaged values per point (scratch)
+  /// [f][point][component]; mapped pages (solver/grid/aligned.h): over MPI ranks each rank
+  /// writes, and holds, only its own rows' points until the end gathers them (gather_sums)
+  MappedVector<std::complex<double>> acc;
+  MappedVector<double> value;        ///< this step's six averaged values per point (scratch)
+  int b0 = 0, b1 = 0;                ///< the map rows this process sums: all, or its rank's (recorder_gather.cpp)
+  /// Whether step k of total adds to the sums.
+  bool samples(long k, long total) const { return k >= start && win.sampled(k, total); }
+  /// The points this process sums, [p0, p1) of each frequency's ni * nj.
+  std::size_t p0() const { return static_cast<std::size_t>(b0) * ni; }
+  std::size_t p1() const { return static_cast<std::size_t>(b1) * ni; }
   std::complex<double> field(std::size_t f, std::size_t p, int c) const {
     return acc[(f * static_cast<std::size_t>(ni) * nj + p) * 6 + c] * (2.0 / win.seconds(f, dt));
   }
@@ -47,11 +56,13 @@ struct SpectralMap {
   template <class R>
   void record(long k, long total, const R* const* F, const YeeGrid& g, int threads) {
     steps = k + 1;
-    if (win.restarts(k)) std::fill(acc.begin(), acc.end(), std::complex<double>{});
-    if (k < start || !win.sampled(k, total)) return;
     const size_t np = static_cast<size_t>(ni) * nj;
+    if (win.restarts(k))
+      for (size_t fi = 0; fi < freq.size(); ++fi)
+        std::fill(acc.begin() + (fi * np + p0()) * 6, acc.begin() + (fi * np + p1()) * 6, std::complex<double>{});
+    if (!samples(k, total)) return;
     const EzNodeAverage average{g.stride};
-    for (int b = 0; b < nj; ++b)
+    for (int b = b0; b < b1; ++b)
       for (int a = 0; a < ni; ++a) {
         double* v = &value[(static_cast<size_t>(b) * ni + a) * 6];
         average(F, g.at(i0 + a * stride, j0 + b * stride), v);
@@ -63,7 +74,7 @@ struct SpectralMap {
       std::complex<double>* sums = acc.data() + fi * np * 6;
       const double* val = value.data();
 #pragma omp parallel for schedule(static) num_threads(threads)
-      for (long p = 0; p < static_cast<long>(np); ++p) add_six(sums, val, p, p + 1, w);
+      for (long p = static_cast<long>(p0()); p < static_cast<long>(p1()); ++p) add_six(sums, val, p, p + 1, w);
     }
   }
   template <class Fn>
