@@ -60,15 +60,18 @@ int check_ranks(const std::string& path, const std::vector<std::string>& sets, i
   RunSizes z = run_sizes(s);
   for (MemoryItem& m : z.memory)
     if (m.what.rfind("fields and absorber", 0) == 0 || m.what.find("' state") != std::string::npos) m.bytes /= P;
-  const double first = resident_bytes() + z.memory_bytes();
-  for (MemoryItem& m : z.memory)
+  const double first = resident_bytes() + z.memory_bytes();  // rank 0 gathers the spectral maps at the end
+  for (MemoryItem& m : z.memory) {
     if (m.what.rfind("medium map", 0) == 0) m.bytes = 0;
+    if (m.what.rfind("spectral map ", 0) == 0) m.bytes /= P;  // each rank sums its own rows (recorder_gather.cpp)
+  }
   const double other = resident_bytes() + z.memory_bytes();
   const double buffers = 4.0 * parallel::halo_components(true) * g.stride * b;  // halo rows out and in, E and H
   std::cout << fmt::format(
       "  memory per rank: about {:.1f} MB on rank 0, {:.1f} MB on each other rank (the field and absorber "
-      "arrays and the magnetic cells' and dispersive nodes' state divided by rows; their lists and the "
-      "recorders whole on every rank, the medium map on rank 0), plus {:.3g} MB of halo rows and the recorders' gathered rows; {} ranks on one "
+      "arrays and the magnetic cells' and dispersive nodes' state divided by rows, and the spectral maps but "
+      "on rank 0, which gathers them at the end; their lists and the other recorders whole on every rank, the "
+      "medium map on rank 0), plus {:.3g} MB of halo rows and the recorders' gathered rows; {} ranks on one "
       "node hold about {:.1f} MB there\n",
       first / 1e6, other / 1e6, buffers / 1e6, P, (first + (P - 1) * other) / 1e6);
   if (fewest < parallel::kMinRowsPerRank)
