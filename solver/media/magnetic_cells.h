@@ -110,8 +110,10 @@ struct MagneticCells {
     return row_runs[j] < static_cast<int>(runs.size()) ? runs[row_runs[j]].k0 : count();
   }
   bool empty() const { return ci.empty(); }
-  /// List index of the cell at (i, j), -1 if it is not magnetic (a scan of row j's runs).
+  /// List index of the cell at (i, j), -1 if it is not magnetic or off the grid (a scan of
+  /// row j's runs).
   long cell_at(int i, int j) const {
+    if (j < 0 || j + 1 >= static_cast<int>(row_runs.size())) return -1;
     for (int r = row_runs[j]; r < row_runs[j + 1]; ++r)
       if (i >= runs[r].i0 && i < runs[r].i1) return runs[r].k0 + (i - runs[r].i0);
     return -1;
