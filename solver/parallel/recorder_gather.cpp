@@ -137,7 +137,7 @@ template <class R>
 void Simulation<R>::gather_rows(const std::vector<int>& rows, const std::vector<int>& counts) {
   if (rows.empty()) return;
   const long s = g_.stride;
-  const auto mine = [&](int j) { return (j >= row0_ || rank_ == 0) && (j < row1_ || rank_ == ranks_ - 1); };
+  const auto mine = [&](int j) { return parallel::row_owner(j, g_.ny, ranks_) == rank_; };  // as row_bytes counts them
   R* buf = rgather_.row_buf.data();
   size_t at = 0;
   for (int j : rows) {
