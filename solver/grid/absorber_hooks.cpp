@@ -176,13 +176,24 @@ void Simulation<R>::graded_decay(int j, bool electric, int mask) {
   R* __restrict f1 = f_[first + 1].data() + o;  // Ey or Hy
   R* __restrict f2 = f_[first + 2].data() + o;  // Ez or Hz
   if (px_.any_graded()) {
-    const R *d0 = pdx_[0].data(), *d1 = pdx_[1].data();
-    for (int l = 0; l < px_.count(); ++l) {
-      const int i = px_.lines[l];
-      const R s0 = electric ? d1[l] : d0[l], s1 = electric ? d0[l] : d1[l];  // x and (y, z) components
-      if (mask & 1) f0[i] *= s0;
-      if (mask & 2) f1[i] *= s1;
-      if (mask & 4) f2[i] *= s1;
+    // the x component and the (y, z) ones; the lines (ascending) in stretches of consecutive
+    // columns, each a vector loop (a side's layer is one stretch)
+    const R* s0 = electric ? pdx_[1].data() : pdx_[0].data();
+    const R* s1 = electric ? pdx_[0].data() : pdx_[1].data();
+    const int* L = px_.lines.data();
+    const int n = px_.count();
+    for (int a = 0, b = 0; a < n; a = b) {
+      for (b = a + 1; b < n && L[b] == L[b - 1] + 1;) ++b;
+      const long shift = L[a] - a;  // column of line l in the stretch: l + shift
+      if (mask & 1)
+#pragma omp simd
+        for (int l = a; l < b; ++l) f0[l + shift] *= s0[l];
+      if (mask & 2)
+#pragma omp simd
+        for (int l = a; l < b; ++l) f1[l + shift] *= s1[l];
+      if (mask & 4)
+#pragma omp simd
+        for (int l = a; l < b; ++l) f2[l + shift] *= s1[l];
     }
   }
   if (const int l = pml_row_of_[j]; l >= 0 && py_.any_graded()) {

@@ -1,7 +1,12 @@
 /// \file block_rows.h
 /// \brief How a sweep's rows are cut among threads (and ranks' rows among their threads):
-/// contiguous blocks whose sizes differ by at most one, the same cut for any run.
+/// contiguous blocks, either of equal size (block_rows) or of equal work (work_rows: a
+/// scene whose magnetic crystal fills part of the grid has rows of very different cost).
+/// Every value a step computes is the same whatever the cut (the solver's sweeps are
+/// written so), so the cut decides only the speed.
 #pragma once
+#include <algorithm>
+#include <vector>
 
 namespace ty {
 
@@ -10,6 +15,21 @@ inline void block_rows(int n, int t, int nt, int& lo, int& hi) {
   const int q = n / nt, r = n % nt;
   lo = t * q + (t < r ? t : r);
   hi = lo + q + (t < r ? 1 : 0);
+}
+
+/// Rows [lo, hi) of thread t of nt cut by work: work[j] is the summed cost of rows 0 .. j-1
+/// (work[0] = 0, non-decreasing, n + 1 entries); thread t starts at the first row whose
+/// preceding work reaches t / nt of the whole. Empty work: block_rows.
+inline void work_rows(const std::vector<double>& work, int n, int t, int nt, int& lo, int& hi) {
+  if (work.size() != static_cast<std::size_t>(n) + 1) return block_rows(n, t, nt, lo, hi);
+  auto start = [&](int k) {
+    if (k <= 0) return 0;
+    if (k >= nt) return n;
+    const double share = work[n] * k / nt;
+    return static_cast<int>(std::lower_bound(work.begin(), work.end(), share) - work.begin());
+  };
+  lo = std::min(start(t), n);
+  hi = std::min(start(t + 1), n);
 }
 
 }  // namespace ty
