@@ -37,9 +37,9 @@
 /// surface cell (B_n continuous) are exact, and only B is interpolated (cos(k dx / 2)).
 ///
 /// Absorbing layers: a side whose layer holds magnetic cells takes the graded loss on E and
-/// H (solver/grid/graded_loss.h), the cells' own step unchanged; a PML there can amplify the backward waves a hyperbolic or
-/// negative-permeability medium carries (Becache, Fauqueux & Joly, J. Comput. Phys. 188,
-/// 399 (2003)).
+/// H (solver/grid/graded_loss.h), the cells' own step unchanged; a PML there can amplify the
+/// backward waves a hyperbolic or negative-permeability medium carries (Becache, Fauqueux &
+/// Joly, J. Comput. Phys. 188, 399 (2003)).
 ///
 /// Layout: cells are listed row by row, left to right, in runs of one medium along a row
 /// (`runs`, those of row j at row_runs[j] .. row_runs[j+1]), so that gathers and scatters
@@ -117,6 +117,20 @@ struct MagneticCells {
     for (int r = row_runs[j]; r < row_runs[j + 1]; ++r)
       if (i >= runs[r].i0 && i < runs[r].i1) return runs[r].k0 + (i - runs[r].i0);
     return -1;
+  }
+
+  /// The cost of a cell's own step in vacuum cells, for cutting rows among threads:
+  /// `bench --case magnetic` measured 5.3-7.8x a vacuum cell in all on an idle machine and
+  /// 3.3-6.2x under load (docs/performance.md), the cell's own fields included.
+  static constexpr double kCellWork = 5.0;
+  /// Work of rows 0 .. j-1 of an nx-column grid (ny + 1 entries; solver/threads/block_rows.h
+  /// work_rows): nx vacuum cells a row, and kCellWork more per magnetic cell.
+  std::vector<double> row_work(int nx) const {
+    const int ny = static_cast<int>(row_runs.size()) - 1;
+    std::vector<double> w(static_cast<std::size_t>(ny) + 1, 0.0);
+    for (int j = 0; j < ny; ++j)
+      w[j + 1] = w[j] + nx + kCellWork * static_cast<double>(first_cell(j + 1) - first_cell(j));
+    return w;
   }
 
   /// mu0 (M - M_ground) along c (0, 1, 2) of cell k in the state m[p]; 0 for k = count()

@@ -39,10 +39,6 @@ inline void gather(const R* hx, const R* hy, const R* hy_up, const R* hz, long i
 // gathered before Faraday's law for three rows (two in turn, and the block's last),
 // and the new state of the row's cells (six rows) and their dM_x, dM_z before they are stored
 constexpr long kRowScratch = 24;
-// The cost of a magnetic cell's own step in vacuum cells, for cutting the rows among threads
-// (work_rows): bench --case magnetic measured 5.3-7.8x a vacuum cell in all on an idle machine
-// and 3.3-6.2x under load (docs/performance.md), the cell's own fields included.
-constexpr double kMagneticCellWork = 5.0;
 }  // namespace
 
 namespace {
@@ -126,11 +122,9 @@ void Simulation<R>::build_magnets() {
         for (int c = 0; c < 3; ++c) M.m[p][c][k] = g0.m[0][c], M.m[p][3 + c][k] = two ? g0.m[1][c] : 0.0;
     }
   }
-  mag_scratch_.assign(static_cast<size_t>(threads_), std::vector<double>(kRowScratch * static_cast<size_t>(M.longest_row)));
-  // the threads' rows cut by work: a magnetic cell costs kMagneticCellWork vacuum cells
-  row_work_.assign(static_cast<size_t>(ny) + 1, 0.0);
-  for (int j = 0; j < ny; ++j)
-    row_work_[j + 1] = row_work_[j] + nx + kMagneticCellWork * static_cast<double>(M.first_cell(j + 1) - M.first_cell(j));
+  mag_scratch_.assign(static_cast<size_t>(threads_),
+                      std::vector<double>(kRowScratch * static_cast<size_t>(M.longest_row)));
+  row_work_ = M.row_work(nx);  // the threads' rows cut by work (threads/block_rows.h)
   mag_tilted_.assign(static_cast<size_t>(threads_) * 8, 0);  // a cache line per thread
   // the state and neighbours divided over ranks (resident where written), the list whole
   bytes_ += static_cast<std::size_t>(n) * ((12 + 6) * sizeof(double) + 4 * sizeof(int)) / parallel::size() +
