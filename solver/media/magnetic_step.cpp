@@ -318,7 +318,7 @@ void Simulation<R>::step_magnetic() {
   {
     int j0, j1;
     const int t = omp_get_thread_num();
-    work_rows(row_work_, ny, t, omp_get_num_threads(), j0, j1);
+    work_rows(row_work_, 0, ny, t, omp_get_num_threads(), j0, j1);
     double* scratch = mag_scratch_[t].data();
     const long w = M.longest_row;
     double* ring[2] = {scratch + 7 * w, scratch + 10 * w};  // b(n-1/2) of rows j and j+1

@@ -168,8 +168,7 @@ void Simulation<R>::step_magnetic_slab() {
   {
     int j0, j1;
     const int t = omp_get_thread_num();
-    block_rows(row1_ - row0_, t, omp_get_num_threads(), j0, j1);
-    j0 += row0_, j1 += row0_;
+    work_rows(row_work_, row0_, row1_, t, omp_get_num_threads(), j0, j1);
     double* scratch = mag_scratch_[t].data();
     const long w = M.longest_row;
     double* ring[2] = {scratch + 7 * w, scratch + 10 * w};  // as in step_magnetic
@@ -231,8 +230,7 @@ void Simulation<R>::step_magnetic_slab_pair() {
   {
     int j0, j1;
     const int t = omp_get_thread_num();
-    block_rows(row1_ - row0_, t, omp_get_num_threads(), j0, j1);
-    j0 += row0_, j1 += row0_;
+    work_rows(row_work_, row0_, row1_, t, omp_get_num_threads(), j0, j1);
     double* sa = mag_scratch_[t].data();
     double* sb = b.mag_scratch_[t].data();
     double* ring_a[2] = {sa + 7 * w, sa + 10 * w};  // as in step_magnetic

@@ -17,19 +17,24 @@ inline void block_rows(int n, int t, int nt, int& lo, int& hi) {
   hi = lo + q + (t < r ? 1 : 0);
 }
 
-/// Rows [lo, hi) of thread t of nt cut by work: work[j] is the summed cost of rows 0 .. j-1
-/// (work[0] = 0, non-decreasing, n + 1 entries); thread t starts at the first row whose
-/// preceding work reaches t / nt of the whole. Empty work: block_rows.
-inline void work_rows(const std::vector<double>& work, int n, int t, int nt, int& lo, int& hi) {
-  if (work.size() != static_cast<std::size_t>(n) + 1) return block_rows(n, t, nt, lo, hi);
+/// Rows [lo, hi) of thread t of nt cut by work, out of rows [a, b) (a rank's rows; all rows:
+/// 0, n): work[j] is the summed cost of rows 0 .. j-1 (work[0] = 0, non-decreasing, one
+/// entry more than the grid's rows); thread t starts at the first row whose preceding work
+/// reaches work[a] + t / nt of the range's. No work table: block_rows over the range.
+inline void work_rows(const std::vector<double>& work, int a, int b, int t, int nt, int& lo, int& hi) {
+  if (work.size() < static_cast<std::size_t>(b) + 1) {
+    block_rows(b - a, t, nt, lo, hi);
+    lo += a, hi += a;
+    return;
+  }
   auto start = [&](int k) {
-    if (k <= 0) return 0;
-    if (k >= nt) return n;
-    const double share = work[n] * k / nt;
-    return static_cast<int>(std::lower_bound(work.begin(), work.end(), share) - work.begin());
+    if (k <= 0) return a;
+    if (k >= nt) return b;
+    const double share = work[a] + (work[b] - work[a]) * k / nt;
+    return static_cast<int>(std::lower_bound(work.begin() + a, work.begin() + b, share) - work.begin());
   };
-  lo = std::min(start(t), n);
-  hi = std::min(start(t + 1), n);
+  lo = start(t);
+  hi = start(t + 1);
 }
 
 }  // namespace ty

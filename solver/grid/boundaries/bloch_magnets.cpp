@@ -36,7 +36,7 @@ void Simulation<R>::step_pair_magnetic() {
   {
     int j0, j1;
     const int t = omp_get_thread_num();
-    work_rows(row_work_, ny, t, omp_get_num_threads(), j0, j1);  // the twin has the same cells
+    work_rows(row_work_, 0, ny, t, omp_get_num_threads(), j0, j1);  // the twin has the same cells
     double* sa = mag_scratch_[t].data();
     double* sb = b.mag_scratch_[t].data();
     double* ring_a[2] = {sa + 7 * w, sa + 10 * w};  // b(n-1/2) of rows j and j+1, as step_magnetic

@@ -25,12 +25,12 @@ TEST_CASE("work_rows: a crystal over the upper half moves the cut down to equal 
   for (int j = 50; j < 100; ++j) cost[j] = 600.0;
   const auto w = prefix(cost);
   int lo, hi;
-  work_rows(w, 100, 0, 2, lo, hi);
+  work_rows(w, 0, 100, 0, 2, lo, hi);
   CHECK(lo == 0);
   // half of 35000 is 17500: rows 0..49 give 5000, then 21 rows of 600 reach 17600
   CHECK(hi == 71);
   int lo1, hi1;
-  work_rows(w, 100, 1, 2, lo1, hi1);
+  work_rows(w, 0, 100, 1, 2, lo1, hi1);
   CHECK(lo1 == hi);
   CHECK(hi1 == 100);
   // the even cut (block_rows) would give thread 1 six times thread 0's work
@@ -47,7 +47,7 @@ TEST_CASE("work_rows: every thread count covers the rows once, in order, and bal
     int next = 0;
     for (int t = 0; t < nt; ++t) {
       int lo, hi;
-      work_rows(w, 337, t, nt, lo, hi);
+      work_rows(w, 0, 337, t, nt, lo, hi);
       CHECK(lo == next);
       CHECK(hi >= lo);
       const double share = w[337] / nt, got = w[hi] - w[lo];
@@ -61,7 +61,7 @@ TEST_CASE("work_rows: every thread count covers the rows once, in order, and bal
 
 TEST_CASE("work_rows: no work table, or more threads than rows, still a valid cut") {
   int lo, hi;
-  work_rows({}, 10, 2, 3, lo, hi);  // falls back to block_rows
+  work_rows({}, 0, 10, 2, 3, lo, hi);  // falls back to block_rows
   int blo, bhi;
   block_rows(10, 2, 3, blo, bhi);
   CHECK(lo == blo);
@@ -69,10 +69,28 @@ TEST_CASE("work_rows: no work table, or more threads than rows, still a valid cu
   const std::vector<double> w = {0, 1, 2, 3};  // 3 rows, 7 threads: some threads idle
   int next = 0;
   for (int t = 0; t < 7; ++t) {
-    work_rows(w, 3, t, 7, lo, hi);
+    work_rows(w, 0, 3, t, 7, lo, hi);
     CHECK(lo == next);
     CHECK(hi >= lo);
     next = hi;
   }
   CHECK(next == 3);
+}
+
+TEST_CASE("work_rows: a rank's rows [a, b) are cut by their own work") {
+  std::vector<double> cost(60, 100.0);
+  for (int j = 40; j < 60; ++j) cost[j] = 600.0;
+  const auto w = prefix(cost);
+  // rows 20 .. 59 of a rank: 20 x 100 + 20 x 600 = 14000, half 7000: rows 20..39 give 2000,
+  // then 9 rows of 600 reach 7400
+  int lo, hi;
+  work_rows(w, 20, 60, 0, 2, lo, hi);
+  CHECK(lo == 20);
+  CHECK(hi == 49);
+  work_rows(w, 20, 60, 1, 2, lo, hi);
+  CHECK(lo == 49);
+  CHECK(hi == 60);
+  work_rows({}, 20, 60, 1, 2, lo, hi);  // no table: equal rows of the range
+  CHECK(lo == 40);
+  CHECK(hi == 60);
 }
