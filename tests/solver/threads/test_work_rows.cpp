@@ -77,7 +77,7 @@ TEST_CASE("work_rows: no work table, or more threads than rows, still a valid cu
   CHECK(next == 3);
 }
 
-TEST_CASE("work_rows: a rank's rows [a, b) are cut by their own work") {
+TEST_CASE("work_rows: the rows of one rank are cut by their own work") {
   std::vector<double> cost(60, 100.0);
   for (int j = 40; j < 60; ++j) cost[j] = 600.0;
   const auto w = prefix(cost);
