@@ -39,7 +39,9 @@ Simulation<R>::Simulation(const Scene& scene, int threads, int copy) : scene_(sc
   build_recorders(plan);
   build_slabs();
   stop_ = StopRule(scene.time.auto_stop, plan, power_spectra_, maps_);
-  // a magnetic cell costs about 3.5 vacuum cells (bench --case magnetic, docs/performance.md): 1 + 2.5 more
+  // a magnetic cell counted as 3.5 vacuum cells (1 + 2.5 more): the bench's figure under load, on a
+  // grid since found to be 44% vacuum; idle and all-magnetic it is 9-10 (docs/performance.md), but
+  // 3.5 keeps quasi-1D magnetic scenes such as tests/data/mnf2-slab.yaml on one thread
   if (chosen <= 0) threads_ = threads_for_work(double(g_.nx) * g_.ny + 2.5 * mag_.count(), threads_);
   if (walls_.bloch_x) build_bloch_pair();
 }

@@ -47,6 +47,12 @@ Scene bench_scene(int n, bool dielectric, bool magnetic = false) {
   src.waveform.ramp = 4e-12;
   s.sources.push_back(src);
   if (magnetic) {  // every cell an MnF2 cell (references.md values), bias 0.5 T along the easy axis
+    // a production cell for MnF2 (20 cells per wavelength), set before the body that fills the
+    // grid is sized from the extent (set after it, the body covered 56% of the cells)
+    s.grid.dx = s.grid.dy = 20e-6;
+    s.grid.extent = {n * s.grid.dx, n * s.grid.dy};
+    s.sources[0].at = {0.3 * s.grid.extent.x, 0.5 * s.grid.extent.y};
+    s.sources[0].frequency = 0.25e12;
     Medium m;
     m.name = "MnF2";
     m.permittivity = {5.5, 5.5, 5.5};
@@ -62,10 +68,6 @@ Scene bench_scene(int n, bool dielectric, bool magnetic = false) {
     b.shape.centre = {0.5 * s.grid.extent.x, 0.5 * s.grid.extent.y};
     b.shape.size = {2 * s.grid.extent.x, 2 * s.grid.extent.y};
     s.bodies.push_back(b);
-    s.grid.dx = s.grid.dy = 20e-6;  // a production cell for MnF2 (20 cells per wavelength)
-    s.grid.extent = {n * s.grid.dx, n * s.grid.dy};
-    s.sources[0].at = {0.3 * s.grid.extent.x, 0.5 * s.grid.extent.y};
-    s.sources[0].frequency = 0.25e12;
   }
   if (dielectric) {
     Medium m;
@@ -94,8 +96,11 @@ void take_steps(Simulation<R>& sim, long steps) {
 }
 
 template <class R>
-double rate_of(const Scene& scene, int threads, double seconds, int samples, bool tilted = false, int depth = 1) {
+double rate_of(const Scene& scene, int threads, double seconds, int samples, bool tilted = false, int depth = 1,
+               bool say_cells = false) {
   Simulation<R> sim(scene, threads);
+  if (say_cells && !sim.magnets().empty())  // what the case's cost is an average over
+    std::cout << fmt::format("# {} of the {} cells magnetic\n", sim.magnets().count(), sim.grid().cells());
   sim.set_block_depth(depth);
   if (depth != 1) std::cout << fmt::format("# {}\n", sim.block_note());
   if (tilted)  // every magnetic cell on the large-tilt path (the midpoint rule), whatever its tilt
@@ -222,8 +227,8 @@ Scene case_scene(const std::string& name, int n) {
 double case_rate(const std::string& name, int n, int threads, bool single, double seconds, int samples, int depth = 1) {
   const Scene s = case_scene(name, n);
   const bool tilted = name == "tilted";
-  return single ? rate_of<float>(s, threads, seconds, samples, tilted, depth)
-                : rate_of<double>(s, threads, seconds, samples, tilted, depth);
+  return single ? rate_of<float>(s, threads, seconds, samples, tilted, depth, true)
+                : rate_of<double>(s, threads, seconds, samples, tilted, depth, true);
 }
 
 }  // namespace

@@ -120,9 +120,10 @@ struct MagneticCells {
   }
 
   /// The cost of a cell's own step in vacuum cells, for cutting rows among threads:
-  /// `bench --case magnetic` measured 5.3-7.8x a vacuum cell in all on an idle machine and
-  /// 3.3-6.2x under load (docs/performance.md), the cell's own fields included.
-  static constexpr double kCellWork = 5.0;
+  /// `bench --case magnetic` (every cell MnF2, 1024^2) measured 9.2-10.6x a vacuum cell in all
+  /// on an idle machine, 6.6x at 4096^2 (docs/performance.md); the cut is not sensitive to
+  /// it (weights 3, 5 and 8 gave the negative-refraction study the same time within 3%).
+  static constexpr double kCellWork = 8.0;
   /// Work of rows 0 .. j-1 of an nx-column grid (ny + 1 entries; solver/threads/block_rows.h
   /// work_rows): nx vacuum cells a row, and kCellWork more per magnetic cell.
   std::vector<double> row_work(int nx) const {
