@@ -249,7 +249,7 @@ class Simulation {
   TensorCells tensor_;  // in-plane nodes near eps_xy != 0, stepped after the sweep
   std::vector<std::vector<double>> mag_scratch_;  // per thread: b(n+1/2) of one row's cells
   std::vector<long> mag_tilted_;                  // per thread (every 8th): cell steps by the midpoint rule
-  std::vector<double> row_work_;  // work of rows 0 .. j-1 (threads/block_rows.h work_rows): magnets weigh
+  std::vector<double> row_work_;  // work of rows 0 .. j-1, magnetic cells weighed (block_rows.h work_rows)
   std::size_t bytes_ = 0;
   std::vector<std::string> warnings_, notes_;
   // slabs over ranks (slab_step.cpp)

@@ -8,6 +8,7 @@
 #include <cstdlib>
 #include <fstream>
 #include <nlohmann/json.hpp>
+#include <sstream>
 #include <string>
 #include <vector>
 
@@ -82,6 +83,14 @@ std::vector<double> probe_series(Sim& sim, Component c, Vec2 p, long steps) {
     out.push_back(v);
   }
   return out;
+}
+
+/// A text file's whole content ("" if it cannot be read).
+inline std::string read_text(const std::string& path) {
+  std::ifstream in(path);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
 }
 
 /// A JSON file, parsed.

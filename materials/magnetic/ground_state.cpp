@@ -78,13 +78,8 @@ struct Minimiser {
   bool run(std::array<Vec3, 2>& m, double scale, Eigen::VectorXd& curvature) {
     double mu_lm = 1e-3 * scale;
     for (int it = 0; it < 2000; ++it) {
-      for (int s = 0; s < M.n; ++s) tangent_basis(m[s], e1[s], e2[s]);
-      const Eigen::VectorXd g = gradient(m);
-      const double gmax = g.cwiseAbs().maxCoeff() / std::max(M.mu[0], M.mu[1]);
-      if (gmax < 1e-12 * scale) {
-        curvature = Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd>(hessian(m)).eigenvalues();
-        return true;
-      }
+      const Eigen::VectorXd g = gradient_at(m);
+      if (torque(g) < 1e-12 * scale) return converged(m, curvature);
       const Eigen::MatrixXd H = hessian(m);
       const double e0 = M.energy(m);
       for (int tries = 0; tries < 60; ++tries) {
@@ -104,12 +99,19 @@ struct Minimiser {
     // at 1.2-4.5 times the tolerance for all the passes. Such a point is taken as converged
     // if its torque is below 1e-10 of the field scale (a converging run never gets here, so
     // its state is the same bits as before).
+    return torque(gradient_at(m)) < 1e-10 * scale && converged(m, curvature);
+  }
+  /// The energy's gradient in the tangent planes at m (the planes set there).
+  Eigen::VectorXd gradient_at(const std::array<Vec3, 2>& m) {
     for (int s = 0; s < M.n; ++s) tangent_basis(m[s], e1[s], e2[s]);
-    if (gradient(m).cwiseAbs().maxCoeff() / std::max(M.mu[0], M.mu[1]) < 1e-10 * scale) {
-      curvature = Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd>(hessian(m)).eigenvalues();
-      return true;
-    }
-    return false;
+    return gradient(m);
+  }
+  /// The largest torque component per unit mu0 Ms (T).
+  double torque(const Eigen::VectorXd& g) const { return g.cwiseAbs().maxCoeff() / std::max(M.mu[0], M.mu[1]); }
+  /// A minimum found: the curvatures there (the tangent planes are m's).
+  bool converged(const std::array<Vec3, 2>& m, Eigen::VectorXd& curvature) {
+    curvature = Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd>(hessian(m)).eigenvalues();
+    return true;
   }
 };
 

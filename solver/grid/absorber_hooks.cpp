@@ -176,15 +176,13 @@ void Simulation<R>::graded_decay(int j, bool electric, int mask) {
   R* __restrict f1 = f_[first + 1].data() + o;  // Ey or Hy
   R* __restrict f2 = f_[first + 2].data() + o;  // Ez or Hz
   if (px_.any_graded()) {
-    // the x component and the (y, z) ones; the lines (ascending) in stretches of consecutive
-    // columns, each a vector loop (a side's layer is one stretch)
+    // the x component and the (y, z) ones; the lines in their stretches of consecutive
+    // columns (CpmlAxis::stretch), each a vector loop
     const R* s0 = electric ? pdx_[1].data() : pdx_[0].data();
     const R* s1 = electric ? pdx_[0].data() : pdx_[1].data();
-    const int* L = px_.lines.data();
-    const int n = px_.count();
-    for (int a = 0, b = 0; a < n; a = b) {
-      for (b = a + 1; b < n && L[b] == L[b - 1] + 1;) ++b;
-      const long shift = L[a] - a;  // column of line l in the stretch: l + shift
+    for (size_t k = 0; k + 1 < px_.stretch.size(); ++k) {
+      const int a = px_.stretch[k], b = px_.stretch[k + 1];
+      const long shift = px_.lines[a] - a;  // column of line l in the stretch: l + shift
       if (mask & 1)
 #pragma omp simd
         for (int l = a; l < b; ++l) f0[l + shift] *= s0[l];

@@ -48,6 +48,9 @@ CpmlAxis make_cpml_axis(int n, int npml, double cell, double dt, const Absorber&
       ax.decay[h].push_back(decay);
     }
   }
+  for (int l = 0; l < ax.count(); ++l)
+    if (l == 0 || ax.lines[l] != ax.lines[l - 1] + 1) ax.stretch.push_back(l);
+  ax.stretch.push_back(ax.count());
   return ax;
 }
 

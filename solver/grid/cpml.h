@@ -29,6 +29,9 @@ struct CpmlAxis {
   /// Per line: the graded loss's decay over half a step, exp(-nu dt / 2) (1 on PML sides).
   std::vector<double> decay[2];
   bool graded[2] = {false, false};  ///< the low and the high side carry the graded loss
+  /// Stretches of consecutive lines: stretch s is lines [stretch[s], stretch[s + 1]) (one a
+  /// side's layer), so that a row's loop over them is a vector loop.
+  std::vector<int> stretch;
   int count() const { return static_cast<int>(lines.size()); }
   bool any_graded() const { return graded[0] || graded[1]; }
   bool any_pml() const { return count() > 0 && !(graded[0] && graded[1]); }

@@ -5,8 +5,6 @@
 #include <doctest/doctest.h>
 
 #include <filesystem>
-#include <fstream>
-#include <sstream>
 #include <string>
 
 #include "tests/helpers.h"
@@ -16,10 +14,7 @@ std::string bench_output(const std::string& args) {
   const std::string out = (std::filesystem::temp_directory_path() / "terayee-bench.txt").string();
   // in a subshell: shell() sends the command's own output to /dev/null
   REQUIRE(ty::test::shell("(" + std::string(TERAYEE_BINARY) + " bench " + args + " > '" + out + "')") == 0);
-  std::ifstream in(out);
-  std::stringstream s;
-  s << in.rdbuf();
-  return s.str();
+  return ty::test::read_text(out);
 }
 }  // namespace
 

@@ -14,12 +14,7 @@ namespace fs = std::filesystem;
 using ty::test::shell;
 
 namespace {
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p);
-  std::stringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+std::string slurp(const fs::path& p) { return ty::test::read_text(p.string()); }
 }  // namespace
 
 TEST_CASE("sweep: three points, one reference, one table, and a second call runs nothing") {

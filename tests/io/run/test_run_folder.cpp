@@ -28,12 +28,7 @@ namespace {
 
 using ty::test::shell;
 
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p);
-  std::stringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
+std::string slurp(const fs::path& p) { return ty::test::read_text(p.string()); }
 
 }  // namespace
 

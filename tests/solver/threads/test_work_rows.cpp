@@ -17,13 +17,17 @@ std::vector<double> prefix(const std::vector<double>& cost) {
   for (size_t j = 0; j < cost.size(); ++j) w[j + 1] = w[j] + cost[j];
   return w;
 }
+/// The work table of `rows` rows of 100 vacuum cells whose rows from `from` on also hold 100
+/// magnetic cells at 5 more each (600 a row): a crystal over the upper rows.
+std::vector<double> crystal_above(int rows, int from) {
+  std::vector<double> cost(rows, 100.0);
+  for (int j = from; j < rows; ++j) cost[j] = 600.0;
+  return prefix(cost);
+}
 }  // namespace
 
 TEST_CASE("work_rows: a crystal over the upper half moves the cut down to equal work") {
-  // 100 rows of 100 vacuum cells; rows 50.. also 100 magnetic cells at 5 more each (600 a row)
-  std::vector<double> cost(100, 100.0);
-  for (int j = 50; j < 100; ++j) cost[j] = 600.0;
-  const auto w = prefix(cost);
+  const auto w = crystal_above(100, 50);
   int lo, hi;
   work_rows(w, 0, 100, 0, 2, lo, hi);
   CHECK(lo == 0);
@@ -78,9 +82,7 @@ TEST_CASE("work_rows: no work table, or more threads than rows, still a valid cu
 }
 
 TEST_CASE("work_rows: the rows of one rank are cut by their own work") {
-  std::vector<double> cost(60, 100.0);
-  for (int j = 40; j < 60; ++j) cost[j] = 600.0;
-  const auto w = prefix(cost);
+  const auto w = crystal_above(60, 40);
   // rows 20 .. 59 of a rank: 20 x 100 + 20 x 600 = 14000, half 7000: rows 20..39 give 2000,
   // then 9 rows of 600 reach 7400
   int lo, hi;
