@@ -79,11 +79,14 @@ inline void midpoint_block(const CellStep& p, int nl, long k0, double* const* mn
   }
 }
 
-template <int N>
-inline long step_cells_n(const CellStep& p, long count, const double* const* m, double* const* mn,
-                         const double* const* b0, const double* const* b1, double* const* dM, double* x2) {
+/// The cells of [0, count) tilted past the small-signal limit, after the small-signal step
+/// (linear_cells, or the solver's fused row) left its result in mn and dM and each cell's
+/// squared tilt in x2: each block of eight that holds one takes the exponential midpoint and,
+/// where that does not serve, the plain midpoint rule. m: the state at the step's start.
+/// Returns how many cells took a large-tilt path.
+inline long tilted_cells(const CellStep& p, long count, const double* const* m, double* const* mn,
+                         const double* const* b0, const double* const* b1, double* const* dM, const double* x2) {
   constexpr int W = 8;
-  linear_cells<N>(p.linear, count, m, b0, b1, mn, dM, x2);
   long tilted = 0;
   for (long k0 = 0; k0 < count; k0 += W) {
     const int nl = static_cast<int>(std::min<long>(W, count - k0));
@@ -120,8 +123,9 @@ inline long step_cells_n(const CellStep& p, long count, const double* const* m, 
 /// scratch: count doubles. Returns how many cells took the midpoint rule.
 inline long step_cells(const CellStep& p, long count, const double* const* m, double* const* mn,
                        const double* const* b0, const double* const* b1, double* const* dM, double* scratch) {
-  return p.linear.n == 2 ? step_cells_n<2>(p, count, m, mn, b0, b1, dM, scratch)
-                         : step_cells_n<1>(p, count, m, mn, b0, b1, dM, scratch);
+  if (p.linear.n == 2) linear_cells<2>(p.linear, count, m, b0, b1, mn, dM, scratch);
+  else linear_cells<1>(p.linear, count, m, b0, b1, mn, dM, scratch);
+  return tilted_cells(p, count, m, mn, b0, b1, dM, scratch);
 }
 
 /// One cell, for tests and small uses: m[s][c] (unit vectors), b0, b1 as above, dM out.

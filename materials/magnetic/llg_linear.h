@@ -49,32 +49,27 @@ struct LinearStep {
                          const std::array<double, 3>& r, const std::array<double, 3>& self = {0, 0, 0});
 };
 
-/// The linear step of cells [0, count): m (6 components, unit vectors), b0 and b1 the wave
-/// field (T, without the bias) at the step's start and end. Out: the new m (mn), the change
-/// of mu0 M (dm, T), and per cell the largest squared sublattice tilt |x_s|^2 before or
-/// after the step (x2). The coefficients are copied to locals so that the loop over cells
-/// vectorizes.
+/// The coefficients of one medium's small-signal step as plain local arrays (a local object,
+/// so that a loop over cells that holds one vectorizes), and the step of one cell: the one
+/// copy of that arithmetic, used by linear_cells and the solver's fused row
+/// (solver/media/magnetic_run.h).
 template <int N>
-inline void linear_cells(const LinearStep& p, long count, const double* const* m, const double* const* b0,
-                         const double* const* b1, double* const* mn, double* const* dm, double* x2) {
-  constexpr int T = 2 * N;
+struct LinearLocal {
+  static constexpr int T = 2 * N;
   double phi[T][T], psi0[T][3], psi1[T][3], g[N][3], e1[N][3], e2[N][3], mu[N];
-  for (int i = 0; i < T; ++i)
-    for (int c = 0; c < 3; ++c) psi0[i][c] = p.psi0[i][c], psi1[i][c] = p.psi1[i][c];
-  for (int i = 0; i < T; ++i)
-    for (int j = 0; j < T; ++j) phi[i][j] = p.phi[i][j];
-  for (int s = 0; s < N; ++s) {
-    for (int c = 0; c < 3; ++c) g[s][c] = p.g[s][c], e1[s][c] = p.e1[s][c], e2[s][c] = p.e2[s][c];
-    mu[s] = p.mu[s];
+  explicit LinearLocal(const LinearStep& p) {
+    for (int i = 0; i < T; ++i)
+      for (int c = 0; c < 3; ++c) psi0[i][c] = p.psi0[i][c], psi1[i][c] = p.psi1[i][c];
+    for (int i = 0; i < T; ++i)
+      for (int j = 0; j < T; ++j) phi[i][j] = p.phi[i][j];
+    for (int s = 0; s < N; ++s) {
+      for (int c = 0; c < 3; ++c) g[s][c] = p.g[s][c], e1[s][c] = p.e1[s][c], e2[s][c] = p.e2[s][c];
+      mu[s] = p.mu[s];
+    }
   }
-  const double *m0 = m[0], *m1 = m[1], *m2 = m[2], *m3 = m[3], *m4 = m[4], *m5 = m[5];
-  const double *a0 = b0[0], *a1 = b0[1], *a2 = b0[2], *c0 = b1[0], *c1 = b1[1], *c2 = b1[2];
-  double *n0 = mn[0], *n1 = mn[1], *n2 = mn[2], *n3 = mn[3], *n4 = mn[4], *n5 = mn[5];
-  double *d0 = dm[0], *d1 = dm[1], *d2 = dm[2];
-#pragma omp simd
-  for (long l = 0; l < count; ++l) {
-    const double o[6] = {m0[l], m1[l], m2[l], N == 2 ? m3[l] : 0.0, N == 2 ? m4[l] : 0.0, N == 2 ? m5[l] : 0.0};
-    const double f[6] = {a0[l], a1[l], a2[l], c0[l], c1[l], c2[l]};
+  /// o: m1 xyz, m2 xyz now; f: b0 xyz, b1 xyz. Out: the new m (n), the change of mu0 M (d);
+  /// returns the largest squared sublattice tilt |x_s|^2 before or after the step.
+  __attribute__((always_inline)) double cell(const double* o, const double* f, double* n, double* d) const {
     double x[T], y[T];
     for (int s = 0; s < N; ++s) {
       x[2 * s] = e1[s][0] * o[3 * s] + e1[s][1] * o[3 * s + 1] + e1[s][2] * o[3 * s + 2];
@@ -86,7 +81,9 @@ inline void linear_cells(const LinearStep& p, long count, const double* const* m
       for (int j = 0; j < T; ++j) v += phi[i][j] * x[j];
       y[i] = v;
     }
-    double worst = 0, n[6] = {0, 0, 0, 0, 0, 0}, d[3] = {0, 0, 0};
+    double worst = 0;
+    for (int c = 0; c < 6; ++c) n[c] = 0;
+    for (int c = 0; c < 3; ++c) d[c] = 0;
     for (int s = 0; s < N; ++s) {
       const double q0 = x[2 * s] * x[2 * s] + x[2 * s + 1] * x[2 * s + 1];
       const double q1 = y[2 * s] * y[2 * s] + y[2 * s + 1] * y[2 * s + 1];
@@ -99,9 +96,30 @@ inline void linear_cells(const LinearStep& p, long count, const double* const* m
         d[c] += mu[s] * (n[3 * s + c] - o[3 * s + c]);
       }
     }
+    return worst;
+  }
+};
+
+/// The linear step of cells [0, count): m (6 components, unit vectors), b0 and b1 the wave
+/// field (T, without the bias) at the step's start and end. Out: the new m (mn), the change
+/// of mu0 M (dm, T), and per cell the largest squared sublattice tilt |x_s|^2 before or
+/// after the step (x2).
+template <int N>
+inline void linear_cells(const LinearStep& p, long count, const double* const* m, const double* const* b0,
+                         const double* const* b1, double* const* mn, double* const* dm, double* x2) {
+  const LinearLocal<N> L(p);
+  const double *m0 = m[0], *m1 = m[1], *m2 = m[2], *m3 = m[3], *m4 = m[4], *m5 = m[5];
+  const double *a0 = b0[0], *a1 = b0[1], *a2 = b0[2], *c0 = b1[0], *c1 = b1[1], *c2 = b1[2];
+  double *n0 = mn[0], *n1 = mn[1], *n2 = mn[2], *n3 = mn[3], *n4 = mn[4], *n5 = mn[5];
+  double *d0 = dm[0], *d1 = dm[1], *d2 = dm[2];
+#pragma omp simd
+  for (long l = 0; l < count; ++l) {
+    const double o[6] = {m0[l], m1[l], m2[l], N == 2 ? m3[l] : 0.0, N == 2 ? m4[l] : 0.0, N == 2 ? m5[l] : 0.0};
+    const double f[6] = {a0[l], a1[l], a2[l], c0[l], c1[l], c2[l]};
+    double n[6], d[3];
+    x2[l] = L.cell(o, f, n, d);
     n0[l] = n[0], n1[l] = n[1], n2[l] = n[2], n3[l] = n[3], n4[l] = n[4], n5[l] = n[5];
     d0[l] = d[0], d1[l] = d[1], d2[l] = d[2];
-    x2[l] = worst;
   }
 }
 

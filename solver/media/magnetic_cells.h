@@ -60,7 +60,7 @@
 namespace ty {
 
 /// One term of the gather G of cell (i, j): the H node (q, i + di, j + dj) with weight w, as
-/// gather() in magnetic_step.cpp reads them (the scatter P = G^T writes the same nodes). What
+/// gather() in magnetic_run.h reads them (the scatter P = G^T writes the same nodes). What
 /// crosses a cut between ranks in the magnetic step is derived from this table
 /// (solver/parallel/magnet_halo.h), as the field halo is from the curl stencil table.
 struct CellNode {

@@ -14,6 +14,7 @@
 #include "materials/magnetic/linear_response.h"
 #include "solver/blocking/wavefront.h"
 #include "solver/media/magnet_slots.h"
+#include "solver/media/magnetic_run.h"
 #include "solver/media/magnetic_row_memory.h"
 #include "solver/parallel/ranks.h"
 #include "solver/parallel/slabs.h"
@@ -24,21 +25,10 @@ namespace ty {
 using constants::c0;
 
 namespace {
-/// mu0 H at the cell (i, j) from the row pointers of its H nodes (hy_up: Hy of the row
-/// above): G of magnetic_cells.h, (Hx(i) + Hx(i+1))/2, (Hy(i, j) + Hy(i, j+1))/2, Hz(i),
-/// in T (mu0 H = (eta0 H) / c). The one copy of the gather; the scatter is its transpose.
-template <class R>
-inline void gather(const R* hx, const R* hy, const R* hy_up, const R* hz, long i, double& bx, double& by,
-                   double& bz) {
-  constexpr double inv_c = 1.0 / c0;
-  bx = 0.5 * (static_cast<double>(hx[i]) + static_cast<double>(hx[i + 1])) * inv_c;
-  by = 0.5 * (static_cast<double>(hy[i]) + static_cast<double>(hy_up[i])) * inv_c;
-  bz = static_cast<double>(hz[i]) * inv_c;
-}
-// per cell of a row: b(n-1/2) and b(n+1/2) of the step, the tilt, and b(n-1/2) as
-// gathered before Faraday's law for three rows (two in turn, and the block's last),
-// and the new state of the row's cells (six rows) and their dM_x, dM_z before they are stored
-constexpr long kRowScratch = 24;
+// per cell of a row: b(n-1/2) and b(n+1/2) of the step, the tilt, b(n-1/2) as gathered
+// before Faraday's law for three rows (two in turn, and the block's last), the y neighbours'
+// deviations
+constexpr long kRowScratch = 17;
 }  // namespace
 
 namespace {
@@ -181,6 +171,7 @@ void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scrat
     const double own = M.deviation(prev, 0, k);
     return seam && partner_ && k < none ? seam_value(own, partner_->mag_.deviation(prev, 0, k), left) : own;
   };
+  double* vert = scratch + 16 * w;
   for (int r = r0; r < r1; ++r) {
     const MagneticCells::Run& run = M.runs[r];
     const long k0 = run.k0, len = run.i1 - run.i0;
@@ -190,45 +181,31 @@ void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scrat
     // cell's own M comes off whole inside the step (magnetic_cells.h). Left and right
     // neighbours inside a run are k -+ 1, at its ends they come from the list.
     const int *D = M.down.data() + k0, *U = M.up.data() + k0, *L = M.left.data() + k0, *Rt = M.right.data() + k0;
-    const double *o0 = old + (k0 - first), *o1 = o0 + w, *o2 = o1 + w;
-    // the run's own cells share one medium: mu0 (M - M_ground)_x,y from m[prev] with its constants
-    const std::array<double, 5>& a = M.net[run.slot];
-    const double *mx1 = M.m[prev][0].data() + k0, *mx2 = M.m[prev][3].data() + k0;
-    const double *my1 = M.m[prev][1].data() + k0, *my2 = M.m[prev][4].data() + k0;
-    vertical_pair(M, prev, D, U, len, b0[1]);  // b0[1][q]: the y neighbours' sum, until overwritten
-    const double xl = beside(L[0], i0 == 0, true), xr = beside(Rt[len - 1], run.i1 == g_.nx, false);
-    auto cell = [&](long q, double left, double right) __attribute__((always_inline)) {
-      const double vx = 0.5 * (a[0] * mx1[q] + a[1] * mx2[q] - a[2]) + 0.25 * (left + right);
-      const double vy = 0.5 * (a[0] * my1[q] + a[1] * my2[q] - a[3]) + 0.25 * b0[1][q];
-      gather(hx, hy, hy_up, hz, i0 + q, b1[0][q], b1[1][q], b1[2][q]);
-      b0[0][q] = o0[q] + vx, b0[1][q] = o1[q] + vy, b0[2][q] = o2[q];
-      b1[0][q] += vx, b1[1][q] += vy;
-    };
-#pragma omp simd
-    for (long q = 1; q < len - 1; ++q)
-      cell(q, a[0] * mx1[q - 1] + a[1] * mx2[q - 1] - a[2], a[0] * mx1[q + 1] + a[1] * mx2[q + 1] - a[2]);
-    cell(0, xl, len > 1 ? a[0] * mx1[1] + a[1] * mx2[1] - a[2] : xr);
-    if (len > 1) cell(len - 1, a[0] * mx1[len - 2] + a[1] * mx2[len - 2] - a[2], xr);
-    const double* mi[6];
-    double* mo[6];
-    for (int c = 0; c < 6; ++c) mi[c] = M.m[prev][c].data() + k0, mo[c] = scratch + (16 + c) * w;
-    const double* bo[3] = {b0[0], b0[1], b0[2]};
-    const double* bn[3] = {b1[0], b1[1], b1[2]};
-    // dM_x and dM_z in the scratch, streamed to the list after the row's scatter reads them
-    // there; dM_y stored at once (scatter_hy reads it for this row and the next)
-    double* dp[3] = {scratch + 22 * w, M.dM[cur][1].data() + k0, scratch + 23 * w};
-    tilted += step_cells(M.steps[run.slot], len, mi, mo, bo, bn, dp, x2);
-    for (int c = 0; c < 6; ++c) stream_copy(mo[c], M.m[cur][c].data() + k0, len);
-    stream_copy(dp[0], M.dM[cur][0].data() + k0, len);
-    stream_copy(dp[2], M.dM[cur][2].data() + k0, len);
+    vertical_pair(M, prev, D, U, len, vert);
+    RunInput<R> in{{}, {}, vert, hx + i0, hy + i0, hy_up + i0, hz + i0,
+                   beside(L[0], i0 == 0, true), beside(Rt[len - 1], run.i1 == g_.nx, false), M.net[run.slot]};
+    RunOutput out{{}, {}, x2, {b0[0], b0[1], b0[2]}, {b1[0], b1[1], b1[2]}};
+    for (int c = 0; c < 6; ++c) in.m[c] = M.m[prev][c].data() + k0, out.m[c] = M.m[cur][c].data() + k0;
+    for (int c = 0; c < 3; ++c) in.old[c] = old + c * w + (k0 - first), out.dM[c] = M.dM[cur][c].data() + k0;
+    const CellStep& step = M.steps[run.slot];
+    const bool two = step.linear.n == 2;
+    if ((two ? linear_run<2, false>(step.linear, in, len, out) : linear_run<1, false>(step.linear, in, len, out)) >
+        step.tilt2) {  // a tilted cell: the pass again, keeping what the large-tilt paths read
+      if (two) linear_run<2, true>(step.linear, in, len, out);
+      else linear_run<1, true>(step.linear, in, len, out);
+      const double* mi[6];
+      for (int c = 0; c < 6; ++c) mi[c] = in.m[c];
+      const double* bo[3] = {b0[0], b0[1], b0[2]};
+      const double* bn[3] = {b1[0], b1[1], b1[2]};
+      tilted += tilted_cells(step, len, mi, out.m, bo, bn, out.dM, x2);
+    }
     // H = h* - P dM for Hz and for the Hx nodes inside the run
-    const double *ex = dp[0], *ez = dp[2];
+    const double *ex = out.dM[0], *ez = out.dM[2];
 #pragma omp simd
     for (long q = 0; q < len; ++q) hz[i0 + q] -= static_cast<R>(c0 * ez[q]);
 #pragma omp simd
     for (long q = 1; q < len; ++q) hx[i0 + q] -= static_cast<R>(c0 * 0.5 * (ex[q] + ex[q - 1]));
   }
-  end_streaming();  // the streamed state is seen by every thread after the step's barriers
 }
 
 template <class R>

@@ -7,6 +7,8 @@
 #include <numeric>
 #include <stdexcept>
 
+#include "solver/grid/aligned.h"
+
 #ifdef TERAYEE_MPI
 #include <mpi.h>
 #endif
@@ -26,6 +28,7 @@ Session::Session(int& argc, char**& argv) {
   if (provided < MPI_THREAD_FUNNELED) throw std::runtime_error("MPI does not offer the funneled thread level");
   MPI_Comm_rank(MPI_COMM_WORLD, &g_rank);
   MPI_Comm_size(MPI_COMM_WORLD, &g_size);
+  if (g_size > 1) aligned::huge_pages = false;  // a rank's memory is its rows' pages (aligned.h)
 }
 Session::~Session() { MPI_Finalize(); }
 int rank() { return g_rank; }
