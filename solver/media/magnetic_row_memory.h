@@ -1,15 +1,9 @@
 /// \file magnetic_row_memory.h
 /// \brief How a row of magnetic cells meets memory (solver/media/magnetic_step.cpp): its
 /// neighbours in the rows below and above loaded as contiguous stretches where the list
-/// allows, and its new state stored with non-temporal stores. At 1024^2 cells the state
-/// (two copies of 6 doubles a cell, and dM) is far larger than the caches, so a magnetic
-/// cell's cost is mostly the bytes it moves (docs/performance.md, "Magnetic cells").
+/// allows. (The new state is stored by the run's one pass, magnetic_run.h.)
 #pragma once
 #include <array>
-#include <cstdint>
-#if defined(__SSE2__)
-#include <immintrin.h>
-#endif
 
 #include "solver/media/magnetic_cells.h"
 
@@ -50,29 +44,6 @@ inline void vertical_pair(const MagneticCells& M, int p, const int* D, const int
 #pragma omp simd
   for (long q = 0; q < len; ++q)
     out[q] = (ad[0] * d1[q] + ad[1] * d2[q] - ad[3]) + (au[0] * u1[q] + au[1] * u2[q] - au[3]);
-}
-
-/// to[0 .. len) = from[0 .. len) with non-temporal stores: the new state (48 B a cell) is not
-/// read again this step, and a plain store first reads each line from memory (write
-/// allocate), 48 B a cell more. Whole 64-byte lines where the alignment allows; the caller
-/// ends the row with a store fence.
-inline void stream_copy(const double* from, double* to, long len) {
-  long q = 0;
-#if defined(__AVX512F__)
-  for (; q < len && (reinterpret_cast<std::uintptr_t>(to + q) & 63) != 0; ++q) to[q] = from[q];
-  for (; q + 8 <= len; q += 8) _mm512_stream_pd(to + q, _mm512_loadu_pd(from + q));
-#elif defined(__SSE2__)
-  for (; q < len && (reinterpret_cast<std::uintptr_t>(to + q) & 15) != 0; ++q) to[q] = from[q];
-  for (; q + 2 <= len; q += 2) _mm_stream_pd(to + q, _mm_loadu_pd(from + q));
-#endif
-  for (; q < len; ++q) to[q] = from[q];
-}
-
-/// Orders the row's streamed stores before what follows (the step's barriers publish them).
-inline void end_streaming() {
-#if defined(__SSE2__)
-  _mm_sfence();
-#endif
 }
 
 }  // namespace ty

@@ -11,6 +11,7 @@
 #pragma once
 #include <algorithm>
 #include <array>
+#include <cstdint>
 
 #include "io/scene/constants.h"
 #include "materials/magnetic/llg_linear.h"
@@ -84,9 +85,14 @@ inline double linear_run(const LinearStep& p, const RunInput<R>& in, long len, c
     d0[q] = d[0], d1[q] = d[1], d2[q] = d[2];
     return t;
   };
+  // the vector loop from the first cell whose state starts a 64-byte line (the state and dM
+  // arrays are 64-byte aligned, aligned.h), so that its stores do not straddle two lines
   double worst = 0;
+  const long qa = std::clamp<long>(static_cast<long>((64 - reinterpret_cast<std::uintptr_t>(n0) % 64) % 64 / 8), 1,
+                                   std::max<long>(1, len - 1));
+  for (long q = 1; q < qa; ++q) worst = std::max(worst, cell(q, dev_x(q - 1), dev_x(q + 1)));
 #pragma omp simd reduction(max : worst)
-  for (long q = 1; q < len - 1; ++q) worst = std::max(worst, cell(q, dev_x(q - 1), dev_x(q + 1)));
+  for (long q = qa; q < len - 1; ++q) worst = std::max(worst, cell(q, dev_x(q - 1), dev_x(q + 1)));
   worst = std::max(worst, cell(0, in.left, len > 1 ? dev_x(1) : in.right));
   if (len > 1) worst = std::max(worst, cell(len - 1, dev_x(len - 2), in.right));
   return worst;

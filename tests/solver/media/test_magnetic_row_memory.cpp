@@ -79,16 +79,3 @@ TEST_CASE("magnetic rows: the y neighbours' deviations by contiguous loads equal
       }
     }
 }
-
-TEST_CASE("magnetic rows: streamed stores write exactly the range, at any alignment") {
-  std::vector<double> from(40), to(48);
-  for (size_t k = 0; k < from.size(); ++k) from[k] = 1.0 + k;
-  for (long start = 0; start < 8; ++start)
-    for (long len : {0L, 1L, 7L, 8L, 9L, 31L}) {
-      std::fill(to.begin(), to.end(), -1.0);
-      stream_copy(from.data(), to.data() + start, len);
-      end_streaming();
-      for (long k = 0; k < static_cast<long>(to.size()); ++k)
-        CHECK(to[k] == (k >= start && k < start + len ? from[k - start] : -1.0));
-    }
-}
