@@ -80,6 +80,10 @@ struct MagneticCells {
   };
   std::vector<Run> runs;
   std::vector<int> row_runs;  ///< size ny + 1
+  /// per run: whether it held a tilted cell at its last step, so that its next step takes the
+  /// pass that keeps what the large-tilt paths read at once (magnetic_step.cpp; a hint only:
+  /// either pass gives the same values)
+  std::vector<unsigned char> run_tilted;
   // per cell
   std::vector<int> ci, cj;                 ///< cell indices
   std::vector<int> medium;                 ///< medium slot

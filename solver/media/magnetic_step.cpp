@@ -53,6 +53,7 @@ void list_cells_by_row(MagneticCells& M, SlotAt&& slot_at, int nx, int ny) {
     }
   }
   M.row_runs[ny] = static_cast<int>(M.runs.size());
+  M.run_tilted.assign(M.runs.size(), 0);
   for (int j = 0; j < ny; ++j)
     if (M.row_runs[j + 1] > M.row_runs[j]) {
       const auto& a = M.runs[M.row_runs[j]];
@@ -188,11 +189,18 @@ void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scrat
     for (int c = 0; c < 6; ++c) in.m[c] = M.m[prev][c].data() + k0, out.m[c] = M.m[cur][c].data() + k0;
     for (int c = 0; c < 3; ++c) in.old[c] = old + c * w + (k0 - first), out.dM[c] = M.dM[cur][c].data() + k0;
     const CellStep& step = M.steps[run.slot];
+    // the pass that keeps each cell's field and tilt for the large-tilt paths where the run
+    // held a tilted cell last step, else the lighter one, and where that finds one the other
     const bool two = step.linear.n == 2;
-    if ((two ? linear_run<2, false>(step.linear, in, len, out) : linear_run<1, false>(step.linear, in, len, out)) >
-        step.tilt2) {  // a tilted cell: the pass again, keeping what the large-tilt paths read
-      if (two) linear_run<2, true>(step.linear, in, len, out);
-      else linear_run<1, true>(step.linear, in, len, out);
+    auto pass = [&](bool all) {
+      return all ? (two ? linear_run<2, true>(step.linear, in, len, out) : linear_run<1, true>(step.linear, in, len, out))
+                 : (two ? linear_run<2, false>(step.linear, in, len, out) : linear_run<1, false>(step.linear, in, len, out));
+    };
+    const bool was = M.run_tilted[r];
+    const double worst = pass(was);
+    M.run_tilted[r] = worst > step.tilt2;
+    if (worst > step.tilt2) {
+      if (!was) pass(true);
       const double* mi[6];
       for (int c = 0; c < 6; ++c) mi[c] = in.m[c];
       const double* bo[3] = {b0[0], b0[1], b0[2]};
