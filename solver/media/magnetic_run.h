@@ -88,8 +88,8 @@ inline double linear_run(const LinearStep& p, const RunInput<R>& in, long len, c
   // the vector loop from the first cell whose state starts a 64-byte line (the state and dM
   // arrays are 64-byte aligned, aligned.h), so that its stores do not straddle two lines
   double worst = 0;
-  const long qa = std::clamp<long>(static_cast<long>((64 - reinterpret_cast<std::uintptr_t>(n0) % 64) % 64 / 8), 1,
-                                   std::max<long>(1, len - 1));
+  const long line = static_cast<long>((64 - reinterpret_cast<std::uintptr_t>(n0) % 64) % 64 / 8);  // 0 .. 7
+  const long qa = std::clamp<long>(line == 0 ? 8 : line, 1, std::max<long>(1, len - 1));
   for (long q = 1; q < qa; ++q) worst = std::max(worst, cell(q, dev_x(q - 1), dev_x(q + 1)));
 #pragma omp simd reduction(max : worst)
   for (long q = qa; q < len - 1; ++q) worst = std::max(worst, cell(q, dev_x(q - 1), dev_x(q + 1)));
