@@ -11,8 +11,8 @@
 /// Mapped arrays ask for transparent huge pages (madvise MADV_HUGEPAGE; Linux's default
 /// policy gives them only where asked). A sweep walks some twenty arrays at once, a row at a
 /// time, and with 4 KiB pages every row of every array is a new page for the TLB: 2 MiB pages
-/// made `bench` 1.10x faster for vacuum at 1024^2, 1.28x at 4096^2 and 1.09x for magnetic
-/// cells (docs/performance.md). Over MPI ranks the hint is off (parallel::Session): a huge
+/// made `bench --case vacuum` 1.05x faster at 1024^2 and 1.03x at 4096^2 (medians of 7
+/// alternating pairs, docs/performance.md). Over MPI ranks the hint is off (parallel::Session): a huge
 /// page makes 2 MiB resident where one row is written, which would blur the division of
 /// memory by rows.
 #pragma once
