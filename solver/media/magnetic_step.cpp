@@ -193,8 +193,9 @@ void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scrat
     // held a tilted cell last step, else the lighter one, and where that finds one the other
     const bool two = step.linear.n == 2;
     auto pass = [&](bool all) {
-      return all ? (two ? linear_run<2, true>(step.linear, in, len, out) : linear_run<1, true>(step.linear, in, len, out))
-                 : (two ? linear_run<2, false>(step.linear, in, len, out) : linear_run<1, false>(step.linear, in, len, out));
+      const LinearStep& p = step.linear;
+      if (two) return all ? linear_run<2, true>(p, in, len, out) : linear_run<2, false>(p, in, len, out);
+      return all ? linear_run<1, true>(p, in, len, out) : linear_run<1, false>(p, in, len, out);
     };
     const bool was = M.run_tilted[r];
     const double worst = pass(was);
