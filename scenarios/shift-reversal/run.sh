@@ -2,18 +2,22 @@
 # The shift-reversal study: the crystal at +1 T and at -1 T and the reference run without
 # it; the lateral shift of the reflected beam in each, their non-reciprocal (difference) and
 # reciprocal (mean) parts, and beside them what `terayee medium` predicts for that beam.
-#   scenarios/shift-reversal/run.sh [--fine] [OUT]     (default OUT: runs/shift-reversal)
+#   scenarios/shift-reversal/run.sh [--fine | --long] [OUT]     (default OUT: runs/shift-reversal)
 # --fine: 12.5 um cells (the absorber needs no setting: its sides with the crystal take the
 # graded loss, docs/method.md).
+# --long: 6.25 um cells for 8 ns, the absorber's long stability run (hours; the same command
+# again goes on from the last checkpoint, study-setup.sh).
 study=shift-reversal
+long_ok=true
 . "$(dirname "${BASH_SOURCE[0]}")/../study-setup.sh" "$@"
 sets=()
 $fine && sets=(--set "grid.cell=12.5 um")
+$long && sets=("${long_sets[@]}")
 reversed=(--set "bias=[0, 0, -1 T]")
 
-"$ty" run "$scene" --overwrite -o "$out/plus" "${sets[@]}"
-"$ty" run "$scene" --overwrite -o "$out/minus" "${sets[@]}" "${reversed[@]}"
-"$ty" run "$scene" --overwrite -o "$out/reference" --reference "${sets[@]}"
+run_scene "$out/plus" "${sets[@]}"
+run_scene "$out/minus" "${sets[@]}" "${reversed[@]}"
+run_scene "$out/reference" --reference "${sets[@]}"
 # the strip y = -0.4 mm lies 0.9 mm before the crystal's face at y = 0.5 mm
 "$ty" measure shift "$out/plus" --reference "$out/reference" --map cut --line "y=-0.4 mm" --interface "0.5 mm" \
   --reversed "$out/minus" --reversed-reference "$out/reference" | tee "$out/shift.txt"
