@@ -1,12 +1,23 @@
 /// \file absorber_cases.h
-/// \brief Scenes for the absorber tests: an a-cut MnF2 crystal (easy axis along x, so the
-/// Ez wave sees mu_xx = 1 and mu_yy = mu_perp, a hyperbolic band where mu_perp < 0) as a
-/// half-space through three absorbers or as a plate through the two side absorbers, lit by
-/// a line current; and the run that measures energy and tilts after the source has stopped.
+/// \brief Scenes for the absorber tests: an MnF2 crystal as a half-space through three
+/// absorbers or as a plate through the two side absorbers, lit by a line current; and the
+/// run that measures energy and tilts after the source has stopped. Three crystals:
+/// - a-cut (easy axis along x): the Ez wave sees mu_xx = 1 and mu_yy = mu_perp, a hyperbolic
+///   band where mu_perp < 0 (backward waves along x);
+/// - c-cut (easy axis along z): mu_xx = mu_yy = mu_perp, a negative-mu band in which the
+///   wave is evanescent in every direction (magnetic surface waves along the faces);
+/// - c-cut with a bias along z: the Polder tensor (mu, i kappa) in the plane, gyrotropic, its
+///   line split in two and the band of mu_V = (mu^2 - kappa^2) / mu < 0 moved with it
+///   (io/analysis/negative_permeability.h finds it).
 #pragma once
+#include <fmt/format.h>
+
 #include <algorithm>
+#include <array>
 #include <string>
 #include <vector>
+
+#include "io/analysis/negative_permeability.h"
 
 #include "solver/guard/growth_guard.h"
 #include "solver/simulation.h"
@@ -19,6 +30,8 @@ struct AbsorberCase {
   double cell = 20e-6;
   double frequency = 262.5e9;  ///< carrier: below (250), inside (262.5) or above (275 GHz) the band
   bool plate = false;          ///< a 0.6 mm plate through the side absorbers, else a half-space
+  bool c_cut = false;          ///< easy axis along z (negative-mu band), else along x (hyperbolic)
+  double bias = 0;             ///< mu0 H0 along z, T (with c_cut: a gyrotropic crystal)
   bool cw = false;
   double stop = 0.6e-9;
   Absorber::Kind kind = Absorber::Kind::automatic;
@@ -30,8 +43,8 @@ struct AbsorberCase {
 struct AbsorberOutcome {
   double rise = 0;  ///< largest rise of the period-averaged scheme energy (below) over its earlier minimum, relative
   double rise_plain = 0;  ///< the same for the plain sum field_energy() + magnetic_energy() (E at n+1, H at n+1/2)
-  /// largest tilt inside / outside the absorbing layers over the run's last period (every
-  /// step), rad: each region's peak whatever the phase the run ends at
+  /// largest tilt inside / outside the absorbing layers over the run's last quarter (every
+  /// step), rad: each region's peak whatever the phase and the beat the run ends at
   double tilt_in = 0, tilt_out = 0;
   double energy_end = 0, injected = 0;  ///< J/m
   std::string guard;                    ///< the guard's error, if it fired
@@ -42,6 +55,30 @@ struct AbsorberOutcome {
   TiltTrace trace;       ///< when AbsorberCase::trace > 0; its column envelope over the last quarter of the run
 };
 
+/// "a-cut", "c-cut" or "c-cut 0.2 T": the crystal's name in messages and case picks.
+inline std::string crystal_name(const AbsorberCase& c) {
+  if (!c.c_cut) return "a-cut";
+  return c.bias == 0 ? "c-cut" : fmt::format("c-cut {:g} T", c.bias);
+}
+
+inline Scene absorber_scene(const AbsorberCase& c);
+
+/// The carriers below, inside and above the crystal's band: 250 and 275 GHz, and inside it
+/// 262.5 GHz (mu_perp < 0 on 261.44-263.10 GHz without a bias, shared/references.md) or,
+/// with a bias, the centre of the widest band in which the Ez wave is evanescent at normal
+/// incidence on either face (io/analysis/negative_permeability.h).
+inline std::array<double, 3> band_carriers(const AbsorberCase& c) {
+  double inside = 262.5e9;
+  if (c.bias != 0) {
+    const Scene s = absorber_scene(c);
+    double widest = 0;
+    for (int normal : {0, 1})
+      for (const auto& [f0, f1] : negative_mu_bands(s, 240e9, 285e9, normal))
+        if (f1 - f0 > widest) widest = f1 - f0, inside = 0.5 * (f0 + f1) * 1e9;  // bands in GHz
+  }
+  return {250e9, inside, 275e9};
+}
+
 inline Scene absorber_scene(const AbsorberCase& c) {
   const double L = 2e-3;
   const int n = static_cast<int>(std::lround(L / c.cell));
@@ -50,9 +87,12 @@ inline Scene absorber_scene(const AbsorberCase& c) {
   Medium m;
   m.name = "MnF2";
   m.permittivity = {5.5, 5.5, 5.5};
-  Magnet mag = mnf2(c.damping);
-  mag.anisotropy = {{{1, 0, 0}, 0.787}};
-  mag.order = {1, 0, 0};
+  Magnet mag = mnf2(c.damping);  // c-cut: easy axis along z
+  if (!c.c_cut) {
+    mag.anisotropy = {{{1, 0, 0}, 0.787}};
+    mag.order = {1, 0, 0};
+  }
+  s.bias = {0, 0, c.bias};
   m.magnet = mag;
   s.media.push_back(m);
   Body b;
@@ -128,6 +168,9 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
   // the period average from 4 equally spaced samples: exact for the plain sum's swing at
   // twice the frequency (the scheme energy has none), at a quarter of a step's cost per step
   const long sample = std::max(1L, period / 4);
+  // each region's largest tilt over the run's last quarter (at least a period), at every step
+  const long window = std::max(period, sim.total_steps() / 4);
+  double in2 = 0, out2 = 0;  // squared chords (absorber_trace.h)
   if (c.trace > 0) out.trace_every = std::max(1L, period / c.trace);
   SchemeEnergy scheme;
   double acc[2] = {0, 0}, lowest[2] = {0, 0};
@@ -151,10 +194,9 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
         first = false, count = 0, samples = 0;
       }
     }
-    if (k + 1 >= sim.total_steps() - period) {  // the last period, both regions at every phase
+    if (k + 1 >= sim.total_steps() - window) {  // both regions at every step of the window
       const YeeGrid& g = sim.grid();
-      out.tilt_in = std::max(out.tilt_in, sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y));
-      out.tilt_out = std::max(out.tilt_out, sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y));
+      largest_chords(sim.magnets(), g.nx, g.ny, g.npml_x, g.npml_y, in2, out2);
     }
     if (out.trace_every > 0 && (k + 1) % out.trace_every == 0) {
       const YeeGrid& g = sim.grid();
@@ -170,9 +212,10 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
     }
   }
   const YeeGrid& g = sim.grid();
-  // and the state now (where the guard stopped the run before its last period)
-  out.tilt_in = std::max(out.tilt_in, sim.magnets().largest_tilt(true, g.nx, g.ny, g.npml_x, g.npml_y));
-  out.tilt_out = std::max(out.tilt_out, sim.magnets().largest_tilt(false, g.nx, g.ny, g.npml_x, g.npml_y));
+  // and the state now (where the guard stopped the run before the window)
+  largest_chords(sim.magnets(), g.nx, g.ny, g.npml_x, g.npml_y, in2, out2);
+  out.tilt_in = tilt_of_chord(in2);
+  out.tilt_out = tilt_of_chord(out2);
   out.energy_end = sim.field_energy() + sim.magnetic_energy();
   out.injected = sim.injected_energy();
   return out;
