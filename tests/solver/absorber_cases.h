@@ -43,8 +43,9 @@ struct AbsorberCase {
 struct AbsorberOutcome {
   double rise = 0;  ///< largest rise of the period-averaged scheme energy (below) over its earlier minimum, relative
   double rise_plain = 0;  ///< the same for the plain sum field_energy() + magnetic_energy() (E at n+1, H at n+1/2)
-  /// largest tilt inside / outside the absorbing layers over the run's last quarter (every
-  /// step), rad: each region's peak whatever the phase and the beat the run ends at
+  /// largest tilt inside the absorbing layers over the run's last quarter and outside them
+  /// over its last half (every step), rad: each region's peak whatever the phase and the beat
+  /// the run ends at, and the interior's over the time a slow wave takes to reach the layer
   double tilt_in = 0, tilt_out = 0;
   double energy_end = 0, injected = 0;  ///< J/m
   std::string guard;                    ///< the guard's error, if it fired
@@ -168,8 +169,10 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
   // the period average from 4 equally spaced samples: exact for the plain sum's swing at
   // twice the frequency (the scheme energy has none), at a quarter of a step's cost per step
   const long sample = std::max(1L, period / 4);
-  // each region's largest tilt over the run's last quarter (at least a period), at every step
-  const long window = std::max(period, sim.total_steps() / 4);
+  // the layer's largest tilt over the run's last quarter, the interior's over its last half
+  // (each at least a period), at every step: what the layer holds came through the interior
+  // earlier, a slow wave a nanosecond or more before (test_absorber_stability.cpp)
+  const long window_in = std::max(period, sim.total_steps() / 4), window_out = std::max(period, sim.total_steps() / 2);
   double in2 = 0, out2 = 0;  // squared chords (absorber_trace.h)
   if (c.trace > 0) out.trace_every = std::max(1L, period / c.trace);
   SchemeEnergy scheme;
@@ -194,9 +197,9 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
         first = false, count = 0, samples = 0;
       }
     }
-    if (k + 1 >= sim.total_steps() - window) {  // both regions at every step of the window
+    if (k + 1 >= sim.total_steps() - window_out) {
       const YeeGrid& g = sim.grid();
-      largest_chords(sim.magnets(), g.nx, g.ny, g.npml_x, g.npml_y, in2, out2);
+      largest_chords(sim.magnets(), g.nx, g.ny, g.npml_x, g.npml_y, in2, out2, k + 1 >= sim.total_steps() - window_in);
     }
     if (out.trace_every > 0 && (k + 1) % out.trace_every == 0) {
       const YeeGrid& g = sim.grid();

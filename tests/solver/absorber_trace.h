@@ -25,10 +25,12 @@ inline double cell_tilt(const MagneticCells& M, long k) {
   return worst;
 }
 
-/// Each region's largest squared chord |m_s - g_s|^2 of any sublattice now, inside (in2) and
-/// outside (out2) the layers, raised to it: the tilt's monotone measure without an atan2 per
-/// cell, cheap enough to take at every step (angle = 2 asin(|chord| / 2), tilt_of_chord).
-inline void largest_chords(const MagneticCells& M, int nx, int ny, int npx, int npy, double& in2, double& out2) {
+/// Each region's largest squared chord |m_s - g_s|^2 of any sublattice now, inside (in2,
+/// only with `layer`) and outside (out2) the layers, raised to it: the tilt's monotone
+/// measure without an atan2 per cell, cheap enough to take at every step (angle =
+/// 2 asin(|chord| / 2), tilt_of_chord).
+inline void largest_chords(const MagneticCells& M, int nx, int ny, int npx, int npy, double& in2, double& out2,
+                           bool layer = true) {
   for (long k = 0; k < M.count(); ++k) {
     const int i = M.ci[k], j = M.cj[k];
     const MagneticState& g = M.ground[M.medium[k]];
@@ -43,6 +45,7 @@ inline void largest_chords(const MagneticCells& M, int nx, int ny, int npx, int 
         d2 = std::max(d2, e);  // a missing second sublattice is all zero
     }
     const bool in = i < npx || i >= nx - npx || j < npy || j >= ny - npy;
+    if (in && !layer) continue;
     double& worst = in ? in2 : out2;
     worst = std::max(worst, d2);
   }
