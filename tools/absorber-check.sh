@@ -1,16 +1,22 @@
 #!/usr/bin/env bash
-# The absorber's long checks, outside CI (minutes to hours on two cores): an a-cut MnF2
-# half-space and plate through the default absorber, 50, 20, 10 and 5 um cells, pulsed and
-# cw, below, inside and above the hyperbolic band, 4 ns each; nothing may gain energy or
-# tilt more in the absorber than inside (tests/solver/grid/test_absorber_stability.cpp).
-# Then the guard on a PML forced on the same half-space (slow growth, stopped early;
-# tests/solver/guard/test_growth_guard.cpp) and the MnF2 half-space reflectance against its
-# linear response (the issue's targets).
+# The absorber's long checks, outside CI (minutes to hours on two cores): MnF2 half-spaces
+# and plates through the default absorber -- a-cut (hyperbolic band), c-cut (negative-mu)
+# and c-cut under 0.2 T (gyrotropic) -- at 50, 20, 10 and 5 um cells, pulsed and cw,
+# below, inside and above the band, 4 ns each; nothing may gain energy after the pulse, nor
+# tilt more in the layer than the interior did (tests/solver/grid/test_absorber_stability.cpp,
+# docs/method.md). Then the guard on a PML forced on the same half-space (slow growth,
+# stopped early; tests/solver/guard/test_growth_guard.cpp) and the MnF2 half-space
+# reflectance against its linear response (the issue's targets). Run one case at a time:
+# each takes both cores.
 #   tools/absorber-check.sh            all cells
 #   tools/absorber-check.sh 20 10      only these cells (um)
 # One case, traced (each region's largest tilt over time and where, the envelope along x):
-#   TERAYEE_ABSORBER_TRACE=1 TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="plate cw 275" \
+#   TERAYEE_ABSORBER_TRACE=1 TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="a-cut plate cw 275" \
 #     build/terayee_tests -tc="absorbers\, long*" --no-skip -s
+# The 10^6-step half-space (about an hour at 5 um):
+#   TERAYEE_ABSORBER_CELL=5 TERAYEE_ABSORBER_STEPS=1000000 TERAYEE_ABSORBER_PICK="a-cut half-space pulse 262.5" \
+#     build/terayee_tests -tc="absorbers\, long*" --no-skip -s
+# TERAYEE_ABSORBER_KIND=pml forces the PML on every side, to see what the default avoids.
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 tests="${TERAYEE_TESTS:-$root/build/terayee_tests}"
