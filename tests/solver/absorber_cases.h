@@ -18,7 +18,6 @@
 #include <vector>
 
 #include "io/analysis/negative_permeability.h"
-
 #include "solver/guard/growth_guard.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
