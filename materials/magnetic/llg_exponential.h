@@ -21,9 +21,10 @@
 /// (w_max h)^2/12 < 6e-5 (three sub-steps for MnF2 at 20 um). The implicit equation is
 /// solved by fixed-point passes from x_lin; each pass contracts by about h |dN/dx|, of the
 /// size of the tilt times gamma B_E h, so two passes converge up to 1e-2 rad (four at
-/// 0.1 rad) where the plain rule takes seven per sub-step. Each cell (lane) stops on its own once a pass changes x by
-/// at most kTol of its change over the step, so its result does not depend on the other
-/// cells of its block, and the count is the same on every run and any thread count.
+/// 0.1 rad) where the plain rule takes seven per sub-step. Each cell (lane) stops on its own
+/// once the error of its x, estimated from the contraction the last two passes measured, is
+/// at most `tol` (1e-10) of its change over the step, so its result does not depend on the
+/// other cells of its block, and the count is the same on every run and any thread count.
 /// |m_s| = 1 to round-off by construction (m(x) = g sqrt(1 - |x|^2) + x1 e1 + x2 e2). Its
 /// error grows with the tilt (one MnF2 step against a fine reference: 1.9e-10 at 1e-3 rad,
 /// 2.9e-6 at 0.1 rad, as the plain midpoint rule's 2.6e-6; 4.3e-5 at 0.25 rad against its
@@ -52,15 +53,19 @@ inline double root_one_minus(double q) {
 /// m0[6] the state at the step's start, ml[6] the small-signal step's result (its
 /// predictor), b0[3], b1[3] the wave field at the step's ends, r the cell's own reaction
 /// weights. Out: mn[6], dM[3] and per lane the largest squared tilt |x_s|^2 of the result
-/// (q) and whether the passes converged (ok: 1 or 0).
+/// (q) and whether the passes converged (ok: 1 or 0). tol: each lane's error allowed, relative
+/// to its change over the step (tests ask for less); passes, if given: how many the block took.
 inline void exponential_lanes(const LinearStep& L, const LlgCoefficients& p, const double* r,
                               const double (*m0)[8], const double (*ml)[8], const double (*b0)[8],
-                              const double (*b1)[8], double (*mn)[8], double (*dM)[8], double* q, double* ok) {
+                              const double (*b1)[8], double (*mn)[8], double (*dM)[8], double* q, double* ok,
+                              double tol = 1e-10, int* passes = nullptr) {
   constexpr int W = 8, kPasses = 8;
-  constexpr double kTol = 1e-10, kFloor = 1e-15;  // kFloor: above the round-off of N (|m| = 1)
+  constexpr double kFloor = 1e-15;  // above the round-off of N (|m| = 1)
   double X0[4][W], X1[4][W], XL[4][W], B[3][W], KX0[3][W], M0[6][W];
   double done[W];  // 1 once the lane has converged (a double, so that the loop vectorizes)
-  for (int l = 0; l < W; ++l) done[l] = 0.0;
+  double last[W];  // the lane's change at its previous pass
+  for (int l = 0; l < W; ++l) done[l] = 0.0, last[l] = 0.0;
+  if (passes) *passes = kPasses;
   // local copies of the coefficients, so that the loops over lanes vectorize
   double e1[2][3], e2[2][3], g[2][3], mu[2], A[4][4], ct[4][3], hp[4][4];
   for (int s = 0; s < 2; ++s) {
@@ -148,13 +153,23 @@ inline void exponential_lanes(const LinearStep& L, const LlgCoefficients& p, con
         change = std::max(change, std::abs(v - X1[i][l]));
         size = std::max(size, std::abs(v - X0[i][l]));
       }
+      // the error of this pass's x: within rho/(1 - rho) of its change, rho the contraction
+      // measured by the last two changes (the stopping rule of simplified Newton iterations:
+      // Hairer & Wanner, Solving ODEs II, 2nd ed., sec. IV.8, eq. 8.10-8.11); the change
+      // itself until a second pass has measured rho, or where rho >= 1/2
+      const double rho = pass > 0 && last[l] > 0 ? change / last[l] : 1.0;
+      const double error = rho < 0.5 ? rho / (1 - rho) * change : change;
       const double was = done[l];
       for (int i = 0; i < 4; ++i) X1[i][l] = was > 0 ? X1[i][l] : nx[i];
-      done[l] = was > 0 || change <= kTol * size + kFloor ? 1.0 : 0.0;
+      done[l] = was > 0 || error <= tol * size + kFloor ? 1.0 : 0.0;
+      last[l] = change;
     }
     double all = 1;
     for (int l = 0; l < W; ++l) all = std::min(all, done[l]);
-    if (all > 0) break;
+    if (all > 0) {
+      if (passes) *passes = pass + 1;
+      break;
+    }
   }
 #pragma omp simd
   for (int l = 0; l < W; ++l) {
