@@ -13,7 +13,7 @@
 # One case, traced (each region's largest tilt over time and where, the envelope along x):
 #   TERAYEE_ABSORBER_TRACE=1 TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="a-cut plate cw 275" \
 #     build/terayee_tests -tc="absorbers\, long*" --no-skip -s
-# The 10^6-step half-space (about an hour at 5 um):
+# The 10^6-step half-space (an hour or more at 5 um, alone):
 #   TERAYEE_ABSORBER_CELL=5 TERAYEE_ABSORBER_STEPS=1000000 TERAYEE_ABSORBER_PICK="a-cut half-space pulse 262.5" \
 #     build/terayee_tests -tc="absorbers\, long*" --no-skip -s
 # TERAYEE_ABSORBER_KIND=pml forces the PML on every side, to see what the default avoids.
