@@ -15,6 +15,7 @@ fine=false long=false
 if [ "${1:-}" = "--fine" ]; then fine=true; shift; fi
 if [ "${1:-}" = "--long" ]; then
   [ "${long_ok:-false}" = true ] || { echo "$study has no --long setting" >&2; exit 2; }
+  $fine && { echo "--fine and --long are two settings: give one" >&2; exit 2; }
   long=true
   shift
 fi

@@ -145,6 +145,12 @@ struct MagneticCells {
     return a[0] * m[p][c][k] + a[1] * m[p][3 + c][k] - a[2 + c];
   }
 
+  /// Whether grid cell (i, j) lies in the absorbing layers (npx, npy cells a side of an
+  /// nx x ny grid).
+  static bool in_layers(int i, int j, int nx, int ny, int npx, int npy) {
+    return i < npx || i >= nx - npx || j < npy || j >= ny - npy;
+  }
+
   /// The largest angle (rad) between a sublattice and its ground-state direction over the
   /// cells inside (absorber = true) or outside the absorbing layers (npx, npy cells a side of
   /// an nx x ny grid): growth inside them alone is the PML amplifying a backward wave. Cells
@@ -152,7 +158,7 @@ struct MagneticCells {
   double largest_tilt(bool absorber, int nx, int ny, int npx, int npy, long k0 = 0, long k1 = -1) const {
     double worst = 0;
     for (long k = k0; k < (k1 < 0 ? count() : k1); ++k) {
-      const bool in = ci[k] < npx || ci[k] >= nx - npx || cj[k] < npy || cj[k] >= ny - npy;
+      const bool in = in_layers(ci[k], cj[k], nx, ny, npx, npy);
       if (in != absorber) continue;
       const MagneticState& g = ground[medium[k]];
       for (int s = 0; s < 2; ++s) {

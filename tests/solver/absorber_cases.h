@@ -31,6 +31,7 @@ struct AbsorberCase {
   bool plate = false;          ///< a 0.6 mm plate through the side absorbers, else a half-space
   bool c_cut = false;          ///< easy axis along z (negative-mu band), else along x (hyperbolic)
   double bias = 0;             ///< mu0 H0 along z, T (with c_cut: a gyrotropic crystal)
+  bool turned = false;         ///< the scene turned 90 degrees: x and y swapped (the a-cut axis along y)
   bool cw = false;
   double stop = 0.6e-9;
   Absorber::Kind kind = Absorber::Kind::automatic;
@@ -55,10 +56,13 @@ struct AbsorberOutcome {
   TiltTrace trace;       ///< when AbsorberCase::trace > 0; its column envelope over the last quarter of the run
 };
 
-/// "a-cut", "c-cut" or "c-cut 0.2 T": the crystal's name in messages and case picks.
-inline std::string crystal_name(const AbsorberCase& c) {
-  if (!c.c_cut) return "a-cut";
-  return c.bias == 0 ? "c-cut" : fmt::format("c-cut {:g} T", c.bias);
+/// The case's name in messages and in TERAYEE_ABSORBER_PICK (whose words must each be one of
+/// its words): the crystal ("a-cut", "c-cut" or "c-cut 0.2 T"), the body ("half-space",
+/// "plate", "half-space-turned", "plate-turned"), "pulse" or "cw", the carrier in GHz.
+inline std::string case_name(const AbsorberCase& c) {
+  const std::string crystal = !c.c_cut ? "a-cut" : c.bias == 0 ? "c-cut" : fmt::format("c-cut {:g} T", c.bias);
+  return fmt::format("{} {}{} {} {:g}", crystal, c.plate ? "plate" : "half-space", c.turned ? "-turned" : "",
+                     c.cw ? "cw" : "pulse", c.frequency / 1e9);
 }
 
 inline Scene absorber_scene(const AbsorberCase& c);
@@ -88,24 +92,23 @@ inline Scene absorber_scene(const AbsorberCase& c) {
   m.name = "MnF2";
   m.permittivity = {5.5, 5.5, 5.5};
   Magnet mag = mnf2(c.damping);  // c-cut: easy axis along z
+  // turned: every position and the a-cut axis with x and y swapped, so that the plate runs
+  // through the top and bottom layers instead of the sides
+  auto at = [&](double x, double y) { return c.turned ? Vec2{y, x} : Vec2{x, y}; };
   if (!c.c_cut) {
-    mag.anisotropy = {{{1, 0, 0}, 0.787}};
-    mag.order = {1, 0, 0};
+    const Vec2 axis = at(1, 0);
+    mag.anisotropy = {{{axis.x, axis.y, 0}, 0.787}};
+    mag.order = {axis.x, axis.y, 0};
   }
   s.bias = {0, 0, c.bias};
   m.magnet = mag;
   s.media.push_back(m);
   Body b;
   b.shape.kind = Shape::Kind::rectangle;
-  if (c.plate) {
-    b.shape.centre = {0.5 * L, 1.0e-3};
-    b.shape.size = {10 * L, 0.6e-3};
-  } else {
-    b.shape.centre = {0.5 * L, 1.0e-3 + 2 * L};
-    b.shape.size = {10 * L, 4 * L};
-  }
+  b.shape.centre = c.plate ? at(0.5 * L, 1.0e-3) : at(0.5 * L, 1.0e-3 + 2 * L);
+  b.shape.size = c.plate ? at(10 * L, 0.6e-3) : at(10 * L, 4 * L);
   s.bodies.push_back(b);
-  Source src = point_source(Component::Ez, {0.5 * L, c.plate ? 0.35e-3 : 0.5e-3}, c.frequency, 20e-12, 40e-12, 1e-3);
+  Source src = point_source(Component::Ez, at(0.5 * L, c.plate ? 0.35e-3 : 0.5e-3), c.frequency, 20e-12, 40e-12, 1e-3);
   if (c.cw) {
     src.waveform.kind = Waveform::Kind::cw;
     src.waveform.ramp = 20 / c.frequency;

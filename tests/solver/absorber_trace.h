@@ -31,21 +31,18 @@ inline double cell_tilt(const MagneticCells& M, long k) {
 /// 2 asin(|chord| / 2), tilt_of_chord).
 inline void largest_chords(const MagneticCells& M, int nx, int ny, int npx, int npy, double& in2, double& out2,
                            bool layer = true) {
+  const auto& m = M.m[M.latest];
   for (long k = 0; k < M.count(); ++k) {
-    const int i = M.ci[k], j = M.cj[k];
+    const bool in = MagneticCells::in_layers(M.ci[k], M.cj[k], nx, ny, npx, npy);
+    if (in && !layer) continue;
     const MagneticState& g = M.ground[M.medium[k]];
     double d2 = 0;
     for (int s = 0; s < 2; ++s) {
+      if (m[3 * s][k] == 0 && m[3 * s + 1][k] == 0 && m[3 * s + 2][k] == 0) continue;  // one sublattice
       double e = 0;
-      for (int c = 0; c < 3; ++c) {
-        const double d = M.m[M.latest][3 * s + c][k] - g.m[s][c];
-        e += d * d;
-      }
-      if (M.m[M.latest][3 * s][k] != 0 || M.m[M.latest][3 * s + 1][k] != 0 || M.m[M.latest][3 * s + 2][k] != 0)
-        d2 = std::max(d2, e);  // a missing second sublattice is all zero
+      for (int c = 0; c < 3; ++c) e += (m[3 * s + c][k] - g.m[s][c]) * (m[3 * s + c][k] - g.m[s][c]);
+      d2 = std::max(d2, e);
     }
-    const bool in = i < npx || i >= nx - npx || j < npy || j >= ny - npy;
-    if (in && !layer) continue;
     double& worst = in ? in2 : out2;
     worst = std::max(worst, d2);
   }
@@ -76,7 +73,7 @@ struct TiltTrace {
       const int i = M.ci[k], j = M.cj[k];
       const double a = cell_tilt(M, k);
       column[i] = std::max(column[i], a);
-      const bool in = i < npx || i >= nx - npx || j < npy || j >= ny - npy;
+      const bool in = MagneticCells::in_layers(i, j, nx, ny, npx, npy);
       if (in && a > t.in) {
         t.in = a, t.in_i = i, t.in_j = j;
         int d = std::min({i < npx ? npx - i : nx, i >= nx - npx ? i - (nx - npx) + 1 : nx, j < npy ? npy - j : ny,
