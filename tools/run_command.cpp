@@ -19,6 +19,7 @@
 #include "io/run/checkpoint.h"
 #include "io/run/kill_point.h"
 #include "io/run/log.h"
+#include "io/run/folder_scene.h"
 #include "io/run/run_folder.h"
 #include "io/run/stop_signals.h"
 #include "io/scene/diagnostics.h"
@@ -380,11 +381,6 @@ int run_command(const RunOptions& o) {
   StopSignals signals;  // first, so an early Ctrl-C is not lost
   if (o.resume && o.overwrite)
     throw BadInput("terayee run: error: --resume goes on with a run, --overwrite replaces it: give one of them");
-  namespace fs = std::filesystem;
-  if (o.resume && fs::exists(fs::path(o.out) / "summary.json") && !fs::exists(fs::path(o.out) / "checkpoint.h5")) {
-    std::cerr << fmt::format("terayee run: {} holds a completed run; there is nothing to resume\n", o.out);
-    return 0;
-  }
   Scene read = read_scene(o.scene, o.sets);
   const std::vector<std::string> found = validate_scene(read, machine_memory_bytes());  // before anything is sized
   read.warnings.insert(read.warnings.end(), found.begin(), found.end());
@@ -392,6 +388,10 @@ int run_command(const RunOptions& o) {
   // time step F times the stability limit, which a scene cannot ask for (time.step-fraction < 1)
   if (const char* f = std::getenv("TERAYEE_UNSTABLE")) read.time.step_fraction = std::atof(f);
   const Scene scene = o.reference ? reference_scene(read) : read;
+  if (o.resume && holds_completed(o.out, scene)) {  // every rank: they all return here
+    std::cerr << fmt::format("terayee run: {} holds this completed run; there is nothing to resume\n", o.out);
+    return 0;
+  }
   if (parallel::size() > 1) refuse_over_ranks(scene);
   if (scene.time.precision == Precision::single) return run_with<float>(scene, o);
   return run_with<double>(scene, o);

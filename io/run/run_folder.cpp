@@ -12,12 +12,11 @@
 #include <sstream>
 
 #include "io/run/atomic_file.h"
+#include "io/run/folder_scene.h"
 #include "io/run/kill_point.h"
-#include "solver/parallel/ranks.h"
-
 #include "io/scene/diagnostics.h"
-
 #include "io/scene/scene_writer.h"
+#include "solver/parallel/ranks.h"
 #include "solver/grid/poynting.h"
 
 namespace ty {
@@ -33,23 +32,18 @@ const char* kOwn[] = {"fields.h5", "fields.xmf", "summary.json", "fields.h5.part
 /// Frame k of a snapshot field as a 2D dataset (a view of /snapshots/NAME, frame_view).
 std::string frame_view_path(size_t k, const std::string& name) { return fmt::format("/frames/{}/{}", k, name); }
 
-std::string slurp(const std::string& path) {
-  std::ifstream in(path);
-  return std::string((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
-}
 }  // namespace
 
 RunFolder::RunFolder(const std::string& dir, const Scene& scene, bool resume, bool overwrite)
     : dir_(dir), scene_(scene) {
-  const std::string resolved =
-      "# resolved by terayee: every default filled in, every value in SI\n" + resolved_scene_yaml(scene);
+  const std::string resolved = folder_scene(scene);
   std::error_code ec;
   for (auto f : {kPartial, "checkpoint.h5", "fields.h5", "fields.xmf", "summary.json", "scene.yaml"})
     discard_temporary(temporary_name(path(f)));  // left by a kill: our own, never complete
   if (resume) {
     if (!fs::exists(path("scene.yaml")))
       throw BadInput(fmt::format("{}: error: there is no stopped run to resume here (no scene.yaml)", dir_));
-    if (slurp(path("scene.yaml")) != resolved)
+    if (read_folder_scene(dir_) != resolved)
       throw BadInput(fmt::format("{}: error: the scene differs from the one this run started with; resume with the "
                                  "same scene and --set values",
                                  dir_));

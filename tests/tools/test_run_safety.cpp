@@ -78,6 +78,11 @@ TEST_CASE("a run folder that is not empty is refused unless --resume or --overwr
   CHECK(terayee_run(dir, " --overwrite") == 0);
   CHECK(fs::exists(dir / "notes.txt"));       // only the files a run writes are replaced
   CHECK(terayee_run(dir, " --resume") == 0);  // a completed run: nothing to do
+  // but a completed run of other settings is not the run asked for (a script resuming a
+  // long setting in a folder that holds a short run would take its results for the long one)
+  CHECK(terayee_run(dir, " --set time.stop=11ps --resume", out) == 2);
+  CHECK(out.find("completed run of another scene") != std::string::npos);
+  CHECK(fs::exists(dir / "summary.json"));  // left as it was
   fs::remove_all(dir);
 }
 
