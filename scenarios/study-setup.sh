@@ -19,7 +19,9 @@ if [ "${1:-}" = "--long" ]; then
   long=true
   shift
 fi
-out="${1:-$root/runs/$study}"
+suffix=""
+$long && suffix="-long"  # its own folder: a default run's folder is not resumed as a long one
+out="${1:-$root/runs/$study$suffix}"
 scene="$here/$study.yaml"
 long_sets=(--set "grid.cell=6.25 um" --set "time.stop=8 ns")
 

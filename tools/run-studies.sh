@@ -8,7 +8,7 @@
 # slab lens, shift reversal) at 6.25 um cells for 8 ns, the absorber's long stability run
 # (about 7 hours on 2 cores); a checkpoint every 10 minutes, and the same command again
 # goes on where it stopped (docs/method.md, "Long runs").
-#   tools/run-studies.sh [--fine | --long] [OUT]      (default OUT: runs/studies)
+#   tools/run-studies.sh [--fine | --long] [OUT]      (default OUT: runs/studies, runs/studies-fine or -long)
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 mode=()
@@ -19,7 +19,7 @@ if [ "${1:-}" = "--long" ]; then
   studies=(negative-refraction slab-lens shift-reversal)
   shift
 fi
-out="${1:-$root/runs/studies}"
+out="${1:-$root/runs/studies${mode[0]:+-${mode[0]#--}}}"  # runs/studies, studies-fine, studies-long
 for s in "${studies[@]}"; do
   echo "=== $s"
   "$root/scenarios/$s/run.sh" "${mode[@]}" "$out/$s"
