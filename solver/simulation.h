@@ -354,9 +354,9 @@ class Simulation {
   /// Unit (j, t) of a blocked magnetic scene (wavefront.h, kMagneticLead): step n's work on
   /// row j as step_magnetic does it, with H one row ahead; ring: b(n-1/2) of two rows.
   void magnetic_unit(int j, long n, const double* ev, double* const* ring, double* scratch, long& tilted);
-  /// The scatter into the Hx nodes at the ends of row j's runs (after magnetic_row(j), and on
-  /// a Bloch pair after both copies' magnetic_row(j): the seam's node takes the other's change).
-  void scatter_run_ends(int j, long n);
+  /// The scatter into the Hx nodes at the ends of row j's runs from the changes magnetic_row(j)
+  /// left in scratch (a Bloch pair's seam node also takes the partner's, in partner_scratch).
+  void scatter_run_ends(int j, const double* scratch, const double* partner_scratch = nullptr);
   /// The scatter into the Hy nodes of row j (from cell rows j and j-1).
   void scatter_hy(int j, long n);
   void add_injection(bool h_phase, Component c, int i, int j, std::complex<double> A, double tau, int signal);

@@ -18,7 +18,7 @@ void Simulation<R>::visit_state(F&& f) {
   for (int p = 0; p < 2; ++p) {
     const std::string q = std::to_string(p);
     for (int c = 0; c < 6; ++c) f("magnets/m" + q + std::to_string(c), mag_.m[p][c].data(), mag_.m[p][c].size());
-    for (int c = 0; c < 3; ++c) f("magnets/dM" + q + std::to_string(c), mag_.dM[p][c].data(), mag_.dM[p][c].size());
+    f("magnets/dM" + q + "1", mag_.dMy[p].data(), mag_.dMy[p].size());  // y: the name older checkpoints gave it
   }
   f("media/polarization", disp_.p.data(), disp_.p.size());
   f("media/polarization-rate", disp_.j.data(), disp_.j.size());

@@ -21,8 +21,8 @@ namespace {
 /// One magnetic cell's arrays in solver/media/magnetic_cells.h: its list entry, three ints
 /// (indices, medium; with the slack of arrays grown by push_back), on every MPI rank; and its
 /// state, four neighbours' indices, two copies of two sublattices' moments (12 doubles) and two
-/// sublattices' increments (6 doubles), resident only on the rank that steps it.
-constexpr double kMagneticListBytes = 1.5 * 3 * 4, kMagneticStateBytes = 4 * 4 + 18 * 8;
+/// copies of the change of mu0 M_y (2 doubles), resident only on the rank that steps it.
+constexpr double kMagneticListBytes = 1.5 * 3 * 4, kMagneticStateBytes = 4 * 4 + 14 * 8;
 /// What the HDF5 library holds per snapshot frame view written at the end (a virtual
 /// dataset over one frame of a series and its attributes, for fields.xmf): measured, 20-21
 /// kB a view from 100 to 1600 views (mnf2-mirror.yaml with snapshots every 40 to 2.5 ps).

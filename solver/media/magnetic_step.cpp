@@ -27,8 +27,9 @@ using constants::c0;
 namespace {
 // per cell of a row: b(n-1/2) and b(n+1/2) of the step, the tilt, b(n-1/2) as gathered
 // before Faraday's law for three rows (two in turn, and the block's last), the y neighbours'
-// deviations
-constexpr long kRowScratch = 17;
+// deviations, and the change of mu0 M along x and z (what only the row's own Hx and Hz
+// nodes take: magnetic_cells.h)
+constexpr long kRowScratch = 19, kDMx = 17, kDMz = 18;
 }  // namespace
 
 namespace {
@@ -101,7 +102,7 @@ void Simulation<R>::build_magnets() {
   // mapped pages stay zero, and not resident, elsewhere
   for (auto* v : {&M.left, &M.right, &M.down, &M.up}) v->resize(n);
   for (int c = 0; c < 6; ++c) M.m[0][c].resize(n), M.m[1][c].resize(n);
-  for (int c = 0; c < 3; ++c) M.dM[0][c].resize(n + 1), M.dM[1][c].resize(n + 1);  // zero
+  M.dMy[0].resize(n + 1), M.dMy[1].resize(n + 1);  // zero
   for (int j = 0; j < ny; ++j) {
     if (!parallel::reads_row(j, ny, parallel::rank(), parallel::size(), walls_.periodic_y)) continue;
     for (long k = M.first_cell(j); k < M.first_cell(j + 1); ++k) {
@@ -118,7 +119,7 @@ void Simulation<R>::build_magnets() {
   row_work_ = M.row_work(nx);  // the threads' rows cut by work (threads/block_rows.h)
   mag_tilted_.assign(static_cast<size_t>(threads_) * 8, 0);  // a cache line per thread
   // the state and neighbours divided over ranks (resident where written), the list whole
-  bytes_ += static_cast<std::size_t>(n) * ((12 + 6) * sizeof(double) + 4 * sizeof(int)) / parallel::size() +
+  bytes_ += static_cast<std::size_t>(n) * ((12 + 2) * sizeof(double) + 4 * sizeof(int)) / parallel::size() +
             n * 3 * sizeof(int) + M.runs.size() * sizeof(MagneticCells::Run) +
             threads_ * kRowScratch * M.longest_row * sizeof(double);
 }
@@ -187,7 +188,9 @@ void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scrat
                    beside(L[0], i0 == 0, true), beside(Rt[len - 1], run.i1 == g_.nx, false), M.net[run.slot]};
     RunOutput out{{}, {}, x2, {b0[0], b0[1], b0[2]}, {b1[0], b1[1], b1[2]}};
     for (int c = 0; c < 6; ++c) in.m[c] = M.m[prev][c].data() + k0, out.m[c] = M.m[cur][c].data() + k0;
-    for (int c = 0; c < 3; ++c) in.old[c] = old + c * w + (k0 - first), out.dM[c] = M.dM[cur][c].data() + k0;
+    for (int c = 0; c < 3; ++c) in.old[c] = old + c * w + (k0 - first);
+    out.dM[0] = scratch + kDMx * w + (k0 - first), out.dM[1] = M.dMy[cur].data() + k0;
+    out.dM[2] = scratch + kDMz * w + (k0 - first);
     const CellStep& step = M.steps[run.slot];
     // the pass that keeps each cell's field and tilt for the large-tilt paths where the run
     // held a tilted cell last step, else the lighter one, and where that finds one the other
@@ -218,29 +221,31 @@ void Simulation<R>::magnetic_row(int j, long n, const double* old, double* scrat
 }
 
 template <class R>
-void Simulation<R>::scatter_run_ends(int j, long n) {
+void Simulation<R>::scatter_run_ends(int j, const double* scratch, const double* partner_scratch) {
   // the Hx nodes at the runs' ends, each once: the left face of every run (with the cell
   // on its left, if any), the right face of a run with no magnetic cell after it. Across a
   // Bloch seam the node Hx(0) takes the change of cell nx-1 moved by -L_x (bloch.h): the
   // phase-shifted change of both copies, so the partner's cells of row j must have stepped.
+  // A cell's left neighbour is in its own row (wrapped across a periodic or Bloch seam), so
+  // every change read here is in the row's scratch, where magnetic_row(j) left it.
   const MagneticCells& M = mag_;
   const int r0 = M.row_runs[j], r1 = M.row_runs[j + 1];
   if (r0 == r1) return;
-  const int cur = static_cast<int>(n & 1);
-  const long none = M.count();
-  const double* dx = M.dM[cur][0].data();
-  const double* other = partner_ ? partner_->mag_.dM[cur][0].data() : nullptr;
+  const long none = M.count(), first = M.runs[r0].k0, w = M.longest_row;
+  const double* row = scratch + kDMx * w;
+  const double* other = partner_scratch ? partner_scratch + kDMx * w : nullptr;
+  auto dx = [&](const double* d, long k) { return k < none ? d[k - first] : 0.0; };
   R* hx = f_[3].data() + g_.at(0, j);
   for (int r = r0; r < r1; ++r) {
     const MagneticCells::Run& run = M.runs[r];
     const long first_k = run.k0, last = run.k0 + (run.i1 - run.i0) - 1;
     const long lk = M.left[first_k];
-    const double left = other && run.i0 == 0 && lk < none ? seam_value(dx[lk], other[lk], true) : dx[lk];
-    hx[run.i0] -= static_cast<R>(c0 * 0.5 * (dx[first_k] + left));
+    const double left = other && run.i0 == 0 && lk < none ? seam_value(dx(row, lk), dx(other, lk), true) : dx(row, lk);
+    hx[run.i0] -= static_cast<R>(c0 * 0.5 * (dx(row, first_k) + left));
     if (M.right[last] < none) continue;  // the next magnetic cell writes the shared node
-    if (run.i1 < g_.nx) hx[run.i1] -= static_cast<R>(c0 * 0.5 * (dx[last] + dx[none]));
-    else if (walls_.periodic_x) hx[0] -= static_cast<R>(c0 * 0.5 * (dx[last] + dx[none]));
-    else if (other) hx[0] -= static_cast<R>(c0 * 0.5 * (seam_value(dx[last], other[last], true) + dx[none]));
+    if (run.i1 < g_.nx) hx[run.i1] -= static_cast<R>(c0 * 0.5 * (dx(row, last) + 0.0));
+    else if (walls_.periodic_x) hx[0] -= static_cast<R>(c0 * 0.5 * (dx(row, last) + 0.0));
+    else if (other) hx[0] -= static_cast<R>(c0 * 0.5 * (seam_value(dx(row, last), dx(other, last), true) + 0.0));
   }
 }
 
@@ -250,7 +255,7 @@ void Simulation<R>::scatter_hy(int j, long n) {
   // (with the cell below, or none) and the cells of the row below that have none above
   const MagneticCells& M = mag_;
   const int cur = static_cast<int>(n & 1);
-  const double* dy = M.dM[cur][1].data();
+  const double* dy = M.dMy[cur].data();
   const long zero = M.count();
   R* hy = f_[4].data() + g_.at(0, j);
   for (int r = M.row_runs[j]; r < M.row_runs[j + 1]; ++r) {
@@ -320,7 +325,7 @@ void Simulation<R>::step_magnetic() {
       if (j + 1 < j1 - 1) gather_row(j + 1, ring[(j + 1) & 1]);
       if (j + 1 < j1) h_row(j + 1);
       magnetic_row(j, n_, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
-      scatter_run_ends(j, n_);
+      scatter_run_ends(j, scratch);
       if (in_absorber(j)) graded_decay(j, false, 5);  // the graded loss on the row's final Hx, Hz
       if (j > j0) {
         scatter_hy(j, n_);
@@ -361,7 +366,7 @@ void Simulation<R>::magnetic_unit(int j, long n, const double* ev, double* const
     h_row(j + 1, ev);
   }
   magnetic_row(j, n, ring[j & 1], scratch, tilted);
-  scatter_run_ends(j, n);
+  scatter_run_ends(j, scratch);
   if (in_absorber(j)) graded_decay(j, false, 5);  // the graded loss on the row's final Hx, Hz
   scatter_hy(j, n);
   if (in_absorber(j)) graded_decay(j, false, 2);  // and on its final Hy
@@ -375,7 +380,7 @@ void Simulation<R>::magnetic_unit(int j, long n, const double* ev, double* const
   template void Simulation<R>::magnetic_unit(int, long, const double*, double* const*, double*, long&); \
   template void Simulation<R>::gather_row(int, double*) const;                \
   template const R* Simulation<R>::hy_above(int) const;                       \
-  template void Simulation<R>::scatter_run_ends(int, long);                   \
+  template void Simulation<R>::scatter_run_ends(int, const double*, const double*); \
   template void Simulation<R>::scatter_hy(int, long);                         \
   template void Simulation<R>::step_magnetic();
 TY_INSTANTIATE(float)

@@ -83,8 +83,8 @@ void Simulation<R>::pack_cell_row(int j, double* to) const {
   for (int a = 0; a < 3 && kAxesM[a] >= 0; ++a)
     for (int sub = 0; sub < 2; ++sub, to += n)
       std::memcpy(to, M.m[cur][3 * sub + kAxesM[a]].data() + k0, n * sizeof(double));
-  for (int a = 0; a < 3 && kAxesDM[a] >= 0; ++a, to += n)
-    std::memcpy(to, M.dM[cur][kAxesDM[a]].data() + k0, n * sizeof(double));
+  static_assert(kAxesDM[0] == 1 && kAxesDM[1] < 0, "the cells' changes cross rows along y only (magnet_halo.h)");
+  std::memcpy(to, M.dMy[cur].data() + k0, n * sizeof(double));
 }
 
 template <class R>
@@ -95,8 +95,7 @@ void Simulation<R>::unpack_cell_row(int j, const double* from) {
   for (int a = 0; a < 3 && kAxesM[a] >= 0; ++a)
     for (int sub = 0; sub < 2; ++sub, from += n)
       std::memcpy(M.m[cur][3 * sub + kAxesM[a]].data() + k0, from, n * sizeof(double));
-  for (int a = 0; a < 3 && kAxesDM[a] >= 0; ++a, from += n)
-    std::memcpy(M.dM[cur][kAxesDM[a]].data() + k0, from, n * sizeof(double));
+  std::memcpy(M.dMy[cur].data() + k0, from, n * sizeof(double));  // y only, as pack_cell_row
 }
 
 template <class R>
@@ -187,7 +186,7 @@ void Simulation<R>::step_magnetic_slab() {
       if (j + 1 < j1 - 1) gather_row(j + 1, ring[(j + 1) & 1]);
       if (j + 1 < j1) h_row(j + 1);
       magnetic_row(j, n_, j == j1 - 1 && j > j0 ? top : ring[j & 1], scratch, mag_tilted_[t * 8]);
-      scatter_run_ends(j, n_);
+      scatter_run_ends(j, scratch);
       if (in_absorber(j)) graded_decay(j, false, 5);
       if (j > j0) {
         scatter_hy(j, n_);
@@ -252,7 +251,7 @@ void Simulation<R>::step_magnetic_slab_pair() {
       const bool last = j == j1 - 1 && j > j0;
       magnetic_row(j, n_, last ? top_a : ring_a[j & 1], sa, mag_tilted_[t * 8]);
       b.magnetic_row(j, b.n_, last ? top_b : ring_b[j & 1], sb, b.mag_tilted_[t * 8]);
-      scatter_run_ends(j, n_), b.scatter_run_ends(j, b.n_);
+      scatter_run_ends(j, sa, sb), b.scatter_run_ends(j, sb, sa);
       if (in_absorber(j)) graded_decay(j, false, 5), b.graded_decay(j, false, 5);
       if (j > j0) {
         scatter_hy(j, n_), b.scatter_hy(j, b.n_);

@@ -56,8 +56,8 @@ void Simulation<R>::step_pair_magnetic() {
       const bool last = j == j1 - 1 && j > j0;
       magnetic_row(j, n_, last ? top_a : ring_a[j & 1], sa, mag_tilted_[t * 8]);
       b.magnetic_row(j, b.n_, last ? top_b : ring_b[j & 1], sb, b.mag_tilted_[t * 8]);
-      scatter_run_ends(j, n_);
-      b.scatter_run_ends(j, b.n_);
+      scatter_run_ends(j, sa, sb);
+      b.scatter_run_ends(j, sb, sa);
       if (in_absorber(j)) graded_decay(j, false, 5), b.graded_decay(j, false, 5);
       if (j > j0) {
         scatter_hy(j, n_);

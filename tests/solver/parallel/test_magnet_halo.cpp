@@ -37,11 +37,11 @@ std::set<std::pair<int, int>> cells_moved_by(Component q, int i, int j) {
   sim.step();
   const MagneticCells& M = sim.magnets();
   std::set<std::pair<int, int>> moved;
-  // the change of M over the step (what the scatter writes back) is non-zero where b reached
+  // the cells moved where b reached: the step just taken wrote one copy of the state, the
+  // other still holds the starting state (magnetic_cells.h)
   for (long k = 0; k < M.count(); ++k)
-    for (int p = 0; p < 2; ++p)  // either copy: the step just taken wrote one of them
-      for (int c = 0; c < 3; ++c)
-        if (M.dM[p][c][k] != 0) moved.insert({M.ci[k], M.cj[k]});
+    for (int c = 0; c < 6; ++c)
+      if (M.m[0][c][k] != M.m[1][c][k]) moved.insert({M.ci[k], M.cj[k]});
   return moved;
 }
 }  // namespace
