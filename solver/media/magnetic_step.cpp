@@ -6,6 +6,7 @@
 #include <omp.h>
 
 #include <algorithm>
+#include <cassert>
 #include <cmath>
 
 #include "io/scene/medium_lookup.h"
@@ -228,6 +229,7 @@ void Simulation<R>::scatter_run_ends(int j, const double* scratch, const double*
   // phase-shifted change of both copies, so the partner's cells of row j must have stepped.
   // A cell's left neighbour is in its own row (wrapped across a periodic or Bloch seam), so
   // every change read here is in the row's scratch, where magnetic_row(j) left it.
+  assert(!partner_ == !partner_scratch && "a Bloch pair's seam needs the partner's changes");
   const MagneticCells& M = mag_;
   const int r0 = M.row_runs[j], r1 = M.row_runs[j + 1];
   if (r0 == r1) return;
@@ -243,9 +245,10 @@ void Simulation<R>::scatter_run_ends(int j, const double* scratch, const double*
     const double left = other && run.i0 == 0 && lk < none ? seam_value(dx(row, lk), dx(other, lk), true) : dx(row, lk);
     hx[run.i0] -= static_cast<R>(c0 * 0.5 * (dx(row, first_k) + left));
     if (M.right[last] < none) continue;  // the next magnetic cell writes the shared node
-    if (run.i1 < g_.nx) hx[run.i1] -= static_cast<R>(c0 * 0.5 * (dx(row, last) + 0.0));
-    else if (walls_.periodic_x) hx[0] -= static_cast<R>(c0 * 0.5 * (dx(row, last) + 0.0));
-    else if (other) hx[0] -= static_cast<R>(c0 * 0.5 * (seam_value(dx(row, last), dx(other, last), true) + 0.0));
+    // the node's other side has no magnetic cell: only this run's last cell's share
+    if (run.i1 < g_.nx) hx[run.i1] -= static_cast<R>(c0 * 0.5 * dx(row, last));
+    else if (walls_.periodic_x) hx[0] -= static_cast<R>(c0 * 0.5 * dx(row, last));
+    else if (other) hx[0] -= static_cast<R>(c0 * 0.5 * seam_value(dx(row, last), dx(other, last), true));
   }
 }
 
