@@ -150,14 +150,18 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
   std::vector<double> cells{50e-6, 20e-6, 10e-6, 5e-6};
   if (const char* only = std::getenv("TERAYEE_ABSORBER_CELL")) cells = {std::atof(only) * 1e-6};
   // and TERAYEE_ABSORBER_PICK (e.g. "a-cut plate pulse 250") only the cases that have each of
-  // its words among the words of their name (absorber_cases.h, case_name)
+  // its words among the words of their name (absorber_cases.h, case_name) and none of its
+  // words written with a leading '-' ("c-cut plate -T": the unbiased c-cut plates only)
   std::istringstream pick(std::getenv("TERAYEE_ABSORBER_PICK") ? std::getenv("TERAYEE_ABSORBER_PICK") : "");
   const std::vector<std::string> picked{std::istream_iterator<std::string>(pick), {}};
   auto wanted = [&](const AbsorberCase& c) {
     std::istringstream name(test::case_name(c));
     const std::vector<std::string> words{std::istream_iterator<std::string>(name), {}};
-    for (const std::string& w : picked)
-      if (std::find(words.begin(), words.end(), w) == words.end()) return false;
+    for (const std::string& w : picked) {
+      const bool excluded = w.size() > 1 && w[0] == '-';
+      const bool has = std::find(words.begin(), words.end(), excluded ? w.substr(1) : w) != words.end();
+      if (has == excluded) return false;
+    }
     return true;
   };
   // hyperbolic (a-cut), negative-mu (c-cut), gyrotropic (c-cut, 0.2 T along z); the turned
