@@ -12,6 +12,8 @@
 #   tools/absorber-check.sh 20 10      only these cells (um)
 # TERAYEE_ABSORBER_PICK keeps the cases whose names hold each of its words and none of its
 # words written with a leading "-" ("c-cut plate -T": the unbiased c-cut plates).
+# Run each case as its own process when writing to a file: the MESSAGE lines come out only
+# when the process ends (stdout to a file is block-buffered).
 # One case, traced (each region's largest tilt over time and where, the envelope along x):
 #   TERAYEE_ABSORBER_TRACE=1 TERAYEE_ABSORBER_CELL=50 TERAYEE_ABSORBER_PICK="a-cut plate cw 275" \
 #     build/terayee_tests -tc="absorbers\, long*" --no-skip -s

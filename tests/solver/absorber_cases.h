@@ -14,6 +14,8 @@
 
 #include <algorithm>
 #include <array>
+#include <iterator>
+#include <sstream>
 #include <string>
 #include <vector>
 
@@ -63,6 +65,20 @@ inline std::string case_name(const AbsorberCase& c) {
   const std::string crystal = !c.c_cut ? "a-cut" : c.bias == 0 ? "c-cut" : fmt::format("c-cut {:g} T", c.bias);
   return fmt::format("{} {}{} {} {:g}", crystal, c.plate ? "plate" : "half-space", c.turned ? "-turned" : "",
                      c.cw ? "cw" : "pulse", c.frequency / 1e9);
+}
+
+/// Whether a case named `name` is among those `pick` asks for (TERAYEE_ABSORBER_PICK): each
+/// word of pick must be a word of the name, and a word written with a leading '-' must not be
+/// ("c-cut plate -T": the unbiased c-cut plates only). An empty pick takes every case.
+inline bool picked(const std::string& name, const std::string& pick) {
+  std::istringstream in(name), asked(pick);
+  const std::vector<std::string> words{std::istream_iterator<std::string>(in), {}};
+  for (std::string w; asked >> w;) {
+    const bool excluded = w.size() > 1 && w[0] == '-';
+    const bool has = std::find(words.begin(), words.end(), excluded ? w.substr(1) : w) != words.end();
+    if (has == excluded) return false;
+  }
+  return true;
 }
 
 inline Scene absorber_scene(const AbsorberCase& c);
