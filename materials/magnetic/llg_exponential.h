@@ -39,116 +39,135 @@
 
 namespace ty {
 
-/// sqrt(1 - q) for 0 <= q <= 0.5 to round-off: three terms of its series, then two Newton
-/// steps (the error goes 5q^4/128 -> 3e-12 -> 1e-23 at q = 0.09). Written out because a
-/// call to std::sqrt keeps GCC from vectorizing the loop (errno).
+/// sqrt(1 - q) for 0 <= q <= 0.03 (|x_s| <= 0.17, past the chart limit of 0.12) to
+/// round-off: ten terms of its binomial series, c_n = c_{n-1} (2n - 3) / (2n) (the first left
+/// out, c_10 q^10, is below 6e-18 there; measured against a long-double root: within 6.3e-17).
+/// Beyond 0.03 it stays finite and falls short of the root; only lanes tilted past the chart
+/// limit reach it, and cell_step.h hands those to the plain midpoint rule. A polynomial,
+/// because a root or a division costs this loop several multiply-adds (docs/performance.md).
 inline double root_one_minus(double q) {
-  const double w = 1.0 - q;
-  double c = 1.0 - q * (0.5 + q * (0.125 + q * 0.0625));
-  c = 0.5 * (c + w / c);
-  return 0.5 * (c + w / c);
+  return 1.0 + q * (-0.5 + q * (-0.125 + q * (-0.0625 + q * (-0.0390625 + q * (-0.02734375 +
+             q * (-0.0205078125 + q * (-0.01611328125 + q * (-0.013092041015625 + q * -0.0109100341796875))))))));
 }
 
-/// The eight lanes of one block (the caller fills unused lanes with copies of a used one):
-/// m0[6] the state at the step's start, ml[6] the small-signal step's result (its
-/// predictor), b0[3], b1[3] the wave field at the step's ends, r the cell's own reaction
-/// weights. Out: mn[6], dM[3] and per lane the largest squared tilt |x_s|^2 of the result
-/// (q) and whether the passes converged (ok: 1 or 0). tol: each lane's error allowed, relative
-/// to its change over the step (tests ask for less); passes, if given: how many the block took.
-inline void exponential_lanes(const LinearStep& L, const LlgCoefficients& p, const double* r,
-                              const double (*m0)[8], const double (*ml)[8], const double (*b0)[8],
-                              const double (*b1)[8], double (*mn)[8], double (*dM)[8], double* q, double* ok,
-                              double tol = 1e-10, int* passes = nullptr) {
-  constexpr int W = 8, kPasses = 8;
+/// One block of W lanes for N sublattices and NA anisotropy axes (compile-time counts, so
+/// that a one-sublattice or one-axis crystal does no arithmetic on zeros); see
+/// exponential_lanes for the arguments. What does not change from pass to pass is taken
+/// out of the passes: the wave field at the midpoint, the part of the field that does not
+/// depend on m, and Ct b' of the linearised equations.
+template <int W, int N, int NA>
+inline void exponential_kernel(const LinearStep& L, const LlgCoefficients& p, const double* r,
+                               const double (*m0)[W], const double (*ml)[W], const double (*b0)[W],
+                               const double (*b1)[W], double (*mn)[W], double (*dM)[W], double* q, double* ok,
+                               double tol, int* passes) {
+  constexpr int T = 2 * N, kPasses = 8;
   constexpr double kFloor = 1e-15;  // above the round-off of N (|m| = 1)
-  double X0[4][W], X1[4][W], XL[4][W], B[3][W], KX0[3][W], M0[6][W];
+  double X0[T][W], X1[T][W], XL[T][W], CB[T][W], B0[3][W];
   double done[W];  // 1 once the lane has converged (a double, so that the loop vectorizes)
   double last[W];  // the lane's change at its previous pass
   for (int l = 0; l < W; ++l) done[l] = 0.0, last[l] = 0.0;
   if (passes) *passes = kPasses;
   // local copies of the coefficients, so that the loops over lanes vectorize
-  double e1[2][3], e2[2][3], g[2][3], mu[2], A[4][4], ct[4][3], hp[4][4];
-  for (int s = 0; s < 2; ++s) {
+  double e1[N][3], e2[N][3], g[N][3], mu[N], A[T][T], ct[T][3], hp[T][T];
+  for (int s = 0; s < N; ++s) {
     for (int c = 0; c < 3; ++c) e1[s][c] = L.e1[s][c], e2[s][c] = L.e2[s][c], g[s][c] = L.g[s][c];
     mu[s] = L.mu[s];
   }
-  for (int i = 0; i < 4; ++i)
-    for (int j = 0; j < 4; ++j) A[i][j] = L.a[i][j], hp[i][j] = L.hphi1[i][j];
-  for (int i = 0; i < 4; ++i)
+  for (int i = 0; i < T; ++i)
+    for (int j = 0; j < T; ++j) A[i][j] = L.a[i][j], hp[i][j] = L.hphi1[i][j];
+  for (int i = 0; i < T; ++i)
     for (int c = 0; c < 3; ++c) ct[i][c] = L.ct[i][c];
-  const int two = p.n == 2;
-  const double lam0 = two ? p.lambda * p.mu[1] : 0.0, lam1 = two ? p.lambda * p.mu[0] : 0.0;
-  const double fd0 = two ? p.mu_d / p.mu[0] : 0.0, fd1 = two ? p.mu_d / p.mu[1] : 0.0;
-  const double k0 = p.gp[0], k1 = two ? p.gp[1] : 0.0, al0 = p.alpha[0], al1 = two ? p.alpha[1] : 0.0;
-  double ax[4][3] = {}, ba[4] = {}, bias[3], self[3], mg[3], rr[3], bd[3];
-  for (int k = 0; k < p.na; ++k) {
-    for (int c = 0; c < 3; ++c) ax[k][c] = p.axis[k][c];
-    ba[k] = p.ba[k];
+  const double lam0 = N == 2 ? p.lambda * p.mu[1] : 0.0, lam1 = N == 2 ? p.lambda * p.mu[0] : 0.0;
+  const double fd0 = N == 2 ? p.mu_d / p.mu[0] : 0.0, fd1 = N == 2 ? p.mu_d / p.mu[1] : 0.0;
+  double k[N], al[N];
+  for (int s = 0; s < N; ++s) k[s] = p.gp[s], al[s] = p.alpha[s];
+  double ax[NA + 1][3] = {}, ba[NA + 1] = {}, rr[3], rs[3], fixed[3], bd[3];
+  for (int a = 0; a < NA; ++a) {
+    for (int c = 0; c < 3; ++c) ax[a][c] = p.axis[a][c];
+    ba[a] = p.ba[a];
   }
-  for (int c = 0; c < 3; ++c) bias[c] = p.bias[c], self[c] = p.self[c], mg[c] = p.m_ground[c], rr[c] = r[c], bd[c] = p.bd[c];
+  // the cell's own reaction and self field, -r (mu0 M - mu0 M(0)) - self (mu0 M - mu0 M_ground):
+  // the part that depends on m is -(r + self) mu0 M
+  for (int c = 0; c < 3; ++c) {
+    rr[c] = r[c], rs[c] = r[c] + p.self[c], bd[c] = p.bd[c];
+    fixed[c] = p.bias[c] + p.self[c] * p.m_ground[c];
+  }
 #pragma omp simd
   for (int l = 0; l < W; ++l) {
-    for (int s = 0; s < 2; ++s) {
+    for (int s = 0; s < N; ++s) {
       X0[2 * s][l] = e1[s][0] * m0[3 * s][l] + e1[s][1] * m0[3 * s + 1][l] + e1[s][2] * m0[3 * s + 2][l];
       X0[2 * s + 1][l] = e2[s][0] * m0[3 * s][l] + e2[s][1] * m0[3 * s + 1][l] + e2[s][2] * m0[3 * s + 2][l];
       XL[2 * s][l] = e1[s][0] * ml[3 * s][l] + e1[s][1] * ml[3 * s + 1][l] + e1[s][2] * ml[3 * s + 2][l];
       XL[2 * s + 1][l] = e2[s][0] * ml[3 * s][l] + e2[s][1] * ml[3 * s + 1][l] + e2[s][2] * ml[3 * s + 2][l];
     }
-    for (int i = 0; i < 4; ++i) X1[i][l] = XL[i][l];
-    for (int c = 0; c < 6; ++c) M0[c][l] = m0[c][l];
+    for (int i = 0; i < T; ++i) X1[i][l] = XL[i][l];
+    double bl[3];
     for (int c = 0; c < 3; ++c) {
-      B[c][l] = 0.5 * (b0[c][l] + b1[c][l]);
-      KX0[c][l] = mu[0] * (X0[0][l] * e1[0][c] + X0[1][l] * e2[0][c]) + mu[1] * (X0[2][l] * e1[1][c] + X0[3][l] * e2[1][c]);
+      const double B = 0.5 * (b0[c][l] + b1[c][l]);
+      double kx0 = 0, mu_m0 = 0;  // mu0 M(x0) to first order in x0, and exactly
+      for (int s = 0; s < N; ++s) {
+        kx0 += mu[s] * (X0[2 * s][l] * e1[s][c] + X0[2 * s + 1][l] * e2[s][c]);
+        mu_m0 += mu[s] * m0[3 * s + c][l];
+      }
+      bl[c] = B + rr[c] * kx0;                     // the linearised equations' b'
+      B0[c][l] = fixed[c] + B + rr[c] * mu_m0;  // the field less -(r + self) mu0 M(x) and the crystal's own
     }
+    for (int i = 0; i < T; ++i) CB[i][l] = ct[i][0] * bl[0] + ct[i][1] * bl[1] + ct[i][2] * bl[2];
   }
   for (int pass = 0; pass < kPasses; ++pass) {
 #pragma omp simd
     for (int l = 0; l < W; ++l) {
-      double xb[4], m[2][3];
-      for (int i = 0; i < 4; ++i) xb[i] = 0.5 * (X0[i][l] + X1[i][l]);
-      const double r0 = root_one_minus(xb[0] * xb[0] + xb[1] * xb[1]);
-      const double r1 = root_one_minus(xb[2] * xb[2] + xb[3] * xb[3]);
+      double xb[T], m[N][3], b[3];
+      for (int i = 0; i < T; ++i) xb[i] = 0.5 * (X0[i][l] + X1[i][l]);
+      for (int s = 0; s < N; ++s) {
+        const double root = root_one_minus(xb[2 * s] * xb[2 * s] + xb[2 * s + 1] * xb[2 * s + 1]);
+        for (int c = 0; c < 3; ++c) m[s][c] = g[s][c] * root + xb[2 * s] * e1[s][c] + xb[2 * s + 1] * e2[s][c];
+      }
       for (int c = 0; c < 3; ++c) {
-        m[0][c] = g[0][c] * r0 + xb[0] * e1[0][c] + xb[1] * e2[0][c];
-        m[1][c] = g[1][c] * r1 + xb[2] * e1[1][c] + xb[3] * e2[1][c];
+        double mu_m = 0;
+        for (int s = 0; s < N; ++s) mu_m += mu[s] * m[s][c];
+        b[c] = B0[c][l] - rs[c] * mu_m;
       }
-      double b[3];
+      // each sublattice's field: b, exchange with the other, anisotropy, Dzyaloshinskii-Moriya
+      double f[N][3];
       for (int c = 0; c < 3; ++c) {
-        const double d = mu[0] * (m[0][c] - M0[c][l]) + mu[1] * (m[1][c] - M0[3 + c][l]);
-        b[c] = bias[c] + B[c][l] - rr[c] * d - self[c] * (mu[0] * m[0][c] + mu[1] * m[1][c] - mg[c]);
+        f[0][c] = b[c] - (N == 2 ? lam0 * m[N - 1][c] : 0.0);
+        if constexpr (N == 2) f[1][c] = b[c] - lam1 * m[0][c];
       }
-      const double x0 = m[0][0], x1 = m[0][1], x2 = m[0][2], y0 = m[1][0], y1 = m[1][1], y2 = m[1][2];
-      double f0 = b[0] - lam0 * y0, f1 = b[1] - lam0 * y1, f2 = b[2] - lam0 * y2;
-      double g0 = b[0] - lam1 * x0, g1 = b[1] - lam1 * x1, g2 = b[2] - lam1 * x2;
-      for (int k = 0; k < 4; ++k) {
-        const double d1 = ba[k] * (x0 * ax[k][0] + x1 * ax[k][1] + x2 * ax[k][2]);
-        const double d2 = ba[k] * (y0 * ax[k][0] + y1 * ax[k][1] + y2 * ax[k][2]);
-        f0 += d1 * ax[k][0], f1 += d1 * ax[k][1], f2 += d1 * ax[k][2];
-        g0 += d2 * ax[k][0], g1 += d2 * ax[k][1], g2 += d2 * ax[k][2];
+      for (int a = 0; a < NA; ++a)
+        for (int s = 0; s < N; ++s) {
+          const double d = ba[a] * (m[s][0] * ax[a][0] + m[s][1] * ax[a][1] + m[s][2] * ax[a][2]);
+          for (int c = 0; c < 3; ++c) f[s][c] += d * ax[a][c];
+        }
+      if constexpr (N == 2) {
+        const double* x = m[0];
+        const double* y = m[1];
+        f[0][0] += fd0 * (bd[1] * y[2] - bd[2] * y[1]), f[0][1] += fd0 * (bd[2] * y[0] - bd[0] * y[2]),
+            f[0][2] += fd0 * (bd[0] * y[1] - bd[1] * y[0]);
+        f[1][0] += fd1 * (x[1] * bd[2] - x[2] * bd[1]), f[1][1] += fd1 * (x[2] * bd[0] - x[0] * bd[2]),
+            f[1][2] += fd1 * (x[0] * bd[1] - x[1] * bd[0]);
       }
-      f0 += fd0 * (bd[1] * y2 - bd[2] * y1), f1 += fd0 * (bd[2] * y0 - bd[0] * y2), f2 += fd0 * (bd[0] * y1 - bd[1] * y0);
-      g0 += fd1 * (x1 * bd[2] - x2 * bd[1]), g1 += fd1 * (x2 * bd[0] - x0 * bd[2]), g2 += fd1 * (x0 * bd[1] - x1 * bd[0]);
-      // w = gamma' (B + alpha m x B), dm/dt = w x m
-      const double w0 = k0 * (f0 + al0 * (x1 * f2 - x2 * f1)), w1 = k0 * (f1 + al0 * (x2 * f0 - x0 * f2)),
-                   w2 = k0 * (f2 + al0 * (x0 * f1 - x1 * f0));
-      const double v0 = k1 * (g0 + al1 * (y1 * g2 - y2 * g1)), v1 = k1 * (g1 + al1 * (y2 * g0 - y0 * g2)),
-                   v2 = k1 * (g2 + al1 * (y0 * g1 - y1 * g0));
-      const double d1[3] = {w1 * x2 - w2 * x1, w2 * x0 - w0 * x2, w0 * x1 - w1 * x0};
-      const double d2[3] = {v1 * y2 - v2 * y1, v2 * y0 - v0 * y2, v0 * y1 - v1 * y0};
+      // w = gamma' (B + alpha m x B), dm/dt = w x m, projected on the tangent basis
+      double nl_[T];
+      for (int s = 0; s < N; ++s) {
+        const double* x = m[s];
+        const double* F = f[s];
+        const double w0 = k[s] * (F[0] + al[s] * (x[1] * F[2] - x[2] * F[1]));
+        const double w1 = k[s] * (F[1] + al[s] * (x[2] * F[0] - x[0] * F[2]));
+        const double w2 = k[s] * (F[2] + al[s] * (x[0] * F[1] - x[1] * F[0]));
+        const double d[3] = {w1 * x[2] - w2 * x[1], w2 * x[0] - w0 * x[2], w0 * x[1] - w1 * x[0]};
+        nl_[2 * s] = e1[s][0] * d[0] + e1[s][1] * d[1] + e1[s][2] * d[2];
+        nl_[2 * s + 1] = e2[s][0] * d[0] + e2[s][1] * d[1] + e2[s][2] * d[2];
+      }
       // N = F - A x_bar - Ct (b_wave + R K x0)
-      const double bl[3] = {B[0][l] + rr[0] * KX0[0][l], B[1][l] + rr[1] * KX0[1][l], B[2][l] + rr[2] * KX0[2][l]};
-      double nl_[4] = {e1[0][0] * d1[0] + e1[0][1] * d1[1] + e1[0][2] * d1[2],
-                       e2[0][0] * d1[0] + e2[0][1] * d1[1] + e2[0][2] * d1[2],
-                       e1[1][0] * d2[0] + e1[1][1] * d2[1] + e1[1][2] * d2[2],
-                       e2[1][0] * d2[0] + e2[1][1] * d2[1] + e2[1][2] * d2[2]};
-      for (int i = 0; i < 4; ++i) {
-        for (int j = 0; j < 4; ++j) nl_[i] -= A[i][j] * xb[j];
-        for (int c = 0; c < 3; ++c) nl_[i] -= ct[i][c] * bl[c];
+      for (int i = 0; i < T; ++i) {
+        nl_[i] -= CB[i][l];
+        for (int j = 0; j < T; ++j) nl_[i] -= A[i][j] * xb[j];
       }
-      double change = 0, size = 0, nx[4];
-      for (int i = 0; i < 4; ++i) {
+      double change = 0, size = 0, nx[T];
+      for (int i = 0; i < T; ++i) {
         double v = XL[i][l];
-        for (int j = 0; j < 4; ++j) v += hp[i][j] * nl_[j];
+        for (int j = 0; j < T; ++j) v += hp[i][j] * nl_[j];
         nx[i] = v;
         change = std::max(change, std::abs(v - X1[i][l]));
         size = std::max(size, std::abs(v - X0[i][l]));
@@ -156,12 +175,16 @@ inline void exponential_lanes(const LinearStep& L, const LlgCoefficients& p, con
       // the error of this pass's x: within rho/(1 - rho) of its change, rho the contraction
       // measured by the last two changes (the stopping rule of simplified Newton iterations:
       // Hairer & Wanner, Solving ODEs II, 2nd ed., sec. IV.8, eq. 8.10-8.11); the change
-      // itself until a second pass has measured rho, or where rho >= 1/2
-      const double rho = pass > 0 && last[l] > 0 ? change / last[l] : 1.0;
-      const double error = rho < 0.5 ? rho / (1 - rho) * change : change;
+      // itself until a second pass has measured rho, or where rho >= 1/2. With rho =
+      // change / last, rho / (1 - rho) change <= allowed reads change^2 <= allowed (last -
+      // change), which needs no division.
+      const double allowed = tol * size + kFloor;
+      const double contracts = pass > 0 && change < 0.5 * last[l] ? 1.0 : 0.0;
+      const double lhs = contracts > 0 ? change * change : change;
+      const double rhs = contracts > 0 ? allowed * (last[l] - change) : allowed;
       const double was = done[l];
-      for (int i = 0; i < 4; ++i) X1[i][l] = was > 0 ? X1[i][l] : nx[i];
-      done[l] = was > 0 || error <= tol * size + kFloor ? 1.0 : 0.0;
+      for (int i = 0; i < T; ++i) X1[i][l] = was > 0 ? X1[i][l] : nx[i];
+      done[l] = was > 0 || lhs <= rhs ? 1.0 : 0.0;
       last[l] = change;
     }
     double all = 1;
@@ -174,15 +197,51 @@ inline void exponential_lanes(const LinearStep& L, const LlgCoefficients& p, con
 #pragma omp simd
   for (int l = 0; l < W; ++l) {
     ok[l] = done[l];
-    const double q0 = X1[0][l] * X1[0][l] + X1[1][l] * X1[1][l], q1 = X1[2][l] * X1[2][l] + X1[3][l] * X1[3][l];
-    q[l] = std::max(q0, q1);
-    const double c0 = root_one_minus(q0), c1 = root_one_minus(q1);
-    for (int c = 0; c < 3; ++c) {  // g, e1, e2 of sublattice 2 are zero for one sublattice
-      mn[c][l] = g[0][c] * c0 + X1[0][l] * e1[0][c] + X1[1][l] * e2[0][c];
-      mn[3 + c][l] = g[1][c] * c1 + X1[2][l] * e1[1][c] + X1[3][l] * e2[1][c];
-      dM[c][l] = mu[0] * (mn[c][l] - M0[c][l]) + mu[1] * (mn[3 + c][l] - M0[3 + c][l]);
+    double qs[N];
+    for (int s = 0; s < N; ++s) qs[s] = X1[2 * s][l] * X1[2 * s][l] + X1[2 * s + 1][l] * X1[2 * s + 1][l];
+    q[l] = N == 2 ? std::max(qs[0], qs[N - 1]) : qs[0];
+    for (int c = 0; c < 3; ++c) dM[c][l] = 0.0;
+    for (int s = 0; s < N; ++s) {
+      const double root = root_one_minus(qs[s]);
+      for (int c = 0; c < 3; ++c) {
+        mn[3 * s + c][l] = g[s][c] * root + X1[2 * s][l] * e1[s][c] + X1[2 * s + 1][l] * e2[s][c];
+        dM[c][l] += mu[s] * (mn[3 * s + c][l] - m0[3 * s + c][l]);
+      }
+    }
+    for (int c = 3 * N; c < 6; ++c) mn[c][l] = 0.0;  // no second sublattice
+  }
+}
+
+/// The lanes of one block (the caller fills unused lanes with copies of a used one):
+/// m0[6] the state at the step's start, ml[6] the small-signal step's result (its
+/// predictor), b0[3], b1[3] the wave field at the step's ends, r the cell's own reaction
+/// weights. Out: mn[6], dM[3] and per lane the largest squared tilt |x_s|^2 of the result
+/// (q) and whether the passes converged (ok: 1 or 0). tol: each lane's error allowed, relative
+/// to its change over the step (tests ask for less); passes, if given: how many the block took.
+template <int W>
+inline void exponential_lanes(const LinearStep& L, const LlgCoefficients& p, const double* r,
+                              const double (*m0)[W], const double (*ml)[W], const double (*b0)[W],
+                              const double (*b1)[W], double (*mn)[W], double (*dM)[W], double* q, double* ok,
+                              double tol = 1e-10, int* passes = nullptr) {
+#define TY_EXPONENTIAL(n, na) \
+  return exponential_kernel<W, n, na>(L, p, r, m0, ml, b0, b1, mn, dM, q, ok, tol, passes)
+  if (p.n == 2) {
+    switch (p.na) {
+      case 0: TY_EXPONENTIAL(2, 0);
+      case 1: TY_EXPONENTIAL(2, 1);
+      case 2: TY_EXPONENTIAL(2, 2);
+      case 3: TY_EXPONENTIAL(2, 3);
+      default: TY_EXPONENTIAL(2, 4);
     }
   }
+  switch (p.na) {
+    case 0: TY_EXPONENTIAL(1, 0);
+    case 1: TY_EXPONENTIAL(1, 1);
+    case 2: TY_EXPONENTIAL(1, 2);
+    case 3: TY_EXPONENTIAL(1, 3);
+    default: TY_EXPONENTIAL(1, 4);
+  }
+#undef TY_EXPONENTIAL
 }
 
 }  // namespace ty

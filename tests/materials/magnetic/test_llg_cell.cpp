@@ -100,7 +100,8 @@ TEST_CASE("bare integrator rings at the linear-response lines within 1e-4 at the
           if (a > strongest) strongest = a, best = comp;
         }
         const double measured = peak_near(x[best], kDt, f, 0.001);
-        MESSAGE(std::string(c.name) << (path == 0 ? ", small-signal step" : path == 1 ? ", midpoint rule" : ", exponential midpoint") << ": line " << f / 1e9
+        const std::string integrator = path == 0 ? "small-signal step" : path == 1 ? "midpoint rule" : "exponential midpoint";
+        MESSAGE(std::string(c.name) << ", " << integrator << ": line " << f / 1e9
                                     << " GHz, integrator " << measured / 1e9 << " GHz (component " << best
                                     << "), error " << measured / f - 1);
         // the exponential midpoint is exact for the linearised equations, as the small-signal step
