@@ -266,14 +266,14 @@ nlohmann::json make_summary(const Scene& scene, Simulation<R>& sim, Log& log, lo
     const double tilted = cell_steps > 0 ? sim.midpoint_cell_steps() / cell_steps : 0.0;
     const double tilt_in = largest_tilt(sim, true), tilt_out = largest_tilt(sim, false);
     s["magnetic-cells"] = {{"count", sim.magnets().count()},
-                           {"midpoint-fraction", tilted},
+                           {"large-tilt-fraction", tilted},
                            {"largest-tilt-rad", tilt_out},
                            {"largest-tilt-in-absorber-rad", tilt_in}};
     if (tilted > 0.01)
       log.info(
-          fmt::format("{:.1f}% of the magnetic cell-steps were tilted past {:g} rad and took the midpoint rule, "
-                      "several times slower than the small-signal step; a linear study can use a smaller "
-                      "amplitude (the response scales with it)",
+          fmt::format("{:.1f}% of the magnetic cell-steps were tilted past {:g} rad and took the large-tilt path "
+                      "(the exponential midpoint, past 7 degrees the midpoint rule), several times slower than the "
+                      "small-signal step; a linear study can use a smaller amplitude (the response scales with it)",
                       100 * tilted, CellStep::kTilt));
   }
   return s;
