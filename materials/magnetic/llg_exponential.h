@@ -50,11 +50,120 @@ inline double root_one_minus(double q) {
              q * (-0.0205078125 + q * (-0.01611328125 + q * (-0.013092041015625 + q * -0.0109100341796875))))))));
 }
 
-/// One block of W lanes for N sublattices and NA anisotropy axes (compile-time counts, so
-/// that a one-sublattice or one-axis crystal does no arithmetic on zeros); see
-/// exponential_lanes for the arguments. What does not change from pass to pass is taken
-/// out of the passes: the wave field at the midpoint, the part of the field that does not
-/// depend on m, and Ct b' of the linearised equations.
+/// The coefficients of one medium's exponential step as plain local arrays (a local object,
+/// so that the loops over lanes that hold one vectorize), for N sublattices and NA
+/// anisotropy axes (compile-time counts, so that a one-sublattice or one-axis crystal does
+/// no arithmetic on zeros), and the arithmetic of one lane.
+template <int N, int NA>
+struct ExponentialLocal {
+  static constexpr int T = 2 * N;
+  double e1[N][3], e2[N][3], g[N][3], mu[N], A[T][T], ct[T][3], hp[T][T];
+  double lam[2], fd[2], k[N], al[N], ax[NA + 1][3] = {}, ba[NA + 1] = {}, rr[3], rs[3], fixed[3], bd[3];
+
+  ExponentialLocal(const LinearStep& L, const LlgCoefficients& p, const double* r) {
+    for (int s = 0; s < N; ++s) {
+      for (int c = 0; c < 3; ++c) e1[s][c] = L.e1[s][c], e2[s][c] = L.e2[s][c], g[s][c] = L.g[s][c];
+      mu[s] = L.mu[s], k[s] = p.gp[s], al[s] = p.alpha[s];
+    }
+    for (int i = 0; i < T; ++i) {
+      for (int j = 0; j < T; ++j) A[i][j] = L.a[i][j], hp[i][j] = L.hphi1[i][j];
+      for (int c = 0; c < 3; ++c) ct[i][c] = L.ct[i][c];
+    }
+    lam[0] = N == 2 ? p.lambda * p.mu[1] : 0.0, lam[1] = N == 2 ? p.lambda * p.mu[0] : 0.0;
+    fd[0] = N == 2 ? p.mu_d / p.mu[0] : 0.0, fd[1] = N == 2 ? p.mu_d / p.mu[1] : 0.0;
+    for (int a = 0; a < NA; ++a) {
+      for (int c = 0; c < 3; ++c) ax[a][c] = p.axis[a][c];
+      ba[a] = p.ba[a];
+    }
+    // the cell's own reaction and self field, -r (mu0 M - mu0 M(0)) - self (mu0 M - mu0
+    // M_ground): the part that depends on m is -(r + self) mu0 M
+    for (int c = 0; c < 3; ++c) {
+      rr[c] = r[c], rs[c] = r[c] + p.self[c], bd[c] = p.bd[c];
+      fixed[c] = p.bias[c] + p.self[c] * p.m_ground[c];
+    }
+  }
+
+  /// The tangent coordinates x[T] of the unit vectors m[6].
+  [[gnu::always_inline]] void coordinates(const double* m, double* x) const {
+    for (int s = 0; s < N; ++s) {
+      x[2 * s] = e1[s][0] * m[3 * s] + e1[s][1] * m[3 * s + 1] + e1[s][2] * m[3 * s + 2];
+      x[2 * s + 1] = e2[s][0] * m[3 * s] + e2[s][1] * m[3 * s + 1] + e2[s][2] * m[3 * s + 2];
+    }
+  }
+
+  /// The unit vectors m[N][3] of the tangent coordinates x[T]: g sqrt(1 - |x|^2) + x1 e1 + x2 e2.
+  [[gnu::always_inline]] void unit_vectors(const double* x, double (*m)[3]) const {
+    for (int s = 0; s < N; ++s) {
+      const double root = root_one_minus(x[2 * s] * x[2 * s] + x[2 * s + 1] * x[2 * s + 1]);
+      for (int c = 0; c < 3; ++c) m[s][c] = g[s][c] * root + x[2 * s] * e1[s][c] + x[2 * s + 1] * e2[s][c];
+    }
+  }
+
+  /// What stays the same over the passes, from the step's start m0[6], x0[T] and the wave
+  /// field b0[3], b1[3] at its ends: the field less its m-dependent parts (fixed[3]) and
+  /// Ct b' of the linearised equations (cb[T]).
+  [[gnu::always_inline]] void constants(const double* m0, const double* x0, const double* b0, const double* b1, double* field,
+                 double* cb) const {
+    double bl[3];
+    for (int c = 0; c < 3; ++c) {
+      const double B = 0.5 * (b0[c] + b1[c]);
+      double kx0 = 0, mu_m0 = 0;  // mu0 M(x0) to first order in x0, and exactly
+      for (int s = 0; s < N; ++s) {
+        kx0 += mu[s] * (x0[2 * s] * e1[s][c] + x0[2 * s + 1] * e2[s][c]);
+        mu_m0 += mu[s] * m0[3 * s + c];
+      }
+      bl[c] = B + rr[c] * kx0;                  // the linearised equations' b'
+      field[c] = fixed[c] + B + rr[c] * mu_m0;  // less -(r + self) mu0 M(x) and the crystal's own
+    }
+    for (int i = 0; i < T; ++i) cb[i] = ct[i][0] * bl[0] + ct[i][1] * bl[1] + ct[i][2] * bl[2];
+  }
+
+  /// The nonlinear remainder N(x_bar) = F(x_bar) - A x_bar - Ct b' (nl[T]), F the full
+  /// equations' rate in tangent coordinates.
+  [[gnu::always_inline]] void remainder(const double* xb, const double* field, const double* cb, double* nl) const {
+    double m[N][3], f[N][3];
+    unit_vectors(xb, m);
+    // each sublattice's field: the fixed part, -(r + self) mu0 M, exchange with the other,
+    // anisotropy, Dzyaloshinskii-Moriya
+    for (int c = 0; c < 3; ++c) {
+      double mu_m = 0;
+      for (int s = 0; s < N; ++s) mu_m += mu[s] * m[s][c];
+      const double b = field[c] - rs[c] * mu_m;
+      f[0][c] = b - (N == 2 ? lam[0] * m[N - 1][c] : 0.0);
+      if constexpr (N == 2) f[1][c] = b - lam[1] * m[0][c];
+    }
+    for (int a = 0; a < NA; ++a)
+      for (int s = 0; s < N; ++s) {
+        const double d = ba[a] * (m[s][0] * ax[a][0] + m[s][1] * ax[a][1] + m[s][2] * ax[a][2]);
+        for (int c = 0; c < 3; ++c) f[s][c] += d * ax[a][c];
+      }
+    if constexpr (N == 2) {
+      const double *x = m[0], *y = m[1];
+      f[0][0] += fd[0] * (bd[1] * y[2] - bd[2] * y[1]), f[0][1] += fd[0] * (bd[2] * y[0] - bd[0] * y[2]),
+          f[0][2] += fd[0] * (bd[0] * y[1] - bd[1] * y[0]);
+      f[1][0] += fd[1] * (x[1] * bd[2] - x[2] * bd[1]), f[1][1] += fd[1] * (x[2] * bd[0] - x[0] * bd[2]),
+          f[1][2] += fd[1] * (x[0] * bd[1] - x[1] * bd[0]);
+    }
+    // w = gamma' (B + alpha m x B), dm/dt = w x m, projected on the tangent basis
+    for (int s = 0; s < N; ++s) {
+      const double *x = m[s], *F = f[s];
+      const double w0 = k[s] * (F[0] + al[s] * (x[1] * F[2] - x[2] * F[1]));
+      const double w1 = k[s] * (F[1] + al[s] * (x[2] * F[0] - x[0] * F[2]));
+      const double w2 = k[s] * (F[2] + al[s] * (x[0] * F[1] - x[1] * F[0]));
+      const double d[3] = {w1 * x[2] - w2 * x[1], w2 * x[0] - w0 * x[2], w0 * x[1] - w1 * x[0]};
+      nl[2 * s] = e1[s][0] * d[0] + e1[s][1] * d[1] + e1[s][2] * d[2];
+      nl[2 * s + 1] = e2[s][0] * d[0] + e2[s][1] * d[1] + e2[s][2] * d[2];
+    }
+    for (int i = 0; i < T; ++i) {
+      nl[i] -= cb[i];
+      for (int j = 0; j < T; ++j) nl[i] -= A[i][j] * xb[j];
+    }
+  }
+};
+
+/// One block of W lanes (see exponential_lanes for the arguments), for N sublattices and NA
+/// axes. What does not change from pass to pass is taken out of the passes: the wave field
+/// at the midpoint, the part of the field that does not depend on m, and Ct b'.
 template <int W, int N, int NA>
 inline void exponential_kernel(const LinearStep& L, const LlgCoefficients& p, const double* r,
                                const double (*m0)[W], const double (*ml)[W], const double (*b0)[W],
@@ -62,113 +171,36 @@ inline void exponential_kernel(const LinearStep& L, const LlgCoefficients& p, co
                                double tol, int* passes) {
   constexpr int T = 2 * N, kPasses = 8;
   constexpr double kFloor = 1e-15;  // above the round-off of N (|m| = 1)
+  const ExponentialLocal<N, NA> E(L, p, r);
   double X0[T][W], X1[T][W], XL[T][W], CB[T][W], B0[3][W];
   double done[W];  // 1 once the lane has converged (a double, so that the loop vectorizes)
   double last[W];  // the lane's change at its previous pass
   for (int l = 0; l < W; ++l) done[l] = 0.0, last[l] = 0.0;
   if (passes) *passes = kPasses;
-  // local copies of the coefficients, so that the loops over lanes vectorize
-  double e1[N][3], e2[N][3], g[N][3], mu[N], A[T][T], ct[T][3], hp[T][T];
-  for (int s = 0; s < N; ++s) {
-    for (int c = 0; c < 3; ++c) e1[s][c] = L.e1[s][c], e2[s][c] = L.e2[s][c], g[s][c] = L.g[s][c];
-    mu[s] = L.mu[s];
-  }
-  for (int i = 0; i < T; ++i)
-    for (int j = 0; j < T; ++j) A[i][j] = L.a[i][j], hp[i][j] = L.hphi1[i][j];
-  for (int i = 0; i < T; ++i)
-    for (int c = 0; c < 3; ++c) ct[i][c] = L.ct[i][c];
-  const double lam0 = N == 2 ? p.lambda * p.mu[1] : 0.0, lam1 = N == 2 ? p.lambda * p.mu[0] : 0.0;
-  const double fd0 = N == 2 ? p.mu_d / p.mu[0] : 0.0, fd1 = N == 2 ? p.mu_d / p.mu[1] : 0.0;
-  double k[N], al[N];
-  for (int s = 0; s < N; ++s) k[s] = p.gp[s], al[s] = p.alpha[s];
-  double ax[NA + 1][3] = {}, ba[NA + 1] = {}, rr[3], rs[3], fixed[3], bd[3];
-  for (int a = 0; a < NA; ++a) {
-    for (int c = 0; c < 3; ++c) ax[a][c] = p.axis[a][c];
-    ba[a] = p.ba[a];
-  }
-  // the cell's own reaction and self field, -r (mu0 M - mu0 M(0)) - self (mu0 M - mu0 M_ground):
-  // the part that depends on m is -(r + self) mu0 M
-  for (int c = 0; c < 3; ++c) {
-    rr[c] = r[c], rs[c] = r[c] + p.self[c], bd[c] = p.bd[c];
-    fixed[c] = p.bias[c] + p.self[c] * p.m_ground[c];
-  }
   // (vectorized by GCC on its own, as the passes below)
   for (int l = 0; l < W; ++l) {
-    for (int s = 0; s < N; ++s) {
-      X0[2 * s][l] = e1[s][0] * m0[3 * s][l] + e1[s][1] * m0[3 * s + 1][l] + e1[s][2] * m0[3 * s + 2][l];
-      X0[2 * s + 1][l] = e2[s][0] * m0[3 * s][l] + e2[s][1] * m0[3 * s + 1][l] + e2[s][2] * m0[3 * s + 2][l];
-      XL[2 * s][l] = e1[s][0] * ml[3 * s][l] + e1[s][1] * ml[3 * s + 1][l] + e1[s][2] * ml[3 * s + 2][l];
-      XL[2 * s + 1][l] = e2[s][0] * ml[3 * s][l] + e2[s][1] * ml[3 * s + 1][l] + e2[s][2] * ml[3 * s + 2][l];
-    }
-    for (int i = 0; i < T; ++i) X1[i][l] = XL[i][l];
-    double bl[3];
-    for (int c = 0; c < 3; ++c) {
-      const double B = 0.5 * (b0[c][l] + b1[c][l]);
-      double kx0 = 0, mu_m0 = 0;  // mu0 M(x0) to first order in x0, and exactly
-      for (int s = 0; s < N; ++s) {
-        kx0 += mu[s] * (X0[2 * s][l] * e1[s][c] + X0[2 * s + 1][l] * e2[s][c]);
-        mu_m0 += mu[s] * m0[3 * s + c][l];
-      }
-      bl[c] = B + rr[c] * kx0;                     // the linearised equations' b'
-      B0[c][l] = fixed[c] + B + rr[c] * mu_m0;  // the field less -(r + self) mu0 M(x) and the crystal's own
-    }
-    for (int i = 0; i < T; ++i) CB[i][l] = ct[i][0] * bl[0] + ct[i][1] * bl[1] + ct[i][2] * bl[2];
+    double m[6], x[T], y[T], b[2][3], field[3], cb[T];
+    for (int c = 0; c < 6; ++c) m[c] = m0[c][l];
+    E.coordinates(m, x);
+    for (int c = 0; c < 6; ++c) m[c] = ml[c][l];
+    E.coordinates(m, y);
+    for (int c = 0; c < 6; ++c) m[c] = m0[c][l];
+    for (int c = 0; c < 3; ++c) b[0][c] = b0[c][l], b[1][c] = b1[c][l];
+    E.constants(m, x, b[0], b[1], field, cb);
+    for (int i = 0; i < T; ++i) X0[i][l] = x[i], XL[i][l] = X1[i][l] = y[i], CB[i][l] = cb[i];
+    for (int c = 0; c < 3; ++c) B0[c][l] = field[c];
   }
   for (int pass = 0; pass < kPasses; ++pass) {
-    // no `omp simd` on this loop: with it GCC 12 keeps the lanes' small arrays (m, f, nl_) in
-    // memory and runs 2.6x slower; it vectorizes the loop on its own (-fopt-info-vec)
+    // no `omp simd` on this loop: with it GCC 12 keeps the lanes' small arrays in memory and
+    // runs 2.6x slower; it vectorizes the loop on its own (-fopt-info-vec)
     for (int l = 0; l < W; ++l) {
-      double xb[T], m[N][3], b[3];
-      for (int i = 0; i < T; ++i) xb[i] = 0.5 * (X0[i][l] + X1[i][l]);
-      for (int s = 0; s < N; ++s) {
-        const double root = root_one_minus(xb[2 * s] * xb[2 * s] + xb[2 * s + 1] * xb[2 * s + 1]);
-        for (int c = 0; c < 3; ++c) m[s][c] = g[s][c] * root + xb[2 * s] * e1[s][c] + xb[2 * s + 1] * e2[s][c];
-      }
-      for (int c = 0; c < 3; ++c) {
-        double mu_m = 0;
-        for (int s = 0; s < N; ++s) mu_m += mu[s] * m[s][c];
-        b[c] = B0[c][l] - rs[c] * mu_m;
-      }
-      // each sublattice's field: b, exchange with the other, anisotropy, Dzyaloshinskii-Moriya
-      double f[N][3];
-      for (int c = 0; c < 3; ++c) {
-        f[0][c] = b[c] - (N == 2 ? lam0 * m[N - 1][c] : 0.0);
-        if constexpr (N == 2) f[1][c] = b[c] - lam1 * m[0][c];
-      }
-      for (int a = 0; a < NA; ++a)
-        for (int s = 0; s < N; ++s) {
-          const double d = ba[a] * (m[s][0] * ax[a][0] + m[s][1] * ax[a][1] + m[s][2] * ax[a][2]);
-          for (int c = 0; c < 3; ++c) f[s][c] += d * ax[a][c];
-        }
-      if constexpr (N == 2) {
-        const double* x = m[0];
-        const double* y = m[1];
-        f[0][0] += fd0 * (bd[1] * y[2] - bd[2] * y[1]), f[0][1] += fd0 * (bd[2] * y[0] - bd[0] * y[2]),
-            f[0][2] += fd0 * (bd[0] * y[1] - bd[1] * y[0]);
-        f[1][0] += fd1 * (x[1] * bd[2] - x[2] * bd[1]), f[1][1] += fd1 * (x[2] * bd[0] - x[0] * bd[2]),
-            f[1][2] += fd1 * (x[0] * bd[1] - x[1] * bd[0]);
-      }
-      // w = gamma' (B + alpha m x B), dm/dt = w x m, projected on the tangent basis
-      double nl_[T];
-      for (int s = 0; s < N; ++s) {
-        const double* x = m[s];
-        const double* F = f[s];
-        const double w0 = k[s] * (F[0] + al[s] * (x[1] * F[2] - x[2] * F[1]));
-        const double w1 = k[s] * (F[1] + al[s] * (x[2] * F[0] - x[0] * F[2]));
-        const double w2 = k[s] * (F[2] + al[s] * (x[0] * F[1] - x[1] * F[0]));
-        const double d[3] = {w1 * x[2] - w2 * x[1], w2 * x[0] - w0 * x[2], w0 * x[1] - w1 * x[0]};
-        nl_[2 * s] = e1[s][0] * d[0] + e1[s][1] * d[1] + e1[s][2] * d[2];
-        nl_[2 * s + 1] = e2[s][0] * d[0] + e2[s][1] * d[1] + e2[s][2] * d[2];
-      }
-      // N = F - A x_bar - Ct (b_wave + R K x0)
-      for (int i = 0; i < T; ++i) {
-        nl_[i] -= CB[i][l];
-        for (int j = 0; j < T; ++j) nl_[i] -= A[i][j] * xb[j];
-      }
+      double xb[T], nl[T], field[3] = {B0[0][l], B0[1][l], B0[2][l]}, cb[T];
+      for (int i = 0; i < T; ++i) xb[i] = 0.5 * (X0[i][l] + X1[i][l]), cb[i] = CB[i][l];
+      E.remainder(xb, field, cb, nl);
       double change = 0, size = 0, nx[T];
       for (int i = 0; i < T; ++i) {
         double v = XL[i][l];
-        for (int j = 0; j < T; ++j) v += hp[i][j] * nl_[j];
+        for (int j = 0; j < T; ++j) v += E.hp[i][j] * nl[j];
         nx[i] = v;
         change = std::max(change, std::abs(v - X1[i][l]));
         size = std::max(size, std::abs(v - X0[i][l]));
@@ -198,15 +230,14 @@ inline void exponential_kernel(const LinearStep& L, const LlgCoefficients& p, co
 #pragma omp simd
   for (int l = 0; l < W; ++l) {
     ok[l] = done[l];
-    double qs[N];
+    double qs[N], d[3] = {0, 0, 0}, m[6] = {0, 0, 0, 0, 0, 0};  // m: 0 for a second sublattice not there
     for (int s = 0; s < N; ++s) qs[s] = X1[2 * s][l] * X1[2 * s][l] + X1[2 * s + 1][l] * X1[2 * s + 1][l];
     q[l] = N == 2 ? std::max(qs[0], qs[N - 1]) : qs[0];
-    double d[3] = {0, 0, 0}, m[6] = {0, 0, 0, 0, 0, 0};  // m: 0 for a second sublattice not there
     for (int s = 0; s < N; ++s) {
       const double root = root_one_minus(qs[s]);
       for (int c = 0; c < 3; ++c) {
-        m[3 * s + c] = g[s][c] * root + X1[2 * s][l] * e1[s][c] + X1[2 * s + 1][l] * e2[s][c];
-        d[c] += mu[s] * (m[3 * s + c] - m0[3 * s + c][l]);
+        m[3 * s + c] = E.g[s][c] * root + X1[2 * s][l] * E.e1[s][c] + X1[2 * s + 1][l] * E.e2[s][c];
+        d[c] += E.mu[s] * (m[3 * s + c] - m0[3 * s + c][l]);
       }
     }
     for (int c = 0; c < 6; ++c) mn[c][l] = m[c];
