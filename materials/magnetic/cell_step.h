@@ -12,7 +12,7 @@
 /// (phase 6e-5, llg_cell.h), so the switch costs no accuracy, and it keeps the common case
 /// (waves of up to ~10 kV/m in a fluoride away from its lines) at the price of one 4x4
 /// matrix-vector product per cell. Cells are taken in blocks of sixteen (two vectors of eight
-/// doubles, so that the passes have two independent chains of arithmetic in flight: 1.15x
+/// doubles, so that the passes have two independent chains of arithmetic in flight: 1.2x
 /// over blocks of eight, docs/performance.md): the large-tilt paths
 /// run for a block only when one of its cells needs them, starting from the small-signal
 /// result as their predictor, and each cell keeps the result its own tilt calls for (each
