@@ -11,7 +11,9 @@
 #   tools/absorber-check.sh            all cells
 #   tools/absorber-check.sh 20 10      only these cells (um)
 # TERAYEE_ABSORBER_PICK keeps the cases whose names hold each of its words and none of its
-# words written with a leading "-" ("c-cut plate -T": the unbiased c-cut plates).
+# words written with a leading "-" ("c-cut plate -T": the unbiased c-cut plates). A case's
+# carrier is its name's last word as printed ({:g}): 250, 262.5, 275, and for the biased
+# crystal the middle of its band, 257.077 ("c-cut 0.2 T half-space cw -250 -275" picks it too).
 # Run each case as its own process when writing to a file: the MESSAGE lines come out only
 # when the process ends (stdout to a file is block-buffered).
 # One case, traced (each region's largest tilt over time and where, the envelope along x):
