@@ -20,6 +20,7 @@
 /// steps, TERAYEE_ABSORBER_CELL=5 TERAYEE_ABSORBER_STEPS=1000000 TERAYEE_ABSORBER_PICK=...).
 #include <doctest/doctest.h>
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <algorithm>
 #include <cmath>
@@ -180,6 +181,8 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
   const char* steps = std::getenv("TERAYEE_ABSORBER_STEPS");  // the run's last step is N
   const char* kind = std::getenv("TERAYEE_ABSORBER_KIND");    // "pml": the layer that can amplify
   const bool traced = std::getenv("TERAYEE_ABSORBER_TRACE") != nullptr;
+  std::vector<std::string> names;  // every case's name, to say so when a pick takes none
+  int ran = 0;
   for (const AbsorberCase& crystal : crystals) {
     const auto carriers = test::band_carriers(crystal);
     for (double cell : cells)
@@ -191,11 +194,16 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
             c.frequency = f;
             c.plate = plate;
             c.cw = cw;
+            names.push_back(test::case_name(c));
             if (!wanted(c)) continue;
+            ++ran;
             c.stop = steps ? (std::atof(steps) - 0.5) * c.step_fraction * courant_limit_dt(cell, cell) : 4e-9;
             if (traced) c.trace = 8;  // samples a period
             if (kind) c.kind = std::string(kind) == "pml" ? Absorber::Kind::pml : Absorber::Kind::graded;
             check_quiet(c);
           }
   }
+  // a pick that matches no case ran nothing: a failure, not a pass (a carrier misspelled)
+  if (ran == 0)
+    FAIL_CHECK("TERAYEE_ABSORBER_PICK=\"" << pick << "\" takes none of: " << fmt::format("{}", fmt::join(names, ", ")));
 }
