@@ -170,8 +170,8 @@ TEST_CASE("exponential midpoint: one and two sublattices, zero to four axes, aga
 }
 
 TEST_CASE("exponential midpoint: its root, ten terms of the binomial series, is sqrt(1 - q) to round-off") {
-  // sqrt(1 - q) = sum_n binom(1/2, n) (-q)^n (the binomial series: Abramowitz & Stegun,
-  // 3.6.9); ten terms leave c_10 q^10 < 6e-18 for q <= 0.03, the range a kept lane reaches
+  // sqrt(1 - q) = sum_n binom(1/2, n) (-q)^n (Newton's binomial series, convergent for
+  // |q| < 1; any calculus text); ten terms leave c_10 q^10 < 6e-18 for q <= 0.03, the range a kept lane reaches
   // (its tilt within the chart limit, q <= 0.0144; llg_exponential.h). std::sqrt is correctly
   // rounded (IEEE 754), so the two may differ by the series' own rounding only.
   double worst = 0;
