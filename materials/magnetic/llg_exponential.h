@@ -228,7 +228,8 @@ inline void exponential_kernel(const LinearStep& L, const LlgCoefficients& p, co
     }
   }
   // the unit vectors as ExponentialLocal::unit_vectors has them, written out: under omp simd
-  // (which this loop needs to vectorize) its m[N][3] stayed in memory, 1.5x slower
+  // (which this loop needs to vectorize) its m[N][3] stayed in memory: the step outside the
+  // passes took 13.6 ns a cell instead of 5.9
 #pragma omp simd
   for (int l = 0; l < W; ++l) {
     ok[l] = done[l];
