@@ -205,12 +205,9 @@ inline void exponential_kernel(const LinearStep& L, const LlgCoefficients& p, co
         change = std::max(change, std::abs(v - X1[i][l]));
         size = std::max(size, std::abs(v - X0[i][l]));
       }
-      // the error of this pass's x: within rho/(1 - rho) of its change, rho the contraction
-      // measured by the last two changes (the stopping rule of simplified Newton iterations:
-      // Hairer & Wanner, Solving ODEs II, 2nd ed., sec. IV.8, eq. 8.10-8.11); the change
-      // itself until a second pass has measured rho, or where rho >= 1/2. With rho =
-      // change / last, rho / (1 - rho) change <= allowed reads change^2 <= allowed (last -
-      // change), which needs no division.
+      // this pass's error is within rho/(1 - rho) of its change, rho = change / last (Hairer &
+      // Wanner, Solving ODEs II, 2nd ed., sec. IV.8, eq. 8.10-8.11): change^2 <= allowed (last -
+      // change), no division; the change itself before a second pass, or where rho >= 1/2.
       const double allowed = tol * size + kFloor;
       const double contracts = pass > 0 && change < 0.5 * last[l] ? 1.0 : 0.0;
       const double lhs = contracts > 0 ? change * change : change;
