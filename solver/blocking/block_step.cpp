@@ -13,12 +13,6 @@
 
 namespace ty {
 
-namespace {
-// the bytes a block's band of rows should fit: about two cores' L2 (1 MiB each here); at
-// 1024^2 double it allows 16 steps, at 4096^2 4 (docs/performance.md: measured)
-constexpr std::size_t kBandBytes = std::size_t(2) << 20;
-}  // namespace
-
 template <class R>
 blocking::DepthChoice Simulation<R>::block_choice(int requested) const {
   if (requested == 1) return {1, "one pass per step (as asked)"};
@@ -32,7 +26,7 @@ blocking::DepthChoice Simulation<R>::block_choice(int requested) const {
   // lists (4 ints) and the gathers, about 180 bytes a cell
   const std::size_t cell_bytes = mag_.empty() ? 0 : 180 * (mag_.count() / std::max(1, g_.ny) + 1);
   const int lead = mag_.empty() ? blocking::kLead : blocking::kMagneticLead;
-  const int d = requested > 0 ? requested : blocking::auto_depth(g_.nx, g_.ny, sizeof(R), kBandBytes, lead + 1, cell_bytes);
+  const int d = requested > 0 ? requested : blocking::auto_depth(g_.nx, g_.ny, sizeof(R), blocking::band_bytes(), lead + 1, cell_bytes);
   if (d <= 1) return {1, "one pass per step (the grid's rows are too long for a band of rows in cache)"};
   std::string note = fmt::format("{} steps per pass over the rows ({})", d, requested > 0 ? "as asked" : "auto");
   if (!probes_.empty() || !power_spectra_.empty()) note += "; probes and power spectra record inside the blocks";

@@ -41,5 +41,9 @@ struct DepthChoice {
 /// several times, shallow enough that the band of rows (skew * depth + 2 rows of six
 /// arrays, plus extra_row_bytes a row: the magnetic cells' state) stays within `cache` bytes.
 int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, std::size_t extra_row_bytes = 0);
+/// The bytes a block's band of rows may take: a quarter of the last-level cache the CPU
+/// reports (sysconf), at least 2 MiB (two cores' L2 here) and at most 16 MiB; 2 MiB where the
+/// CPU does not say (docs/performance.md, "The band's budget": measured).
+std::size_t band_bytes();
 
 }  // namespace ty::blocking

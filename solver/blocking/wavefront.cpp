@@ -2,6 +2,9 @@
 /// \brief The wavefront's wait and its depth `auto` (wavefront.h).
 #include "solver/blocking/wavefront.h"
 
+#include <unistd.h>
+
+#include <algorithm>
 #include <thread>
 
 namespace ty::blocking {
@@ -13,6 +16,14 @@ void Progress::wait(int t, int rows, int& seen) const {
     if (seen >= rows) return;
     if (spins > 2000) std::this_thread::yield();  // the partner may be off its core
   }
+}
+
+std::size_t band_bytes() {
+  // glibc's sysconf reads the cache sizes from the CPU; 0 or -1 where it cannot tell
+  const long l3 = sysconf(_SC_LEVEL3_CACHE_SIZE);
+  const std::size_t floor = std::size_t(2) << 20, ceiling = std::size_t(16) << 20;
+  if (l3 <= 0) return floor;
+  return std::clamp(static_cast<std::size_t>(l3) / 4, floor, ceiling);
 }
 
 int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, std::size_t extra_row_bytes) {

@@ -48,6 +48,22 @@ TEST_CASE("wavefront: a magnetic scene's lead comes from its cells' reaches") {
   CHECK(blocking::magnetic_lead(blocking::row_reach(), {1, 3}) == 3);
 }
 
+TEST_CASE("wavefront: depth auto keeps the band of the doubled depth within the budget") {
+  // worked by hand: a double row of the six arrays is 6 * (nx + 2) * 8 bytes; depth d's band
+  // is skew * d + 2 rows (wavefront.h), and auto doubles d while the doubled depth's band fits
+  constexpr std::size_t MiB = std::size_t(1) << 20;
+  CHECK(blocking::auto_depth(1024, 1024, 8, 2 * MiB, 2) == 16);  // 34 rows of 49 248 B: 1.67 MB
+  CHECK(blocking::auto_depth(4096, 4096, 8, 2 * MiB, 2) == 4);   // 10 rows of 196 704 B: 1.97 MB
+  CHECK(blocking::auto_depth(4096, 4096, 8, 16 * MiB, 2) == 16);  // 34 rows: 6.7 MB
+  CHECK(blocking::auto_depth(4096, 4096, 4, 2 * MiB, 2) == 8);   // single precision: half the bytes
+  CHECK(blocking::auto_depth(1024, 1024, 8, 2 * MiB, 3, 184 * 1024) == 2);  // 8 magnetic rows of 238 KB: 1.9 MB
+  CHECK(blocking::auto_depth(1024, 1024, 8, 16 * MiB, 3, 184 * 1024) == 16);  // 50 rows: 11.9 MB
+  CHECK(blocking::auto_depth(1024, 5, 8, 16 * MiB, 2) == 5);  // never deeper than the rows
+  // the budget: a quarter of the last-level cache, between 2 and 16 MiB (docs/performance.md)
+  CHECK(blocking::band_bytes() >= 2 * MiB);
+  CHECK(blocking::band_bytes() <= 16 * MiB);
+}
+
 TEST_CASE("wavefront: every (row, step) once, after the units it reads, for 1 to 3 threads") {
   // the leapfrog's dependencies (wavefront.h): (j, t) after (j + lead, t - 1) and (j - 1, t)
   for (int lead : {blocking::kLead, blocking::kMagneticLead})
