@@ -84,6 +84,7 @@ void Simulation<R>::h_row(int j, const double* ev) {
   R* __restrict ex = f_[0].data() + o;
   R* __restrict ey = f_[1].data() + o;
   R* __restrict ez = f_[2].data() + o;
+  for (int q = inj_h_row_[j]; q < inj_h_row_[j + 1]; ++q) inj_h_[q].before = f_[inj_h_[q].comp][inj_h_[q].index];
   walls_.before_h_row(ey, ez, nx);
   if (in_absorber(j)) graded_decay(j, false);  // the graded loss's first half step (graded_loss.h)
   const R* __restrict exn = ex + s;
@@ -96,10 +97,12 @@ void Simulation<R>::h_row(int j, const double* ev) {
     hz[i] -= sx * (ey[i + 1] - ey[i]) - sy * (exn[i] - ex[i]);
   }
   if (in_absorber(j)) pml_h_row(j);
+  // a source's work on the leapfrog's conserved energy (e_row_update): the value v times the
+  // node's values at the step's start and end
   for (int q = inj_h_row_[j]; q < inj_h_row_[j + 1]; ++q) {
     const Injection& e = inj_h_[q];
     const double F = f_[e.comp][e.index], v = ev[e.slot];
-    injected_[j] += e.weight * std::abs((2 * F + v) * v);
+    injected_[j] += e.weight * std::abs((e.before + F + v) * v);
     f_[e.comp][e.index] += static_cast<R>(v);
   }
   // and its second; with magnets the row's H is final only after their scatter: step_magnetic
@@ -130,6 +133,7 @@ void Simulation<R>::e_row_update(int j, const double* ev) {
   const R* __restrict hxp = hx - s;
   const R* __restrict hzp = hz - s;
   const Run* run = runs_.data();
+  for (int q = inj_e_row_[j]; q < inj_e_row_[j + 1]; ++q) inj_e_[q].before = f_[inj_e_[q].comp][inj_e_[q].index];
   if (in_absorber(j)) graded_decay(j, true);  // the graded loss's first half step (graded_loss.h)
   if (simple_row_[j]) {
     const R kx = run[row_runs_[3 * j]].kx, ky = run[row_runs_[3 * j]].ky;
@@ -158,10 +162,14 @@ void Simulation<R>::e_row_update(int j, const double* ev) {
     }
   }
   if (in_absorber(j)) pml_e_row(j);
+  // the work of the injection on the leapfrog's conserved energy (1/2)(eps E^n.E^n + mu H^(n-1/2).
+  // H^(n+1/2)): adding v to E^(n+1) changes it by (eps/2) v (E^n + E^(n+1)), E^n the node's value
+  // before this step's update (the curl terms cancel: the Yee scheme's energy identity); an H
+  // injection likewise with H^(n-1/2) and H^(n+1/2). Their gross sum bounds that energy.
   for (int q = inj_e_row_[j]; q < inj_e_row_[j + 1]; ++q) {
     const Injection& e = inj_e_[q];
     const double F = f_[e.comp][e.index], v = ev[e.slot];
-    injected_[j] += e.weight * std::abs((2 * F + v) * v);
+    injected_[j] += e.weight * std::abs((e.before + F + v) * v);
     f_[e.comp][e.index] += static_cast<R>(v);
   }
   if (in_absorber(j)) graded_decay(j, true);

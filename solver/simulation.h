@@ -196,9 +196,9 @@ class Simulation {
   struct Injection {
     long index;
     int comp;
-    int row;
-    int slot;           // value slot
+    int row, slot;      // slot: value slot
     double weight = 0;  // energy per unit length of the node per (field unit)^2, J/m/(V/m)^2
+    double before = 0;  // the node's value before this step's update of its row (for injected_)
   };
   struct Emitter {  // value of one injection: Re[A g_s(t - tau)], or coef * signal for points
     std::complex<double> A;

@@ -23,9 +23,46 @@
 #   TERAYEE_ABSORBER_CELL=5 TERAYEE_ABSORBER_STEPS=1000000 TERAYEE_ABSORBER_PICK="a-cut half-space pulse 262.5" \
 #     build/terayee_tests -tc="absorbers\, long*" --no-skip -s
 # TERAYEE_ABSORBER_KIND=pml forces the PML on every side, to see what the default avoids.
+# Spread over several sittings (the 5 um half-spaces take 25 min each on two cores, about
+# 50 min on one): one process per case, its log and verdict kept in DIR; the same command
+# again skips the cases that ended and those another queue is running, so two queues (one
+# per core, e.g. under `taskset -c 0` and `-c 1`) share the list; a killed case starts over:
+#   tools/absorber-check.sh --queue DIR [cells]     DIR/SUMMARY: each case's verdict
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 tests="${TERAYEE_TESTS:-$root/build/terayee_tests}"
+if [ "${1:-}" = "--queue" ]; then
+  [ $# -ge 2 ] || { echo "usage: tools/absorber-check.sh --queue DIR [cells in um]" >&2; exit 2; }
+  dir="$2"
+  shift 2
+  mkdir -p "$dir"
+  cells=("$@")
+  [ ${#cells[@]} -gt 0 ] || cells=(50 20 10 5)
+  for c in "${cells[@]}"; do
+    mapfile -t names < <(TERAYEE_ABSORBER_CELL="$c" TERAYEE_ABSORBER_LIST=1 "$tests" -tc="absorbers\\, long*" --no-skip |
+      sed -n 's/^case: //p')
+    [ ${#names[@]} -gt 0 ] || { echo "no cases at $c um (is $tests built?)" >&2; exit 1; }
+    for n in "${names[@]}"; do
+      key="$dir/${c}um $n"
+      [ -e "$key.passed" ] || [ -e "$key.failed" ] && continue
+      # claimed by a running queue? (a claim whose process is gone is stale: take it over)
+      if [ -e "$key.running" ]; then
+        kill -0 "$(cat "$key.running")" 2>/dev/null && continue
+        rm -f "$key.running"
+      fi
+      (set -C && echo $$ > "$key.running") 2>/dev/null || continue  # made at once, or another queue's
+      echo "== $c um, $n ($(date +%T))"
+      if TERAYEE_ABSORBER_CELL="$c" TERAYEE_ABSORBER_NAME="$n" "$tests" -tc="absorbers\\, long*" --no-skip -s \
+        > "$key.log" 2>&1; then verdict=passed; else verdict=failed; fi
+      touch "$key.$verdict"
+      rm -f "$key.running"
+      echo "   $verdict ($(date +%T))"
+    done
+  done
+  (cd "$dir" && for f in *.passed *.failed; do if [ -e "$f" ]; then echo "${f%.*}: ${f##*.}"; fi; done) | sort > "$dir/SUMMARY"
+  cat "$dir/SUMMARY"
+  exit 0
+fi
 cells=("$@")
 [ ${#cells[@]} -gt 0 ] || cells=(50 20 10 5)
 for c in "${cells[@]}"; do

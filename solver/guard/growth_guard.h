@@ -7,10 +7,11 @@
 /// media and the Gilbert damping lose energy; the leapfrog step conserves a discrete energy
 /// close to the field energy) the energy held, field plus magnetic, cannot exceed the work
 /// the sources have done. The guard compares W = field_energy + magnetic_energy with the
-/// sources' gross work so far (Simulation::injected_energy, an upper bound of their work)
-/// and stops the run once W > kEnergyFactor times that (plus a floor of round-off size).
-/// The margin covers the difference between the measured W (E at n, H at n-1/2) and the
-/// conserved one.
+/// sources' gross work on the leapfrog's conserved energy so far (Simulation::injected_energy,
+/// an upper bound of that energy) and stops the run once W exceeds energy_factor() times it
+/// (plus a floor of round-off size). The factor covers the measured W (E at n, H at n-1/2)
+/// against the conserved one: W <= conserved / (1 - S) at S = c dt sqrt(dx^-2 + dy^-2) < 1
+/// (growth_guard.cpp), twice that and at least kEnergyFactor.
 ///
 /// Tilt: a source of field amplitude E0 (a launch line's peak; a line current's field one
 /// cell away) drives a medium of susceptibility chi to a tilt of about |chi| (E0/c) / (mu0
@@ -58,6 +59,8 @@ class GrowthGuard {
 
   explicit GrowthGuard(const Simulation<R>& sim);
 
+  /// How many times the sources' work the held energy may reach.
+  double energy_factor() const { return energy_factor_; }
   /// The tilt (rad) past which the run stops; 0: the tilt check is off.
   double tilt_limit() const { return tilt_limit_; }
   /// The linear-response estimate of the largest tilt (rad); infinite for an undamped line in the band.
@@ -74,6 +77,7 @@ class GrowthGuard {
   double sources_end_ = 0;          ///< s; infinity with a cw source
   double w_peak_ = 0, w_low_ = -1;  ///< the largest W; the lowest since the sources stopped (-1: not yet)
   double rise_ = kEnergyRise;       ///< the slow check's rise: kEnergyRise, or w dt at the band centre if larger
+  double energy_factor_ = kEnergyFactor;  ///< W may reach this times the sources' work
   static constexpr int kHistory = 2 * kWindow + 1;
   std::array<double, kHistory> w_seen_{}, tilt_seen_{};  ///< W after the sources stopped; the absorber's largest tilt
   int ws_ = 0, tilts_ = 0;                               ///< how many of each seen

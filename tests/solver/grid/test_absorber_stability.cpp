@@ -172,7 +172,13 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
   // its words among the words of their name (absorber_cases.h, case_name) and none of its
   // words written with a leading '-' ("c-cut plate -T": the unbiased c-cut plates only)
   const std::string pick = std::getenv("TERAYEE_ABSORBER_PICK") ? std::getenv("TERAYEE_ABSORBER_PICK") : "";
-  auto wanted = [&](const AbsorberCase& c) { return test::picked(test::case_name(c), pick); };
+  // TERAYEE_ABSORBER_NAME: the one case of exactly that name (tools/absorber-check.sh --queue);
+  // TERAYEE_ABSORBER_LIST: print the picked cases' names ("case: NAME"), run none
+  const char* exact = std::getenv("TERAYEE_ABSORBER_NAME");
+  const bool listing = std::getenv("TERAYEE_ABSORBER_LIST") != nullptr;
+  auto wanted = [&](const AbsorberCase& c) {
+    return exact ? test::case_name(c) == exact : test::picked(test::case_name(c), pick);
+  };
   // hyperbolic (a-cut), negative-mu (c-cut), gyrotropic (c-cut, 0.2 T along z); the turned
   // scene repeats the upright one to round-off (the CI case above), so it is not run here
   AbsorberCase crystals[3];
@@ -197,6 +203,10 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
             names.push_back(test::case_name(c));
             if (!wanted(c)) continue;
             ++ran;
+            if (listing) {
+              fmt::print("case: {}\n", test::case_name(c));
+              continue;
+            }
             c.stop = steps ? (std::atof(steps) - 0.5) * c.step_fraction * courant_limit_dt(cell, cell) : 4e-9;
             if (traced) c.trace = 8;  // samples a period
             if (kind) c.kind = std::string(kind) == "pml" ? Absorber::Kind::pml : Absorber::Kind::graded;
@@ -205,5 +215,6 @@ TEST_CASE("absorbers, long: 5-50 um, pulsed and cw, below, inside and above the 
   }
   // a pick that matches no case ran nothing: a failure, not a pass (a carrier misspelled)
   if (ran == 0)
-    FAIL_CHECK("TERAYEE_ABSORBER_PICK=\"" << pick << "\" takes none of: " << fmt::format("{}", fmt::join(names, ", ")));
+    FAIL_CHECK("TERAYEE_ABSORBER_" << (exact ? "NAME" : "PICK") << "=\"" << (exact ? exact : pick)
+                                    << "\" takes none of: " << fmt::format("{}", fmt::join(names, ", ")));
 }
