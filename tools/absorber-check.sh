@@ -51,6 +51,10 @@ if [ "${1:-}" = "--queue" ]; then
         rm -f "$key.running"
       fi
       (set -C && echo $$ > "$key.running") 2>/dev/null || continue  # made at once, or another queue's
+      if [ -e "$key.passed" ] || [ -e "$key.failed" ]; then  # ended while we looked
+        rm -f "$key.running"
+        continue
+      fi
       echo "== $c um, $n ($(date +%T))"
       if TERAYEE_ABSORBER_CELL="$c" TERAYEE_ABSORBER_NAME="$n" "$tests" -tc="absorbers\\, long*" --no-skip -s \
         > "$key.log" 2>&1; then verdict=passed; else verdict=failed; fi
