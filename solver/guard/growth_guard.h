@@ -8,7 +8,7 @@
 /// close to the field energy) the energy held, field plus magnetic, cannot exceed the work
 /// the sources have done. The guard compares W = field_energy + magnetic_energy with the
 /// sources' gross work on the leapfrog's conserved energy so far (Simulation::injected_energy,
-/// an upper bound of that energy) and stops the run once W exceeds energy_factor() times it
+/// an upper bound of that energy) and stops the run once W exceeds energy_factor_ times it
 /// (plus a floor of round-off size). The factor covers the measured W (E at n, H at n-1/2)
 /// against the conserved one: W <= conserved / (1 - S) at S = c dt sqrt(dx^-2 + dy^-2) < 1
 /// (growth_guard.cpp), twice that and at least kEnergyFactor.
@@ -59,8 +59,6 @@ class GrowthGuard {
 
   explicit GrowthGuard(const Simulation<R>& sim);
 
-  /// How many times the sources' work the held energy may reach.
-  double energy_factor() const { return energy_factor_; }
   /// The tilt (rad) past which the run stops; 0: the tilt check is off.
   double tilt_limit() const { return tilt_limit_; }
   /// The linear-response estimate of the largest tilt (rad); infinite for an undamped line in the band.
