@@ -9,9 +9,10 @@
 /// the sources have done. The guard compares W = field_energy + magnetic_energy with the
 /// sources' gross work on the leapfrog's conserved energy so far (Simulation::injected_energy,
 /// an upper bound of that energy) and stops the run once W exceeds energy_factor_ times it
-/// (plus a floor of round-off size). The factor covers the measured W (E at n, H at n-1/2)
-/// against the conserved one: W <= conserved / (1 - S) at S = c dt sqrt(dx^-2 + dy^-2) < 1
-/// (growth_guard.cpp), twice that and at least kEnergyFactor.
+/// plus a floor, 10^-12 of the sources' energy scale eps0 e0^2 lambda^2. The factor covers
+/// the measured W (E at n, H at n-1/2) against the conserved one: W <= conserved / (1 - S)
+/// at S = c dt sqrt(dx^-2 + dy^-2) < 1 (growth_guard.cpp); it is twice that, at least
+/// kEnergyFactor.
 ///
 /// Tilt: a source of field amplitude E0 (a launch line's peak; a line current's field one
 /// cell away) drives a medium of susceptibility chi to a tilt of about |chi| (E0/c) / (mu0
@@ -76,6 +77,7 @@ class GrowthGuard {
   double w_peak_ = 0, w_low_ = -1;  ///< the largest W; the lowest since the sources stopped (-1: not yet)
   double rise_ = kEnergyRise;       ///< the slow check's rise: kEnergyRise, or w dt at the band centre if larger
   double energy_factor_ = kEnergyFactor;  ///< W may reach this times the sources' work
+  double w_scale_ = 0;                    ///< J/m: the sources' energy scale (the check's floor is 1e-12 of it)
   static constexpr int kHistory = 2 * kWindow + 1;
   std::array<double, kHistory> w_seen_{}, tilt_seen_{};  ///< W after the sources stopped; the absorber's largest tilt
   int ws_ = 0, tilts_ = 0;                               ///< how many of each seen
