@@ -85,21 +85,18 @@ GrowthGuard<R>::GrowthGuard(const Simulation<R>& sim) {
   // peak: in a closed lossless box at a few cells a wavelength that is tens of percent. A rise counts past
   // w dt at the highest of the sources' band centres, where their energy is (a closed box measured 0.42 w dt
   // there; the band's top, 1.7 times higher, let a slowly amplifying PML run to 95% of its time unstopped).
+  // And the scale of the energy the sources deliver, eps0 e0^2 lambda^2 (J/m) for a peak field
+  // e0 over a wavelength squared: the energy check's floor is 1e-12 of it, above the leading tail
+  // of a pulse and the round-off of magnets at rest (NiO at rest held 3e-28 J/m by step 21 and
+  // was stopped beside a 1 mA line current's tail at 3.5e-31 J/m: test_growth_guard.cpp).
   double f_centre = 0;
   for (const Source& src : s.sources) {
     const Band2 band = source_band(src);
     f_centre = std::max(f_centre, 0.5 * (band.lo + band.hi));
-  }
-  rise_ = std::max(kEnergyRise, 2 * constants::pi * f_centre * sim.grid().dt);
-  // the scale of the energy the sources deliver, eps0 e0^2 lambda^2 (J/m) for a peak field e0
-  // over a wavelength squared: the energy check's floor is 1e-12 of it, above the leading tail
-  // of a pulse and the round-off of magnets at rest (NiO at rest held 3e-28 J/m by step 21 and
-  // was stopped beside a 1 mA line current's tail at 3.5e-31 J/m: test_growth_guard.cpp)
-  for (const Source& src : s.sources) {
-    const Band2 band = source_band(src);
     const double lambda = constants::c0 / std::max(band.hi, 1.0), e0 = peak_field(src, band.hi);
     w_scale_ += constants::eps0 * e0 * e0 * lambda * lambda;
   }
+  rise_ = std::max(kEnergyRise, 2 * constants::pi * f_centre * sim.grid().dt);
   // The same identity bounds W by the conserved energy: the conserved one is W - (dt/2) H^(n-1/2).
   // curl E^n, and (c dt / 2)|curl| <= S on the grid (S = c dt sqrt(dx^-2 + dy^-2), the fraction
   // of the 2D step limit), so it is at least (1 - S) W. A line current switched on at once at

@@ -155,7 +155,9 @@ TEST_CASE("guard: sources in vacuum hold no more than their work, pulsed or cw, 
       INFO(what);
       CHECK_MESSAGE(error.empty(), error);
       CHECK(worst < 1 / (1 - fraction));  // the bound above
-      if (k.c == Component::Ez && !k.plane) CHECK(worst < 1.5);  // measured 1.38 at most
+      // measured 1.00-1.38: a count twice too large (0.5) or half as large (2.0-2.8) fails
+      if (k.c == Component::Ez && !k.plane) CHECK(worst < 1.5);
+      if (k.c == Component::Ez && !k.plane) CHECK(worst > 0.9);
     }
 }
 
