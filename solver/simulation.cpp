@@ -11,6 +11,7 @@
 #include <cmath>
 
 #include "io/scene/units.h"
+#include "solver/grid/yee_update.h"
 
 namespace ty {
 
@@ -38,6 +39,7 @@ Simulation<R>::Simulation(const Scene& scene, int threads, int copy) : scene_(sc
   build_sources();
   build_recorders(plan);
   build_slabs();
+  build_fusion();
   stop_ = StopRule(scene.time.auto_stop, plan, power_spectra_, maps_);
   // a magnetic cell counted as 3.5 vacuum cells (1 + 2.5 more): the bench's figure under load, on a
   // grid since found to be 44% vacuum; idle and all-magnetic it is 9-10 (docs/performance.md), but
@@ -75,7 +77,7 @@ void Simulation<R>::build_recorders(const StopPlan& plan) {
 }
 
 template <class R>
-void Simulation<R>::h_row(int j, const double* ev) {
+void Simulation<R>::h_row(int j, const double* ev, int skip0, int skip1) {
   const int nx = g_.nx;
   const long o = g_.at(0, j), s = g_.stride;
   R* __restrict hx = f_[3].data() + o;
@@ -89,13 +91,17 @@ void Simulation<R>::h_row(int j, const double* ev) {
   if (in_absorber(j)) graded_decay(j, false);  // the graded loss's first half step (graded_loss.h)
   const R* __restrict exn = ex + s;
   const R* __restrict ezn = ez + s;
-  const R sx = sx_, sy = sy_;
+  const R sx = sx_, sy = sy_, neg_sy = -sy_;
+  auto update = [&](int i0, int i1) {  // yee_update.h
 #pragma omp simd
-  for (int i = 0; i < nx; ++i) {
-    hx[i] -= sy * (ezn[i] - ez[i]);
-    hy[i] += sx * (ez[i + 1] - ez[i]);
-    hz[i] -= sx * (ey[i + 1] - ey[i]) - sy * (exn[i] - ex[i]);
-  }
+    for (int i = i0; i < i1; ++i) {
+      hx[i] = yee::hx(hx[i], ezn[i] - ez[i], neg_sy);
+      hy[i] = yee::hy(hy[i], ez[i + 1] - ez[i], sx);
+      hz[i] = yee::hz(hz[i], ey[i + 1] - ey[i], exn[i] - ex[i], sx, sy);
+    }
+  };
+  update(0, skip0);  // [skip0, skip1): he_row's fused span (row_fusion.cpp)
+  update(skip1, nx);
   if (in_absorber(j)) pml_h_row(j);
   // a source's work on the leapfrog's conserved energy (e_row_update): the value v times the
   // node's values at the step's start and end
@@ -112,16 +118,16 @@ void Simulation<R>::h_row(int j, const double* ev) {
 }
 
 template <class R>
-void Simulation<R>::e_row(int j, const double* ev) {
+void Simulation<R>::e_row(int j, const double* ev, int skip0, int skip1) {
   const bool dispersive = disp_.row_first[j + 1] > disp_.row_first[j];
   R* const E[3] = {f_[0].data(), f_[1].data(), f_[2].data()};
   if (dispersive) disp_.before_row(j, E);
-  e_row_update(j, ev);
+  e_row_update(j, ev, skip0, skip1);
   if (dispersive) disp_.after_row(j, E);
 }
 
 template <class R>
-void Simulation<R>::e_row_update(int j, const double* ev) {
+void Simulation<R>::e_row_update(int j, const double* ev, int skip0, int skip1) {
   const int nx = g_.nx;
   const long o = g_.at(0, j), s = g_.stride;
   R* __restrict ex = f_[0].data() + o;
@@ -135,30 +141,43 @@ void Simulation<R>::e_row_update(int j, const double* ev) {
   const Run* run = runs_.data();
   for (int q = inj_e_row_[j]; q < inj_e_row_[j + 1]; ++q) inj_e_[q].before = f_[inj_e_[q].comp][inj_e_[q].index];
   if (in_absorber(j)) graded_decay(j, true);  // the graded loss's first half step (graded_loss.h)
+  // each loop over [i0, i1) leaves out he_row's fused span [skip0, skip1) (row_fusion.cpp); the
+  // node updates are yee_update.h's
+  auto parts = [skip0, skip1](int i0, int i1, auto&& loop) {
+    loop(i0, std::min(i1, skip0));
+    loop(std::max(i0, skip1), i1);
+  };
   if (simple_row_[j]) {
-    const R kx = run[row_runs_[3 * j]].kx, ky = run[row_runs_[3 * j]].ky;
+    const R kx = run[row_runs_[3 * j]].kx, ky = run[row_runs_[3 * j]].ky, neg_kx = -kx;
+    parts(0, nx, [&](int i0, int i1) {
 #pragma omp simd
-    for (int i = 0; i < nx; ++i) {
-      ex[i] += ky * (hz[i] - hzp[i]);
-      ey[i] -= kx * (hz[i] - hz[i - 1]);
-      ez[i] += kx * (hy[i] - hy[i - 1]) - ky * (hx[i] - hxp[i]);
-    }
+      for (int i = i0; i < i1; ++i) {
+        ex[i] = yee::ex(ex[i], hz[i] - hzp[i], ky);
+        ey[i] = yee::ey(ey[i], hz[i] - hz[i - 1], neg_kx);
+        ez[i] = yee::ez(ez[i], hy[i] - hy[i - 1], hx[i] - hxp[i], kx, ky);
+      }
+    });
   } else {
     for (int r = row_runs_[3 * j]; r < row_runs_[3 * j + 1]; ++r) {
       const R ca = run[r].ca, ky = run[r].ky;
+      parts(run[r].i0, run[r].i1, [&](int i0, int i1) {
 #pragma omp simd
-      for (int i = run[r].i0; i < run[r].i1; ++i) ex[i] = ca * ex[i] + ky * (hz[i] - hzp[i]);
+        for (int i = i0; i < i1; ++i) ex[i] = yee::ex(ca, ex[i], hz[i] - hzp[i], ky);
+      });
     }
     for (int r = row_runs_[3 * j + 1]; r < row_runs_[3 * j + 2]; ++r) {
-      const R ca = run[r].ca, kx = run[r].kx;
+      const R ca = run[r].ca, neg_kx = -run[r].kx;
+      parts(run[r].i0, run[r].i1, [&](int i0, int i1) {
 #pragma omp simd
-      for (int i = run[r].i0; i < run[r].i1; ++i) ey[i] = ca * ey[i] - kx * (hz[i] - hz[i - 1]);
+        for (int i = i0; i < i1; ++i) ey[i] = yee::ey(ca, ey[i], hz[i] - hz[i - 1], neg_kx);
+      });
     }
     for (int r = row_runs_[3 * j + 2]; r < row_runs_[3 * j + 3]; ++r) {
       const R ca = run[r].ca, kx = run[r].kx, ky = run[r].ky;
+      parts(run[r].i0, run[r].i1, [&](int i0, int i1) {
 #pragma omp simd
-      for (int i = run[r].i0; i < run[r].i1; ++i)
-        ez[i] = ca * ez[i] + kx * (hy[i] - hy[i - 1]) - ky * (hx[i] - hxp[i]);
+        for (int i = i0; i < i1; ++i) ez[i] = yee::ez(ca, ez[i], hy[i] - hy[i - 1], hx[i] - hxp[i], kx, ky);
+      });
     }
   }
   if (in_absorber(j)) pml_e_row(j);
@@ -197,10 +216,7 @@ void Simulation<R>::step_fused() {
     if (j1 > j0) h_row(j1 - 1);
 #pragma omp barrier
     if (j0 == 0 && j1 > 0) walls_.before_first_e_row(F.data(), g_);
-    for (int j = j0; j < j1 - 1; ++j) {
-      h_row(j);
-      e_row(j);
-    }
+    for (int j = j0; j < j1 - 1; ++j) he_row(j, emitter_value_.data());
     if (j1 > j0) e_row(j1 - 1);
   }
   if (!tensor_.empty()) tensor_.step(F.data(), threads_);  // tensor_cells.h

@@ -143,8 +143,7 @@ class Simulation {
   /// from the scene instead.
   template <class F>
   void visit_state(F&& f);  // solver/state_list.h
-  /// A visit_state visitor behind one type: the Bloch pair's cosine copy hands its sine copy
-  /// this, prefixing the names.
+  /// A visit_state visitor behind one type: the Bloch pair's cosine copy hands its sine copy this, prefixing the names.
   struct StateVisitor {
     std::function<void(const std::string&, R*, std::size_t)> r;
     std::function<void(const std::string&, double*, std::size_t)> d;
@@ -156,11 +155,8 @@ class Simulation {
       else r(n, p, k);
     }
   };
-  /// An upper bound of the energy the sources have put into the grid so far, J/m: the sum
-  /// over every injection of the size of the change of its node's energy,
-  /// (eps/2)|(F + v)^2 - F^2| dx dy (the signed sum swings with the reactive near field);
-  /// for the run's guard (solver/growth_guard.h); summed over rows in order, so the same for
-  /// any thread count.
+  /// An upper bound of the energy the sources have put into the grid so far, J/m (each injection's work on the
+  /// leapfrog's conserved energy, simulation.cpp), for the run's guard; summed over rows in order (any thread count).
   double injected_energy() const {
     double w = 0;
     for (double v : injected_) w += v;
@@ -170,9 +166,8 @@ class Simulation {
   bool find_nonfinite(int& i, int& j, Component& c) const;
 
   std::vector<ProbeRecorder>& probes() { return probes_; }
-  /// With Bloch sides, the complex field's lines: each sum is the cosine copy's plus i times
-  /// the sine copy's (the sums are linear in the field), so the power through a line is that
-  /// of the wave exp(i k_x x) alone at each positive frequency.
+  /// With Bloch sides, the complex field's lines: each sum the cosine copy's plus i times the sine copy's
+  /// (linear in the field), so the power through a line is that of the wave exp(i k_x x) alone.
   const std::vector<PowerSpectrumRecorder>& power_spectra() const;
   const std::vector<SpectralMap>& spectral_maps() const { return maps_; }
   const SnapshotPlan& snapshot_plan() const { return snaps_.plan; }
@@ -181,6 +176,9 @@ class Simulation {
   const std::vector<int>& medium_map() const { return medium_map_; }
   int map_nx() const { return map_nx_; }
   int map_ny() const { return map_ny_; }
+  /// H and E of a row's interior in one loop (fused_row.h; on by default, same bits): off or on; rows taking it.
+  void set_row_fusion(bool on);
+  int fused_rows() const;
   /// Bytes held by fields, coefficients, absorbers and recorders.
   std::size_t memory_bytes() const { return bytes_; }
   /// What the run should warn about (a lossy launch medium ...), and what it should say
@@ -219,6 +217,8 @@ class Simulation {
   std::vector<double> run_cb_;
   std::vector<int> row_runs_;
   std::vector<char> simple_row_;  // vacuum-like row: one run per component, ca = 1, equal k
+  struct FusedSpan { int a = 0, b = 0; R kx = 0, ky = 0; };  // a row's columns [a, b) in fused_row.h, E's k
+  std::vector<FusedSpan> fused_;  // per row (a == b: none), row_fusion.cpp
   // PML
   CpmlAxis px_, py_;
   std::vector<R> pbx_[2], pax_[2], pkx_[2], pby_[2], pay_[2], pky_[2];
@@ -276,8 +276,7 @@ class Simulation {
   void step_pair();
   void build_bloch_pair();
   void pair_h_row(int j);
-  /// Both copies' H ghost columns of row j (bloch.h), after their final H of the row.
-  void pair_h_ghosts(int j);
+  void pair_h_ghosts(int j);  ///< both copies' H ghost columns of row j (bloch.h), after their final H
   void pair_before_sweep();        ///< both copies' sources and edges before the sweep
   void pair_before_first_e_row();  ///< and before E of row 0
   /// step_magnetic's sweep over both copies of a pair with magnetic cells (bloch_magnets.cpp).
@@ -343,6 +342,7 @@ class Simulation {
   void gather_tilted_count();
   void gather_recorder_cells();
   void build_magnets();
+  void build_fusion();
   void step_fused(), step_magnetic();
   /// mu0 H at the magnetic cells of row j as H is now, b[c * longest_row + q] for the row's
   /// q-th cell.
@@ -363,17 +363,18 @@ class Simulation {
   void compute_emitters();
   /// The injections' values of step `step` (H at step dt, E at (step + 1/2) dt) into out.
   void emitters_at(long step, double* out) const;
-  /// H of row j; ev: the step's injection values (emitter_value_ for the step now, or a
-  /// wavefront step's own, solver/blocking/)
-  void h_row(int j, const double* ev);
+  /// H of row j, but for its columns [skip0, skip1); ev: the step's injection values
+  /// (emitter_value_ for the step now, or a wavefront step's own, solver/blocking/)
+  void h_row(int j, const double* ev, int skip0 = 0, int skip1 = 0);
   void h_row(int j) { h_row(j, emitter_value_.data()); }
   std::array<R*, 6> fields() { return {f_[0].data(), f_[1].data(), f_[2].data(), f_[3].data(), f_[4].data(), f_[5].data()}; }
   /// The edges' hook after everything that adds to H row j (boundaries.h).
   void h_boundaries(int j) { walls_.after_h_row(fields().data(), j, g_); }
-  /// E of row j: the update below, with the dispersive nodes' polarization currents around it.
-  void e_row(int j, const double* ev);
+  /// E of row j (but for [skip0, skip1)): the update below, with the dispersive nodes' currents around it.
+  void e_row(int j, const double* ev, int skip0 = 0, int skip1 = 0);
   void e_row(int j) { e_row(j, emitter_value_.data()); }
-  void e_row_update(int j, const double* ev);  ///< runs, absorber, sources
+  void e_row_update(int j, const double* ev, int skip0, int skip1);  ///< runs, absorber, sources
+  void he_row(int j, const double* ev);  ///< h_row and e_row of row j, its fused span in one loop
   void record();
   /// The recorders that read the whole grid (spectral maps, snapshots) after the step just taken.
   void record_whole();
@@ -388,8 +389,7 @@ class Simulation {
   /// from the values its units took.
   void record_taps(long n0, int depth);
   blocking::DepthChoice block_choice(int requested) const;
-  /// The first step from n_ on whose fields a recorder reads (LONG_MAX: none).
-  long next_read_step() const;
+  long next_read_step() const;  ///< the first step from n_ on whose fields a recorder reads (LONG_MAX: none)
 };
 
 extern template class Simulation<float>;

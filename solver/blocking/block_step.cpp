@@ -26,7 +26,13 @@ blocking::DepthChoice Simulation<R>::block_choice(int requested) const {
   // lists (4 ints) and the gathers, about 180 bytes a cell
   const std::size_t cell_bytes = mag_.empty() ? 0 : 180 * (mag_.count() / std::max(1, g_.ny) + 1);
   const int lead = mag_.empty() ? blocking::kLead : blocking::kMagneticLead;
-  const int d = requested > 0 ? requested : blocking::auto_depth(g_.nx, g_.ny, sizeof(R), blocking::band_bytes(), lead + 1, cell_bytes);
+  // past the last-level cache a sweep streams from memory, and deeper blocks (to 64 steps, in
+  // a band of up to 32 MiB) pay; within it they cost the wavefront's longer start and end
+  const std::size_t llc = blocking::last_level_cache(), row = 6 * (g_.nx + 2) * sizeof(R) + cell_bytes;
+  const bool past = llc > 0 && static_cast<std::size_t>(g_.ny) * row > llc;
+  const int d = requested > 0 ? requested
+                              : blocking::auto_depth(g_.nx, g_.ny, sizeof(R), blocking::band_bytes(past), lead + 1,
+                                                     cell_bytes, past ? 64 : 16);
   if (d <= 1) return {1, "one pass per step (the grid's rows are too long for a band of rows in cache)"};
   std::string note = fmt::format("{} steps per pass over the rows ({})", d, requested > 0 ? "as asked" : "auto");
   if (!probes_.empty() || !power_spectra_.empty()) note += "; probes and power spectra record inside the blocks";
@@ -81,8 +87,7 @@ void Simulation<R>::step_block(int depth) {
             double* ring[2] = {mag_ring_.data() + t * 6 * w, mag_ring_.data() + (t * 6 + 3) * w};
             magnetic_unit(j, n0 + t, ev, ring, scratch, tilted);
           } else {
-            h_row(j, ev);
-            e_row(j, ev);
+            he_row(j, ev);
           }
           if (taps) {  // the recorders read the state after step n0 + t: the copy that step wrote
             const int p = MagneticCells::newest(n0 + t + 1);

@@ -39,11 +39,16 @@ struct DepthChoice {
 
 /// Depth `auto` on a grid of nx columns, `bytes` per value: deep enough to reuse each row
 /// several times, shallow enough that the band of rows (skew * depth + 2 rows of six
-/// arrays, plus extra_row_bytes a row: the magnetic cells' state) stays within `cache` bytes.
-int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, std::size_t extra_row_bytes = 0);
-/// The bytes a block's band of rows may take: a quarter of the last-level cache the CPU
-/// reports (sysconf), at least 2 MiB (two cores' L2 here) and at most 16 MiB; 2 MiB where the
-/// CPU does not say (docs/performance.md, "The band's budget": measured).
-std::size_t band_bytes();
+/// arrays, plus extra_row_bytes a row: the magnetic cells' state) stays within `cache` bytes;
+/// at most `most`.
+int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, std::size_t extra_row_bytes = 0,
+               int most = 16);
+/// The last-level cache the CPU reports (sysconf), bytes; 0 where it does not say.
+std::size_t last_level_cache();
+/// The bytes a block's band of rows may take: a quarter of the last-level cache, at least
+/// 2 MiB (two cores' L2 here) and at most 16 MiB, or 32 MiB for a grid larger than that cache
+/// (past_cache); 2 MiB where the CPU does not say (docs/performance.md, "The band's budget"
+/// and "One loop for H and E": measured).
+std::size_t band_bytes(bool past_cache = false);
 
 }  // namespace ty::blocking

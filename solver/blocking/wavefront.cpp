@@ -18,19 +18,25 @@ void Progress::wait(int t, int rows, int& seen) const {
   }
 }
 
-std::size_t band_bytes() {
+std::size_t last_level_cache() {
   // glibc's sysconf reads the cache sizes from the CPU; 0 or -1 where it cannot tell
   const long l3 = sysconf(_SC_LEVEL3_CACHE_SIZE);
-  const std::size_t floor = std::size_t(2) << 20, ceiling = std::size_t(16) << 20;
-  if (l3 <= 0) return floor;
-  return std::clamp(static_cast<std::size_t>(l3) / 4, floor, ceiling);
+  return l3 > 0 ? static_cast<std::size_t>(l3) : 0;
 }
 
-int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, std::size_t extra_row_bytes) {
+std::size_t band_bytes(bool past_cache) {
+  const std::size_t l3 = last_level_cache();
+  const std::size_t floor = std::size_t(2) << 20, ceiling = std::size_t(past_cache ? 32 : 16) << 20;
+  if (l3 == 0) return floor;
+  return std::clamp(l3 / 4, floor, ceiling);
+}
+
+int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, std::size_t extra_row_bytes,
+               int most) {
   const std::size_t row = 6 * static_cast<std::size_t>(nx + 2) * bytes + extra_row_bytes;
   int depth = 1;
   // the band a block keeps warm: skew * depth + 2 rows of the six arrays
-  while (depth < 16 && static_cast<std::size_t>(skew * 2 * depth + 2) * row <= cache) depth *= 2;  // the doubled depth's band
+  while (depth < most && static_cast<std::size_t>(skew * 2 * depth + 2) * row <= cache) depth *= 2;  // the doubled depth's band
   return std::max(1, std::min(depth, ny));
 }
 

@@ -59,9 +59,16 @@ TEST_CASE("wavefront: depth auto keeps the band of the doubled depth within the 
   CHECK(blocking::auto_depth(1024, 1024, 8, 2 * MiB, 3, 184 * 1024) == 2);  // 8 magnetic rows of 238 KB: 1.9 MB
   CHECK(blocking::auto_depth(1024, 1024, 8, 16 * MiB, 3, 184 * 1024) == 16);  // 50 rows: 11.9 MB
   CHECK(blocking::auto_depth(1024, 5, 8, 16 * MiB, 2) == 5);  // never deeper than the rows
-  // the budget: a quarter of the last-level cache, between 2 and 16 MiB (docs/performance.md)
+  // a grid past the cache: up to 64 steps in up to 32 MiB (depth 64: 130 rows of 196 704 B, 25.6 MB)
+  CHECK(blocking::auto_depth(4096, 4096, 8, 32 * MiB, 2, 0, 64) == 64);
+  CHECK(blocking::auto_depth(4096, 4096, 8, 16 * MiB, 2, 0, 64) == 32);  // 130 rows do not fit 16 MiB
+  CHECK(blocking::auto_depth(1024, 1024, 8, 32 * MiB, 2, 0, 16) == 16);  // within the cache: 16 at most
+  // the budget: a quarter of the last-level cache, between 2 and 16 MiB, or 32 MiB for a
+  // grid larger than the cache (docs/performance.md)
   CHECK(blocking::band_bytes() >= 2 * MiB);
   CHECK(blocking::band_bytes() <= 16 * MiB);
+  CHECK(blocking::band_bytes(true) >= blocking::band_bytes());
+  CHECK(blocking::band_bytes(true) <= 32 * MiB);
 }
 
 TEST_CASE("wavefront: every (row, step) once, after the units it reads, for 1 to 3 threads") {
