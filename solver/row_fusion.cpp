@@ -21,8 +21,10 @@ void Simulation<R>::build_fusion() {
   constexpr int W = fused_row::lanes<R>();
   const int nx = g_.nx, ny = g_.ny;
   fused_.assign(static_cast<std::size_t>(ny), {});
-  // magnets, rotated tensors, ranks and Bloch pairs step their rows by their own sweeps
-  if (!mag_.empty() || !tensor_.empty() || ranks_ > 1 || walls_.bloch_x) return;
+  // magnets, ranks and Bloch pairs step their rows by their own sweeps (a rotated tensor's
+  // in-plane nodes are swept as vacuum, by the same formula in either loop, and stepped after
+  // the whole sweep: tensor_cells.h)
+  if (!mag_.empty() || ranks_ > 1 || walls_.bloch_x) return;
   // the x strips' columns (their corrections and losses come between the plain update and
   // the neighbours' reads) and a vector's margin at each side (the walls' columns 0 and
   // nx - 1, the ghosts) stay with the row kernels; the span's last vector reads E(b .. b+W-1)
