@@ -43,6 +43,22 @@ inline Scene box_scene(int nx, int ny, double d, Boundary bx, Boundary by, doubl
   return s;
 }
 
+/// A circle of a lossy, anisotropic dielectric (eps 3, 4, 5 along x, y, z; 50 S/m; values
+/// invented for the tests) added to the scene.
+inline void add_lossy_circle(Scene& s, Vec2 centre, double radius) {
+  Medium m;
+  m.name = "lossy";
+  m.permittivity = {3, 4, 5};
+  m.conductivity = 50;
+  s.media.push_back(m);
+  Body b;
+  b.medium = static_cast<int>(s.media.size()) - 1;
+  b.shape.kind = Shape::Kind::circle;
+  b.shape.centre = centre;
+  b.shape.radius = radius;
+  s.bodies.push_back(b);
+}
+
 /// A source of the given kind and component carrying a Gaussian pulse.
 inline Source pulsed(Source::Kind kind, Component c, double f, double fwhm, double delay, double amplitude) {
   Source s;

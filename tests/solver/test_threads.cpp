@@ -18,21 +18,12 @@ std::vector<R> final_fields(int threads, bool periodic_y, bool magnetic = false,
   const double d = 10e-6;
   Scene s = test::box_scene(150, ny, d, Boundary::absorbing, periodic_y ? Boundary::periodic : Boundary::absorbing,
                             0.95, 1e-9);
-  Medium m;
-  m.name = "lossy";
-  m.permittivity = {3, 4, 5};
-  m.conductivity = 50;
-  s.media.push_back(m);
+  test::add_lossy_circle(s, {90 * d, 50 * d}, 20 * d);  // medium 0
   Medium pec;
   pec.name = "metal";
   pec.perfect_conductor = true;
   s.media.push_back(pec);
-  Body b;
-  b.medium = 0;
-  b.shape.kind = Shape::Kind::circle;
-  b.shape.centre = {90 * d, 50 * d};
-  b.shape.radius = 20 * d;
-  s.bodies.push_back(b);
+  Body b = s.bodies.back();
   b.medium = 1;
   b.shape.kind = Shape::Kind::rectangle;
   b.shape.centre = {40 * d, 70 * d};

@@ -161,16 +161,7 @@ Scene scene_of(const std::string& kind, int nx, int ny) {
   const double f0 = slow ? 0.2e12 : 1e12, fwhm = slow ? 3e-12 : 0.3e-12, delay = slow ? 5e-12 : 0.8e-12;
   s.sources.push_back(test::point_source(Component::Ez, {0.3 * nx * d, 0.4 * ny * d}, f0, fwhm, delay, 1e-3));
   if (kind == "dielectric" || kind == "graded" || kind == "recorders") {
-    Medium m;
-    m.name = "lossy";
-    m.permittivity = {3, 4, 5};
-    m.conductivity = 50;
-    s.media.push_back(m);
-    Body b;
-    b.shape.kind = Shape::Kind::circle;
-    b.shape.centre = {0.6 * nx * d, 0.5 * ny * d};
-    b.shape.radius = 0.2 * ny * d;
-    s.bodies.push_back(b);
+    test::add_lossy_circle(s, {0.6 * nx * d, 0.5 * ny * d}, 0.2 * ny * d);
     s.sources.push_back(test::plane_pulse(Component::Hz, 0.15 * nx * d, f0, fwhm, delay, 100));
   }
   if (kind == "dispersive") {  // GaAs from memory (Blakemore, J. Appl. Phys. 53, R123 (1982)), damping invented

@@ -120,16 +120,7 @@ Scene scene_of(const std::string& kind) {
   if (kind == "graded") s.grid.absorber.kind = Absorber::Kind::graded;
   s.sources.push_back(test::point_source(Component::Ez, {0.3 * nx * d, 0.4 * ny * d}, 1e12, 0.3e-12, 0.8e-12, 1e-3));
   s.sources.push_back(test::plane_pulse(Component::Hz, 0.2 * nx * d, 1e12, 0.3e-12, 0.8e-12, 100));
-  Medium m;
-  m.name = "lossy";
-  m.permittivity = {3, 4, 5};
-  m.conductivity = 50;
-  s.media.push_back(m);
-  Body b;
-  b.shape.kind = Shape::Kind::circle;
-  b.shape.centre = {0.7 * nx * d, 0.5 * ny * d};
-  b.shape.radius = 0.2 * ny * d;
-  s.bodies.push_back(b);
+  test::add_lossy_circle(s, {0.7 * nx * d, 0.5 * ny * d}, 0.2 * ny * d);
   if (kind == "rotated") {  // a rotated dispersive tensor (values invented): its in-plane nodes stepped after the sweep
     Medium r;
     r.name = "rotated";
@@ -141,6 +132,7 @@ Scene scene_of(const std::string& kind) {
     r.tensor->rotate = 0.5;
     r.permittivity = {4, 2, 2};
     s.media.push_back(r);
+    Body b = s.bodies.back();
     b.medium = 1;
     b.shape.centre = {0.45 * nx * d, 0.7 * ny * d};
     b.shape.radius = 0.15 * ny * d;
