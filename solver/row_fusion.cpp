@@ -20,6 +20,7 @@ template <class R>
 void Simulation<R>::build_fusion() {
   constexpr int W = fused_row::lanes<R>();
   const int nx = g_.nx, ny = g_.ny;
+  if (fused_.empty()) bytes_ += static_cast<std::size_t>(ny) * sizeof(FusedSpan);
   fused_.assign(static_cast<std::size_t>(ny), {});
   // magnets, ranks and Bloch pairs step their rows by their own sweeps (a rotated tensor's
   // in-plane nodes are swept as vacuum, by the same formula in either loop, and stepped after

@@ -27,7 +27,8 @@
 # 50 min on one): one process per case, its log and verdict kept in DIR; the same command
 # again skips the cases that ended and those another queue is running, so two queues (one
 # per core, e.g. under `taskset -c 0` and `-c 1`) share the list; a case stopped from outside
-# (kill, Ctrl-C) records no verdict and starts over:
+# (kill, Ctrl-C) records no verdict and starts over, while a crash or SIGKILL (the
+# out-of-memory killer) is a failure (tests/scripts/absorber-queue.sh):
 #   tools/absorber-check.sh --queue DIR [cells]     DIR/SUMMARY: each case's verdict
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
@@ -60,11 +61,17 @@ if [ "${1:-}" = "--queue" ]; then
       rc=0
       TERAYEE_ABSORBER_CELL="$c" TERAYEE_ABSORBER_NAME="$n" "$tests" -tc="absorbers\\, long*" --no-skip -s \
         > "$key.log" 2>&1 || rc=$?
-      # a case stopped from outside (kill, Ctrl-C, a hang-up: killed by the signal, or doctest
-      # reporting it caught) has no verdict: its claim goes, and the next queue runs it again
+      # a case stopped from outside (kill, Ctrl-C, a hang-up: killed by SIGTERM, SIGINT or
+      # SIGHUP, or doctest reporting it caught one) has no verdict: its claim goes, and the next
+      # queue runs it again. Any other end is the case's verdict: a crash (SIGSEGV, SIGABRT) and
+      # SIGKILL (the out-of-memory killer; kill -9 too) fail it, and the log says which signal.
       verdict=failed
       if [ $rc -eq 0 ]; then verdict=passed
-      elif [ $rc -gt 128 ] || grep -qE "CRASHED: SIG(TERM|INT|HUP)" "$key.log"; then verdict=""; fi
+      elif [ $rc -eq 129 ] || [ $rc -eq 130 ] || [ $rc -eq 143 ] ||
+        grep -qE "CRASHED: SIG(TERM|INT|HUP)" "$key.log"; then verdict=""
+      elif [ $rc -gt 128 ]; then
+        echo "ended by signal $((rc - 128)) ($(kill -l $((rc - 128)) 2>/dev/null || echo '?')); 9 is the out-of-memory killer's (or kill -9)" >> "$key.log"
+      fi
       [ -z "$verdict" ] || touch "$key.$verdict"
       rm -f "$key.running"
       echo "   ${verdict:-stopped from outside, no verdict (the next queue runs it again)} ($(date +%T))"

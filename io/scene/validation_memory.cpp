@@ -83,7 +83,9 @@ void add_media(const Scene& s, RunSizes& z) {
   const double cpml = 6 * (2 * (z.npml_x + 1) * z.ny + 2 * (z.npml_y + 1) * z.nx) * real;
   // the medium of each cell of the extent, an int each
   const double map = 4 * std::round(s.grid.extent.x / s.grid.dx) * std::round(s.grid.extent.y / s.grid.dy);
-  z.memory.push_back({"fields and absorber", fields + cpml, s.grid.where});
+  // per row: its fused span (columns and E's k, row_fusion.cpp) and its coefficient runs' first index
+  const double rows = z.ny * (8 + 2 * real + 3 * 4);
+  z.memory.push_back({"fields and absorber", fields + cpml + rows, s.grid.where});
   z.memory.push_back({"medium map", map, s.grid.where});  // over ranks rank 0's alone
   // while the media are built (row by row, coefficient_runs.cpp): each thread's row of ca and cb,
   // a run per coefficient change; with rotated in-plane media, four bytes a node (which nodes

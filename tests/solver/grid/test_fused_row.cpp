@@ -107,7 +107,8 @@ State run(const Scene& scene, bool fused, int depth, long steps, int& rows) {
 
 /// 83 x 41 cells of 10 um (odd, so spans end inside rows); sides by kind, a lossy circle of
 /// dielectric (rows through it fuse on one side), an Ez point source and an Hz plane pulse
-/// launched across every row (their columns stay out of the spans).
+/// launched across every row (their columns stay out of the spans), or along one row
+/// ("turned": that row keeps no span).
 Scene scene_of(const std::string& kind) {
   const int nx = 83, ny = 41;
   const double d = 10e-6;
@@ -121,6 +122,11 @@ Scene scene_of(const std::string& kind) {
   s.sources.push_back(test::point_source(Component::Ez, {0.3 * nx * d, 0.4 * ny * d}, 1e12, 0.3e-12, 0.8e-12, 1e-3));
   s.sources.push_back(test::plane_pulse(Component::Hz, 0.2 * nx * d, 1e12, 0.3e-12, 0.8e-12, 100));
   test::add_lossy_circle(s, {0.7 * nx * d, 0.5 * ny * d}, 0.2 * ny * d);
+  if (kind == "turned") {  // the pulse launched along a row instead, obliquely: one row holds the whole line
+    s.sources.back().line_axis = 'y';
+    s.sources.back().line_at = 0.35 * ny * d;
+    s.sources.back().angle = 1.27;  // rad from +x: 17 degrees off the row's normal
+  }
   if (kind == "rotated") {  // a rotated dispersive tensor (values invented): its in-plane nodes stepped after the sweep
     Medium r;
     r.name = "rotated";
@@ -174,7 +180,7 @@ TEST_CASE("fused rows: the one-loop kernel gives the two loops' bits on random r
 }
 
 TEST_CASE("fused rows: whole runs give the two loops' bits (absorbers, walls, media, sources, blocks)") {
-  for (const char* kind : {"pml", "graded", "periodic x", "walls", "magnetic x", "rotated"})
+  for (const char* kind : {"pml", "graded", "periodic x", "walls", "magnetic x", "turned", "rotated"})
     run_same_bits<double>(kind, 1);
   run_same_bits<double>("pml", 8);  // the wavefront's units take the fused rows too
   run_same_bits<float>("pml", 1);
