@@ -37,7 +37,7 @@ int auto_depth(int nx, int ny, std::size_t bytes, std::size_t cache, int skew, s
   int depth = 1;
   // the band a block keeps warm: skew * depth + 2 rows of the six arrays
   while (depth < most && static_cast<std::size_t>(skew * 2 * depth + 2) * row <= cache) depth *= 2;  // the doubled depth's band
-  return std::max(1, std::min(depth, ny));
+  return std::max(1, std::min({depth, most, ny}));  // doubling may pass a `most` that is no power of two
 }
 
 }  // namespace ty::blocking

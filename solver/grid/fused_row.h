@@ -67,7 +67,14 @@ void step(R* const* f, long s, int a, int b, R sx, R sy, R kx, R ky) {
     return v;
   };
   auto store = [](R* p, V v) { std::memcpy(p, &v, sizeof v); };
-  const V vsx = V{} + sx, vsy = V{} + sy, neg_sy = V{} - sy, vkx = V{} + kx, vky = V{} + ky, neg_kx = V{} - kx;
+  // each coefficient copied to every lane as the row loops hold it (0 - k would give +0 where
+  // -k is -0, and a product with -0 can keep a -0 result that +0 would not)
+  auto splat = [](R x) {
+    V v;
+    for (int l = 0; l < W; ++l) v[l] = x;
+    return v;
+  };
+  const V vsx = splat(sx), vsy = splat(sy), neg_sy = splat(-sy), vkx = splat(kx), vky = splat(ky), neg_kx = splat(-kx);
   V hy_left{}, hz_left{};  // new H of the block before: lane W-1 is column a - 1
   hy_left[W - 1] = hy[a - 1], hz_left[W - 1] = hz[a - 1];
   V ez_here = load(ez + a), ey_here = load(ey + a);

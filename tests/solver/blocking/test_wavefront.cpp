@@ -63,6 +63,7 @@ TEST_CASE("wavefront: depth auto keeps the band of the doubled depth within the 
   CHECK(blocking::auto_depth(4096, 4096, 8, 32 * MiB, 2, 0, 64) == 64);
   CHECK(blocking::auto_depth(4096, 4096, 8, 16 * MiB, 2, 0, 64) == 32);  // 130 rows do not fit 16 MiB
   CHECK(blocking::auto_depth(1024, 1024, 8, 32 * MiB, 2, 0, 16) == 16);  // within the cache: 16 at most
+  CHECK(blocking::auto_depth(4096, 4096, 8, 32 * MiB, 2, 0, 48) == 48);  // a limit that is no power of two holds
   // the budget: a quarter of the last-level cache, between 2 and 16 MiB, or 32 MiB for a
   // grid larger than the cache (docs/performance.md)
   CHECK(blocking::band_bytes() >= 2 * MiB);

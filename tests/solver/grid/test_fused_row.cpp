@@ -65,6 +65,12 @@ void two_loops(ThreeRows<R>& t, int a, int b, R sx, R sy, R kx, R ky) {
   }
 }
 
+/// Byte-for-byte equality: == would take -0 for +0.
+template <class R>
+bool same_bytes(const std::vector<R>& a, const std::vector<R>& b) {
+  return a.size() == b.size() && std::memcmp(a.data(), b.data(), a.size() * sizeof(R)) == 0;
+}
+
 template <bool kRuns, class R>
 void kernel_same_bits() {
   constexpr int W = fused_row::lanes<R>();
@@ -79,11 +85,29 @@ void kernel_same_bits() {
       CAPTURE(n);
       int changed = 0;
       for (int c = 0; c < 6; ++c) {
-        CHECK(p.f[c] == q.f[c]);
+        CHECK(same_bytes(p.f[c], q.f[c]));
         changed += p.f[c] != ThreeRows<R>(p.nx).f[c];
       }
       CHECK(changed == 6);  // every component moved: equal arrays would prove nothing
     }
+}
+
+/// Zero coefficients on fields of -0: every result is a signed zero, and its sign follows the
+/// sign each coefficient is used with (IEEE 754: -0 + -0 = -0, -0 + +0 = +0), so the fused loop
+/// must hold -k, not 0 - k, as the row loops do.
+template <bool kRuns, class R>
+void kernel_signed_zeros() {
+  constexpr int W = fused_row::lanes<R>();
+  ThreeRows<R> p(4 * W);
+  for (auto& a : p.f) std::fill(a.begin(), a.end(), R(-0.0));
+  ThreeRows<R> q = p;
+  two_loops<kRuns>(p, W, 3 * W, R(0), R(0), R(0), R(0));
+  R* f[6] = {q.row(0), q.row(1), q.row(2), q.row(3), q.row(4), q.row(5)};
+  fused_row::step(f, q.s, W, 3 * W, R(0), R(0), R(0), R(0));
+  for (int c = 0; c < 6; ++c) {
+    CAPTURE(c);
+    CHECK(same_bytes(p.f[c], q.f[c]));
+  }
 }
 
 using State = std::map<std::string, std::vector<char>>;
@@ -91,8 +115,8 @@ using State = std::map<std::string, std::vector<char>>;
 /// `steps` steps of the scene, fused rows on or off, in blocks of `depth` (1: one pass each);
 /// every state array's bytes, and how many rows took the fused loop.
 template <class R>
-State run(const Scene& scene, bool fused, int depth, long steps, int& rows) {
-  Simulation<R> sim(scene, 2);
+State run(const Scene& scene, bool fused, int depth, long steps, int threads, int& rows) {
+  Simulation<R> sim(scene, threads);
   sim.set_row_fusion(fused);
   sim.set_block_depth(depth);
   rows = sim.fused_rows();
@@ -108,12 +132,14 @@ State run(const Scene& scene, bool fused, int depth, long steps, int& rows) {
 /// 83 x 41 cells of 10 um (odd, so spans end inside rows); sides by kind, a lossy circle of
 /// dielectric (rows through it fuse on one side), an Ez point source and an Hz plane pulse
 /// launched across every row (their columns stay out of the spans), or along one row
-/// ("turned": that row keeps no span).
+/// ("turned": that row keeps no span). "dispersive" adds a body of a Lorentz medium, "edges" a diagonal of Hz point sources over 17 consecutive columns
+/// (so some sit at a span's first or last column, or just outside it, in float and double).
 Scene scene_of(const std::string& kind) {
   const int nx = 83, ny = 41;
   const double d = 10e-6;
   Boundary bx = Boundary::absorbing, by = Boundary::absorbing;
   if (kind == "periodic x") bx = Boundary::periodic, by = Boundary::electric_wall;
+  if (kind == "periodic y") by = Boundary::periodic;
   if (kind == "walls") bx = Boundary::electric_wall, by = Boundary::magnetic_wall;
   if (kind == "magnetic x") bx = Boundary::magnetic_wall;
   Scene s = test::box_scene(nx, ny, d, bx, by, 0.95, 1e-9);
@@ -127,16 +153,22 @@ Scene scene_of(const std::string& kind) {
     s.sources.back().line_at = 0.35 * ny * d;
     s.sources.back().angle = 1.27;  // rad from +x: 17 degrees off the row's normal
   }
-  if (kind == "rotated") {  // a rotated dispersive tensor (values invented): its in-plane nodes stepped after the sweep
+  if (kind == "edges")
+    for (int k = 0; k < 17; ++k)
+      s.sources.push_back(test::point_source(Component::Hz, {(k + 10.5) * d, (k + 12.5) * d}, 1e12, 0.3e-12, 0.8e-12, 1));
+  // a rotated dispersive tensor (values invented): its in-plane nodes stepped after the sweep;
+  // or an isotropic Lorentz medium (invented): rows through it fuse beside it (its nodes'
+  // ca is not 1, the pole's implicit term, and row_fusion.cpp also cuts at them)
+  if (kind == "rotated" || kind == "dispersive") {
+    const bool rotated = kind == "rotated";
     Medium r;
-    r.name = "rotated";
+    r.name = "dispersive";
     r.tensor = PermittivityTensor{};
-    r.tensor->axis[0].eps_inf = 4;
-    r.tensor->axis[0].lorentz = {{8e12, 2.0, 0.1e12}};
-    r.tensor->axis[1].eps_inf = 2;
-    r.tensor->axis[2].eps_inf = 2;
-    r.tensor->rotate = 0.5;
-    r.permittivity = {4, 2, 2};
+    for (auto& a : r.tensor->axis) a.eps_inf = 2;
+    r.tensor->axis[0].eps_inf = rotated ? 4 : 2;
+    for (int c = 0; c < (rotated ? 1 : 3); ++c) r.tensor->axis[c].lorentz = {{8e12, 2.0, 0.1e12}};
+    r.tensor->rotate = rotated ? 0.5 : 0.0;
+    r.permittivity = {r.tensor->axis[0].eps_inf, 2, 2};
     s.media.push_back(r);
     Body b = s.bodies.back();
     b.medium = 1;
@@ -147,14 +179,17 @@ Scene scene_of(const std::string& kind) {
   return s;
 }
 
+/// The run without fused rows (one pass, `off` threads) against the run with them (`depth`
+/// steps a block, `on` threads).
 template <class R>
-void run_same_bits(const std::string& kind, int depth) {
+void run_same_bits(const std::string& kind, int depth, int off_threads = 2, int on_threads = 2) {
   const Scene s = scene_of(kind);
   int on = 0, off = 0;
-  const State a = run<R>(s, false, 1, 150, off);
-  const State b = run<R>(s, true, depth, 150, on);
+  const State a = run<R>(s, false, 1, 150, off_threads, off);
+  const State b = run<R>(s, true, depth, 150, on_threads, on);
   CAPTURE(kind);
   CAPTURE(depth);
+  CAPTURE(on_threads);
   CHECK(off == 0);
   CHECK(on >= 20);  // most rows fuse (41 less the absorber's 12, or none lost to a y wall)
   double norm = 0;
@@ -177,12 +212,20 @@ TEST_CASE("fused rows: the one-loop kernel gives the two loops' bits on random r
   kernel_same_bits<false, float>();
   kernel_same_bits<true, double>();
   kernel_same_bits<true, float>();
+  kernel_signed_zeros<false, double>();
+  kernel_signed_zeros<true, float>();
 }
 
 TEST_CASE("fused rows: whole runs give the two loops' bits (absorbers, walls, media, sources, blocks)") {
-  for (const char* kind : {"pml", "graded", "periodic x", "walls", "magnetic x", "turned", "rotated"})
+  for (const char* kind :
+       {"pml", "graded", "periodic x", "periodic y", "walls", "magnetic x", "turned", "rotated", "dispersive", "edges"})
     run_same_bits<double>(kind, 1);
   run_same_bits<double>("pml", 8);  // the wavefront's units take the fused rows too
+  run_same_bits<double>("graded", 8);
+  run_same_bits<double>("edges", 4);
+  run_same_bits<double>("pml", 1, 1, 3);  // which rows fuse depends on the thread count; the bits do not
+  run_same_bits<double>("dispersive", 8, 1, 3);
   run_same_bits<float>("pml", 1);
+  run_same_bits<float>("edges", 1);
   run_same_bits<float>("walls", 4);
 }
