@@ -89,8 +89,8 @@ void Simulation<R>::h_row(int j, const double* ev, int skip0, int skip1) {
   for (int q = inj_h_row_[j]; q < inj_h_row_[j + 1]; ++q) inj_h_[q].before = f_[inj_h_[q].comp][inj_h_[q].index];
   walls_.before_h_row(ey, ez, nx);
   if (in_absorber(j)) graded_decay(j, false);  // the graded loss's first half step (graded_loss.h)
-  const R* __restrict exn = ex + s;
-  const R* __restrict ezn = ez + s;
+  const R* __restrict exn = f_[0].data() + o + s;  // from the array, not from ex (C11 6.7.3.1p4)
+  const R* __restrict ezn = f_[2].data() + o + s;
   const R sx = sx_, sy = sy_, neg_sy = -sy_;
   auto update = [&](int i0, int i1) {  // yee_update.h
 #pragma omp simd
@@ -136,8 +136,8 @@ void Simulation<R>::e_row_update(int j, const double* ev, int skip0, int skip1) 
   const R* __restrict hx = f_[3].data() + o;
   const R* __restrict hy = f_[4].data() + o;
   const R* __restrict hz = f_[5].data() + o;
-  const R* __restrict hxp = hx - s;
-  const R* __restrict hzp = hz - s;
+  const R* __restrict hxp = f_[3].data() + o - s;  // from the array, not from hx (C11 6.7.3.1p4)
+  const R* __restrict hzp = f_[5].data() + o - s;
   const Run* run = runs_.data();
   for (int q = inj_e_row_[j]; q < inj_e_row_[j + 1]; ++q) inj_e_[q].before = f_[inj_e_[q].comp][inj_e_[q].index];
   if (in_absorber(j)) graded_decay(j, true);  // the graded loss's first half step (graded_loss.h)

@@ -85,8 +85,8 @@ void Simulation<R>::pml_h_row(int j) {
   const R* __restrict ex = f_[0].data() + o;
   const R* __restrict ey = f_[1].data() + o;
   const R* __restrict ez = f_[2].data() + o;
-  const R* __restrict exn = ex + s;
-  const R* __restrict ezn = ez + s;
+  const R* __restrict exn = f_[0].data() + o + s;  // from the array, not from ex (C11 6.7.3.1p4)
+  const R* __restrict ezn = f_[2].data() + o + s;
   const R sx = sx_, sy = sy_;
   // convolutional PML, x strips (columns of px_) and y strips (whole rows)
   const int ncx = px_.any_pml() ? px_.count() : 0;
@@ -128,8 +128,8 @@ void Simulation<R>::pml_e_row(int j) {
   const R* __restrict hx = f_[3].data() + o;
   const R* __restrict hy = f_[4].data() + o;
   const R* __restrict hz = f_[5].data() + o;
-  const R* __restrict hxp = hx - s;
-  const R* __restrict hzp = hz - s;
+  const R* __restrict hxp = f_[3].data() + o - s;  // from the array, not from hx (C11 6.7.3.1p4)
+  const R* __restrict hzp = f_[5].data() + o - s;
   const int ncx = px_.any_pml() ? px_.count() : 0;
   if (ncx) {
     R* __restrict p1 = psi_eyx_.data() + static_cast<size_t>(j) * ncx;

@@ -53,10 +53,12 @@ void step(R* const* f, long s, int a, int b, R sx, R sy, R kx, R ky) {
   R* __restrict hx = f[3];
   R* __restrict hy = f[4];
   R* __restrict hz = f[5];
-  const R* __restrict exn = ex + s;  // E of the row above
-  const R* __restrict ezn = ez + s;
-  const R* __restrict hxp = hx - s;  // H of the row below
-  const R* __restrict hzp = hz - s;
+  // the neighbour rows from the arrays, not from ex and hx: one restrict pointer is not made
+  // from another in the same block (C11 6.7.3.1p4)
+  const R* __restrict exn = f[0] + s;  // E of the row above
+  const R* __restrict ezn = f[2] + s;
+  const R* __restrict hxp = f[3] - s;  // H of the row below
+  const R* __restrict hzp = f[5] - s;
 #ifdef TY_FUSED_ROW_VECTORS
   using V = yee::Vec<R>;
   constexpr int W = lanes<R>();
