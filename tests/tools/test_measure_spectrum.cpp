@@ -24,14 +24,15 @@ namespace {
 using ty::test::shell;
 
 namespace {
-/// The scene, its reference run, and `measure spectrum` over the two.
-void run_with_reference(const std::string& scene, const fs::path& run, const fs::path& ref) {
+/// The scene, its reference run, and `measure spectrum` over the two (sets: extra --set options).
+void run_with_reference(const std::string& scene, const fs::path& run, const fs::path& ref,
+                        const std::string& sets = "") {
   fs::remove_all(run);
   fs::remove_all(ref);
   const std::string bin = TERAYEE_BINARY;
-  REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet") == 0);
-  REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference --quiet") == 0);
-  REQUIRE(shell(bin + " measure spectrum '" + run.string() + "' --reference '" + ref.string() + "'") == 0);
+  REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet" + sets) == 0);
+  REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference --quiet" + sets) == 0);
+  REQUIRE(shell(bin + " measure spectrum '" + run.string() + "' --reference '" + ref.string() + "' > /dev/null") == 0);
 }
 }  // namespace
 
@@ -238,12 +239,7 @@ namespace {
 std::vector<std::array<double, 4>> spectrum_in(const std::string& scene, const std::string& precision) {
   const fs::path run = fs::temp_directory_path() / ("terayee-test-precision-" + precision),
                  ref = fs::temp_directory_path() / ("terayee-test-precision-" + precision + "-ref");
-  const std::string bin = TERAYEE_BINARY, set = " --set time.precision=" + precision;
-  fs::remove_all(run);
-  fs::remove_all(ref);
-  REQUIRE(shell(bin + " run '" + scene + "' -o '" + run.string() + "' --quiet" + set) == 0);
-  REQUIRE(shell(bin + " run '" + scene + "' -o '" + ref.string() + "' --reference --quiet" + set) == 0);
-  REQUIRE(shell(bin + " measure spectrum '" + run.string() + "' --reference '" + ref.string() + "' > /dev/null") == 0);
+  run_with_reference(scene, run, ref, " --set time.precision=" + precision);
   std::ifstream csv(run / "spectrum.csv");
   std::string line;
   std::getline(csv, line);
