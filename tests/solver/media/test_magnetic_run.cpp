@@ -3,7 +3,8 @@
 /// phase by phase: the field at the step's ends from the gather of magnetic_cells.h plus
 /// G P of the deviations (half the cell's own, a quarter of each neighbour's), then
 /// linear_cells (llg_linear.h) on those fields. Runs of every length up to 19 cells, starting
-/// at every offset in a 64-byte line (the pass aligns its vector loop), one and two
+/// at every offset in a 64-byte line (the first cell and the last select their neighbours
+/// inside the vector loop), one and two
 /// sublattices, MnF2 (shared/references.md) tilted at random about its ground state; and the
 /// pass that keeps the large-tilt paths' inputs gives the lighter pass's bits exactly.
 #include <doctest/doctest.h>
