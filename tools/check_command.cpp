@@ -131,7 +131,7 @@ int report_magnets(const Scene& s, double f_lo, double f_hi, const std::array<bo
       const DampedMode* near = nullptr;
       for (const auto& m : modes)
         if (!near || std::abs(m.frequency - x) < std::abs(near->frequency - x)) near = &m;
-      if (near && near->decay > 0) fl += fmt::format(" (rings down by 1/e in {})", format_si(1.0 / near->decay, Kind::time));
+      if (near && near->decay > 0) fl += fmt::format(" (rings down by 1/e in {:.3g} s)", 1.0 / near->decay);
     }
     std::cout << "    resonances: " << (fl.empty() ? "none" : fl) << "\n";
     if (!f.empty())

@@ -134,3 +134,26 @@ TEST_CASE("terayee check: the evanescent field of total internal reflection agai
   out = run("");
   CHECK(out.find("totally reflected") == std::string::npos);
 }
+
+TEST_CASE("terayee check: a line's ring-down time, in a few digits, against the exchange-enhanced damping") {
+  // the MnF2 slab (damping 1e-3 on each sublattice, mu0 H_E = 55 T, g = 2): the antiferromagnetic
+  // mode's amplitude decays at about alpha gamma mu0 H_E (the exchange-enhanced damping of the
+  // linearised LLG for H_A << H_E; a standard result, quoted from memory), 1/e in 1.03e-10 s. The
+  // 0.3 T bias splits the two lines, one decaying a little faster, the other a little slower.
+  // It was printed with 17 digits ("1.0500000000000001e-10 s").
+  const std::string cmd =
+      std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/mnf2-slab.yaml' 2>&1";
+  std::string out;
+  FILE* p = popen(cmd.c_str(), "r");
+  REQUIRE(p);
+  std::array<char, 4096> buf{};
+  while (fgets(buf.data(), buf.size(), p)) out += buf.data();
+  REQUIRE(pclose(p) == 0);
+  const auto [t1, t2] = two(out, R"(rings down by 1/e in ([0-9.e+-]+) s\), [0-9.]+ GHz \(rings down by 1/e in ([0-9.e+-]+) s)");
+  const std::regex digits(R"(rings down by 1/e in [0-9]\.?[0-9]{0,2}e-[0-9]+ s)");
+  CHECK(std::regex_search(out, digits));
+  const double gamma = 2 * 2 * ty::constants::pi * 13.99624493e9;  // rad/(s T): g = 2 times muB/h (CODATA 2018)
+  const double expect = 1 / (1e-3 * gamma * 55.0);
+  MESSAGE("ring-down " << t1 << " s and " << t2 << " s; alpha gamma mu0 H_E gives " << expect << " s");
+  CHECK(2 / (1 / t1 + 1 / t2) == doctest::Approx(expect).epsilon(0.03));
+}
