@@ -20,6 +20,7 @@
 #include <vector>
 
 #include "io/analysis/negative_permeability.h"
+#include "io/scene/scene_reader.h"
 #include "solver/guard/growth_guard.h"
 #include "solver/simulation.h"
 #include "tests/helpers.h"
@@ -40,6 +41,12 @@ struct AbsorberCase {
   double damping = 1e-4;
   double step_fraction = 0.95;
   int trace = 0;  ///< samples a period of the tilt trace (absorber_trace.h); 0: no trace
+  /// a crystal of the library by name, cut `cut` (io/scene/crystals/; empty: the MnF2
+  /// model above), read as a scene's `crystal:` medium is; its lengths and times are the
+  /// MnF2 scene's times `scale` (absorber_crystals.h sets it from the crystal's band)
+  std::string crystal;
+  char cut = 'c';
+  double scale = 1;
 };
 
 struct AbsorberOutcome {
@@ -62,7 +69,9 @@ struct AbsorberOutcome {
 /// its words): the crystal ("a-cut", "c-cut" or "c-cut 0.2 T"), the body ("half-space",
 /// "plate", "half-space-turned", "plate-turned"), "pulse" or "cw", the carrier in GHz.
 inline std::string case_name(const AbsorberCase& c) {
-  const std::string crystal = !c.c_cut ? "a-cut" : c.bias == 0 ? "c-cut" : fmt::format("c-cut {:g} T", c.bias);
+  std::string crystal = !c.c_cut ? "a-cut" : c.bias == 0 ? "c-cut" : fmt::format("c-cut {:g} T", c.bias);
+  if (!c.crystal.empty())
+    crystal = fmt::format("{} {}-cut{}", c.crystal, c.cut, c.bias == 0 ? "" : fmt::format(" {:g} T", c.bias));
   return fmt::format("{} {}{} {} {:g}", crystal, c.plate ? "plate" : "half-space", c.turned ? "-turned" : "",
                      c.cw ? "cw" : "pulse", c.frequency / 1e9);
 }
@@ -99,8 +108,19 @@ inline std::array<double, 3> band_carriers(const AbsorberCase& c) {
   return {250e9, inside, 275e9};
 }
 
+/// The medium a scene's `media: {x: {crystal: NAME, cut: CUT}}` reads to (the library's
+/// values at their own temperature, its damping included).
+inline Medium library_medium(const std::string& name, char cut) {
+  const std::string text = fmt::format(
+      "grid: {{extent: [1 mm, 1 mm], cell: 50 um}}\ntime: {{stop: 1 ps}}\nmedia:\n  x: {{crystal: {}, cut: {}}}\n"
+      "sources:\n  - point: {{at: [0, 0], component: Ez, amplitude: 1 mA, frequency: 1 THz, waveform: {{kind: pulse, "
+      "fwhm: 1 ps}}}}\n",
+      name, cut);
+  return read_scene_text(text, "library-" + name).media.at(0);
+}
+
 inline Scene absorber_scene(const AbsorberCase& c) {
-  const double L = 2e-3;
+  const double L = 2e-3 * c.scale;
   const int n = static_cast<int>(std::lround(L / c.cell));
   Scene s = box_scene(n, n, c.cell, Boundary::absorbing, Boundary::absorbing, c.step_fraction, c.stop);
   s.grid.absorber.kind = c.kind;
@@ -118,13 +138,16 @@ inline Scene absorber_scene(const AbsorberCase& c) {
   }
   s.bias = {0, 0, c.bias};
   m.magnet = mag;
+  if (!c.crystal.empty()) m = library_medium(c.crystal, c.cut);
   s.media.push_back(m);
   Body b;
   b.shape.kind = Shape::Kind::rectangle;
-  b.shape.centre = c.plate ? at(0.5 * L, 1.0e-3) : at(0.5 * L, 1.0e-3 + 2 * L);
-  b.shape.size = c.plate ? at(10 * L, 0.6e-3) : at(10 * L, 4 * L);
+  const double k = c.scale;
+  b.shape.centre = c.plate ? at(0.5 * L, 1.0e-3 * k) : at(0.5 * L, 1.0e-3 * k + 2 * L);
+  b.shape.size = c.plate ? at(10 * L, 0.6e-3 * k) : at(10 * L, 4 * L);
   s.bodies.push_back(b);
-  Source src = point_source(Component::Ez, at(0.5 * L, c.plate ? 0.35e-3 : 0.5e-3), c.frequency, 20e-12, 40e-12, 1e-3);
+  Source src = point_source(Component::Ez, at(0.5 * L, (c.plate ? 0.35e-3 : 0.5e-3) * k), c.frequency, 20e-12 * k,
+                            40e-12 * k, 1e-3);
   if (c.cw) {
     src.waveform.kind = Waveform::Kind::cw;
     src.waveform.ramp = 20 / c.frequency;
@@ -182,7 +205,7 @@ inline AbsorberOutcome run_absorber_case(const AbsorberCase& c) {
   out.dt = sim.grid().dt;
   out.npx = sim.grid().npml_x;
   const long every = std::max(1L, sim.total_steps() / 100);
-  const long quiet = c.cw ? sim.total_steps() : static_cast<long>((40e-12 + 4 * 20e-12) / sim.grid().dt);
+  const long quiet = c.cw ? sim.total_steps() : static_cast<long>((40e-12 + 4 * 20e-12) * c.scale / sim.grid().dt);
   const long period = std::max(1L, static_cast<long>(std::lround(1 / (c.frequency * sim.grid().dt))));
   // the period average from 4 equally spaced samples: exact for the plain sum's swing at
   // twice the frequency (the scheme energy has none), at a quarter of a step's cost per step
