@@ -28,9 +28,10 @@ double mu_perp(double f) {
   return (mu * mu - kappa * kappa) / mu;
 }
 
-std::string check(const std::string& sets) {
-  const std::string cmd = std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR +
-                          "/tests/data/hexaferrite-voigt.yaml' " + sets + " 2>&1";
+/// `terayee check` on tests/data/NAME with the given --set options: what it printed (it must pass).
+std::string check_scene(const std::string& name, const std::string& sets = "") {
+  const std::string cmd = std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/" + name +
+                          "' " + sets + " 2>&1";
   std::string out;
   FILE* p = popen(cmd.c_str(), "r");
   REQUIRE(p);
@@ -39,6 +40,8 @@ std::string check(const std::string& sets) {
   REQUIRE(pclose(p) == 0);
   return out;
 }
+
+std::string check(const std::string& sets) { return check_scene("hexaferrite-voigt.yaml", sets); }
 
 /// The two numbers of the first match of `pattern` (two groups) in text.
 std::pair<double, double> two(const std::string& text, const std::string& pattern) {
@@ -87,16 +90,7 @@ TEST_CASE("terayee check: negative bands run to their ends, the Hz wave and the 
 
 TEST_CASE("terayee check: run-length and decay-length warnings only where a negative band is") {
   // MnF2 slab, damping 1e-3: no negative band at all, so no "band too narrow" warning (there were two)
-  const std::string mnf2 =
-      std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/mnf2-slab.yaml'";
-  std::string out;
-  {
-    FILE* p = popen((mnf2 + " 2>&1").c_str(), "r");
-    REQUIRE(p);
-    std::array<char, 4096> buf{};
-    while (fgets(buf.data(), buf.size(), p)) out += buf.data();
-    REQUIRE(pclose(p) == 0);
-  }
+  std::string out = check_scene("mnf2-slab.yaml");
   CHECK(out.find("run resolves") == std::string::npos);
   // the hexaferrite's band (6.9 GHz wide) in the source band: a 100 ps run resolves 10 GHz, too coarse
   const std::string band = "--set sources.0.plane.waveform.from='64 GHz' --set sources.0.plane.waveform.to='69 GHz'";
@@ -141,14 +135,7 @@ TEST_CASE("terayee check: a line's ring-down time, in a few digits, against the 
   // linearised LLG for H_A << H_E; a standard result, quoted from memory), 1/e in 1.03e-10 s. The
   // 0.3 T bias splits the two lines, one decaying a little faster, the other a little slower.
   // It was printed with 17 digits ("1.0500000000000001e-10 s").
-  const std::string cmd =
-      std::string(TERAYEE_BINARY) + " check '" + TERAYEE_SOURCE_DIR + "/tests/data/mnf2-slab.yaml' 2>&1";
-  std::string out;
-  FILE* p = popen(cmd.c_str(), "r");
-  REQUIRE(p);
-  std::array<char, 4096> buf{};
-  while (fgets(buf.data(), buf.size(), p)) out += buf.data();
-  REQUIRE(pclose(p) == 0);
+  const std::string out = check_scene("mnf2-slab.yaml");
   const auto [t1, t2] = two(out, R"(rings down by 1/e in ([0-9.e+-]+) s\), [0-9.]+ GHz \(rings down by 1/e in ([0-9.e+-]+) s)");
   const std::regex digits(R"(rings down by 1/e in [0-9]\.?[0-9]{0,2}e-[0-9]+ s)");
   CHECK(std::regex_search(out, digits));
