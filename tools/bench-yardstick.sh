@@ -23,8 +23,18 @@ if [ -z "$yard" ]; then
 fi
 # the value after KEY= on the last line that has it (terayee: cell_updates_per_s=, in cells/s;
 # the yardstick: mcells_per_s=, in Mcell/s), and bench's "N.NNx the cost" figure
-value() { grep -o "$1=[0-9.e+-]*" | tail -n 1 | cut -d= -f2; }
-cost() { grep -o '[0-9.]*x the cost' | head -n 1 | cut -dx -f1; }
+value() {
+  local v
+  v=$(grep -o "$1=[0-9.e+-]*" | tail -n 1 | cut -d= -f2) || true
+  [ -n "$v" ] || { echo "bench-yardstick: no $1= in the output" >&2; exit 1; }
+  echo "$v"
+}
+cost() {
+  local v
+  v=$(grep -o '[0-9.]*x the cost' | head -n 1 | cut -dx -f1) || true
+  [ -n "$v" ] || { echo "bench-yardstick: no 'x the cost' in bench's output" >&2; exit 1; }
+  echo "$v"
+}
 median() { sort -g | awk '{ v[NR] = $1 } END { print (NR % 2 ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2) }'; }
 bench() { "$bin" bench --size "$1" --threads "$threads" --seconds 0.5 "${@:2}"; }
 for n in $sizes; do
@@ -38,7 +48,9 @@ for n in $sizes; do
     awk -v y="$y" -v o="$one" -v b="$blk" -v m="$mag" -v t="$tlt" 'BEGIN {
       printf "round %d: yardstick %.0f, one-pass %.0f, blocked %.0f (%.2fx the yardstick), magnetic %.2fx, tilted %.2fx\n",
              '"$r"', y, o / 1e6, b / 1e6, b / 1e6 / y, m, t
-      printf "%.4f %s %s\n", b / 1e6 / y, m, t > "/dev/stderr" }' 2>>"$work/rounds-$n"
+    }'
+    awk -v y="$y" -v b="$blk" -v m="$mag" -v t="$tlt" 'BEGIN { printf "%.4f %s %s\n", b / 1e6 / y, m, t }' \
+      >> "$work/rounds-$n"
   done
   col() { awk -v k="$1" '{ print $k }' "$work/rounds-$n" | median; }
   echo "median: blocked / yardstick $(col 1)x (target >= 2.0), magnetic $(col 2)x (<= 2.5), tilted $(col 3)x (<= 10)"

@@ -85,9 +85,9 @@ inline double linear_run(const LinearStep& p, const RunInput<R>& in, long len, c
     return t;
   };
   // one vector loop over the whole run, its end cells taking the neighbours beside it by a
-  // select. (It began at the first cell whose state starts a 64-byte line, with the cells
-  // before it and the two end cells peeled off as scalar code: up to 17 scalar cells a row,
-  // some 725 ns a row; one loop is 1.2x faster at 64² and 1.1x at 256², docs/performance.md.)
+  // select. (It began at the first cell whose state starts a 64-byte line, the cells before
+  // it and the two end cells peeled off: with the loop's tail up to 16 scalar cells a row,
+  // most of 725 ns a row; one loop is 1.2x faster at 64², 1.1x at 256², docs/performance.md.)
   double worst = 0;
   const double left = in.left, right = in.right;
   const long last = len - 1;

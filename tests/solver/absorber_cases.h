@@ -9,7 +9,10 @@
 /// - c-cut with a bias along z: the Polder tensor (mu, i kappa) in the plane, gyrotropic, its
 ///   line split in two and the band of mu_V = (mu^2 - kappa^2) / mu < 0 moved with it
 ///   (io/analysis/negative_permeability.h finds it).
+/// Or any crystal of the library by name (AbsorberCase::crystal, test_absorber_crystals.cpp),
+/// the scene scaled to its band.
 #pragma once
+#include <doctest/doctest.h>
 #include <fmt/format.h>
 
 #include <algorithm>
@@ -42,8 +45,10 @@ struct AbsorberCase {
   double step_fraction = 0.95;
   int trace = 0;  ///< samples a period of the tilt trace (absorber_trace.h); 0: no trace
   /// a crystal of the library by name, cut `cut` (io/scene/crystals/; empty: the MnF2
-  /// model above), read as a scene's `crystal:` medium is; its lengths and times are the
-  /// MnF2 scene's times `scale` (absorber_crystals.h sets it from the crystal's band)
+  /// model above), read as a scene's `crystal:` medium is (its own damping; c_cut, turned and
+  /// damping do not apply); its lengths and times are the MnF2 scene's times `scale`, and so
+  /// is the line current, whose field goes as its frequency times its current
+  /// (test_absorber_crystals.cpp sets it from the crystal's band)
   std::string crystal;
   char cut = 'c';
   double scale = 1;
@@ -97,6 +102,7 @@ inline Scene absorber_scene(const AbsorberCase& c);
 /// with a bias, the centre of the widest band in which the Ez wave is evanescent at normal
 /// incidence on either face (io/analysis/negative_permeability.h).
 inline std::array<double, 3> band_carriers(const AbsorberCase& c) {
+  REQUIRE(c.crystal.empty());  // the MnF2 model's carriers (a library crystal's: test_absorber_crystals.cpp)
   double inside = 262.5e9;
   if (c.bias != 0) {
     const Scene s = absorber_scene(c);
@@ -138,7 +144,10 @@ inline Scene absorber_scene(const AbsorberCase& c) {
   }
   s.bias = {0, 0, c.bias};
   m.magnet = mag;
-  if (!c.crystal.empty()) m = library_medium(c.crystal, c.cut);
+  if (!c.crystal.empty()) {
+    REQUIRE(!c.turned);  // the positions would turn, the library crystal's axes not
+    m = library_medium(c.crystal, c.cut);
+  }
   s.media.push_back(m);
   Body b;
   b.shape.kind = Shape::Kind::rectangle;
@@ -147,7 +156,7 @@ inline Scene absorber_scene(const AbsorberCase& c) {
   b.shape.size = c.plate ? at(10 * L, 0.6e-3 * k) : at(10 * L, 4 * L);
   s.bodies.push_back(b);
   Source src = point_source(Component::Ez, at(0.5 * L, (c.plate ? 0.35e-3 : 0.5e-3) * k), c.frequency, 20e-12 * k,
-                            40e-12 * k, 1e-3);
+                            40e-12 * k, 1e-3 * k);
   if (c.cw) {
     src.waveform.kind = Waveform::Kind::cw;
     src.waveform.ramp = 20 / c.frequency;

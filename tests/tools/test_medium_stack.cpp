@@ -11,6 +11,7 @@
 /// each; and scenes that are not stacks refused with exit status 2, naming each body.
 #include <doctest/doctest.h>
 
+#include <cmath>
 #include <complex>
 #include <filesystem>
 #include <fstream>
@@ -158,7 +159,7 @@ TEST_CASE("medium --stack: the Otto bench's total internal reflection, its frust
   REQUIRE(c["frequency_Hz"].size() == 11);
   for (size_t k = 0; k < 11; ++k) {
     CHECK(c["reflectance"][k] == doctest::Approx(1).epsilon(1e-12));
-    CHECK(c["transmittance"][k] == doctest::Approx(0).epsilon(1e-12));
+    CHECK(std::abs(c["transmittance"][k]) < 1e-12);
   }
   // turned to silicon: the 30 um gap between two silicon half-spaces (frustrated total reflection)
   out = medium_stack(scene, "--set bodies.2.medium=silicon --count 11", csv);
