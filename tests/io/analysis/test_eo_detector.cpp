@@ -48,7 +48,7 @@ TEST_CASE("EO detector: the response tends to 1 at low frequency and chi2 vanish
     CHECK(std::abs(std::abs(eo_response(c, 1e9, 1e-3)) - 1.0) < 1e-3);
     CHECK(std::abs(eo_response(c, 1e6, 1e-3) - 1.0) < 1e-5);
     const double half_dkL = pi * 1e9 / c0 * (std::sqrt(c.eps_static) - c.group_index) * 1e-3;
-    CHECK(std::arg(eo_response(c, 1e9, 1e-3)) == doctest::Approx(half_dkL).epsilon(1e-2));
+    CHECK(std::arg(eo_response(c, 1e9, 1e-3)) == doctest::Approx(half_dkL).epsilon(1e-2).scale(0));
     c.gamma = 0;
     const double f0 = c.f_to * std::sqrt(1 + c.faust_henry);
     INFO(name << ": chi2's zero at " << f0 / 1e12 << " THz");

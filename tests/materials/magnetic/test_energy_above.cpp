@@ -21,7 +21,7 @@ TEST_CASE("magnet energy above the ground state: a tilted sublattice of MnF2, la
     const std::array<Vec3, 2> m{Vec3(std::sin(theta), 0, std::cos(theta)), -Vec3::UnitZ()};
     const double s = std::sin(theta), one_minus_cos = 2 * std::pow(std::sin(theta / 2), 2);
     const double exact = mm.lambda * mm.mu[0] * mm.mu[1] * one_minus_cos + 0.5 * mm.mu[0] * mm.b_a[0] * s * s;
-    CHECK(energy_above(mm, g, m) == doctest::Approx(exact).epsilon(1e-9));
+    CHECK(energy_above(mm, g, m) == doctest::Approx(exact).epsilon(1e-9).scale(0));
     if (theta < 1e-8) CHECK(std::abs(mm.energy(m) - mm.energy(g) - exact) > 0.1 * exact);  // why: rounding
   }
 }
