@@ -26,7 +26,7 @@
 #include "io/scene/crystals/crystal_table.h"
 #include "materials/magnetic/ground_state.h"
 #include "materials/magnetic/linear_response.h"
-#include "tests/solver/absorber_cases.h"
+#include "tests/solver/absorber_checks.h"
 
 using namespace ty;
 using test::AbsorberCase;
@@ -83,15 +83,10 @@ TEST_CASE("absorbers: every crystal of the library, in its band, never gains ene
     for (bool plate : {false, true}) {
       // the half-space for 4 ns (the PML's growth shows there, above), the plate for 0.6 ns
       c.plate = plate, c.stop = (plate ? 0.6e-9 : 4e-9) * c.scale;
-      const test::AbsorberOutcome o = test::run_absorber_case(c);
-      MESSAGE(fmt::format("{} ({:.4g}-{:.4g} GHz): energy rise after the pulse {:.2e}, tilt in absorber {:.2e} rad, "
-                          "interior {:.2e} rad, energy end/injected {:.3g}, {} steps{}",
-                          test::case_name(c), band.from, band.to, o.rise, o.tilt_in, o.tilt_out,
-                          o.energy_end / o.injected, o.steps, o.guard.empty() ? "" : "; guard: " + o.guard));
-      CHECK(o.guard.empty());
-      CHECK(o.rise < 1e-9);  // room for the rounding of the sums, as in test_absorber_stability.cpp
-      CHECK(o.tilt_in <= o.tilt_out);
-      CHECK(o.energy_end < o.injected);
+      INFO(fmt::format("band {:.4g}-{:.4g} GHz", band.from, band.to));
+      // the verdict of the MnF2 cases (absorber_checks.h): guard quiet, no rise after the
+      // pulse, the layer's tilt not above the interior's, less energy than injected
+      const test::AbsorberOutcome o = test::check_quiet(c);
       CHECK(o.tilt_out > 0);  // the pulse reached the crystal
       ++ran;
     }
