@@ -20,6 +20,7 @@
 #include <iterator>
 #include <sstream>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "io/analysis/negative_permeability.h"
@@ -101,17 +102,27 @@ inline Scene absorber_scene(const AbsorberCase& c);
 /// 262.5 GHz (mu_perp < 0 on 261.44-263.10 GHz without a bias, shared/references.md) or,
 /// with a bias, the centre of the widest band in which the Ez wave is evanescent at normal
 /// incidence on either face (io/analysis/negative_permeability.h).
+inline std::pair<double, double> widest_ez_band(const Scene& s, double f0, double f1);
+
 inline std::array<double, 3> band_carriers(const AbsorberCase& c) {
   REQUIRE(c.crystal.empty());  // the MnF2 model's carriers (a library crystal's: test_absorber_crystals.cpp)
   double inside = 262.5e9;
   if (c.bias != 0) {
-    const Scene s = absorber_scene(c);
-    double widest = 0;
-    for (int normal : {0, 1})
-      for (const auto& [f0, f1] : negative_mu_bands(s, 240e9, 285e9, normal))
-        if (f1 - f0 > widest) widest = f1 - f0, inside = 0.5 * (f0 + f1) * 1e9;  // bands in GHz
+    const auto [from, to] = widest_ez_band(absorber_scene(c), 240e9, 285e9);
+    if (to > from) inside = 0.5 * (from + to) * 1e9;  // bands in GHz
   }
   return {250e9, inside, 275e9};
+}
+
+/// The widest band (GHz; from = to = 0 if none) within [f0, f1] (Hz) in which the Ez wave of
+/// the scene's magnets is evanescent at normal incidence on a face normal to x or to y
+/// (io/analysis/negative_permeability.h).
+inline std::pair<double, double> widest_ez_band(const Scene& s, double f0, double f1) {
+  std::pair<double, double> widest{0, 0};
+  for (int normal : {0, 1})
+    for (const auto& band : negative_mu_bands(s, f0, f1, normal))
+      if (band.second - band.first > widest.second - widest.first) widest = band;
+  return widest;
 }
 
 /// The medium a scene's `media: {x: {crystal: NAME, cut: CUT}}` reads to (the library's
